@@ -1,0 +1,126 @@
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import type session from 'express-session';
+import { createPassport } from './auth/passport';
+import { createSessionStore, sessionMiddleware } from './auth/session';
+import type { AppConfig } from './config/env';
+import type { AppContext } from './context';
+import type { AppDataSource } from './db/data-source';
+import { AppError } from './lib/errors';
+import type { Logger } from './lib/logger';
+import { sessionPolicy } from './middleware/auth';
+import { errorHandler } from './middleware/error-handler';
+import { sameOrigin } from './middleware/same-origin';
+import { requireJsonBody } from './middleware/validate';
+import { authRouter } from './modules/auth/auth.router';
+import { healthRouter } from './modules/health/health.router';
+import { invitationsRouter } from './modules/invitations/invitations.router';
+import { mailboxRouter } from './modules/mailbox/mailbox.router';
+import { usersRouter } from './modules/users/users.router';
+
+export type CreateAppOptions = {
+  config: AppConfig;
+  ds: AppDataSource;
+  logger: Logger;
+  databaseUrl: string;
+  /** Where the built client lives; served when it exists. */
+  clientDir?: string;
+};
+
+export type App = Express & { close: () => Promise<void>; sessionStore: session.Store };
+
+export function createApp(opts: CreateAppOptions): App {
+  const { config, ds, logger } = opts;
+  const app = express() as App;
+  const base = config.publicUrl ?? `http://${config.host}:${config.port}`;
+  const ctx: AppContext = { config, ds, logger, publicUrl: (p) => new URL(p, base).toString() };
+
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.trustProxy ? 1 : false);
+  app.set('query parser', 'simple');
+
+  app.use(
+    pinoHttp({
+      logger,
+      genReqId: (_req, res) => {
+        const id = crypto.randomUUID();
+        res.setHeader('X-Request-Id', id);
+        return id;
+      },
+      autoLogging: config.env !== 'test',
+      serializers: { req: (req) => ({ id: req.id, method: req.method, url: req.url }) },
+    }),
+  );
+
+  // Only our own origin: scripts, styles, fonts and images all ship with the app.
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'"],
+          fontSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+          ...(config.publicUrl?.startsWith('https://') ? { upgradeInsecureRequests: [] } : {}),
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+      referrerPolicy: { policy: 'same-origin' },
+      strictTransportSecurity: config.publicUrl?.startsWith('https://') ? undefined : false,
+    }),
+  );
+
+  const sessionStore = createSessionStore(opts.databaseUrl);
+  const pp = createPassport(ds);
+  const api = express.Router();
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  api.use(sameOrigin(config.publicUrl));
+  api.use(requireJsonBody);
+  api.use(express.json({ limit: '256kb', strict: true }));
+  api.use('/health', healthRouter(ctx));
+  api.use(sessionMiddleware(config, sessionStore));
+  api.use(pp.initialize());
+  api.use(pp.session());
+  api.use(sessionPolicy({ demoMode: config.mode === 'demo' }));
+  api.use('/auth', authRouter(ctx, pp));
+  api.use('/invitations', invitationsRouter(ctx));
+  api.use('/users', usersRouter(ctx));
+  if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
+  api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));
+  app.use('/api', api);
+
+  const clientDir = opts.clientDir;
+  if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(
+      '/assets',
+      express.static(path.join(clientDir, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }),
+    );
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    const indexHtml = fs.readFileSync(path.join(clientDir, 'index.html'));
+    app.get(/^(?!\/api\/).*/, (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.type('html').send(indexHtml);
+    });
+  }
+
+  app.use(errorHandler);
+  app.sessionStore = sessionStore;
+  app.close = async () => {
+    await (sessionStore as unknown as { close(): Promise<void> }).close();
+  };
+  return app;
+}

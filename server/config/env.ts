@@ -1,0 +1,112 @@
+import path from 'node:path';
+import { z } from 'zod';
+
+// The only place that reads process.env. Everything else receives a typed AppConfig.
+const bool = z
+  .enum(['true', 'false', '1', '0', 'yes', 'no'])
+  .transform((v) => v === 'true' || v === '1' || v === 'yes');
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  APP_MODE: z.enum(['demo', 'production']).optional(),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  PUBLIC_URL: z.url().optional(),
+  DATABASE_URL: z.string().optional(),
+  DB_PORT: z.coerce.number().int().min(1).max(65535).default(3307),
+  SESSION_SECRET: z.string().min(32).optional(),
+  TRUST_PROXY: bool.default(false),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  SMTP_SECURE: bool.default(false),
+  MAIL_FROM: z.string().default('Lumenproof <no-reply@lumenproof.test>'),
+  MAILBOX_DIR: z.string().optional(),
+  DATA_DIR: z.string().default('.data'),
+  STORAGE_DRIVER: z.enum(['disk', 's3']).default('disk'),
+  STORAGE_DIR: z.string().optional(),
+  S3_ENDPOINT: z.string().optional(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_BUCKET: z.string().optional(),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  OUTBOX_WORKER: bool.default(true),
+});
+
+export type AppConfig = {
+  env: 'development' | 'test' | 'production';
+  mode: 'demo' | 'production';
+  host: string;
+  port: number;
+  publicUrl: string | undefined;
+  databaseUrl: string | undefined;
+  dbPort: number;
+  sessionSecret: string;
+  trustProxy: boolean;
+  smtp: { host: string; port: number; user?: string; password?: string; secure: boolean; from: string };
+  mailboxDir: string;
+  dataDir: string;
+  storage: {
+    driver: 'disk' | 's3';
+    dir: string;
+    s3: { endpoint?: string; region: string; bucket?: string; accessKeyId?: string; secretAccessKey?: string };
+  };
+  logLevel: string;
+  outboxWorker: boolean;
+};
+
+export class ConfigError extends Error {}
+
+export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
+  const parsed = envSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new ConfigError(`Invalid environment:\n${lines.join('\n')}`);
+  }
+  const e = parsed.data;
+  const mode = e.APP_MODE ?? (e.NODE_ENV === 'production' ? 'production' : 'demo');
+  if (e.NODE_ENV === 'production' && !e.SESSION_SECRET) {
+    throw new ConfigError('SESSION_SECRET (32 characters or more) is required in production.');
+  }
+  if (e.STORAGE_DRIVER === 's3' && !e.S3_BUCKET) {
+    throw new ConfigError('S3_BUCKET is required when STORAGE_DRIVER=s3.');
+  }
+  const dataDir = path.resolve(e.DATA_DIR);
+  return {
+    env: e.NODE_ENV,
+    mode,
+    host: e.HOST,
+    port: e.PORT,
+    publicUrl: e.PUBLIC_URL,
+    databaseUrl: e.DATABASE_URL,
+    dbPort: e.DB_PORT,
+    // Outside production a fixed development secret keeps sessions across restarts of the demo.
+    sessionSecret: e.SESSION_SECRET ?? 'lumenproof-development-secret-not-for-production',
+    trustProxy: e.TRUST_PROXY,
+    smtp: {
+      host: e.SMTP_HOST,
+      port: e.SMTP_PORT,
+      user: e.SMTP_USER,
+      password: e.SMTP_PASSWORD,
+      secure: e.SMTP_SECURE,
+      from: e.MAIL_FROM,
+    },
+    mailboxDir: path.resolve(e.MAILBOX_DIR ?? path.join(dataDir, 'mailbox')),
+    dataDir,
+    storage: {
+      driver: e.STORAGE_DRIVER,
+      dir: path.resolve(e.STORAGE_DIR ?? path.join(dataDir, 'uploads')),
+      s3: {
+        endpoint: e.S3_ENDPOINT,
+        region: e.S3_REGION,
+        bucket: e.S3_BUCKET,
+        accessKeyId: e.S3_ACCESS_KEY_ID,
+        secretAccessKey: e.S3_SECRET_ACCESS_KEY,
+      },
+    },
+    logLevel: e.LOG_LEVEL,
+    outboxWorker: e.OUTBOX_WORKER,
+  };
+}

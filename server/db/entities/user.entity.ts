@@ -1,0 +1,56 @@
+import {
+  Column,
+  CreateDateColumn,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  PrimaryGeneratedColumn,
+  UpdateDateColumn,
+  VersionColumn,
+  type Relation,
+} from 'typeorm';
+import type { Role, UserStatus } from '../../../shared/roles';
+import { Organization } from './organization.entity';
+
+@Entity({ name: 'users' })
+@Index('ix_users_org_name', ['organizationId', 'name'])
+export class User {
+  @PrimaryGeneratedColumn('uuid')
+  id: string;
+
+  @Column({ type: 'uuid', name: 'organization_id' })
+  organizationId: string;
+
+  @ManyToOne(() => Organization, { onDelete: 'RESTRICT' })
+  @JoinColumn({ name: 'organization_id' })
+  organization: Relation<Organization>;
+
+  @Index('uq_users_email', { unique: true })
+  @Column({ type: 'varchar', length: 254 })
+  email: string;
+
+  @Column({ type: 'varchar', length: 160 })
+  name: string;
+
+  @Column({ type: 'varchar', length: 255, name: 'password_hash', nullable: true })
+  passwordHash: string | null;
+
+  @Column({ type: 'simple-array', name: 'roles' })
+  roles: Role[];
+
+  @Column({ type: 'enum', enum: ['invited', 'active', 'disabled'], default: 'active' })
+  status: UserStatus;
+
+  @Column({ type: 'datetime', precision: 3, name: 'last_sign_in_at', nullable: true })
+  lastSignInAt: Date | null;
+
+  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  createdAt: Date;
+
+  @UpdateDateColumn({ type: 'datetime', precision: 3, name: 'updated_at' })
+  updatedAt: Date;
+
+  @VersionColumn({ type: 'int', name: 'version' })
+  version: number;
+}

@@ -1,0 +1,38 @@
+import type { AppDataSource } from '../data-source';
+import { hashPassword } from '../../auth/passwords';
+import { Organization } from '../entities/organization.entity';
+import { User } from '../entities/user.entity';
+import { recordAudit } from '../../lib/audit';
+import { DEMO_ACCOUNTS, DEMO_ORGANIZATIONS, DEMO_PASSWORD } from './demo-accounts';
+
+/** Loads the fictional demo scenario into an empty database. Returns false when there was data already. */
+export async function seedDemo(ds: AppDataSource): Promise<boolean> {
+  if ((await ds.getRepository(Organization).count()) > 0) return false;
+  const hashes = await Promise.all(DEMO_ACCOUNTS.map(() => hashPassword(DEMO_PASSWORD)));
+  await ds.transaction(async (m) => {
+    const orgs = new Map<string, Organization>();
+    for (const o of DEMO_ORGANIZATIONS) {
+      const org = m.create(Organization, { name: o.name, kind: o.kind });
+      await m.save(org);
+      orgs.set(o.key, org);
+    }
+    for (const [i, a] of DEMO_ACCOUNTS.entries()) {
+      const org = orgs.get(a.org)!;
+      const user = m.create(User, {
+        organizationId: org.id,
+        email: a.email,
+        name: a.name,
+        roles: a.roles,
+        status: 'active',
+        passwordHash: hashes[i],
+      });
+      await m.save(user);
+      await recordAudit(
+        m,
+        { userId: null, organizationId: org.id },
+        { action: 'user.created', entityType: 'User', entityId: user.id, after: { email: a.email, roles: a.roles, source: 'demo' } },
+      );
+    }
+  });
+  return true;
+}

@@ -1,0 +1,56 @@
+import path from 'node:path';
+import type { Server } from 'node:http';
+import { createApp } from './app';
+import { loadConfig, type AppConfig } from './config/env';
+import { createDataSource } from './db/data-source';
+import { createLogger } from './lib/logger';
+import { startOutboxWorker } from './lib/outbox';
+
+export async function startServer(config: AppConfig, databaseUrl: string) {
+  const logger = createLogger(config.logLevel);
+  const ds = createDataSource(databaseUrl);
+  await ds.initialize();
+  const pending = await ds.showMigrations();
+  if (pending) throw new Error('The database has migrations still to run: run `npm run migrate` (npm start does it).');
+  const app = createApp({ config, ds, logger, databaseUrl, clientDir: path.resolve('dist') });
+  const worker = config.outboxWorker ? startOutboxWorker(ds, config, logger) : null;
+
+  const server: Server = await new Promise((resolve, reject) => {
+    // Express 5 passes the listen error (EADDRINUSE and the like) to the callback.
+    const s = app.listen(config.port, config.host, (err?: Error) => (err ? reject(err) : resolve(s)));
+  });
+  const address = server.address();
+  const port = typeof address === 'object' && address ? address.port : config.port;
+  logger.info({ port }, 'Lumenproof listening');
+
+  return {
+    port,
+    url: `http://${config.host}:${port}`,
+    async stop() {
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeAllConnections?.();
+      await worker?.stop();
+      await app.close();
+      await ds.destroy();
+    },
+  };
+}
+
+// Run directly (production): DATABASE_URL must point at a migrated database.
+if (import.meta.url === `file://${process.argv[1]}`) {
+  const config = loadConfig();
+  if (!config.databaseUrl) {
+    console.error('DATABASE_URL is required to run server/index.ts directly; `npm start` manages a local database.');
+    process.exit(2);
+  }
+  startServer(config, config.databaseUrl)
+    .then((srv) => {
+      const stop = () => srv.stop().then(() => process.exit(0));
+      process.on('SIGINT', stop);
+      process.on('SIGTERM', stop);
+    })
+    .catch((err) => {
+      console.error(err instanceof Error ? err.message : err);
+      process.exit(1);
+    });
+}

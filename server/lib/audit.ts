@@ -1,0 +1,39 @@
+import type { EntityManager } from 'typeorm';
+import { AuditEvent } from '../db/entities/audit-event.entity';
+import { clock } from './clock';
+
+export type Actor = { userId: string | null; organizationId: string | null; requestId?: string | null };
+
+/** Writes one audit row with the caller's transaction manager, so it commits or rolls back with the change. */
+export async function recordAudit(
+  manager: EntityManager,
+  actor: Actor,
+  event: {
+    action: string;
+    entityType: string;
+    entityId: string;
+    organizationId?: string | null;
+    before?: Record<string, unknown> | null;
+    after?: Record<string, unknown> | null;
+  },
+) {
+  await manager.insert(AuditEvent, {
+    occurredAt: clock.now(),
+    actorUserId: actor.userId,
+    organizationId: event.organizationId ?? actor.organizationId,
+    action: event.action,
+    entityType: event.entityType,
+    entityId: event.entityId,
+    before: (event.before ?? null) as never,
+    after: (event.after ?? null) as never,
+    requestId: actor.requestId ?? null,
+  });
+}
+
+export function actorFromRequest(req: { user?: { id: string; organizationId: string }; id?: unknown }): Actor {
+  return {
+    userId: req.user?.id ?? null,
+    organizationId: req.user?.organizationId ?? null,
+    requestId: req.id ? String(req.id) : null,
+  };
+}

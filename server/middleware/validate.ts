@@ -1,0 +1,34 @@
+import type { Request, RequestHandler } from 'express';
+import type { z } from 'zod';
+import { AppError } from '../lib/errors';
+
+// The strict schemas live in shared/ so that the forms use the very same rules.
+
+export function zodDetails(error: z.ZodError) {
+  return error.issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));
+}
+
+export function parseWith<S extends z.ZodType>(schema: S, value: unknown, what = 'request'): z.infer<S> {
+  const result = schema.safeParse(value);
+  if (!result.success) {
+    throw new AppError(400, 'validation.failed', `The ${what} has invalid fields.`, zodDetails(result.error));
+  }
+  return result.data;
+}
+
+export function parseBody<S extends z.ZodType>(schema: S, req: Request): z.infer<S> {
+  return parseWith(schema, req.body ?? {}, 'request body');
+}
+
+export function parseQuery<S extends z.ZodType>(schema: S, req: Request): z.infer<S> {
+  return parseWith(schema, req.query ?? {}, 'query');
+}
+
+/** JSON bodies only on JSON routes: a body of any other type is a 415. */
+export const requireJsonBody: RequestHandler = (req, _res, next) => {
+  const hasBody = Number(req.get('content-length') ?? 0) > 0 || req.get('transfer-encoding') !== undefined;
+  if (hasBody && !req.is('application/json')) {
+    return next(new AppError(415, 'request.unsupported_media_type', 'Send the body as application/json.'));
+  }
+  next();
+};

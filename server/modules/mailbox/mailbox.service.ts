@@ -1,0 +1,41 @@
+import fs from 'node:fs/promises';
+import path from 'node:path';
+import { simpleParser } from 'mailparser';
+
+export type MailboxMessage = {
+  id: string;
+  receivedAt: string;
+  from: string;
+  to: string[];
+  subject: string;
+  text: string;
+  html: string | null;
+  attachments: { filename: string; contentType: string; size: number }[];
+};
+
+// Reads what the local fake SMTP server (scripts/fake-smtp.ts) stored: one .eml file per message.
+export async function readMailbox(dir: string, limit = 200): Promise<MailboxMessage[]> {
+  let files: string[];
+  try {
+    files = (await fs.readdir(dir)).filter((f) => f.endsWith('.eml'));
+  } catch {
+    return [];
+  }
+  files.sort().reverse();
+  const out: MailboxMessage[] = [];
+  for (const file of files.slice(0, limit)) {
+    const parsed = await simpleParser(await fs.readFile(path.join(dir, file)));
+    const toField = Array.isArray(parsed.to) ? parsed.to : parsed.to ? [parsed.to] : [];
+    out.push({
+      id: file.replace(/\.eml$/, ''),
+      receivedAt: (parsed.date ?? new Date(0)).toISOString(),
+      from: parsed.from?.text ?? '',
+      to: toField.flatMap((a) => a.value.map((v) => (v.address ?? '').toLowerCase())),
+      subject: parsed.subject ?? '',
+      text: parsed.text ?? '',
+      html: typeof parsed.html === 'string' ? parsed.html : null,
+      attachments: parsed.attachments.map((a) => ({ filename: a.filename ?? 'attachment', contentType: a.contentType, size: a.size })),
+    });
+  }
+  return out;
+}

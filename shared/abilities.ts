@@ -1,0 +1,92 @@
+import { AbilityBuilder, createMongoAbility, type MongoAbility } from '@casl/ability';
+import type { OrganizationKind, Role } from './roles';
+
+// Who may do what, defined once for the server (which checks after loading each record) and the client
+// (which only hides what a user cannot do). Deny by default; every rule is scoped to the user's organisation
+// or to the records that tie the two organisations of a claim.
+
+export type Action =
+  | 'manage'
+  | 'read'
+  | 'create'
+  | 'update'
+  | 'delete'
+  | 'invite'
+  | 'disable'
+  | 'file'
+  | 'review'
+  | 'decide'
+  | 'credit'
+  | 'export';
+
+export type SubjectName =
+  | 'Organization'
+  | 'User'
+  | 'ProductModel'
+  | 'WarrantyPolicy'
+  | 'Installation'
+  | 'Claim'
+  | 'CreditMemo'
+  | 'AuditEvent'
+  | 'Mailbox'
+  | 'Evaluation'
+  | 'all';
+
+export type AbilityUser = {
+  id: string;
+  roles: readonly Role[];
+  organization: { id: string; kind: OrganizationKind };
+};
+
+export type AppAbility = MongoAbility<[Action, SubjectName | Record<string, unknown>]>;
+
+export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: boolean } = {}): AppAbility {
+  const { can, cannot, build } = new AbilityBuilder<AppAbility>(createMongoAbility);
+  if (!user) return build();
+
+  const orgId = user.organization.id;
+  const kind = user.organization.kind;
+  const has = (role: Role) => user.roles.includes(role);
+
+  // Everyone signed in: their own organisation and profile, the engine, and the public catalogues.
+  can('read', 'Organization', { id: orgId });
+  can('read', 'User', { id: user.id });
+  can('read', 'Evaluation');
+  can('create', 'Evaluation');
+  can('read', 'ProductModel');
+  can('read', 'WarrantyPolicy');
+
+  if (has('administrator')) {
+    can('read', 'User', { organizationId: orgId });
+    can(['invite', 'update', 'disable'], 'User', { organizationId: orgId });
+    cannot(['disable'], 'User', { id: user.id }); // an administrator cannot lock themself out
+    can('read', 'AuditEvent', { organizationId: orgId });
+    if (opts.demoMode) can('read', 'Mailbox');
+    if (kind === 'manufacturer') {
+      can(['create', 'update'], 'ProductModel', { manufacturerId: orgId });
+      can(['create', 'update'], 'WarrantyPolicy', { manufacturerId: orgId });
+    }
+  }
+
+  if (kind === 'contractor') {
+    can('read', 'Installation', { contractorId: orgId });
+    can('read', 'Claim', { contractorId: orgId });
+    can('read', 'CreditMemo', { contractorId: orgId });
+    if (has('installer') || has('administrator')) {
+      can(['create', 'update'], 'Installation', { contractorId: orgId });
+      can(['create', 'update', 'file', 'delete'], 'Claim', { contractorId: orgId });
+    }
+  }
+
+  if (kind === 'manufacturer') {
+    can('read', 'Installation', { manufacturerId: orgId });
+    can('read', 'Claim', { manufacturerId: orgId, stage: { $ne: 'draft' } });
+    if (has('reviewer')) can(['review', 'decide'], 'Claim', { manufacturerId: orgId });
+    if (has('accountant')) {
+      can('credit', 'Claim', { manufacturerId: orgId });
+      can(['read', 'create', 'export'], 'CreditMemo', { manufacturerId: orgId });
+    }
+  }
+
+  return build();
+}

@@ -1,0 +1,58 @@
+import { z } from 'zod';
+import { ROLES, USER_STATUSES } from '../roles';
+import { emailSchema } from './auth';
+
+const rolesSchema = z
+  .array(z.enum(ROLES, { error: 'Pick a known role.' }))
+  .min(1, 'Give the user at least one role.')
+  .max(ROLES.length)
+  .refine((r) => new Set(r).size === r.length, 'Each role once.');
+
+export const inviteUserSchema = z.strictObject({
+  email: emailSchema,
+  name: z.string().trim().min(1, 'Enter a name.').max(160, 'At most 160 characters.'),
+  roles: rolesSchema,
+});
+export type InviteUserInput = z.infer<typeof inviteUserSchema>;
+
+export const updateUserSchema = z
+  .strictObject({
+    name: z.string().trim().min(1, 'Enter a name.').max(160).optional(),
+    roles: rolesSchema.optional(),
+    status: z.enum(['active', 'disabled']).optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, 'Nothing to change.');
+export type UpdateUserInput = z.infer<typeof updateUserSchema>;
+
+export const listQuerySchema = z.strictObject({
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+  sort: z.string().max(40).optional(),
+  q: z.string().trim().max(120).optional(),
+});
+
+export const userListQuerySchema = listQuerySchema.extend({
+  status: z.enum(USER_STATUSES).optional(),
+  sort: z.enum(['name', '-name', 'email', '-email', 'createdAt', '-createdAt']).default('name'),
+});
+export type UserListQuery = z.infer<typeof userListQuerySchema>;
+
+export type Paginated<T> = { items: T[]; total: number; page: number; pageSize: number };
+
+export type UserDto = {
+  id: string;
+  email: string;
+  name: string;
+  roles: (typeof ROLES)[number][];
+  status: (typeof USER_STATUSES)[number];
+  lastSignInAt: string | null;
+  createdAt: string;
+};
+
+export type MeDto = {
+  id: string;
+  email: string;
+  name: string;
+  roles: (typeof ROLES)[number][];
+  organization: { id: string; name: string; kind: 'manufacturer' | 'contractor' };
+};

@@ -1,0 +1,9 @@
+import { UsersAdmin } from '../../../features/users/components/users-table';
+import { useAbility } from '../../../lib/ability';
+import { NotFoundRoute } from '../not-found';
+
+export function UsersRoute() {
+  const ability = useAbility();
+  if (!ability.can('invite', 'User')) return <NotFoundRoute />;
+  return <UsersAdmin />;
+}

@@ -1,0 +1,105 @@
+import type { ReactNode } from 'react';
+import { NavLink } from 'react-router-dom';
+import { LogOut } from 'lucide-react';
+import type { NavItem } from '../../config/nav';
+import { cn } from '../../lib/cn';
+import { Logo } from './logo';
+
+type Props = {
+  nav: NavItem[];
+  userName: string;
+  organizationName: string;
+  roleText: string;
+  onSignOut: () => void;
+  signingOut?: boolean;
+  children: ReactNode;
+};
+
+/**
+ * Desktop: a left rail. Phone: a top bar and a bottom tab bar within thumb reach, so that an installer on a
+ * lift can move around with one hand.
+ */
+export function AppShell({ nav, userName, organizationName, roleText, onSignOut, signingOut, children }: Props) {
+  return (
+    <div className="min-h-dvh">
+      <a href="#main" className="sr-only z-50 rounded bg-white px-3 py-2 focus:not-sr-only focus:fixed focus:top-2 focus:left-2">
+        Skip to content
+      </a>
+      <aside className="fixed inset-y-0 left-0 hidden w-60 flex-col border-r border-ink-200 bg-white lg:flex">
+        <div className="px-5 py-5">
+          <Logo className="text-lg text-ink-950" />
+        </div>
+        <nav aria-label="Main" className="flex-1 space-y-1 px-3">
+          {nav.map((item) => (
+            <NavLink
+              key={item.to}
+              to={item.to}
+              end={item.end}
+              className={({ isActive }) =>
+                cn(
+                  'flex items-center gap-3 rounded-lg px-3 py-2.5 text-sm font-medium',
+                  isActive ? 'bg-brand-50 text-brand-800' : 'text-ink-700 hover:bg-ink-100',
+                )
+              }
+            >
+              <item.icon className="size-5" aria-hidden />
+              {item.label}
+            </NavLink>
+          ))}
+        </nav>
+        <div className="border-t border-ink-100 px-4 py-4">
+          <p className="truncate text-sm font-semibold text-ink-900">{userName}</p>
+          <p className="truncate text-xs text-ink-600">
+            {roleText} · {organizationName}
+          </p>
+          <button
+            type="button"
+            onClick={onSignOut}
+            disabled={signingOut}
+            className="mt-3 inline-flex items-center gap-2 rounded-md px-2 py-1.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
+          >
+            <LogOut className="size-4" aria-hidden /> Sign out
+          </button>
+        </div>
+      </aside>
+
+      <header className="sticky top-0 z-30 flex h-14 items-center justify-between gap-3 border-b border-ink-200 bg-white/95 px-4 backdrop-blur lg:hidden">
+        <Logo className="text-base text-ink-950" />
+        <div className="flex min-w-0 items-center gap-2">
+          <span className="truncate text-xs text-ink-600">{organizationName}</span>
+          <button
+            type="button"
+            onClick={onSignOut}
+            disabled={signingOut}
+            className="inline-flex h-10 items-center gap-1.5 rounded-lg px-2.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
+          >
+            <LogOut className="size-4" aria-hidden /> <span>Sign out</span>
+          </button>
+        </div>
+      </header>
+
+      <main id="main" className="px-4 pt-5 pb-28 sm:px-6 lg:ml-60 lg:px-8 lg:pt-8 lg:pb-10">
+        <div className="mx-auto max-w-6xl">{children}</div>
+      </main>
+
+      <nav aria-label="Main" className="fixed inset-x-0 bottom-0 z-30 border-t border-ink-200 bg-white pb-[env(safe-area-inset-bottom)] lg:hidden">
+        <ul className="flex">
+          {nav.map((item) => (
+            <li key={item.to} className="flex-1">
+              <NavLink
+                to={item.to}
+                end={item.end}
+                className={({ isActive }) =>
+                  cn('flex h-16 flex-col items-center justify-center gap-1 text-xs font-medium', isActive ? 'text-brand-700' : 'text-ink-600')
+                }
+              >
+                <item.icon className="size-6" aria-hidden />
+                {item.label}
+              </NavLink>
+            </li>
+          ))}
+        </ul>
+      </nav>
+    </div>
+  );
+}

@@ -1,0 +1,12 @@
+import { Home, Inbox, Users, type LucideIcon } from 'lucide-react';
+import type { AppAbility } from '../../shared/abilities';
+
+export type NavItem = { to: string; label: string; icon: LucideIcon; end?: boolean };
+
+/** The navigation a user sees: only what their abilities allow. */
+export function navFor(ability: AppAbility): NavItem[] {
+  const items: NavItem[] = [{ to: '/', label: 'Home', icon: Home, end: true }];
+  if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });
+  if (ability.can('read', 'Mailbox')) items.push({ to: '/admin/mailbox', label: 'Mailbox', icon: Inbox });
+  return items;
+}

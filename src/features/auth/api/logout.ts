@@ -1,0 +1,3 @@
+import { api } from '../../../lib/api-client';
+
+export const logout = () => api<void>('/auth/logout', { method: 'POST' });
