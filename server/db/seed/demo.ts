@@ -6,8 +6,10 @@ import { recordAudit } from '../../lib/audit';
 import { DEMO_ACCOUNTS, DEMO_ORGANIZATIONS, DEMO_PASSWORD } from './demo-accounts';
 
 /** Loads the fictional demo scenario into an empty database. Returns false when there was data already. */
-export async function seedDemo(ds: AppDataSource): Promise<boolean> {
-  if ((await ds.getRepository(Organization).count()) > 0) return false;
+export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean } = {}): Promise<boolean> {
+  const orgs = ds.getRepository(Organization);
+  if (opts.onlyIfEmpty !== false && (await orgs.count()) > 0) return false;
+  if (await orgs.exists({ where: { name: DEMO_ORGANIZATIONS[0].name } })) return false;
   const hashes = await Promise.all(DEMO_ACCOUNTS.map(() => hashPassword(DEMO_PASSWORD)));
   await ds.transaction(async (m) => {
     const orgs = new Map<string, Organization>();

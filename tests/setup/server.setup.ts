@@ -1,0 +1,4 @@
+import { afterEach } from 'vitest';
+import { clock } from '../../server/lib/clock';
+
+afterEach(() => clock.reset());

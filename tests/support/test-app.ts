@@ -1,0 +1,31 @@
+import { inject } from 'vitest';
+import supertest from 'supertest';
+import { createApp, type App } from '../../server/app';
+import { loadConfig, type AppConfig } from '../../server/config/env';
+import { createDataSource, type AppDataSource } from '../../server/db/data-source';
+import { createLogger } from '../../server/lib/logger';
+
+export type TestContext = { app: App; ds: AppDataSource; config: AppConfig; request: () => supertest.Agent };
+
+/** createApp() on the real test database, as the server would build it, without listening. */
+export async function createTestApp(overrides: Record<string, string> = {}): Promise<TestContext> {
+  const databaseUrl = inject('databaseUrl');
+  const config = loadConfig({
+    NODE_ENV: 'test',
+    APP_MODE: 'demo',
+    LOG_LEVEL: 'silent',
+    PUBLIC_URL: 'http://127.0.0.1:3000',
+    DATA_DIR: '.data/test-run',
+    ...overrides,
+  });
+  const ds = createDataSource(databaseUrl, { poolSize: 5 });
+  await ds.initialize();
+  const app = createApp({ config, ds, logger: createLogger('silent'), databaseUrl });
+  return { app, ds, config, request: () => supertest.agent(app) };
+}
+
+export async function closeTestApp(ctx: TestContext | undefined) {
+  if (!ctx) return;
+  await ctx.app.close();
+  await ctx.ds.destroy();
+}
