@@ -32,11 +32,10 @@ const isoDate = z.iso.date({ error: 'expected a date as YYYY-MM-DD' });
 
 // A money amount as a decimal string with at most two decimals, at most 1,000,000.00 (which keeps the
 // credit's integer-cent arithmetic exact).
-const money = z
-  .string()
-  .max(10)
-  .regex(MONEY_PATTERN, 'expected an amount like "96.00"')
-  .refine((s) => Number(s) <= 1_000_000, 'at most 1000000.00');
+const money = z.string().superRefine((s, ctx) => {
+  if (!MONEY_PATTERN.test(s)) ctx.addIssue({ code: 'custom', message: 'expected an amount like "96.00"' });
+  else if (Number(s) > 1_000_000) ctx.addIssue({ code: 'custom', message: 'at most 1000000.00' });
+});
 
 const fluxPointSchema = z.strictObject({
   hours: nonNegative(1_000_000),
