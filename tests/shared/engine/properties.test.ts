@@ -8,6 +8,7 @@ import {
   evaluationInputSchema,
   evaluationSchema,
   LOCATIONS,
+  safeEvaluateClaim,
   NOMINAL_SUPPLY_VOLTS,
   SYMPTOMS,
   type EvaluationInput,
@@ -165,9 +166,9 @@ describe('engine properties', () => {
     fc.assert(
       fc.property(validInput, (input) => {
         const e = evaluateClaim(evaluationInputSchema.parse(input));
-        expect(evaluationSchema.safeParse(e).success).toBe(true);
+        expect(evaluationSchema.safeParse(e).error?.issues ?? []).toEqual([]);
       }),
-      { numRuns: 500 },
+      { numRuns: 1000 },
     );
   });
 
@@ -212,6 +213,22 @@ describe('engine properties', () => {
           effects.has('exclude') ? 'excluded' : effects.has('review') ? 'review' : 'covered',
         );
       }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('never throws on any JSON at all, valid or not', () => {
+    fc.assert(
+      fc.property(
+        fc.oneof(
+          fc.jsonValue(),
+          validInput.map((i) => ({ ...i, claim: { ...i.claim, units: 0 } })),
+        ),
+        (data) => {
+          const r = safeEvaluateClaim(data);
+          if (!r.ok) expect(r.issues.length).toBeGreaterThan(0);
+        },
+      ),
       { numRuns: 300 },
     );
   });
