@@ -7,6 +7,7 @@ import {
   evaluateClaim,
   evaluationInputSchema,
   evaluationSchema,
+  FINDING_CODES,
   LOCATIONS,
   safeEvaluateClaim,
   NOMINAL_SUPPLY_VOLTS,
@@ -204,11 +205,12 @@ describe('engine properties', () => {
     );
   });
 
-  it('answers excluded exactly when a finding excludes, review when one asks for review', () => {
+  it('answers only listed codes; excluded exactly when a finding excludes, review when one asks for review', () => {
     fc.assert(
       fc.property(validInput, (input) => {
         const e = evaluateClaim(input);
         const effects = new Set(e.findings.map((f) => f.effect));
+        for (const f of e.findings) expect(FINDING_CODES).toContain(f.code);
         expect(e.verdict).toBe(
           effects.has('exclude') ? 'excluded' : effects.has('review') ? 'review' : 'covered',
         );
