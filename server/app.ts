@@ -17,6 +17,7 @@ import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { authRouter } from './modules/auth/auth.router';
+import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
 import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
@@ -90,7 +91,7 @@ export function createApp(opts: CreateAppOptions): App {
   });
   api.use(sameOrigin(config.publicUrl));
   api.use(requireJsonBody);
-  api.use(express.json({ limit: '256kb', strict: true }));
+  api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
   api.use(sessionMiddleware(config, sessionStore));
   api.use(pp.initialize());
@@ -99,6 +100,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/auth', authRouter(ctx, pp));
   api.use('/invitations', invitationsRouter(ctx));
   api.use('/users', usersRouter(ctx));
+  api.use('/evaluations', evaluationsRouter());
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));
   app.use('/api', api);
