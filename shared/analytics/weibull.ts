@@ -340,37 +340,43 @@ export function plottingPositions(data: LifeData): PlottingPosition[] {
 }
 
 /**
- * Y = ln(-ln(1 - F)) on X = ln t, one point per failed unit. Two passes over the points (means, then centred
- * sums) so nearly equal times do not cancel away the slope.
+ * Y = ln(-ln(1 - F)) on X = ln t, one point per failed unit. The sums are centred on the mean of X so nearly
+ * equal times do not cancel away the slope; the units of one time share their X, so only the sum of their
+ * Y is needed: S_xy = sum_groups (x_g - mean x) sum_k y_gk.
  */
 function mrrParameters(data: LifeData, units: number): WeibullParameters {
-  const entries = sortedEntries(data);
-  const points = (visit: (x: number, y: number, weight: number) => void) =>
-    walkRanks(entries, units, (entry, firstRank, increment) => {
-      const x = Math.log(entry.time);
-      for (let k = 0; k < entry.count; k++) {
-        // A fractional count (a weight) puts its remainder on one last point of that weight.
-        const weight = Math.min(1, entry.count - k);
-        const F = medianRank(firstRank + increment * k, units);
-        visit(x, Math.log(-Math.log1p(-F)), weight);
-      }
-    });
+  const xs: number[] = [];
+  const weights: number[] = [];
+  const ySums: number[] = [];
+  walkRanks(sortedEntries(data), units, (entry, firstRank, increment) => {
+    let ySum = 0;
+    for (let k = 0; k < entry.count; k++) {
+      // A fractional count (a weight) puts its remainder on one last point of that weight.
+      const weight = Math.min(1, entry.count - k);
+      const F = medianRank(firstRank + increment * k, units);
+      ySum += weight * Math.log(-Math.log1p(-F));
+    }
+    xs.push(Math.log(entry.time));
+    weights.push(entry.count);
+    ySums.push(ySum);
+  });
   let n = 0;
   let sx = 0;
   let sy = 0;
-  points((x, y, w) => {
-    n += w;
-    sx += w * x;
-    sy += w * y;
-  });
+  for (let g = 0; g < xs.length; g++) {
+    n += weights[g];
+    sx += weights[g] * xs[g];
+    sy += ySums[g];
+  }
   const mx = sx / n;
   const my = sy / n;
   let sxx = 0;
   let sxy = 0;
-  points((x, y, w) => {
-    sxx += w * (x - mx) * (x - mx);
-    sxy += w * (x - mx) * (y - my);
-  });
+  for (let g = 0; g < xs.length; g++) {
+    const dx = xs[g] - mx;
+    sxx += weights[g] * dx * dx;
+    sxy += dx * ySums[g];
+  }
   const shape = sxy / sxx;
   // Y = shape X - shape ln(scale), so at X = mean X: ln(scale) = mx - my / shape.
   return { shape, scale: Math.exp(mx - my / shape) };
