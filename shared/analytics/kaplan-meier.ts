@@ -53,7 +53,7 @@ function clip(value: number): number {
 export function kaplanMeier(data: LifeData, options: KaplanMeierOptions = {}): KaplanMeierRow[] {
   const z = options.z ?? Z_95;
   const byTime = countsByTime(data);
-  const times = [...byTime.keys()].sort((a, b) => a - b);
+  const times = Float64Array.from(byTime.keys()).sort();
   let atRisk = 0;
   for (const row of byTime.values()) atRisk += row.failed + row.censored;
   let survival = 1;

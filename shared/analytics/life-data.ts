@@ -2,10 +2,10 @@
 // failure at its age on the failure date; every other unit is a suspension at its age on `asOf`. Units of the
 // same age and status are one group with a count, so a million installed units stay a few hundred groups.
 //
-// Ages are whole calendar months completed (the engine's ageMonths), or operating hours (days in service x the
-// installation's hours a day). A failure within its first month is 0 months old, which no Weibull fit accepts:
-// `monthAge: 'midpoint'` places every age (failures and suspensions alike) half a month later, in the middle of
-// the month it fell in.
+// Ages are whole calendar months completed (the engine's ageMonths), or operating hours (whole days in service x
+// the installation's hours a day). A failure within its first month (or on its first day, in hours) is 0 old,
+// which no Weibull fit accepts: `age: 'midpoint'` places every age, failures and suspensions alike, in the middle
+// of the month (or day) it fell in, half a month (or half a day's hours) later.
 
 import { daysBetween, wholeMonthsBetween } from '../engine/dates';
 import type { LifeGroup } from './weibull';
@@ -36,8 +36,8 @@ export interface LifeDataOptions {
   /** The day the analysis looks from, YYYY-MM-DD: survivors are aged to it. */
   asOf: string;
   unit: AgeUnit;
-  /** Months only: 'completed' (the default) or 'midpoint' (completed + 0.5). */
-  monthAge?: 'completed' | 'midpoint';
+  /** 'completed' (the default): whole months or days completed; 'midpoint': half a month or day more. */
+  age?: 'completed' | 'midpoint';
 }
 
 export interface InstalledLifeData {
@@ -81,7 +81,7 @@ export function installedLifeData(
 ): InstalledLifeData {
   const { asOf, unit } = options;
   checkDate(asOf, 'asOf');
-  const offset = unit === 'months' && options.monthAge === 'midpoint' ? 0.5 : 0;
+  const midpoint = options.age === 'midpoint' ? 0.5 : 0;
   const failures = new Map<number, number>();
   const suspensions = new Map<number, number>();
   let units = 0;
@@ -103,9 +103,9 @@ export function installedLifeData(
       continue;
     }
     const ageOn = (day: string) => {
-      if (unit === 'months') return wholeMonthsBetween(installedOn, day) + offset;
+      if (unit === 'months') return wholeMonthsBetween(installedOn, day) + midpoint;
       const days = daysBetween(installedOn, day);
-      return (days < 0 ? 0 : days) * (hoursPerDay as number);
+      return ((days < 0 ? 0 : days) + midpoint) * (hoursPerDay as number);
     };
     let working = quantity;
     for (const failure of installation.failures ?? []) {

@@ -292,13 +292,33 @@ interface SortedEntry {
   failed: boolean;
 }
 
+/** Counts summed by time, in time order: tied entries become one group, sorted as a typed array (fast). */
+function countsInTimeOrder(list: LifeTimes): { times: Float64Array; counts: Map<number, number> } {
+  const counts = new Map<number, number>();
+  for (let i = 0; i < list.length; i++) {
+    const { time, count } = groupOf(list[i]);
+    if (count > 0) counts.set(time, (counts.get(time) ?? 0) + count);
+  }
+  return { times: Float64Array.from(counts.keys()).sort(), counts };
+}
+
 function sortedEntries(data: LifeData): SortedEntry[] {
+  const f = countsInTimeOrder(data.failures);
+  const s = countsInTimeOrder(data.suspensions ?? []);
   const entries: SortedEntry[] = [];
-  for (const f of data.failures) entries.push({ ...groupOf(f), failed: true });
-  for (const s of data.suspensions ?? []) entries.push({ ...groupOf(s), failed: false });
-  // At a tie, failures come first: a unit suspended at t was still working at t.
-  entries.sort((x, y) => x.time - y.time || Number(y.failed) - Number(x.failed));
-  return entries.filter((e) => e.count > 0);
+  let i = 0;
+  let j = 0;
+  while (i < f.times.length || j < s.times.length) {
+    // At a tie, failures come first: a unit suspended at t was still working at t.
+    if (j >= s.times.length || (i < f.times.length && f.times[i] <= s.times[j])) {
+      entries.push({ time: f.times[i], count: f.counts.get(f.times[i])!, failed: true });
+      i += 1;
+    } else {
+      entries.push({ time: s.times[j], count: s.counts.get(s.times[j])!, failed: false });
+      j += 1;
+    }
+  }
+  return entries;
 }
 
 /**

@@ -46,7 +46,7 @@ describe('installed units as life data', () => {
     ]);
   });
 
-  it('midpoint ages put a first-month failure at half a month, so it can be fitted', () => {
+  it('midpoint ages put a first-month failure at half a month (a same-day one at half a day), so it can be fitted', () => {
     const early = [
       {
         installedOn: '2024-01-01',
@@ -57,13 +57,20 @@ describe('installed units as life data', () => {
     const completed = installedLifeData(early, { asOf: '2024-06-01', unit: 'months' });
     expect(completed.failures[0]).toEqual({ time: 0, count: 1 });
     expect(fitWeibull(completed)).toMatchObject({ ok: false, code: 'invalid_time' });
-    const midpoint = installedLifeData(early, { asOf: '2024-06-01', unit: 'months', monthAge: 'midpoint' });
+    const midpoint = installedLifeData(early, { asOf: '2024-06-01', unit: 'months', age: 'midpoint' });
     expect(midpoint.failures).toEqual([
       { time: 0.5, count: 1 },
       { time: 2.5, count: 1 },
     ]);
     expect(midpoint.suspensions).toEqual([{ time: 5.5, count: 1 }]);
     expect(fitWeibull(midpoint).ok).toBe(true);
+    const sameDay = [
+      { installedOn: '2024-01-01', quantity: 2, hoursPerDay: 10, failures: [{ failedOn: '2024-01-01' }] },
+    ];
+    expect(installedLifeData(sameDay, { asOf: '2024-01-11', unit: 'hours', age: 'midpoint' })).toMatchObject({
+      failures: [{ time: 5, count: 1 }],
+      suspensions: [{ time: 105, count: 1 }],
+    });
   });
 
   it('claims for more units than installed are left out and counted', () => {
