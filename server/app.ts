@@ -20,8 +20,11 @@ import { requireJsonBody } from './middleware/validate';
 import { authRouter } from './modules/auth/auth.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
+import { installationsRouter } from './modules/installations/installations.router';
 import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
+import { policiesRouter } from './modules/policies/policies.router';
+import { productsRouter } from './modules/products/products.router';
 import { usersRouter } from './modules/users/users.router';
 
 export type CreateAppOptions = {
@@ -97,6 +100,8 @@ export function createApp(opts: CreateAppOptions): App {
   });
   api.use(sameOrigin(config.publicUrl));
   api.use(requireJsonBody);
+  // Spreadsheet imports carry a whole file (10,000 rows is about 2 MB); every other body stays small.
+  api.use(['/products/import', '/installations/import'], express.json({ limit: '20mb', strict: true }));
   api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
   api.use(sessionMiddleware(config, sessionStore));
@@ -107,6 +112,9 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/invitations', invitationsRouter(ctx));
   api.use('/users', usersRouter(ctx));
   api.use('/evaluations', evaluationsRouter());
+  api.use('/products', productsRouter(ctx));
+  api.use('/policies', policiesRouter(ctx));
+  api.use('/installations', installationsRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));

@@ -37,3 +37,34 @@ export function actorFromRequest(req: { user?: { id: string; organizationId: str
     requestId: req.id ? String(req.id) : null,
   };
 }
+
+/** Many audit rows in a few multi-row INSERTs (a spreadsheet import), in the caller's transaction. */
+export async function recordAuditMany(
+  manager: EntityManager,
+  actor: Actor,
+  events: { action: string; entityType: string; entityId: string; after?: Record<string, unknown> | null }[],
+  chunk = 1000,
+) {
+  const at = clock.now();
+  for (let i = 0; i < events.length; i += chunk) {
+    await manager
+      .createQueryBuilder()
+      .insert()
+      .into(AuditEvent)
+      .values(
+        events.slice(i, i + chunk).map((e) => ({
+          occurredAt: at,
+          actorUserId: actor.userId,
+          organizationId: actor.organizationId,
+          action: e.action,
+          entityType: e.entityType,
+          entityId: e.entityId,
+          before: null as never,
+          after: (e.after ?? null) as never,
+          requestId: actor.requestId ?? null,
+        })),
+      )
+      .updateEntity(false)
+      .execute();
+  }
+}

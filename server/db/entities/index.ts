@@ -1,10 +1,30 @@
 import { Attachment } from './attachment.entity';
 import { AuditEvent } from './audit-event.entity';
+import { InstallationUnit } from './installation-unit.entity';
+import { Installation } from './installation.entity';
 import { Invitation } from './invitation.entity';
 import { LoginAttempt } from './login-attempt.entity';
 import { Organization } from './organization.entity';
 import { OutboxMessage } from './outbox-message.entity';
+import { PolicyModel } from './policy-model.entity';
+import { ProductModel } from './product-model.entity';
 import { User } from './user.entity';
+import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
+import { WarrantyPolicy } from './warranty-policy.entity';
 
 // The list TypeORM loads; explicit so that tsx and the bundler need no glob loading.
-export const entities = [Organization, User, Invitation, AuditEvent, LoginAttempt, OutboxMessage, Attachment];
+export const entities = [
+  Organization,
+  User,
+  Invitation,
+  AuditEvent,
+  LoginAttempt,
+  OutboxMessage,
+  ProductModel,
+  WarrantyPolicy,
+  WarrantyPolicyVersion,
+  PolicyModel,
+  Installation,
+  InstallationUnit,
+  Attachment,
+];

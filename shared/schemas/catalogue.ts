@@ -1,0 +1,493 @@
+import { z } from 'zod';
+import { DIMMERS, ENCLOSURES, LOCATIONS, NOMINAL_SUPPLY_VOLTS } from '../engine/schema';
+import { listQuerySchema } from './users';
+
+// Product models, warranty policies and installations: one strict schema per payload, shared by the forms,
+// the CSV import and the server. Units are in the field names' labels (W, V, A, lm, °C, h).
+
+export const PRODUCT_FAMILIES = ['high_bay', 'wall_pack', 'troffer', 'corn_lamp', 'flood', 'strip', 'other'] as const;
+export type ProductFamily = (typeof PRODUCT_FAMILIES)[number];
+export const FAMILY_LABELS: Record<ProductFamily, string> = {
+  high_bay: 'High-bay',
+  wall_pack: 'Wall pack',
+  troffer: 'Troffer',
+  corn_lamp: 'Corn-lamp retrofit',
+  flood: 'Flood',
+  strip: 'Strip',
+  other: 'Other',
+};
+
+export { LOCATIONS, ENCLOSURES, DIMMERS, NOMINAL_SUPPLY_VOLTS };
+export type RatedLocation = (typeof LOCATIONS)[number];
+export type Enclosure = (typeof ENCLOSURES)[number];
+export type Dimmer = (typeof DIMMERS)[number];
+export const LOCATION_LABELS: Record<RatedLocation, string> = { dry: 'Dry', damp: 'Damp', wet: 'Wet' };
+export const ENCLOSURE_LABELS: Record<Enclosure, string> = {
+  open: 'Open',
+  enclosed: 'Totally enclosed',
+  enclosed_ventilated: 'Enclosed and ventilated',
+};
+export const DIMMER_LABELS: Record<Dimmer, string> = { none: 'No dimmer', phase: 'Phase-cut dimmer', '0-10v': '0-10 V dimmer' };
+
+/** How a product dims: not at all, by phase-cut (forward or reverse), by 0-10 V, or either. */
+export const DIMMINGS = ['none', 'phase', '0-10v', 'phase_or_0-10v'] as const;
+export type Dimming = (typeof DIMMINGS)[number];
+export const DIMMING_LABELS: Record<Dimming, string> = {
+  none: 'Not dimmable',
+  phase: 'Phase-cut',
+  '0-10v': '0-10 V',
+  'phase_or_0-10v': 'Phase-cut or 0-10 V',
+};
+
+export const EXCLUSIONS = [
+  'location_misapplication',
+  'enclosed_misapplication',
+  'dimmer_misapplication',
+  'supply_outside_rating',
+  'ambient_above_rating',
+  'physical_damage',
+  'debris_or_water_ingress',
+  'field_modification',
+  'improper_installation',
+  'power_surge_or_lightning',
+] as const;
+export type Exclusion = (typeof EXCLUSIONS)[number];
+export const EXCLUSION_LABELS: Record<Exclusion, string> = {
+  location_misapplication: 'Installed in a wetter location than rated',
+  enclosed_misapplication: 'Used in a totally enclosed fixture without an enclosed rating',
+  dimmer_misapplication: 'Dimmer on a non-dimmable product',
+  supply_outside_rating: 'Supply voltage outside the rated input range',
+  ambient_above_rating: 'Ambient temperature above the rated maximum',
+  physical_damage: 'Physical damage',
+  debris_or_water_ingress: 'Debris, insect or water ingress',
+  field_modification: 'Field modification (bypassed LEDs, swapped driver)',
+  improper_installation: 'Installation not to code or instructions',
+  power_surge_or_lightning: 'Power surge or lightning',
+};
+
+// Helpers with plain messages. Number fields name their unit in the message.
+const num = (what: string, unit: string, min: number, max: number, opts: { int?: boolean; exclusiveMin?: boolean } = {}) => {
+  let s = z.number({ error: `Enter ${what}${unit ? ` in ${unit}` : ''}.` });
+  if (opts.int) s = s.int(`${cap(what)} must be a whole number.`);
+  s = opts.exclusiveMin
+    ? s.gt(min, `${cap(what)} must be above ${min}${unit ? ` ${unit}` : ''}.`)
+    : s.min(min, `${cap(what)} must be at least ${min}${unit ? ` ${unit}` : ''}.`);
+  return s.max(max, `${cap(what)} must be at most ${max.toLocaleString('en-US')}${unit ? ` ${unit}` : ''}.`);
+};
+const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
+const text = (what: string, max: number) =>
+  z.string({ error: `Enter ${what}.` }).trim().min(1, `Enter ${what}.`).max(max, `${cap(what)} has at most ${max} characters.`);
+const optionalText = (what: string, max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `${cap(what)} has at most ${max} characters.`)
+    .nullish()
+    .transform((v) => (v ? v : null));
+
+export const isoDateSchema = (what: string) =>
+  z
+    .string({ error: `Enter ${what} as YYYY-MM-DD.` })
+    .regex(/^\d{4}-\d{2}-\d{2}$/, `Enter ${what} as YYYY-MM-DD.`)
+    .refine((s) => {
+      const d = new Date(`${s}T00:00:00Z`);
+      return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
+    }, `${cap(what)} is not a calendar date.`)
+    .refine((s) => s >= '1990-01-01' && s <= '2100-12-31', `${cap(what)} must be between 1990 and 2100.`);
+
+const MONEY = /^\d{1,10}(\.\d{1,2})?$/;
+const money = (what: string) =>
+  z
+    .string({ error: `Enter ${what} as an amount like "96.00".` })
+    .trim()
+    .regex(MONEY, `Enter ${what} as an amount like "96.00" (at most two decimals).`)
+    .refine((s) => Number(s) <= 1_000_000, `${cap(what)} must be at most 1,000,000.00.`)
+    .transform((s) => Number(s).toFixed(2));
+
+export const uuidSchema = z.uuid({ error: 'Not a valid id.' });
+
+// ---------------------------------------------------------------------------------------------------------
+// Product models
+
+const productFields = {
+  modelNumber: z
+    .string({ error: 'Enter the model number.' })
+    .trim()
+    .min(1, 'Enter the model number.')
+    .max(64, 'A model number has at most 64 characters.')
+    .regex(/^[A-Za-z0-9][A-Za-z0-9 ._/+-]*$/, 'Use letters, digits, spaces and . _ / + - in a model number.'),
+  name: text('a name', 160),
+  family: z.enum(PRODUCT_FAMILIES, { error: 'Pick a family.' }),
+  ratedInputWatts: num('the rated input power', 'W', 0, 5000, { exclusiveMin: true }),
+  inputVoltsMin: num('the lowest rated input voltage', 'V', 12, 1000),
+  inputVoltsMax: num('the highest rated input voltage', 'V', 12, 1000),
+  ratedLumens: num('the rated light output', 'lm', 1, 1_000_000, { int: true }),
+  ledStrings: num('the number of LED strings', '', 1, 1000, { int: true }),
+  ledsPerString: num('the number of LEDs per string', '', 1, 1000, { int: true }),
+  ledForwardVolts: num('the nominal forward voltage of one LED', 'V', 1.5, 50),
+  driverOutputAmps: num('the driver output current', 'A', 0, 100, { exclusiveMin: true }),
+  driverMaxOutputVolts: num('the driver open-circuit limit', 'V', 1, 2000).nullish().transform((v) => v ?? null),
+  location: z.enum(LOCATIONS, { error: 'Pick the location rating: dry, damp or wet.' }),
+  enclosedRated: z.boolean({ error: 'Say whether it is rated for totally enclosed luminaires.' }),
+  dimming: z.enum(DIMMINGS, { error: 'Pick how it dims, or not dimmable.' }),
+  ambientMaxC: num('the rated maximum ambient temperature', '°C', -40, 100),
+  ratedLifeHours: num('the rated life', 'h', 1000, 1_000_000, { int: true }),
+  activeCooling: z.boolean({ error: 'Say whether it has active cooling (a fan).' }),
+};
+
+type RatingCheck = {
+  inputVoltsMin?: number;
+  inputVoltsMax?: number;
+  ledsPerString?: number;
+  ledForwardVolts?: number;
+  driverOutputAmps?: number;
+  driverMaxOutputVolts?: number | null;
+  ratedInputWatts?: number;
+};
+
+/** Cross-field bounds: the ratings have to describe a fixture that can work. */
+function checkRatings(p: RatingCheck, ctx: z.RefinementCtx) {
+  if (p.inputVoltsMin !== undefined && p.inputVoltsMax !== undefined && p.inputVoltsMin >= p.inputVoltsMax) {
+    ctx.addIssue({ code: 'custom', path: ['inputVoltsMax'], message: 'The highest input voltage must be above the lowest.' });
+  }
+  if (p.ledsPerString !== undefined && p.ledForwardVolts !== undefined) {
+    // String voltage = n x Vf (LED application-note practice); the driver must be able to reach it.
+    const stringVolts = Math.round(p.ledsPerString * p.ledForwardVolts * 100) / 100;
+    if (p.driverMaxOutputVolts != null && p.driverMaxOutputVolts < stringVolts) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['driverMaxOutputVolts'],
+        message: `The open-circuit limit must be at least the string voltage (${p.ledsPerString} LEDs x ${p.ledForwardVolts} V = ${stringVolts} V).`,
+      });
+    }
+    if (p.driverOutputAmps !== undefined && p.ratedInputWatts !== undefined) {
+      // Output power cannot exceed input power: a driver's efficiency is below 1.
+      const outWatts = Math.round(stringVolts * p.driverOutputAmps * 10) / 10;
+      if (outWatts > p.ratedInputWatts) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['driverOutputAmps'],
+          message: `The LEDs would draw ${outWatts} W (${stringVolts} V x ${p.driverOutputAmps} A), more than the rated input power of ${p.ratedInputWatts} W.`,
+        });
+      }
+    }
+  }
+}
+
+export const productInputSchema = z.strictObject(productFields).superRefine(checkRatings);
+export type ProductInput = z.input<typeof productInputSchema>;
+export type ProductValues = z.output<typeof productInputSchema>;
+
+export const updateProductSchema = z
+  .strictObject({ ...Object.fromEntries(Object.entries(productFields).map(([k, v]) => [k, v.optional()])) } as {
+    [K in keyof typeof productFields]: z.ZodOptional<(typeof productFields)[K]>;
+  })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), 'Nothing to change.');
+export type UpdateProductInput = z.input<typeof updateProductSchema>;
+
+const boolParam = z.enum(['true', 'false']).transform((v) => v === 'true');
+
+export const productListQuerySchema = listQuerySchema.extend({
+  sort: z
+    .enum(['modelNumber', '-modelNumber', 'name', '-name', 'family', '-family', 'ratedInputWatts', '-ratedInputWatts', 'ratedLumens', '-ratedLumens', 'createdAt', '-createdAt'])
+    .default('modelNumber'),
+  manufacturerId: uuidSchema.optional(),
+  family: z.enum(PRODUCT_FAMILIES).optional(),
+  location: z.enum(LOCATIONS).optional(),
+  dimming: z.enum(DIMMINGS).optional(),
+  enclosedRated: boolParam.optional(),
+});
+export type ProductListQuery = z.infer<typeof productListQuerySchema>;
+
+export type OrgRef = { id: string; name: string };
+
+export type ProductDto = {
+  id: string;
+  manufacturer: OrgRef;
+  modelNumber: string;
+  name: string;
+  family: ProductFamily;
+  ratedInputWatts: number;
+  inputVoltsMin: number;
+  inputVoltsMax: number;
+  ratedLumens: number;
+  ledStrings: number;
+  ledsPerString: number;
+  ledForwardVolts: number;
+  driverOutputAmps: number;
+  driverMaxOutputVolts: number | null;
+  location: RatedLocation;
+  enclosedRated: boolean;
+  dimming: Dimming;
+  ambientMaxC: number;
+  ratedLifeHours: number;
+  activeCooling: boolean;
+  createdAt: string;
+  updatedAt: string;
+  version: number;
+};
+
+// ---------------------------------------------------------------------------------------------------------
+// Warranty policies
+
+const DENIAL_CODE = /^[A-Z][A-Z0-9-]{1,15}$/;
+
+export const policyTermsSchema = z
+  .strictObject({
+    effectiveFrom: isoDateSchema('the effective date'),
+    termMonths: num('the warranty term', 'months', 1, 360, { int: true }),
+    fullCoverageMonths: num('the full-coverage period', 'months', 0, 360, { int: true }),
+    filingWindowDays: num('the filing window', 'days', 1, 3650, { int: true }),
+    darkLedFailurePercent: num('the failure threshold', '% of LEDs dark', 0, 100, { exclusiveMin: true }).refine(
+      (v) => Math.round(v * 100) === v * 100,
+      'The failure threshold has at most two decimals.',
+    ),
+    unitCredit: money('the unit credit'),
+    currency: z
+      .string({ error: 'Enter a currency code like USD.' })
+      .trim()
+      .toUpperCase()
+      .regex(/^[A-Z]{3}$/, 'Use a three-letter ISO 4217 currency code like USD or CAD.'),
+    labourAllowance: money('the labour allowance'),
+    requiredPhotos: num('the number of required photos', '', 0, 20, { int: true }),
+    proofOfPurchaseRequired: z.boolean({ error: 'Say whether proof of purchase is required.' }),
+    exclusions: z
+      .array(z.enum(EXCLUSIONS, { error: 'Pick a known exclusion.' }))
+      .max(EXCLUSIONS.length)
+      .refine((a) => new Set(a).size === a.length, 'Each exclusion once.'),
+    denialReasons: z
+      .array(
+        z.strictObject({
+          code: z.string().trim().toUpperCase().regex(DENIAL_CODE, 'A reason code is 2-16 capitals, digits or dashes, like MISAPP-WET.'),
+          label: text('the reason in words', 200),
+        }),
+      )
+      .max(40, 'At most 40 denial reasons.')
+      .refine((a) => new Set(a.map((r) => r.code)).size === a.length, 'Each reason code once.'),
+    changeNote: optionalText('the change note', 500),
+  })
+  .superRefine((t, ctx) => {
+    if (t.fullCoverageMonths > t.termMonths) {
+      ctx.addIssue({ code: 'custom', path: ['fullCoverageMonths'], message: 'The full-coverage period cannot be longer than the term.' });
+    }
+  });
+export type PolicyTermsInput = z.input<typeof policyTermsSchema>;
+export type PolicyTerms = z.output<typeof policyTermsSchema>;
+
+const modelIds = z
+  .array(uuidSchema)
+  .min(1, 'Attach the policy to at least one product model.')
+  .max(500)
+  .refine((a) => new Set(a).size === a.length, 'Each model once.');
+
+export const createPolicySchema = z.strictObject({
+  name: text('a policy name', 160),
+  productModelIds: modelIds,
+  terms: policyTermsSchema,
+});
+export type CreatePolicyInput = z.input<typeof createPolicySchema>;
+
+export const updatePolicySchema = z
+  .strictObject({ name: text('a policy name', 160).optional(), productModelIds: modelIds.optional() })
+  .refine((v) => v.name !== undefined || v.productModelIds !== undefined, 'Nothing to change.');
+export type UpdatePolicyInput = z.input<typeof updatePolicySchema>;
+
+export const policyListQuerySchema = listQuerySchema.extend({
+  sort: z.enum(['name', '-name', 'updatedAt', '-updatedAt', 'createdAt', '-createdAt']).default('name'),
+  manufacturerId: uuidSchema.optional(),
+  productModelId: uuidSchema.optional(),
+});
+export type PolicyListQuery = z.infer<typeof policyListQuerySchema>;
+
+export type DenialReason = { code: string; label: string };
+
+export type PolicyVersionDto = {
+  id: string;
+  policyId: string;
+  versionNumber: number;
+  effectiveFrom: string;
+  termMonths: number;
+  fullCoverageMonths: number;
+  filingWindowDays: number;
+  darkLedFailurePercent: number;
+  unitCredit: string;
+  currency: string;
+  labourAllowance: string;
+  requiredPhotos: number;
+  proofOfPurchaseRequired: boolean;
+  exclusions: Exclusion[];
+  denialReasons: DenialReason[];
+  changeNote: string | null;
+  createdAt: string;
+};
+
+export type PolicyDto = {
+  id: string;
+  manufacturer: OrgRef;
+  name: string;
+  latestVersionNumber: number;
+  latestVersion: PolicyVersionDto | null;
+  models: { id: string; modelNumber: string; name: string }[];
+  createdAt: string;
+  updatedAt: string;
+  version: number;
+};
+
+export type PolicyDetailDto = PolicyDto & { versions: PolicyVersionDto[] };
+
+// ---------------------------------------------------------------------------------------------------------
+// Installations
+
+const serialSchema = z
+  .string()
+  .trim()
+  .min(1, 'A serial number or date code cannot be empty.')
+  .max(64, 'A serial number or date code has at most 64 characters.')
+  .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'Use letters, digits and . _ / - in serial numbers and date codes.');
+
+export const serialsSchema = z
+  .array(serialSchema)
+  .max(10_000, 'At most 10,000 serial numbers per installation.')
+  .superRefine((list, ctx) => {
+    const seen = new Set<string>();
+    const dup = new Set<string>();
+    for (const s of list) {
+      const k = s.toUpperCase();
+      if (seen.has(k)) dup.add(s);
+      seen.add(k);
+    }
+    if (dup.size) ctx.addIssue({ code: 'custom', message: `Listed twice: ${[...dup].join(', ')}.` });
+  });
+
+const conditionFields = {
+  location: z.enum(LOCATIONS, { error: 'Pick the location: dry, damp or wet.' }),
+  enclosure: z.enum(ENCLOSURES, { error: 'Pick the enclosure: open, enclosed, or enclosed and ventilated.' }),
+  dimmer: z.enum(DIMMERS, { error: 'Pick the dimmer: none, phase-cut or 0-10 V.' }),
+  nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS, { error: 'Pick a nominal supply: 120, 208, 240, 277, 347 or 480 V.' }),
+  hoursPerDay: num('the hours of use a day', 'h', 0, 24),
+  ambientC: num('the ambient temperature', '°C', -50, 80),
+};
+
+const installationFields = {
+  siteName: text('the site name', 160),
+  siteAddress: text('the street address', 200),
+  siteCity: text('the city', 120),
+  siteRegion: text('the state or province', 80),
+  sitePostalCode: text('the postal code', 20),
+  quantity: num('the quantity', 'units', 1, 100_000, { int: true }),
+  serials: serialsSchema,
+  installDate: isoDateSchema('the install date'),
+  purchaseDate: isoDateSchema('the purchase date').nullish().transform((v) => v ?? null),
+  distributor: optionalText('the distributor', 160),
+  invoiceNumber: optionalText('the invoice number', 64),
+  ...conditionFields,
+};
+
+type InstallationCheck = { quantity?: number; serials?: string[] };
+function checkInstallation(v: InstallationCheck, ctx: z.RefinementCtx) {
+  if (v.quantity !== undefined && v.serials !== undefined && v.serials.length > v.quantity) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['serials'],
+      message: `${v.serials.length} serial numbers for a quantity of ${v.quantity}: list at most one per unit.`,
+    });
+  }
+}
+
+export const installationInputSchema = z
+  .strictObject({ productModelId: uuidSchema, ...installationFields })
+  .superRefine(checkInstallation);
+export type InstallationInput = z.input<typeof installationInputSchema>;
+export type InstallationValues = z.output<typeof installationInputSchema>;
+
+export const updateInstallationSchema = z
+  .strictObject(
+    Object.fromEntries(Object.entries(installationFields).map(([k, v]) => [k, v.optional()])) as {
+      [K in keyof typeof installationFields]: z.ZodOptional<(typeof installationFields)[K]>;
+    },
+  )
+  .refine((v) => Object.values(v).some((x) => x !== undefined), 'Nothing to change.')
+  .superRefine(checkInstallation);
+export type UpdateInstallationInput = z.input<typeof updateInstallationSchema>;
+
+export const installationConditionsSchema = z.strictObject(conditionFields);
+export type InstallationConditions = z.infer<typeof installationConditionsSchema>;
+
+export const installationListQuerySchema = listQuerySchema.extend({
+  sort: z.enum(['installDate', '-installDate', 'siteName', '-siteName', 'quantity', '-quantity', 'createdAt', '-createdAt']).default('-installDate'),
+  productModelId: uuidSchema.optional(),
+  manufacturerId: uuidSchema.optional(),
+  contractorId: uuidSchema.optional(),
+  location: z.enum(LOCATIONS).optional(),
+  enclosure: z.enum(ENCLOSURES).optional(),
+  nominalSupplyVolts: z.coerce.number().pipe(z.literal(NOMINAL_SUPPLY_VOLTS)).optional(),
+});
+export type InstallationListQuery = z.infer<typeof installationListQuerySchema>;
+
+export type FitWarning = { code: string; message: string; reference?: string };
+
+export type InstallationDto = {
+  id: string;
+  contractor: OrgRef;
+  manufacturer: OrgRef;
+  product: { id: string; modelNumber: string; name: string; family: ProductFamily };
+  siteName: string;
+  siteAddress: string;
+  siteCity: string;
+  siteRegion: string;
+  sitePostalCode: string;
+  quantity: number;
+  serialCount: number;
+  installDate: string;
+  purchaseDate: string | null;
+  distributor: string | null;
+  invoiceNumber: string | null;
+  location: RatedLocation;
+  enclosure: Enclosure;
+  dimmer: Dimmer;
+  nominalSupplyVolts: (typeof NOMINAL_SUPPLY_VOLTS)[number];
+  hoursPerDay: number;
+  ambientC: number;
+  policyVersion: { id: string; policyId: string; policyName: string; versionNumber: number; effectiveFrom: string } | null;
+  createdAt: string;
+  updatedAt: string;
+  version: number;
+};
+
+export type InstallationDetailDto = InstallationDto & { serials: string[]; fit: FitWarning[]; productRatings: ProductDto };
+
+// ---------------------------------------------------------------------------------------------------------
+// History and import
+
+export type HistoryEventDto = {
+  id: string;
+  occurredAt: string;
+  action: string;
+  actor: { name: string; organization: string } | null;
+  before: Record<string, unknown> | null;
+  after: Record<string, unknown> | null;
+};
+
+export const importRequestSchema = z
+  .strictObject({
+    csv: z.string().max(20_000_000, 'The file is larger than 20 MB.').optional(),
+    rows: z.array(z.record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()]))).max(50_000, 'At most 50,000 rows at once.').optional(),
+    /** The spreadsheet row number of the first row sent (the header is row 1), for previews sent in chunks. */
+    firstRowNumber: z.number().int().min(2).max(10_000_000).optional(),
+  })
+  .refine((v) => (v.csv === undefined) !== (v.rows === undefined), 'Send either csv or rows.');
+export type ImportRequest = z.infer<typeof importRequestSchema>;
+
+export const importQuerySchema = z.strictObject({ dryRun: z.enum(['true', 'false']).default('false').transform((v) => v === 'true') });
+
+export type ImportRowError = { row: number; column: string; message: string };
+export type ImportResult = {
+  dryRun: boolean;
+  total: number;
+  valid: number;
+  invalid: number;
+  imported: number;
+  errors: ImportRowError[];
+  /** Errors beyond this many are counted, not listed. */
+  errorsTruncated: boolean;
+};
