@@ -10,7 +10,13 @@ import type { User } from '../../server/db/entities/user.entity';
 import type { WarrantyPolicy } from '../../server/db/entities/warranty-policy.entity';
 import type { WarrantyPolicyVersion } from '../../server/db/entities/warranty-policy-version.entity';
 import { listRoutes } from '../../server/lib/routes';
-import { createPolicy, createProduct, installationPayload, productPayload, termsPayload } from '../support/catalogue-factories';
+import {
+  createPolicy,
+  createProduct,
+  installationPayload,
+  productPayload,
+  termsPayload,
+} from '../support/catalogue-factories';
 import { createOrganization, createUser, signIn, TEST_PASSWORD } from '../support/factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
@@ -76,9 +82,12 @@ type Entry = {
 
 const validClaim = JSON.parse(fs.readFileSync('tests/shared/engine/fixtures/valid-claim.json', 'utf8'));
 const unique = () => crypto.randomBytes(4).toString('hex');
-const colleagueOf = (w: World, a: Actor) => (a !== 'anon' && KIND[a] === 'manufacturer' ? w.colleague.manufacturer : w.colleague.contractor);
-const everyone = (status: number) => Object.fromEntries(ACTORS.map((a) => [a, status])) as Record<Actor, number>;
-const members = (list: Member[], status: number) => Object.fromEntries(list.map((a) => [a, status])) as Partial<Record<Actor, number>>;
+const colleagueOf = (w: World, a: Actor) =>
+  a !== 'anon' && KIND[a] === 'manufacturer' ? w.colleague.manufacturer : w.colleague.contractor;
+const everyone = (status: number) =>
+  Object.fromEntries(ACTORS.map((a) => [a, status])) as Record<Actor, number>;
+const members = (list: Member[], status: number) =>
+  Object.fromEntries(list.map((a) => [a, status])) as Partial<Record<Actor, number>>;
 
 async function newInvitation(w: World) {
   const token = crypto.randomBytes(32).toString('base64url');
@@ -100,7 +109,10 @@ const ROUTES: Record<string, Entry> = {
   'POST /api/auth/login': {
     ok: everyone(200),
     freshSession: true,
-    body: (c) => ({ email: (c.actor === 'anon' ? c.own.users.installer : c.own.users[c.actor]).email, password: TEST_PASSWORD }),
+    body: (c) => ({
+      email: (c.actor === 'anon' ? c.own.users.installer : c.own.users[c.actor]).email,
+      password: TEST_PASSWORD,
+    }),
   },
   'POST /api/auth/logout': { ok: everyone(204), freshSession: true },
   'GET /api/auth/me': { ok: members(SIGNED_IN, 200) },
@@ -142,22 +154,38 @@ const ROUTES: Record<string, Entry> = {
   'POST /api/products': { ok: { mAdmin: 201 }, body: () => productPayload() },
   'GET /api/products/import-template': { ok: { mAdmin: 200 } },
   'POST /api/products/import': { ok: { mAdmin: 200 }, query: 'dryRun=true', body: () => ({ rows: [] }) },
-  'GET /api/products/:id': { ok: members(SIGNED_IN, 200), foreign: 'public', target: (w) => ({ id: w.product.id }) },
+  'GET /api/products/:id': {
+    ok: members(SIGNED_IN, 200),
+    foreign: 'public',
+    target: (w) => ({ id: w.product.id }),
+  },
   'PATCH /api/products/:id': {
     ok: { mAdmin: 200 },
     foreign: 'public',
     target: (w) => ({ id: w.product.id }),
     body: () => ({ name: `Troffer ${unique()}` }),
   },
-  'GET /api/products/:id/history': { ok: members(SIGNED_IN, 200), foreign: 'public', target: (w) => ({ id: w.product.id }) },
+  'GET /api/products/:id/history': {
+    ok: members(SIGNED_IN, 200),
+    foreign: 'public',
+    target: (w) => ({ id: w.product.id }),
+  },
 
   'GET /api/policies': { ok: members(SIGNED_IN, 200) },
   'POST /api/policies': {
     ok: { mAdmin: 201 },
     // A model is covered by one policy at a time: each case brings an uncovered one.
-    body: async (c) => ({ name: `Policy ${unique()}`, productModelIds: [(await createProduct(t.ds, c.own.m)).id], terms: termsPayload() }),
+    body: async (c) => ({
+      name: `Policy ${unique()}`,
+      productModelIds: [(await createProduct(t.ds, c.own.m)).id],
+      terms: termsPayload(),
+    }),
   },
-  'GET /api/policies/:id': { ok: members(SIGNED_IN, 200), foreign: 'public', target: (w) => ({ id: w.policy.id }) },
+  'GET /api/policies/:id': {
+    ok: members(SIGNED_IN, 200),
+    foreign: 'public',
+    target: (w) => ({ id: w.policy.id }),
+  },
   'PATCH /api/policies/:id': {
     ok: { mAdmin: 200 },
     foreign: 'public',
@@ -177,20 +205,34 @@ const ROUTES: Record<string, Entry> = {
     target: (w) => ({ id: w.policy.id, versionId: w.version.id }),
     body: () => ({ unitCredit: '1.00' }),
   },
-  'GET /api/policies/:id/history': { ok: members(SIGNED_IN, 200), foreign: 'public', target: (w) => ({ id: w.policy.id }) },
+  'GET /api/policies/:id/history': {
+    ok: members(SIGNED_IN, 200),
+    foreign: 'public',
+    target: (w) => ({ id: w.policy.id }),
+  },
 
   // Installations are the contractor's; the manufacturer of the installed product may read them.
   'GET /api/installations': { ok: members(SIGNED_IN, 200) },
-  'POST /api/installations': { ok: members(CONTRACTORS, 201), body: (c) => installationPayload(c.own.product.id) },
+  'POST /api/installations': {
+    ok: members(CONTRACTORS, 201),
+    body: (c) => installationPayload(c.own.product.id),
+  },
   'GET /api/installations/import-template': { ok: members(CONTRACTORS, 200) },
-  'POST /api/installations/import': { ok: members(CONTRACTORS, 200), query: 'dryRun=true', body: () => ({ rows: [] }) },
+  'POST /api/installations/import': {
+    ok: members(CONTRACTORS, 200),
+    query: 'dryRun=true',
+    body: () => ({ rows: [] }),
+  },
   'GET /api/installations/:id': { ok: members(SIGNED_IN, 200), target: (w) => ({ id: w.installationId }) },
   'PATCH /api/installations/:id': {
     ok: members(CONTRACTORS, 200),
     target: (w) => ({ id: w.installationId }),
     body: () => ({ siteName: `Site ${unique()}` }),
   },
-  'GET /api/installations/:id/history': { ok: members(SIGNED_IN, 200), target: (w) => ({ id: w.installationId }) },
+  'GET /api/installations/:id/history': {
+    ok: members(SIGNED_IN, 200),
+    target: (w) => ({ id: w.installationId }),
+  },
 
   // Demo mode only: an administrator reads their own organisation's mail.
   'GET /api/mailbox': { ok: members(['cAdmin', 'mAdmin'], 200) },
@@ -213,13 +255,26 @@ async function buildWorld(): Promise<World> {
     accountant: await createUser(t.ds, m, ['accountant']),
     mAdmin: await createUser(t.ds, m, ['administrator']),
   };
-  const colleague = { contractor: await createUser(t.ds, c, ['installer']), manufacturer: await createUser(t.ds, m, ['reviewer']) };
+  const colleague = {
+    contractor: await createUser(t.ds, c, ['installer']),
+    manufacturer: await createUser(t.ds, m, ['reviewer']),
+  };
   const product = await createProduct(t.ds, m);
   const { policy, versions } = await createPolicy(t.ds, m, [product], [{ effectiveFrom: '2023-01-01' }]);
   const installer = await signIn(t.request(), users.installer.email);
   const inst = await installer.post('/api/installations').send(installationPayload(product.id));
-  if (inst.status !== 201) throw new Error(`installation fixture: ${inst.status} ${JSON.stringify(inst.body)}`);
-  return { c, m, users, colleague, product, policy, version: versions[0], installationId: inst.body.installation.id };
+  if (inst.status !== 201)
+    throw new Error(`installation fixture: ${inst.status} ${JSON.stringify(inst.body)}`);
+  return {
+    c,
+    m,
+    users,
+    colleague,
+    product,
+    policy,
+    version: versions[0],
+    installationId: inst.body.installation.id,
+  };
 }
 
 beforeAll(async () => {
@@ -267,56 +322,83 @@ describe('authorisation matrix', () => {
     const registered = listRoutes(t.app).map(key);
     const missing = registered.filter((r) => !ROUTES[r]);
     const stale = Object.keys(ROUTES).filter((r) => !registered.includes(r));
-    expect({ 'routes without an entry in the authorisation matrix': missing, 'entries for routes that do not exist': stale }).toEqual({
+    expect({
+      'routes without an entry in the authorisation matrix': missing,
+      'entries for routes that do not exist': stale,
+    }).toEqual({
       'routes without an entry in the authorisation matrix': [],
       'entries for routes that do not exist': [],
     });
   });
 
-  it('every actor gets exactly the expected answer on own, foreign and missing records', { timeout: 600_000 }, async () => {
-    const mismatches: string[] = [];
-    let cases = 0;
-    const routes = listRoutes(t.app).filter((r) => ROUTES[key(r)]);
-    for (const r of routes) {
-      const name = key(r);
-      const entry = ROUTES[name];
-      const names = paramNames(r.path);
-      const kinds: Case[] = names.length === 0 ? ['own'] : entry.foreign === 'none' ? ['own', 'missing'] : ['own', 'foreign', 'missing'];
-      for (const actor of ACTORS) {
-        const bodies: Partial<Record<Case, { status: number; body: unknown }>> = {};
-        for (const kase of kinds) {
-          cases++;
-          const world = kase === 'foreign' ? w2 : w1;
-          let params: Params = {};
-          if (names.length) {
-            params =
-              kase === 'missing'
-                ? Object.fromEntries(names.map((n) => [n, n === 'token' ? crypto.randomBytes(32).toString('base64url') : crypto.randomUUID()]))
-                : await entry.target!(world, actor);
+  it(
+    'every actor gets exactly the expected answer on own, foreign and missing records',
+    { timeout: 600_000 },
+    async () => {
+      const mismatches: string[] = [];
+      let cases = 0;
+      const routes = listRoutes(t.app).filter((r) => ROUTES[key(r)]);
+      for (const r of routes) {
+        const name = key(r);
+        const entry = ROUTES[name];
+        const names = paramNames(r.path);
+        const kinds: Case[] =
+          names.length === 0
+            ? ['own']
+            : entry.foreign === 'none'
+              ? ['own', 'missing']
+              : ['own', 'foreign', 'missing'];
+        for (const actor of ACTORS) {
+          const bodies: Partial<Record<Case, { status: number; body: unknown }>> = {};
+          for (const kase of kinds) {
+            cases++;
+            const world = kase === 'foreign' ? w2 : w1;
+            let params: Params = {};
+            if (names.length) {
+              params =
+                kase === 'missing'
+                  ? Object.fromEntries(
+                      names.map((n) => [
+                        n,
+                        n === 'token' ? crypto.randomBytes(32).toString('base64url') : crypto.randomUUID(),
+                      ]),
+                    )
+                  : await entry.target!(world, actor);
+            }
+            const url =
+              r.path.replace(/:([A-Za-z]+)/g, (_m, n: string) => encodeURIComponent(params[n])) +
+              (entry.query ? `?${entry.query}` : '');
+            const agent =
+              entry.freshSession && actor !== 'anon'
+                ? await signIn(t.request(), w1.users[actor].email)
+                : entry.freshSession
+                  ? t.request()
+                  : agents.get(actor)!;
+            const body = await entry.body?.({ actor, world, own: w1, params });
+            const want = expected(entry, name, actor, kase);
+            const before = want >= 400 ? await auditCount() : 0;
+            const res = await send(agent, r.method, url, body);
+            bodies[kase] = { status: res.status, body: res.body };
+            const where = `${name} [${actor}, ${kase}]`;
+            if (res.status !== want) {
+              mismatches.push(
+                `${where}: expected ${want}, got ${res.status} ${JSON.stringify(res.body).slice(0, 160)}`,
+              );
+            } else if (want >= 400 && (await auditCount()) !== before) {
+              mismatches.push(`${where}: refused with ${want} but wrote an audit event`);
+            }
           }
-          const url = r.path.replace(/:([A-Za-z]+)/g, (_m, n: string) => encodeURIComponent(params[n])) + (entry.query ? `?${entry.query}` : '');
-          const agent =
-            entry.freshSession && actor !== 'anon' ? await signIn(t.request(), w1.users[actor].email) : entry.freshSession ? t.request() : agents.get(actor)!;
-          const body = await entry.body?.({ actor, world, own: w1, params });
-          const want = expected(entry, name, actor, kase);
-          const before = want >= 400 ? await auditCount() : 0;
-          const res = await send(agent, r.method, url, body);
-          bodies[kase] = { status: res.status, body: res.body };
-          const where = `${name} [${actor}, ${kase}]`;
-          if (res.status !== want) {
-            mismatches.push(`${where}: expected ${want}, got ${res.status} ${JSON.stringify(res.body).slice(0, 160)}`);
-          } else if (want >= 400 && (await auditCount()) !== before) {
-            mismatches.push(`${where}: refused with ${want} but wrote an audit event`);
+          const f = bodies.foreign;
+          const m = bodies.missing;
+          if (f && m && f.status === 404 && JSON.stringify(f.body) !== JSON.stringify(m.body)) {
+            mismatches.push(
+              `${name} [${actor}]: a foreign record answers ${JSON.stringify(f.body)}, a missing one ${JSON.stringify(m.body)}`,
+            );
           }
-        }
-        const f = bodies.foreign;
-        const m = bodies.missing;
-        if (f && m && f.status === 404 && JSON.stringify(f.body) !== JSON.stringify(m.body)) {
-          mismatches.push(`${name} [${actor}]: a foreign record answers ${JSON.stringify(f.body)}, a missing one ${JSON.stringify(m.body)}`);
         }
       }
-    }
-    console.info(`authorisation matrix: ${routes.length} routes x ${ACTORS.length} actors, ${cases} cases`);
-    expect(mismatches).toEqual([]);
-  });
+      console.info(`authorisation matrix: ${routes.length} routes x ${ACTORS.length} actors, ${cases} cases`);
+      expect(mismatches).toEqual([]);
+    },
+  );
 });
