@@ -7,7 +7,7 @@ import mysql from 'mysql2/promise';
 // Lifecycle of a private MariaDB server for the demo and for the tests: Debian's mariadbd, its own data
 // directory under .data/, listening on 127.0.0.1 only, stopped by its pid.
 
-export type DbProfile = 'demo' | 'test' | 'e2e';
+export type DbProfile = 'demo' | 'test' | 'e2e' | 'restore';
 
 export type LocalDb = {
   url: string;

@@ -104,14 +104,14 @@ export const lumenMaintenanceSchema = z
 
 export const productSchema = z
   .strictObject({
-    ratedInputWatts: positive(100_000),
+    ratedInputWatts: z.number().min(0.1).max(100_000),
     inputVoltage: z.strictObject({ min: positive(1000), max: positive(1000) }),
     ledStrings: count(1, 1000),
     ledsPerString: count(1, 1000),
     /** Nominal forward voltage of one LED at rated current. */
-    ledForwardVolts: positive(50),
+    ledForwardVolts: z.number().min(0.1).max(50),
     /** The driver's rated constant output current, all strings together. */
-    driverOutputAmps: positive(100),
+    driverOutputAmps: z.number().min(0.001).max(100),
     /** Open-circuit output voltage limit of the driver. */
     driverMaxOutputVolts: positive(2000).optional(),
     location: z.enum(LOCATIONS),

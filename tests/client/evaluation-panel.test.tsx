@@ -2,7 +2,7 @@ import { cleanup, render, renderHook, screen, within } from '@testing-library/re
 import { afterEach, describe, expect, it } from 'vitest';
 
 import { evaluateClaim } from '../../shared/engine';
-import { EvaluationPanel } from '../../src/features/evaluation/components/EvaluationPanel';
+import { EvaluationPanel } from '../../src/features/evaluation/components/evaluation-panel';
 import { useLiveEvaluation } from '../../src/features/evaluation/hooks/use-live-evaluation';
 import { baseInput, makeInput } from '../shared/engine/factory';
 

@@ -7,7 +7,9 @@ import {
   evaluateClaim,
   evaluationInputSchema,
   evaluationSchema,
+  FINDING_CODES,
   LOCATIONS,
+  safeEvaluateClaim,
   NOMINAL_SUPPLY_VOLTS,
   SYMPTOMS,
   type EvaluationInput,
@@ -165,9 +167,9 @@ describe('engine properties', () => {
     fc.assert(
       fc.property(validInput, (input) => {
         const e = evaluateClaim(evaluationInputSchema.parse(input));
-        expect(evaluationSchema.safeParse(e).success).toBe(true);
+        expect(evaluationSchema.safeParse(e).error?.issues ?? []).toEqual([]);
       }),
-      { numRuns: 500 },
+      { numRuns: 1000 },
     );
   });
 
@@ -203,15 +205,32 @@ describe('engine properties', () => {
     );
   });
 
-  it('answers excluded exactly when a finding excludes, review when one asks for review', () => {
+  it('answers only listed codes; excluded exactly when a finding excludes, review when one asks for review', () => {
     fc.assert(
       fc.property(validInput, (input) => {
         const e = evaluateClaim(input);
         const effects = new Set(e.findings.map((f) => f.effect));
+        for (const f of e.findings) expect(FINDING_CODES).toContain(f.code);
         expect(e.verdict).toBe(
           effects.has('exclude') ? 'excluded' : effects.has('review') ? 'review' : 'covered',
         );
       }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('never throws on any JSON at all, valid or not', () => {
+    fc.assert(
+      fc.property(
+        fc.oneof(
+          fc.jsonValue(),
+          validInput.map((i) => ({ ...i, claim: { ...i.claim, units: 0 } })),
+        ),
+        (data) => {
+          const r = safeEvaluateClaim(data);
+          if (!r.ok) expect(r.issues.length).toBeGreaterThan(0);
+        },
+      ),
       { numRuns: 300 },
     );
   });

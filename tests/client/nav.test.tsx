@@ -1,0 +1,18 @@
+import { describe, expect, it } from 'vitest';
+import { defineAbilityFor } from '../../shared/abilities';
+import type { OrganizationKind, Role } from '../../shared/roles';
+import { navFor } from '../../src/config/nav';
+
+const user = (roles: Role[], kind: OrganizationKind) => ({ id: 'u1', roles, organization: { id: 'o1', kind } });
+
+describe('navigation by role', () => {
+  it('shows each role only what it may do', () => {
+    const labels = (roles: Role[], kind: OrganizationKind, demoMode = true) =>
+      navFor(defineAbilityFor(user(roles, kind), { demoMode })).map((i) => i.label);
+    expect(labels(['installer'], 'contractor')).toEqual(['Home']);
+    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home']);
+    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home']);
+    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'People', 'Mailbox']);
+    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'People']);
+  });
+});
