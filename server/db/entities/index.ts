@@ -1,4 +1,6 @@
 import { AuditEvent } from './audit-event.entity';
+import { ClaimBatch } from './claim-batch.entity';
+import { Claim } from './claim.entity';
 import { InstallationUnit } from './installation-unit.entity';
 import { Installation } from './installation.entity';
 import { Invitation } from './invitation.entity';
@@ -25,4 +27,6 @@ export const entities = [
   PolicyModel,
   Installation,
   InstallationUnit,
+  Claim,
+  ClaimBatch,
 ];
