@@ -99,7 +99,7 @@ export const claimMeasurementsSchema = z.strictObject({
   driverOutputAmps: reading('the driver output current', 'A', 100),
   strings: z.array(stringReadingInputSchema).max(1000, 'At most 1,000 strings.').optional(),
 });
-export type ClaimMeasurements = z.output<typeof claimMeasurementsSchema>;
+export type ClaimMeasurements = Partial<z.output<typeof claimMeasurementsSchema>>;
 export type ClaimMeasurementsInput = z.input<typeof claimMeasurementsSchema>;
 
 export const claimObservationsSchema = z.strictObject(
