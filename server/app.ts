@@ -17,6 +17,7 @@ import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { authRouter } from './modules/auth/auth.router';
+import { claimsRouter } from './modules/claims/claims.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
@@ -108,6 +109,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
+  api.use('/claims', claimsRouter(ctx));
   api.use('/evaluations', evaluationsRouter());
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));

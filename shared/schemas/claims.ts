@@ -71,8 +71,7 @@ const reading = (what: string, unit: string, max: number) =>
     .refine(Number.isFinite, `Enter ${what} as a number of ${unit}.`)
     .min(0, `${what[0].toUpperCase()}${what.slice(1)} cannot be negative.`)
     .max(max, `${what[0].toUpperCase()}${what.slice(1)} must be at most ${max.toLocaleString('en-US')} ${unit}: check the meter's range.`)
-    .nullish()
-    .transform((v) => v ?? undefined);
+    .optional();
 
 export const stringReadingInputSchema = z.strictObject({
   volts: reading('the string voltage', 'V', 2000),
@@ -82,8 +81,7 @@ export const stringReadingInputSchema = z.strictObject({
     .int('Enter the dark LEDs as a whole number.')
     .min(0, 'Dark LEDs cannot be negative.')
     .max(1000, 'At most 1,000 dark LEDs on one string.')
-    .nullish()
-    .transform((v) => v ?? undefined),
+    .optional(),
 });
 
 export const claimMeasurementsSchema = z.strictObject({
@@ -93,13 +91,12 @@ export const claimMeasurementsSchema = z.strictObject({
     .number({ error: 'Enter the power factor as a number between 0 and 1, like 0.93.' })
     .gt(0, 'The power factor must be above 0.')
     .max(1, 'The power factor is at most 1 (a reading like 93 % is 0.93).')
-    .nullish()
-    .transform((v) => v ?? undefined),
+    .optional(),
   driverOutputVolts: reading('the driver output voltage', 'V', 2000),
   driverOutputAmps: reading('the driver output current', 'A', 100),
   strings: z.array(stringReadingInputSchema).max(1000, 'At most 1,000 strings.').optional(),
 });
-export type ClaimMeasurements = Partial<z.output<typeof claimMeasurementsSchema>>;
+export type ClaimMeasurements = z.output<typeof claimMeasurementsSchema>;
 export type ClaimMeasurementsInput = z.input<typeof claimMeasurementsSchema>;
 
 export const claimObservationsSchema = z.strictObject(
