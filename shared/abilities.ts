@@ -14,7 +14,6 @@ export type Action =
   | 'invite'
   | 'disable'
   | 'file'
-  | 'withdraw'
   | 'review'
   | 'decide'
   | 'credit'
@@ -75,7 +74,7 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     can('read', 'CreditMemo', { contractorId: orgId });
     if (has('installer') || has('administrator')) {
       can(['create', 'update'], 'Installation', { contractorId: orgId });
-      can(['create', 'update', 'file', 'withdraw', 'delete'], 'Claim', { contractorId: orgId });
+      can(['create', 'update', 'file', 'delete'], 'Claim', { contractorId: orgId });
     }
   }
 

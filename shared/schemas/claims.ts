@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { STAGE_LABELS, STAGES, type Stage } from '../claims/stages';
 import { SYMPTOMS, type Evaluation, type Verdict } from '../engine';
 import { isoDateSchema, uuidSchema, type HistoryEventDto, type OrgRef, type ProductFamily } from './catalogue';
 import { listQuerySchema } from './users';
@@ -6,35 +7,10 @@ import { listQuerySchema } from './users';
 // Claims: one strict schema per payload, shared by the claim form (its resolver and the live checks), the CSV
 // batch import and the server. Readings are stored in base units (V, A, W); the form converts what meters show.
 
-/** The stages of API.md, in journey order. The screens word them in CLAIM_STAGE_LABELS. */
-export const CLAIM_STAGES = [
-  'draft',
-  'filed',
-  'in_review',
-  'needs_info',
-  'return_requested',
-  'unit_received',
-  'approved',
-  'denied',
-  'credited',
-  'closed',
-  'withdrawn',
-] as const;
-export type ClaimStage = (typeof CLAIM_STAGES)[number];
-
-export const CLAIM_STAGE_LABELS: Record<ClaimStage, string> = {
-  draft: 'Draft',
-  filed: 'Filed',
-  in_review: 'In review',
-  needs_info: 'Needs information',
-  return_requested: 'Return requested',
-  unit_received: 'Unit received',
-  approved: 'Approved',
-  denied: 'Denied',
-  credited: 'Credited',
-  closed: 'Closed',
-  withdrawn: 'Withdrawn',
-};
+// The stage names and their wording come from the stage machine (shared/claims/stages.ts), defined once.
+export const CLAIM_STAGES = STAGES;
+export type ClaimStage = Stage;
+export const CLAIM_STAGE_LABELS: Record<ClaimStage, string> = STAGE_LABELS;
 
 /** Stages where the claim is still open: something is left to do by one side or the other. */
 export const OPEN_STAGES: readonly ClaimStage[] = ['draft', 'filed', 'in_review', 'needs_info', 'return_requested', 'unit_received', 'approved'];
@@ -151,10 +127,6 @@ export type UpdateClaimInput = z.input<typeof updateClaimSchema>;
 export const fileClaimSchema = z.strictObject({
   /** Optional: file only if the draft is still at this version (what the user last saw). */
   version: z.number().int().min(1).optional(),
-});
-
-export const withdrawClaimSchema = z.strictObject({
-  reason: z.string().trim().max(1000, 'The reason has at most 1,000 characters.').optional(),
 });
 
 const stageList = z

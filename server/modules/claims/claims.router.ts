@@ -5,9 +5,9 @@ import {
   createClaimSchema,
   fileClaimSchema,
   updateClaimSchema,
-  withdrawClaimSchema,
   type ClaimAttachmentDto,
 } from '../../../shared/schemas/claims';
+import { withdrawSchema } from '../../../shared/claims/actions.schema';
 import type { AppContext } from '../../context';
 import { Installation } from '../../db/entities/installation.entity';
 import { User } from '../../db/entities/user.entity';
@@ -42,7 +42,7 @@ export function claimsRouter(ctx: AppContext, opts: { attachments?: ClaimAttachm
   const service = opts.service ?? createClaimsService(ctx.ds, { publicUrl: ctx.publicUrl, evidence: opts.attachments?.evidence });
   r.use(requireUser);
 
-  const load = async (req: Request, action: 'read' | 'update' | 'file' | 'withdraw' | 'delete') => {
+  const load = async (req: Request, action: 'read' | 'update' | 'file' | 'delete') => {
     const { id } = parseWith(idParam, req.params, 'address');
     const claim = await service.findById(id);
     authorize(req, action, 'Claim', claim, 'claim');
@@ -85,8 +85,9 @@ export function claimsRouter(ctx: AppContext, opts: { attachments?: ClaimAttachm
   });
 
   r.post('/:id/withdraw', async (req, res) => {
-    const input = parseBody(withdrawClaimSchema, req);
-    const claim = await load(req, 'withdraw');
+    const input = parseBody(withdrawSchema, req);
+    // The stage machine's withdraw move asks for the same ability as filing.
+    const claim = await load(req, 'file');
     await service.withdraw(claim, input.reason, req.user!, actorFromRequest(req));
     res.json({ claim: await claimDetail(ctx, req, (await service.findById(claim.id))!, opts.attachments) });
   });

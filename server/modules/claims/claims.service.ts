@@ -9,11 +9,12 @@ import {
   OPEN_STAGES,
   type ClaimFields,
   type ClaimListQuery,
-  type ClaimStage,
   type FilingIssue,
   type UpdateClaimInput,
 } from '../../../shared/schemas/claims';
+import { canPerform, REFUSAL_STATUS, type Refusal } from '../../../shared/claims/stages';
 import type { SessionUser } from '../../auth/passport';
+import { toAbilityUser } from '../../middleware/auth';
 import type { AppDataSource } from '../../db/data-source';
 import { Claim } from '../../db/entities/claim.entity';
 import type { Installation } from '../../db/entities/installation.entity';
@@ -34,8 +35,9 @@ const SORTS = {
   number: 'c.number',
 };
 
-/** Stages a claim may be withdrawn from (PRODUCT.md: while a draft, filed or waiting on the installer). */
-export const WITHDRAWABLE: readonly ClaimStage[] = ['draft', 'filed', 'needs_info'];
+function refuse(r: Refusal): never {
+  throw new AppError(REFUSAL_STATUS[r.code], r.code, r.message, r.details);
+}
 
 export type LoadedClaim = Claim & {
   installation: Installation & { units: { serial: string }[] };
@@ -271,9 +273,11 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
         // The row lock makes a second, simultaneous request wait here and then see the claim filed.
         const locked = await loadWith(m, claimId, true);
         if (!locked) throw new AppError(404, 'not_found', 'That claim does not exist or is not shared with you.');
-        if (locked.stage !== 'draft') {
-          if (locked.stage === 'withdrawn') throw conflict('claim.invalid_transition', 'This claim was withdrawn; a withdrawn claim cannot be filed.');
-          return { id: claimId, replayed: true };
+        const move = canPerform(locked, toAbilityUser(user), 'file');
+        if (!move.ok) {
+          // Already filed (and anywhere past it): the same claim again, so a retry or a double tap files once.
+          if (move.code === 'claim.invalid_transition' && locked.stage !== 'withdrawn') return { id: claimId, replayed: true };
+          refuse(move);
         }
         if (when.version !== undefined && when.version !== locked.version) {
           throw conflict('claim.changed', 'This draft was changed elsewhere since you opened it. Reload, check it and file again.');
@@ -351,12 +355,8 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
     },
 
     async withdraw(target: LoadedClaim, reason: string | undefined, user: SessionUser, actor: Actor) {
-      if (!WITHDRAWABLE.includes(target.stage)) {
-        throw conflict(
-          'claim.invalid_transition',
-          `A claim that is ${CLAIM_STAGE_LABELS[target.stage].toLowerCase()} cannot be withdrawn; only a draft, a filed claim or one waiting on you can.`,
-        );
-      }
+      const move = canPerform(target, toAbilityUser(user), 'withdraw', reason === undefined ? {} : { reason });
+      if (!move.ok) refuse(move);
       await ds.transaction(async (m) => {
         const now = clock.now();
         const result = await m
