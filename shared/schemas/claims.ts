@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { STAGE_LABELS, STAGES, type Stage } from '../claims/stages';
 import { SYMPTOMS, type Evaluation, type Verdict } from '../engine';
+import type { AttachmentDto } from './attachments';
 import { isoDateSchema, uuidSchema, type HistoryEventDto, type OrgRef, type ProductFamily } from './catalogue';
 import { listQuerySchema } from './users';
 
@@ -265,16 +266,6 @@ export type ClaimEngineContext = {
   };
 };
 
-export type ClaimAttachmentDto = {
-  id: string;
-  kind: string;
-  filename: string;
-  contentType: string;
-  size: number;
-  url: string;
-  createdAt: string;
-};
-
 export type ClaimDetailDto = ClaimListItemDto & {
   symptoms: Symptom[];
   measurements: ClaimMeasurements;
@@ -294,7 +285,7 @@ export type ClaimDetailDto = ClaimListItemDto & {
   };
   engineContext: ClaimEngineContext;
   evaluation: (Evaluation & { evaluatedAt: string }) | null;
-  attachments: ClaimAttachmentDto[];
+  attachments: AttachmentDto[];
   /** What the manufacturer asked for (information or a return); the review issue fills this in. */
   requests: { id: string; kind: string; message: string; createdAt: string; answeredAt: string | null }[];
   decision: null | Record<string, unknown>;

@@ -1,4 +1,5 @@
-import type { ClaimAttachmentDto, ClaimDetailDto, ClaimListItemDto, FilingIssue } from '../../../shared/schemas/claims';
+import type { AttachmentDto } from '../../../shared/schemas/attachments';
+import type { ClaimDetailDto, ClaimListItemDto, FilingIssue } from '../../../shared/schemas/claims';
 import type { HistoryEventDto } from '../../../shared/schemas/catalogue';
 import type { Claim } from '../../db/entities/claim.entity';
 import type { LoadedClaim } from './claims.service';
@@ -30,7 +31,7 @@ export function presentClaimListItem(c: Claim): ClaimListItemDto {
 
 export function presentClaimDetail(
   c: LoadedClaim,
-  extra: { history: HistoryEventDto[]; attachments: ClaimAttachmentDto[]; filingIssues: FilingIssue[]; createdBy: { id: string; name: string } | null },
+  extra: { history: HistoryEventDto[]; attachments: AttachmentDto[]; filingIssues: FilingIssue[]; createdBy: { id: string; name: string } | null },
 ): ClaimDetailDto {
   const i = c.installation;
   const v = c.policyVersion;

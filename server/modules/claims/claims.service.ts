@@ -16,6 +16,7 @@ import { canPerform, REFUSAL_STATUS, type Refusal } from '../../../shared/claims
 import type { SessionUser } from '../../auth/passport';
 import { toAbilityUser } from '../../middleware/auth';
 import type { AppDataSource } from '../../db/data-source';
+import { Attachment } from '../../db/entities/attachment.entity';
 import { Claim } from '../../db/entities/claim.entity';
 import type { Installation } from '../../db/entities/installation.entity';
 import { User } from '../../db/entities/user.entity';
@@ -393,6 +394,8 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
       await ds.transaction(async (m) => {
         const result = await m.createQueryBuilder().delete().from(Claim).where("id = :id AND stage = 'draft'", { id: target.id }).execute();
         if (!result.affected) throw conflict('claim.changed', 'This claim changed just now. Reload and try again.');
+        // The draft's files go with it (marked removed; the bytes stay until a clean-up, as for any removal).
+        await m.softDelete(Attachment, { ownerType: 'claim', ownerId: target.id });
         await recordAudit(m, actor, { action: 'claim.deleted', entityType: 'Claim', entityId: target.id, before: { stage: 'draft', ...claimAuditView(claimFieldsOf(target)) } });
       });
     },
