@@ -1,4 +1,4 @@
-import type { ClaimDetailDto, ClaimFieldsInput } from '../../../../shared/schemas/claims';
+import type { ClaimBatchResult, ClaimDetailDto, ClaimFieldsInput } from '../../../../shared/schemas/claims';
 import { api } from '../../../lib/api-client';
 
 export const createClaim = (installationId: string, fields: ClaimFieldsInput = {}) =>
@@ -18,3 +18,6 @@ export const withdrawClaim = (id: string, reason?: string) =>
   api<{ claim: ClaimDetailDto }>(`/claims/${encodeURIComponent(id)}/withdraw`, { method: 'POST', json: reason ? { reason } : {} });
 
 export const deleteClaim = (id: string) => api<void>(`/claims/${encodeURIComponent(id)}`, { method: 'DELETE' });
+
+export const importClaimBatch = (csv: string, filename: string, dryRun: boolean) =>
+  api<ClaimBatchResult>(`/claims/batches${dryRun ? '?dryRun=true' : ''}`, { method: 'POST', json: { csv, filename } });
