@@ -19,6 +19,7 @@ import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { authRouter } from './modules/auth/auth.router';
+import { claimsRouter } from './modules/claims/claims.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
@@ -104,6 +105,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(requireJsonBody);
   // Spreadsheet imports carry a whole file (10,000 rows is about 2 MB); every other body stays small.
   api.use(['/products/import', '/installations/import'], express.json({ limit: '20mb', strict: true }));
+  api.use('/claims/batches', express.json({ limit: '6mb', strict: true }));
   api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
   api.use(sessionMiddleware(config, sessionStore));
@@ -117,6 +119,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
+  api.use('/claims', claimsRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));

@@ -1,5 +1,7 @@
 import { Attachment } from './attachment.entity';
 import { AuditEvent } from './audit-event.entity';
+import { ClaimBatch } from './claim-batch.entity';
+import { Claim } from './claim.entity';
 import { InstallationUnit } from './installation-unit.entity';
 import { Installation } from './installation.entity';
 import { Invitation } from './invitation.entity';
@@ -26,5 +28,7 @@ export const entities = [
   PolicyModel,
   Installation,
   InstallationUnit,
+  Claim,
+  ClaimBatch,
   Attachment,
 ];

@@ -3,6 +3,7 @@ import { Foundation1796165467051 } from './1796165467051-Foundation';
 import { SessionsAndAuditGuard1796165468051 } from './1796165468051-SessionsAndAuditGuard';
 import { Catalogue1796166270710 } from './1796166270710-Catalogue';
 import { CatalogueGuards1796166271710 } from './1796166271710-CatalogueGuards';
+import { Claims1796166977901 } from './1796166977901-Claims';
 import { Attachments1796167007046 } from './1796167007046-Attachments';
 
 export const migrations = [
@@ -10,5 +11,6 @@ export const migrations = [
   SessionsAndAuditGuard1796165468051,
   Catalogue1796166270710,
   CatalogueGuards1796166271710,
+  Claims1796166977901,
   Attachments1796167007046,
 ];
