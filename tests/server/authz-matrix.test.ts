@@ -17,7 +17,9 @@ import {
   productPayload,
   termsPayload,
 } from '../support/catalogue-factories';
+import { createDraft, daysAgo, goodClaimFields } from '../support/claim-factories';
 import { createOrganization, createUser, signIn, TEST_PASSWORD } from '../support/factories';
+import { pngImage } from '../support/upload-fixtures';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
 // Every route the server registers x every actor x own, foreign and missing record. The expected answers live
@@ -53,15 +55,25 @@ type World = {
   policy: WarrantyPolicy;
   version: WarrantyPolicyVersion;
   installationId: string;
+  serial: string;
+  /** The world's installer, signed in, for making records. */
+  agent: supertest.Agent;
+  draftId: string;
+  /** A filed claim with a photo attached while it was a draft. */
+  filedId: string;
+  filedPhotoId: string;
+  draftPhotoId: string;
+  batchId: string;
 };
 
 type Params = Record<string, string>;
-type Case = 'own' | 'foreign' | 'missing';
+/** own: the actor's world; foreign: the other world; missing: made-up ids; crossed: own first id, foreign second. */
+type Case = 'own' | 'foreign' | 'missing' | 'crossed';
 type Ctx = { actor: Actor; world: World; own: World; params: Params };
 
 type Entry = {
   /** The actors that pass authorisation on their own (or tied) record, with the status each then gets. */
-  ok: Partial<Record<Actor, number>>;
+  ok?: Partial<Record<Actor, number>>;
   /** What the other signed-in actors get: 403 (may read, may not act) or 404 (may not even read). */
   denied?: number | Partial<Record<Member, number>>;
   /** Foreign records: hidden (404 like missing) or public (catalogue: readable by everyone signed in). */
@@ -78,6 +90,14 @@ type Entry = {
   freshSession?: boolean;
   /** Why an allowed actor still gets 409/422 here. */
   stateReason?: string;
+  /** What an own first id with the other world's second id answers, where not the usual (404 once past the check). */
+  crossed?: number;
+  /** A multipart upload instead of a JSON body. */
+  upload?: () => Promise<{ purpose: string; file: Buffer; filename: string }>;
+  /** The body names a record (no route parameter): also send it naming the other world's record. */
+  foreignBody?: boolean;
+  /** The same route at the stages that matter: each variant overrides parts of the entry. */
+  variants?: Record<string, Partial<Omit<Entry, 'variants'>>>;
 };
 
 const validClaim = JSON.parse(fs.readFileSync('tests/shared/engine/fixtures/valid-claim.json', 'utf8'));
@@ -101,6 +121,42 @@ async function newInvitation(w: World) {
   });
   return { token };
 }
+
+async function newDraft(w: World) {
+  return (await createDraft(w.agent, w.installationId, goodClaimFields(w.serial))).id;
+}
+async function newPhoto(w: World, claimId: string) {
+  const r = await w.agent
+    .post(`/api/claims/${claimId}/attachments`)
+    .field('purpose', 'failure')
+    .attach('file', await pngImage(64, 48), 'strings.png');
+  if (r.status !== 201) throw new Error(`photo fixture: ${r.status} ${JSON.stringify(r.body)}`);
+  return r.body.attachment.id as string;
+}
+async function fileIt(w: World, claimId: string) {
+  const r = await w.agent.post(`/api/claims/${claimId}/file`).send({});
+  if (r.status !== 200) throw new Error(`filing fixture: ${r.status} ${JSON.stringify(r.body)}`);
+  return claimId;
+}
+const newFiled = async (w: World) => fileIt(w, await newDraft(w));
+const BATCH_HEADER =
+  'serial,units,failed_on,symptoms,supply_volts,input_watts,power_factor,driver_output_volts,driver_output_amps,water_ingress,narrative';
+const batchCsv = (w: World) =>
+  `${BATCH_HEADER}\n${w.serial},1,${daysAgo(9)},dark,277,,,,,no,Completely dark since Monday.`;
+async function newBatch(w: World) {
+  const r = await w.agent.post('/api/claims/batches').send({ csv: batchCsv(w), filename: 'matrix.csv' });
+  if (r.status !== 201) throw new Error(`batch fixture: ${r.status} ${JSON.stringify(r.body)}`);
+  return r.body.batchId as string;
+}
+const photoUpload = async () => ({
+  purpose: 'failure',
+  file: await pngImage(64, 48),
+  filename: 'matrix.png',
+});
+
+// Claims: the contractor's from the draft on; the manufacturer's only once filed (a draft is 404 to them).
+const CLAIM_READ: Partial<Entry> = { ok: members(SIGNED_IN, 200) };
+const DRAFT_READ: Partial<Entry> = { ok: members(CONTRACTORS, 200), denied: members(MANUFACTURERS, 404) };
 
 // ---------------------------------------------------------------------------------------------------------
 // The table.
@@ -201,6 +257,8 @@ const ROUTES: Record<string, Entry> = {
   'PATCH /api/policies/:id/versions/:versionId': {
     ok: { mAdmin: 409 },
     stateReason: 'versions are immutable: the owner gets 409 after authorisation',
+    // The version is looked up under the policy before the right to change it is checked.
+    crossed: 404,
     foreign: 'public',
     target: (w) => ({ id: w.policy.id, versionId: w.version.id }),
     body: () => ({ unitCredit: '1.00' }),
@@ -234,6 +292,116 @@ const ROUTES: Record<string, Entry> = {
     target: (w) => ({ id: w.installationId }),
   },
 
+  // Claims. A claim ties its contractor and manufacturer; a draft is the contractor's alone.
+  'GET /api/claims': { ok: members(SIGNED_IN, 200) },
+  'POST /api/claims': {
+    ok: members(CONTRACTORS, 201),
+    // The manufacturer may read the installation (their product) but not start a claim on it.
+    foreignBody: true,
+    body: (c) => ({ installationId: c.world.installationId, ...goodClaimFields(c.world.serial) }),
+  },
+  'GET /api/claims/:id': {
+    variants: {
+      draft: { ...DRAFT_READ, target: (w) => ({ id: w.draftId }) },
+      filed: { ...CLAIM_READ, target: (w) => ({ id: w.filedId }) },
+    },
+  },
+  'PATCH /api/claims/:id': {
+    body: () => ({ version: 1, narrative: 'Edited by the matrix.' }),
+    variants: {
+      draft: { ok: members(CONTRACTORS, 200), denied: 404, target: async (w) => ({ id: await newDraft(w) }) },
+      filed: {
+        ok: members(CONTRACTORS, 409),
+        stateReason: 'a filed claim is no longer editable',
+        target: async (w) => ({ id: await newFiled(w) }),
+      },
+    },
+  },
+  'POST /api/claims/:id/file': {
+    body: () => ({}),
+    variants: {
+      draft: { ok: members(CONTRACTORS, 200), denied: 404, target: async (w) => ({ id: await newDraft(w) }) },
+      // Filing a filed claim answers it as it is (a retry or a double tap files once).
+      filed: { ok: members(CONTRACTORS, 200), target: async (w) => ({ id: await newFiled(w) }) },
+    },
+  },
+  'POST /api/claims/:id/withdraw': {
+    body: () => ({ reason: 'Found a loose connector.' }),
+    variants: {
+      draft: { ok: members(CONTRACTORS, 200), denied: 404, target: async (w) => ({ id: await newDraft(w) }) },
+      filed: { ok: members(CONTRACTORS, 200), target: async (w) => ({ id: await newFiled(w) }) },
+    },
+  },
+  'DELETE /api/claims/:id': {
+    variants: {
+      draft: { ok: members(CONTRACTORS, 204), denied: 404, target: async (w) => ({ id: await newDraft(w) }) },
+      filed: {
+        ok: members(CONTRACTORS, 409),
+        stateReason: 'only a draft can be deleted',
+        target: async (w) => ({ id: await newFiled(w) }),
+      },
+    },
+  },
+
+  // Attachments: read with the claim; added while a draft (or while waiting on the installer), removed only
+  // before filing. Downloads included: a foreign download is a 404.
+  'GET /api/claims/:id/attachments': {
+    variants: {
+      draft: { ...DRAFT_READ, target: (w) => ({ id: w.draftId }) },
+      filed: { ...CLAIM_READ, target: (w) => ({ id: w.filedId }) },
+    },
+  },
+  'POST /api/claims/:id/attachments': {
+    upload: photoUpload,
+    variants: {
+      draft: { ok: members(CONTRACTORS, 201), denied: 404, target: async (w) => ({ id: await newDraft(w) }) },
+      filed: { ok: {}, target: (w) => ({ id: w.filedId }) },
+    },
+  },
+  ...Object.fromEntries(
+    ['', '/content', '/thumbnail'].map((suffix) => [
+      `GET /api/claims/:id/attachments/:attachmentId${suffix}`,
+      {
+        variants: {
+          draft: { ...DRAFT_READ, target: (w: World) => ({ id: w.draftId, attachmentId: w.draftPhotoId }) },
+          filed: { ...CLAIM_READ, target: (w: World) => ({ id: w.filedId, attachmentId: w.filedPhotoId }) },
+        },
+      } satisfies Entry,
+    ]),
+  ),
+  'DELETE /api/claims/:id/attachments/:attachmentId': {
+    variants: {
+      draft: {
+        ok: members(CONTRACTORS, 204),
+        denied: 404,
+        target: async (w) => {
+          const id = await newDraft(w);
+          return { id, attachmentId: await newPhoto(w, id) };
+        },
+      },
+      filed: { ok: {}, target: (w) => ({ id: w.filedId, attachmentId: w.filedPhotoId }) },
+    },
+  },
+
+  // Bulk filing: the contractor's own batches only; anyone else's batch is as missing as a made-up one.
+  'GET /api/claims/batches/template.csv': { ok: members(CONTRACTORS, 200) },
+  'POST /api/claims/batches': {
+    ok: members(CONTRACTORS, 200),
+    query: 'dryRun=true',
+    body: (c) => ({ csv: batchCsv(c.own) }),
+  },
+  'GET /api/claims/batches/:id': {
+    ok: members(CONTRACTORS, 200),
+    denied: 404,
+    target: (w) => ({ id: w.batchId }),
+  },
+  'POST /api/claims/batches/:id/file': {
+    ok: members(CONTRACTORS, 200),
+    denied: 404,
+    target: async (w) => ({ id: await newBatch(w) }),
+    body: () => ({}),
+  },
+
   // Demo mode only: an administrator reads their own organisation's mail.
   'GET /api/mailbox': { ok: members(['cAdmin', 'mAdmin'], 200) },
 };
@@ -261,11 +429,13 @@ async function buildWorld(): Promise<World> {
   };
   const product = await createProduct(t.ds, m);
   const { policy, versions } = await createPolicy(t.ds, m, [product], [{ effectiveFrom: '2023-01-01' }]);
-  const installer = await signIn(t.request(), users.installer.email);
-  const inst = await installer.post('/api/installations').send(installationPayload(product.id));
+  const agent = await signIn(t.request(), users.installer.email);
+  const inst = await agent
+    .post('/api/installations')
+    .send(installationPayload(product.id, { installDate: '2024-03-01', purchaseDate: '2024-02-15' }));
   if (inst.status !== 201)
     throw new Error(`installation fixture: ${inst.status} ${JSON.stringify(inst.body)}`);
-  return {
+  const w: World = {
     c,
     m,
     users,
@@ -274,7 +444,21 @@ async function buildWorld(): Promise<World> {
     policy,
     version: versions[0],
     installationId: inst.body.installation.id,
+    serial: inst.body.installation.serials[0],
+    agent,
+    draftId: '',
+    filedId: '',
+    filedPhotoId: '',
+    draftPhotoId: '',
+    batchId: '',
   };
+  w.draftId = await newDraft(w);
+  w.draftPhotoId = await newPhoto(w, w.draftId);
+  const toFile = await newDraft(w);
+  w.filedPhotoId = await newPhoto(w, toFile);
+  w.filedId = await fileIt(w, toFile);
+  w.batchId = await newBatch(w);
+  return w;
 }
 
 beforeAll(async () => {
@@ -291,30 +475,46 @@ const paramNames = (path: string) => [...path.matchAll(/:([A-Za-z]+)/g)].map((m)
 
 function expected(entry: Entry, route: string, actor: Actor, kase: Case): number {
   const own = (): number => {
-    const ok = entry.ok[actor];
+    const ok = entry.ok?.[actor];
     if (ok !== undefined) return ok;
     if (actor === 'anon') return 401;
     const d = entry.denied ?? 403;
     return typeof d === 'number' ? d : (d[actor] ?? 403);
   };
   if (kase === 'own') return own();
-  if (actor === 'anon' && entry.ok.anon === undefined) return 401;
+  if (actor === 'anon' && entry.ok?.anon === undefined) return 401;
+  const passes = (o: number) => o < 300 || o === 409 || o === 422;
+  // Another record's id under one the actor may use: as missing as a made-up one (unless refused before it is looked up).
+  if (kase === 'crossed') return entry.crossed ?? (passes(own()) ? 404 : own());
   if (kase === 'missing') return 404;
-  // Foreign
   if (entry.foreign === 'public') {
     const o = own();
     if (route.startsWith('GET ')) return o;
-    return o < 300 || o === 409 || o === 422 ? 403 : o;
+    return passes(o) ? 403 : o;
   }
   return 404;
 }
 
 const auditCount = async () => Number((await t.ds.query('SELECT COUNT(*) AS n FROM audit_events'))[0].n);
 
-function send(agent: supertest.Agent, method: string, url: string, body: unknown) {
+async function send(agent: supertest.Agent, method: string, url: string, entry: Entry, body: unknown) {
   const m = method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';
   const req = agent[m](url);
+  if (entry.upload) {
+    const u = await entry.upload();
+    return req.field('purpose', u.purpose).attach('file', u.file, u.filename);
+  }
   return body === undefined ? req : req.send(body as object);
+}
+
+/** Every (route, variant) pair with its merged entry. */
+function expand(name: string): { label: string; entry: Entry }[] {
+  const { variants, ...base } = ROUTES[name];
+  if (!variants) return [{ label: name, entry: base }];
+  return Object.entries(variants).map(([v, over]) => ({
+    label: `${name} (${v})`,
+    entry: { ...base, ...over },
+  }));
 }
 
 describe('authorisation matrix', () => {
@@ -333,71 +533,83 @@ describe('authorisation matrix', () => {
 
   it(
     'every actor gets exactly the expected answer on own, foreign and missing records',
-    { timeout: 600_000 },
+    { timeout: 900_000 },
     async () => {
       const mismatches: string[] = [];
       let cases = 0;
+      let variants = 0;
       const routes = listRoutes(t.app).filter((r) => ROUTES[key(r)]);
       for (const r of routes) {
-        const name = key(r);
-        const entry = ROUTES[name];
         const names = paramNames(r.path);
-        const kinds: Case[] =
-          names.length === 0
-            ? ['own']
-            : entry.foreign === 'none'
-              ? ['own', 'missing']
-              : ['own', 'foreign', 'missing'];
-        for (const actor of ACTORS) {
-          const bodies: Partial<Record<Case, { status: number; body: unknown }>> = {};
-          for (const kase of kinds) {
-            cases++;
-            const world = kase === 'foreign' ? w2 : w1;
-            let params: Params = {};
-            if (names.length) {
-              params =
-                kase === 'missing'
-                  ? Object.fromEntries(
-                      names.map((n) => [
-                        n,
-                        n === 'token' ? crypto.randomBytes(32).toString('base64url') : crypto.randomUUID(),
-                      ]),
-                    )
-                  : await entry.target!(world, actor);
-            }
-            const url =
-              r.path.replace(/:([A-Za-z]+)/g, (_m, n: string) => encodeURIComponent(params[n])) +
-              (entry.query ? `?${entry.query}` : '');
-            const agent =
-              entry.freshSession && actor !== 'anon'
-                ? await signIn(t.request(), w1.users[actor].email)
-                : entry.freshSession
+        for (const { label, entry } of expand(key(r))) {
+          variants++;
+          const kinds: Case[] =
+            names.length === 0
+              ? entry.foreignBody
+                ? ['own', 'foreign']
+                : ['own']
+              : entry.foreign === 'none'
+                ? ['own', 'missing']
+                : names.length > 1
+                  ? ['own', 'foreign', 'missing', 'crossed']
+                  : ['own', 'foreign', 'missing'];
+          for (const actor of ACTORS) {
+            const answers: Partial<Record<Case, { status: number; body: unknown }>> = {};
+            for (const kase of kinds) {
+              cases++;
+              const world = kase === 'foreign' ? w2 : w1;
+              let params: Params = {};
+              if (names.length) {
+                if (kase === 'missing') {
+                  params = Object.fromEntries(
+                    names.map((n) => [
+                      n,
+                      n === 'token' ? crypto.randomBytes(32).toString('base64url') : crypto.randomUUID(),
+                    ]),
+                  );
+                } else if (kase === 'crossed') {
+                  const mine = await entry.target!(w1, actor);
+                  const theirs = await entry.target!(w2, actor);
+                  params = Object.fromEntries(names.map((n, i) => [n, i === 0 ? mine[n] : theirs[n]]));
+                } else {
+                  params = await entry.target!(world, actor);
+                }
+              }
+              const url =
+                r.path.replace(/:([A-Za-z]+)/g, (_m, n: string) => encodeURIComponent(params[n])) +
+                (entry.query ? `?${entry.query}` : '');
+              const agent = entry.freshSession
+                ? actor === 'anon'
                   ? t.request()
-                  : agents.get(actor)!;
-            const body = await entry.body?.({ actor, world, own: w1, params });
-            const want = expected(entry, name, actor, kase);
-            const before = want >= 400 ? await auditCount() : 0;
-            const res = await send(agent, r.method, url, body);
-            bodies[kase] = { status: res.status, body: res.body };
-            const where = `${name} [${actor}, ${kase}]`;
-            if (res.status !== want) {
-              mismatches.push(
-                `${where}: expected ${want}, got ${res.status} ${JSON.stringify(res.body).slice(0, 160)}`,
-              );
-            } else if (want >= 400 && (await auditCount()) !== before) {
-              mismatches.push(`${where}: refused with ${want} but wrote an audit event`);
+                  : await signIn(t.request(), w1.users[actor].email)
+                : agents.get(actor)!;
+              const body = await entry.body?.({ actor, world, own: w1, params });
+              const want = expected(entry, key(r), actor, kase);
+              const before = want >= 400 ? await auditCount() : 0;
+              const res = await send(agent, r.method, url, entry, body);
+              answers[kase] = { status: res.status, body: res.body };
+              const where = `${label} [${actor}, ${kase}]`;
+              if (res.status !== want) {
+                mismatches.push(
+                  `${where}: expected ${want}, got ${res.status} ${JSON.stringify(res.body).slice(0, 160)}`,
+                );
+              } else if (want >= 400 && (await auditCount()) !== before) {
+                mismatches.push(`${where}: refused with ${want} but wrote an audit event`);
+              }
             }
-          }
-          const f = bodies.foreign;
-          const m = bodies.missing;
-          if (f && m && f.status === 404 && JSON.stringify(f.body) !== JSON.stringify(m.body)) {
-            mismatches.push(
-              `${name} [${actor}]: a foreign record answers ${JSON.stringify(f.body)}, a missing one ${JSON.stringify(m.body)}`,
-            );
+            const f = answers.foreign;
+            const m = answers.missing;
+            if (f && m && f.status === 404 && JSON.stringify(f.body) !== JSON.stringify(m.body)) {
+              mismatches.push(
+                `${label} [${actor}]: a foreign record answers ${JSON.stringify(f.body)}, a missing one ${JSON.stringify(m.body)}`,
+              );
+            }
           }
         }
       }
-      console.info(`authorisation matrix: ${routes.length} routes x ${ACTORS.length} actors, ${cases} cases`);
+      console.info(
+        `authorisation matrix: ${routes.length} routes (${variants} with their stages) x ${ACTORS.length} actors, ${cases} cases`,
+      );
       expect(mismatches).toEqual([]);
     },
   );
