@@ -11,12 +11,14 @@ import type { AppConfig } from './config/env';
 import type { AppContext } from './context';
 import type { AppDataSource } from './db/data-source';
 import { AppError } from './lib/errors';
+import { createStorage, type Storage } from './lib/storage';
 import type { Logger } from './lib/logger';
 import { sessionPolicy } from './middleware/auth';
 import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { authRouter } from './modules/auth/auth.router';
+import { claimActionsRouter } from './modules/claim-actions/claim-actions.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
@@ -33,6 +35,8 @@ export type CreateAppOptions = {
   databaseUrl: string;
   /** Where the built client lives; served when it exists. */
   clientDir?: string;
+  /** Where files and generated documents live; from the configuration when left out. */
+  storage?: Storage;
 };
 
 export type App = Express & { close: () => Promise<void>; sessionStore: session.Store };
@@ -41,7 +45,8 @@ export function createApp(opts: CreateAppOptions): App {
   const { config, ds, logger } = opts;
   const app = express() as App;
   const base = config.publicUrl ?? `http://${config.host}:${config.port}`;
-  const ctx: AppContext = { config, ds, logger, publicUrl: (p) => new URL(p, base).toString() };
+  const storage = opts.storage ?? createStorage(config);
+  const ctx: AppContext = { config, ds, logger, storage, publicUrl: (p) => new URL(p, base).toString() };
 
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy ? 1 : false);
@@ -96,6 +101,8 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(requireJsonBody);
   // Spreadsheet imports carry a whole file (10,000 rows is about 2 MB); every other body stays small.
   api.use(['/products/import', '/installations/import'], express.json({ limit: '20mb', strict: true }));
+  // A conversation file travels as base64 JSON (at most 15 MB of file).
+  api.use('/claims/:id/conversation/files', express.json({ limit: '21mb', strict: true }));
   api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
   api.use(sessionMiddleware(config, sessionStore));
@@ -108,6 +115,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
+  api.use('/claims', claimActionsRouter(ctx));
   api.use('/evaluations', evaluationsRouter());
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));
