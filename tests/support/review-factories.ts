@@ -4,7 +4,7 @@ import { newClaimNumber } from '../../shared/claims/claim-number';
 import { WAITING_ON_BY_STAGE } from '../../shared/claims/workflow';
 import type { Stage } from '../../shared/claims/stages';
 import { safeEvaluateClaim } from '../../shared/engine';
-import type { ClaimMeasurements } from '../../shared/schemas/claims';
+import type { ClaimFields, ClaimMeasurements } from '../../shared/schemas/claims';
 import type { AppDataSource } from '../../server/db/data-source';
 import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { BenchTest } from '../../server/db/entities/bench-test.entity';
@@ -71,7 +71,10 @@ export const FAILED_READINGS: ClaimMeasurements = {
   powerFactor: 0.95,
   driverOutputVolts: 48.2,
   driverOutputAmps: 0.44,
-  strings: [{ volts: 48.2, darkLeds: 16 }, { volts: 48.2, darkLeds: 16 }],
+  strings: [
+    { volts: 48.2, amps: undefined, darkLeds: 16 },
+    { volts: 48.2, amps: undefined, darkLeds: 16 },
+  ],
 };
 
 export function evaluationFor(w: ReviewWorld, fields: { failedOn: string; filedOn: string; measurements: ClaimMeasurements; serials: string[] }) {
@@ -83,7 +86,7 @@ export function evaluationFor(w: ReviewWorld, fields: { failedOn: string; filedO
   );
   const input = engineInputFor(
     ctx,
-    { serials: fields.serials, units: 1, failedOn: fields.failedOn, symptoms: ['partly_dark'], measurements: fields.measurements, observations: {}, narrative: 'Two strings dark.' },
+    { serials: fields.serials, units: 1, failedOn: fields.failedOn, symptoms: ['partly_dark'], measurements: fields.measurements as ClaimFields['measurements'], observations: {}, narrative: 'Two strings dark.' },
     { photos: 2, proofOfPurchase: true },
     fields.filedOn,
   );
