@@ -1,7 +1,7 @@
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
-import express, { type Express } from 'express';
+import express, { type Express, type Router } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type session from 'express-session';
@@ -11,14 +11,15 @@ import type { AppConfig } from './config/env';
 import type { AppContext } from './context';
 import type { AppDataSource } from './db/data-source';
 import { AppError } from './lib/errors';
-import { createStorage, type Storage } from './lib/storage';
 import type { Logger } from './lib/logger';
+import { createStorage, type Storage } from './lib/storage';
 import { sessionPolicy } from './middleware/auth';
 import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { authRouter } from './modules/auth/auth.router';
 import { claimActionsRouter } from './modules/claim-actions/claim-actions.router';
+import { claimsRouter } from './modules/claims/claims.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
@@ -35,8 +36,10 @@ export type CreateAppOptions = {
   databaseUrl: string;
   /** Where the built client lives; served when it exists. */
   clientDir?: string;
-  /** Where files and generated documents live; from the configuration when left out. */
+  /** Attachment storage; by default the one config.storage describes. */
   storage?: Storage;
+  /** More routers under /api, after the built-in ones and before the 404 (tests mount test-only owners here). */
+  mountApi?: (api: Router, ctx: AppContext) => void;
 };
 
 export type App = Express & { close: () => Promise<void>; sessionStore: session.Store };
@@ -112,12 +115,15 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/auth', authRouter(ctx, pp));
   api.use('/invitations', invitationsRouter(ctx));
   api.use('/users', usersRouter(ctx));
+  api.use('/evaluations', evaluationsRouter());
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
+  // The review workflow's routes first: they are specific paths under /:id; the claims router has the rest.
   api.use('/claims', claimActionsRouter(ctx));
-  api.use('/evaluations', evaluationsRouter());
+  api.use('/claims', claimsRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
+  opts.mountApi?.(api, ctx);
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));
   app.use('/api', api);
 

@@ -7,7 +7,7 @@ export type AppContext = {
   config: AppConfig;
   ds: AppDataSource;
   logger: Logger;
-  /** Uploaded files and generated documents. */
+  /** Where attachments live: the disk or S3-compatible object storage (config.storage). */
   storage: Storage;
   /** Absolute link into the client, for e-mails. */
   publicUrl: (path: string) => string;
