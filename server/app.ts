@@ -25,6 +25,7 @@ import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
 import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
+import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
 import { usersRouter } from './modules/users/users.router';
@@ -122,6 +123,7 @@ export function createApp(opts: CreateAppOptions): App {
   // The review workflow's routes first: they are specific paths under /:id; the claims router has the rest.
   api.use('/claims', claimActionsRouter(ctx));
   api.use('/claims', claimsRouter(ctx));
+  api.use('/review', reviewRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));

@@ -289,3 +289,39 @@ describe('assigning', () => {
     expect(await snapshotClaim(t.ds, claim.id)).toEqual(before);
   });
 });
+
+describe('the reviewer’s queue', () => {
+  it('filters by stage, verdict, assignee, search and amount; sorts; never shows drafts or other manufacturers’ claims', async () => {
+    const m2 = await createOrganization(t.ds, 'manufacturer');
+    const w2 = await createReviewWorld(t.ds, contractor, m2);
+    const a = await createClaimAt(t.ds, w, 'filed', { filedAt: new Date(Date.now() - 20 * 86_400_000) });
+    const b = await createClaimAt(t.ds, w, 'in_review', { verdict: 'excluded', assigneeId: reviewer.id, filedAt: new Date(Date.now() - 2 * 86_400_000) });
+    const draft = await createClaimAt(t.ds, w, 'draft');
+    const other = await createClaimAt(t.ds, w2, 'filed');
+    const all = (await asReviewer.get('/api/review/queue?pageSize=200')).body;
+    const ids = all.items.map((i: { id: string }) => i.id);
+    expect(ids).toContain(a.id);
+    expect(ids).toContain(b.id);
+    expect(ids).not.toContain(draft.id);
+    expect(ids).not.toContain(other.id);
+    const byStage = (await asReviewer.get('/api/review/queue?stage=filed&pageSize=200')).body.items;
+    expect(byStage.every((i: { stage: string }) => i.stage === 'filed')).toBe(true);
+    const mine = (await asReviewer.get('/api/review/queue?assignee=me&verdict=excluded')).body.items;
+    expect(mine.map((i: { id: string }) => i.id)).toContain(b.id);
+    expect(mine.every((i: { verdict: string }) => i.verdict === 'excluded')).toBe(true);
+    const found = (await asReviewer.get(`/api/review/queue?q=${encodeURIComponent(a.number!.slice(0, 12))}`)).body.items;
+    expect(found.map((i: { id: string }) => i.id)).toContain(a.id);
+    const old = (await asReviewer.get('/api/review/queue?minAgeDays=10&pageSize=200')).body.items;
+    expect(old.map((i: { id: string }) => i.id)).toContain(a.id);
+    expect(old.map((i: { id: string }) => i.id)).not.toContain(b.id);
+    const item = all.items.find((i: { id: string }) => i.id === a.id);
+    expect(item).toMatchObject({ waitingOn: 'manufacturer', daysSinceFiling: 20 });
+    const sorted = (await asReviewer.get('/api/review/queue?sort=-amount&pageSize=200')).body.items.map((i: { expectedCredit: string }) => Number(i.expectedCredit));
+    expect(sorted).toEqual([...sorted].sort((x, y) => y - x));
+    expect((await asReviewer.get('/api/review/queue?sort=bogus')).status).toBe(400);
+    expect((await asInstaller.get('/api/review/queue')).status).toBe(403);
+    const summary = (await asReviewer.get('/api/review/summary')).body;
+    expect(summary.counts.filed).toBeGreaterThan(0);
+    expect(summary.mine).toBeGreaterThan(0);
+  });
+});
