@@ -93,7 +93,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
   const { ds, storage } = ctx;
 
   const linkFor = (claim: Claim, side: WaitingOn) =>
-    ctx.publicUrl(side === 'manufacturer' ? `/review/${claim.id}` : `/claims/${claim.id}`);
+    ctx.publicUrl(side === 'manufacturer' ? `/review/${claim.id}` : `/claims/${claim.id}/workflow`);
 
   async function notify(
     m: EntityManager,

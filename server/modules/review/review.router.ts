@@ -46,21 +46,25 @@ function where(q: QueueQuery, manufacturerId: string, userId: string) {
   const clauses = ['c.manufacturer_id = ?', "c.stage <> 'draft'"];
   const params: unknown[] = [manufacturerId];
   const now = clock.nowMs();
+  const add = (clause: string, ...values: unknown[]) => {
+    clauses.push(clause);
+    params.push(...values);
+  };
   if (q.stage) {
     clauses.push(`c.stage IN (${q.stage.map(() => '?').join(', ')})`);
     params.push(...q.stage);
   }
-  if (q.verdict) clauses.push('c.verdict = ?'), params.push(q.verdict);
-  if (q.waitingOn) clauses.push('c.waiting_on = ?'), params.push(q.waitingOn);
-  if (q.productModelId) clauses.push('c.product_model_id = ?'), params.push(q.productModelId);
-  if (q.contractorId) clauses.push('c.contractor_id = ?'), params.push(q.contractorId);
-  if (q.minAmount) clauses.push('c.expected_credit >= ?'), params.push(q.minAmount);
-  if (q.maxAmount) clauses.push('c.expected_credit <= ?'), params.push(q.maxAmount);
-  if (q.minAgeDays !== undefined) clauses.push('c.filed_at <= ?'), params.push(new Date(now - q.minAgeDays * 86_400_000));
-  if (q.maxAgeDays !== undefined) clauses.push('c.filed_at >= ?'), params.push(new Date(now - (q.maxAgeDays + 1) * 86_400_000));
-  if (q.assignee === 'me') clauses.push('c.assigned_reviewer_id = ?'), params.push(userId);
-  else if (q.assignee === 'none') clauses.push('c.assigned_reviewer_id IS NULL');
-  else if (q.assignee) clauses.push('c.assigned_reviewer_id = ?'), params.push(q.assignee);
+  if (q.verdict) add('c.verdict = ?', q.verdict);
+  if (q.waitingOn) add('c.waiting_on = ?', q.waitingOn);
+  if (q.productModelId) add('c.product_model_id = ?', q.productModelId);
+  if (q.contractorId) add('c.contractor_id = ?', q.contractorId);
+  if (q.minAmount) add('c.expected_credit >= ?', q.minAmount);
+  if (q.maxAmount) add('c.expected_credit <= ?', q.maxAmount);
+  if (q.minAgeDays !== undefined) add('c.filed_at <= ?', new Date(now - q.minAgeDays * 86_400_000));
+  if (q.maxAgeDays !== undefined) add('c.filed_at >= ?', new Date(now - (q.maxAgeDays + 1) * 86_400_000));
+  if (q.assignee === 'me') add('c.assigned_reviewer_id = ?', userId);
+  else if (q.assignee === 'none') add('c.assigned_reviewer_id IS NULL');
+  else if (q.assignee) add('c.assigned_reviewer_id = ?', q.assignee);
   if (q.q) {
     // A claim number by prefix (as typed, upper-cased); otherwise the site, the contractor, the model or a serial.
     const like = likeContains(q.q);
