@@ -8,4 +8,13 @@ import { Attachments1796167007046 } from './1796167007046-Attachments';
 import { ReviewWorkflow1796167448755 } from './1796167448755-ReviewWorkflow';
 import { ReviewQueueIndexes1796168302753 } from './1796168302753-ReviewQueueIndexes';
 
-export const migrations = [Foundation1796165467051, SessionsAndAuditGuard1796165468051, Catalogue1796166270710, CatalogueGuards1796166271710, Claims1796166977901, Attachments1796167007046, ReviewWorkflow1796167448755, ReviewQueueIndexes1796168302753];
+export const migrations = [
+  Foundation1796165467051,
+  SessionsAndAuditGuard1796165468051,
+  Catalogue1796166270710,
+  CatalogueGuards1796166271710,
+  Claims1796166977901,
+  Attachments1796167007046,
+  ReviewWorkflow1796167448755,
+  ReviewQueueIndexes1796168302753,
+];
