@@ -3,6 +3,7 @@ import {
   AdministratorHome,
   InstallerHome,
 } from '../../features/home/components/home-panels';
+import { OpenClaims } from '../../features/claims/components/open-claims';
 import { useSession } from '../../lib/ability';
 import { PageHeader } from '../../components/ui/page-header';
 import { ReviewDeskSummary } from '../../features/review/components/review-queue';
@@ -11,7 +12,7 @@ import { ReviewDeskSummary } from '../../features/review/components/review-queue
 export function HomeRoute() {
   const { user } = useSession();
   const props = { name: user.name, organization: user.organization.name };
-  if (user.roles.includes('installer')) return <InstallerHome {...props} />;
+  if (user.roles.includes('installer')) return <InstallerHome {...props} openClaims={<OpenClaims />} />;
   if (user.roles.includes('reviewer')) {
     return (
       <>
