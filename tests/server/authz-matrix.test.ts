@@ -19,7 +19,10 @@ import {
 } from '../support/catalogue-factories';
 import { createDraft, daysAgo, goodClaimFields } from '../support/claim-factories';
 import { createOrganization, createUser, signIn, TEST_PASSWORD } from '../support/factories';
+import { createClaimAt, createReviewWorld, type ReviewWorld } from '../support/review-factories';
 import { pngImage } from '../support/upload-fixtures';
+import { Claim } from '../../server/db/entities/claim.entity';
+import type { Stage } from '../../shared/claims/stages';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
 // Every route the server registers x every actor x own, foreign and missing record. The expected answers live
@@ -64,6 +67,12 @@ type World = {
   filedPhotoId: string;
   draftPhotoId: string;
   batchId: string;
+  /** The review workflow's fixtures: claims written at any stage, an approval letter, a conversation file. */
+  review: ReviewWorld;
+  approvedId: string;
+  letterDocId: string;
+  answeredId: string;
+  answerFileId: string;
 };
 
 type Params = Record<string, string>;
@@ -90,6 +99,8 @@ type Entry = {
   freshSession?: boolean;
   /** Why an allowed actor still gets 409/422 here. */
   stateReason?: string;
+  /** Route parameters that are not record ids (an action's name): kept as they are in every case. */
+  fixed?: string[];
   /** What an own first id with the other world's second id answers, where not the usual (404 once past the check). */
   crossed?: number;
   /** A multipart upload instead of a JSON body. */
@@ -153,6 +164,87 @@ const photoUpload = async () => ({
   file: await pngImage(64, 48),
   filename: 'matrix.png',
 });
+
+const claimAt = async (w: World, stage: Stage) =>
+  (await createClaimAt(t.ds, w.review, stage, { reviewerId: w.users.reviewer.id })).id;
+const creditOf = async (id: string) =>
+  (await t.ds.getRepository(Claim).findOneBy({ id }))?.expectedCredit ?? '96.00';
+const PNG_BASE64 = async () => (await pngImage(32, 24)).toString('base64');
+
+/** One variant per move: a fresh claim at a stage where the move is legal, and a valid body for it. */
+function move(
+  stage: Stage,
+  ok: Partial<Record<Actor, number>>,
+  body: (c: Ctx) => unknown,
+  extra: Partial<Entry> = {},
+): Partial<Entry> {
+  return {
+    ok,
+    target: async (w) => ({ id: await claimAt(w, stage), action: '' }),
+    body,
+    ...extra,
+  };
+}
+const REVIEWER = { reviewer: 200 };
+const MOVES: Record<string, Partial<Entry>> = {
+  start_review: move('filed', REVIEWER, () => ({})),
+  request_info: move('in_review', REVIEWER, () => ({ message: 'Send a photo of the nameplate, please.' })),
+  answer_info: move('needs_info', members(CONTRACTORS, 200), () => ({
+    message: 'Photo attached on the claim.',
+  })),
+  request_return: move('in_review', REVIEWER, () => ({
+    shipTo: {
+      name: 'Returns bench',
+      line1: '400 Foundry Way',
+      city: 'Millbrook',
+      postalCode: '45402',
+      country: 'US',
+    },
+  })),
+  record_shipment: move('return_requested', members(CONTRACTORS, 200), () => ({
+    carrier: 'Parcel Co',
+    trackingNumber: '1Z 999 AA1',
+    shippedOn: daysAgo(1),
+  })),
+  receive_unit: move('return_requested', REVIEWER, () => ({
+    receivedOn: daysAgo(0),
+    condition: 'as_described',
+  })),
+  record_bench_test: move('unit_received', REVIEWER, () => ({
+    testedOn: daysAgo(0),
+    result: 'failure_confirmed',
+    readings: {
+      supplyVolts: 277,
+      inputWatts: 19.8,
+      driverOutputVolts: 48,
+      driverOutputAmps: 0.44,
+      strings: [{ volts: 48, darkLeds: 16 }],
+    },
+  })),
+  approve: move('in_review', REVIEWER, async (c) => ({
+    resolution: 'credit',
+    amount: await creditOf(c.params.id),
+    overrideReason: 'Checked against the photos.',
+  })),
+  deny: move('in_review', REVIEWER, () => ({
+    reasonCodes: ['physical_damage'],
+    note: 'The housing is cracked.',
+    overrideReason: 'Seen on the photos.',
+  })),
+  reopen: move('approved', REVIEWER, () => ({ reason: 'New bench readings came in.' })),
+  withdraw: move('filed', members(CONTRACTORS, 200), () => ({ reason: 'Loose connector.' })),
+  // Moves with their own routes: the actor who may make them is sent there (409); anyone else is refused first.
+  file: move('draft', members(CONTRACTORS, 409), () => ({}), {
+    denied: members(MANUFACTURERS, 404),
+    stateReason: 'filing has its own route',
+  }),
+  credit: move('approved', { accountant: 409 }, () => ({}), { stateReason: 'credits have their own route' }),
+  void_credit: move('credited', { accountant: 409 }, () => ({ reason: 'Issued twice.' }), {
+    stateReason: 'voiding has its own route',
+  }),
+  // Closing is mostly the server's own move (settled claims), and a reviewer's.
+  close: move('denied', REVIEWER, () => ({})),
+};
 
 // Claims: the contractor's from the draft on; the manufacturer's only once filed (a draft is 404 to them).
 const CLAIM_READ: Partial<Entry> = { ok: members(SIGNED_IN, 200) };
@@ -383,6 +475,43 @@ const ROUTES: Record<string, Entry> = {
     },
   },
 
+  // The review workflow: every move at a stage where it is legal, for the role that makes it.
+  'POST /api/claims/:id/actions/:action': {
+    fixed: ['action'],
+    variants: Object.fromEntries(
+      Object.entries(MOVES).map(([action, v]) => [
+        action,
+        { ...v, target: async (w: World, a: Actor) => ({ ...(await v.target!(w, a)), action }) },
+      ]),
+    ),
+  },
+  'POST /api/claims/:id/assign': {
+    ok: REVIEWER,
+    target: async (w) => ({ id: await claimAt(w, 'in_review') }),
+    body: () => ({ assigneeId: null }),
+  },
+  'GET /api/claims/:id/workflow': {
+    variants: {
+      draft: { ...DRAFT_READ, target: (w) => ({ id: w.draftId }) },
+      filed: { ...CLAIM_READ, target: (w) => ({ id: w.filedId }) },
+    },
+  },
+  'GET /api/claims/:id/documents/:docId': {
+    ...CLAIM_READ,
+    target: (w) => ({ id: w.approvedId, docId: w.letterDocId }),
+  },
+  'POST /api/claims/:id/conversation/files': {
+    ok: members(CONTRACTORS, 201),
+    target: async (w) => ({ id: await claimAt(w, 'needs_info') }),
+    body: async () => ({ name: 'nameplate.png', purpose: 'nameplate', dataBase64: await PNG_BASE64() }),
+  },
+  'GET /api/claims/:id/conversation/files/:fileId': {
+    ...CLAIM_READ,
+    target: (w) => ({ id: w.answeredId, fileId: w.answerFileId }),
+  },
+  'GET /api/review/queue': { ok: REVIEWER },
+  'GET /api/review/summary': { ok: REVIEWER },
+
   // Bulk filing: the contractor's own batches only; anyone else's batch is as missing as a made-up one.
   'GET /api/claims/batches/template.csv': { ok: members(CONTRACTORS, 200) },
   'POST /api/claims/batches': {
@@ -451,6 +580,11 @@ async function buildWorld(): Promise<World> {
     filedPhotoId: '',
     draftPhotoId: '',
     batchId: '',
+    review: undefined as unknown as ReviewWorld,
+    approvedId: '',
+    letterDocId: '',
+    answeredId: '',
+    answerFileId: '',
   };
   w.draftId = await newDraft(w);
   w.draftPhotoId = await newPhoto(w, w.draftId);
@@ -458,6 +592,27 @@ async function buildWorld(): Promise<World> {
   w.filedPhotoId = await newPhoto(w, toFile);
   w.filedId = await fileIt(w, toFile);
   w.batchId = await newBatch(w);
+  w.review = await createReviewWorld(t.ds, c, m);
+  const reviewer = await signIn(t.request(), users.reviewer.email);
+  w.approvedId = await claimAt(w, 'in_review');
+  const approved = await reviewer
+    .post(`/api/claims/${w.approvedId}/actions/approve`)
+    .send({ resolution: 'credit', amount: await creditOf(w.approvedId), overrideReason: 'Checked.' });
+  if (approved.status !== 200)
+    throw new Error(`approval fixture: ${approved.status} ${JSON.stringify(approved.body)}`);
+  w.letterDocId = String(approved.body.workflow.decision.letter.url).match(/documents\/([0-9a-f-]{36})/)![1];
+  w.answeredId = await claimAt(w, 'needs_info');
+  const up = await agent
+    .post(`/api/claims/${w.answeredId}/conversation/files`)
+    .send({ name: 'nameplate.png', purpose: 'nameplate', dataBase64: await PNG_BASE64() });
+  if (up.status !== 201)
+    throw new Error(`conversation file fixture: ${up.status} ${JSON.stringify(up.body)}`);
+  w.answerFileId = up.body.file.id;
+  const answered = await agent
+    .post(`/api/claims/${w.answeredId}/actions/answer_info`)
+    .send({ message: 'Here it is.', attachmentIds: [w.answerFileId] });
+  if (answered.status !== 200)
+    throw new Error(`answer fixture: ${answered.status} ${JSON.stringify(answered.body)}`);
   return w;
 }
 
@@ -540,7 +695,8 @@ describe('authorisation matrix', () => {
       let variants = 0;
       const routes = listRoutes(t.app).filter((r) => ROUTES[key(r)]);
       for (const r of routes) {
-        const names = paramNames(r.path);
+        const all = paramNames(r.path);
+        const names = all.filter((n) => !ROUTES[key(r)].fixed?.includes(n));
         for (const { label, entry } of expand(key(r))) {
           variants++;
           const kinds: Case[] =
@@ -573,6 +729,11 @@ describe('authorisation matrix', () => {
                   params = Object.fromEntries(names.map((n, i) => [n, i === 0 ? mine[n] : theirs[n]]));
                 } else {
                   params = await entry.target!(world, actor);
+                }
+                // Parameters that are not ids (an action's name) stay what the route is about.
+                if (entry.fixed && kase === 'missing') {
+                  const own = await entry.target!(w1, actor);
+                  for (const n of entry.fixed) params[n] = own[n];
                 }
               }
               const url =
