@@ -105,10 +105,10 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/auth', authRouter(ctx, pp));
   api.use('/invitations', invitationsRouter(ctx));
   api.use('/users', usersRouter(ctx));
+  api.use('/evaluations', evaluationsRouter());
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
-  api.use('/evaluations', evaluationsRouter());
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));
   app.use('/api', api);
