@@ -16,6 +16,7 @@ import { sessionPolicy } from './middleware/auth';
 import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
+import { analyticsRouter } from './modules/analytics/analytics.router';
 import { authRouter } from './modules/auth/auth.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
@@ -24,6 +25,7 @@ import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
+import { reserveRouter } from './modules/reserve/reserve.router';
 import { usersRouter } from './modules/users/users.router';
 
 export type CreateAppOptions = {
@@ -109,6 +111,8 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
+  api.use('/analytics', analyticsRouter(ctx));
+  api.use('/reserve', reserveRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));
   app.use('/api', api);
