@@ -9,10 +9,11 @@ describe('navigation by role', () => {
   it('shows each role only what it may do', () => {
     const labels = (roles: Role[], kind: OrganizationKind, demoMode = true) =>
       navFor(defineAbilityFor(user(roles, kind), { demoMode })).map((i) => i.label);
-    expect(labels(['installer'], 'contractor')).toEqual(['Home']);
-    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home']);
-    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home']);
-    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'People', 'Mailbox']);
-    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'People']);
+    // Everyone browses the catalogue; installations ("Sites") are scoped to one's own organisation.
+    expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites']);
+    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites']);
+    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites']);
+    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites', 'People', 'Mailbox']);
+    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Catalogue', 'Sites', 'People']);
   });
 });
