@@ -1,22 +1,24 @@
-// A claim's failure mode, from its symptoms and the engine's findings: the first rule that matches wins, so
+// A claim's failure mode, from its symptoms, the site observations and the engine's findings: the first rule that matches wins, so
 // the physical evidence (insects, water, a stopped fan) outranks what the user saw (dark, flickering).
 // Rules are data so the server can build the same classification as one SQL CASE.
 
 import type { FindingCode } from '../engine/codes';
-import type { Symptom } from '../schemas/claims';
+import type { ObservationKey, Symptom } from '../schemas/claims';
 
 export interface FailureModeRule {
   mode: string;
   label: string;
   findings: readonly FindingCode[];
   symptoms: readonly Symptom[];
+  /** What the installer saw on site (the engine's evidence findings come from these). */
+  observations?: readonly ObservationKey[];
 }
 
 export const FAILURE_MODE_RULES: readonly FailureModeRule[] = [
-  { mode: 'insects_debris', label: 'Insects or debris inside', findings: ['evidence.debris_ingress'], symptoms: [] },
-  { mode: 'water', label: 'Water inside', findings: ['evidence.water_ingress'], symptoms: [] },
-  { mode: 'fan', label: 'Cooling fan', findings: ['evidence.fan_stopped'], symptoms: ['fan_noise'] },
-  { mode: 'damage', label: 'Physical damage', findings: ['evidence.physical_damage'], symptoms: [] },
+  { mode: 'insects_debris', label: 'Insects or debris inside', findings: ['evidence.debris_ingress'], symptoms: [], observations: ['debrisIngress'] },
+  { mode: 'water', label: 'Water inside', findings: ['evidence.water_ingress'], symptoms: [], observations: ['waterIngress'] },
+  { mode: 'fan', label: 'Cooling fan', findings: ['evidence.fan_stopped'], symptoms: ['fan_noise'], observations: ['fanStopped'] },
+  { mode: 'damage', label: 'Physical damage', findings: ['evidence.physical_damage'], symptoms: [], observations: ['physicalDamage'] },
   {
     mode: 'led_strings',
     label: 'LEDs or strings dark',
@@ -44,9 +46,17 @@ export const FAILURE_MODE_LABELS: Record<string, string> = Object.fromEntries([
   [OTHER_FAILURE_MODE.mode, OTHER_FAILURE_MODE.label],
 ]);
 
-export function failureModeOf(symptoms: readonly string[], findingCodes: readonly string[]): string {
+export function failureModeOf(
+  symptoms: readonly string[],
+  findingCodes: readonly string[],
+  observations: Partial<Record<ObservationKey, boolean>> = {},
+): string {
   for (const rule of FAILURE_MODE_RULES) {
-    if (rule.findings.some((f) => findingCodes.includes(f)) || rule.symptoms.some((s) => symptoms.includes(s))) {
+    if (
+      rule.findings.some((f) => findingCodes.includes(f)) ||
+      (rule.observations ?? []).some((o) => observations[o] === true) ||
+      rule.symptoms.some((s) => symptoms.includes(s))
+    ) {
       return rule.mode;
     }
   }

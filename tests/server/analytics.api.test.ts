@@ -64,7 +64,10 @@ describe('the SQL matches the shared definitions', () => {
   });
 
   it('the failure mode in SQL is failureModeOf, evidence first', async () => {
-    const cases: { symptoms: string[]; findings: string[] }[] = [
+    const cases: { symptoms: string[]; findings: string[]; observations?: Record<string, boolean> }[] = [
+      { symptoms: ['dark'], findings: [], observations: { debrisIngress: true } },
+      { symptoms: ['dim'], findings: [], observations: { fanStopped: true, debrisIngress: false } },
+      { symptoms: ['dark'], findings: [], observations: { waterIngress: false } },
       { symptoms: ['dark'], findings: ['evidence.debris_ingress', 'electrical.string_open'] },
       { symptoms: ['fan_noise'], findings: [] },
       { symptoms: ['dark', 'flicker'], findings: [] },
@@ -76,11 +79,12 @@ describe('the SQL matches the shared definitions', () => {
     ];
     for (const c of cases) {
       const evaluation = JSON.stringify({ findings: c.findings.map((code) => ({ code })) });
-      const [row] = await t.ds.query(`SELECT ${failureModeSql('c')} AS mode FROM (SELECT ? AS symptoms, ? AS evaluation) c`, [
+      const [row] = await t.ds.query(`SELECT ${failureModeSql('c')} AS mode FROM (SELECT ? AS symptoms, ? AS evaluation, ? AS observations) c`, [
         JSON.stringify(c.symptoms),
         evaluation,
+        JSON.stringify(c.observations ?? {}),
       ]);
-      expect(row.mode, JSON.stringify(c)).toBe(failureModeOf(c.symptoms, c.findings));
+      expect(row.mode, JSON.stringify(c)).toBe(failureModeOf(c.symptoms, c.findings, c.observations));
     }
   });
 

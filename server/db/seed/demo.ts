@@ -5,6 +5,7 @@ import { User } from '../entities/user.entity';
 import { recordAudit } from '../../lib/audit';
 import { DEMO_ACCOUNTS, DEMO_ORGANIZATIONS, DEMO_PASSWORD } from './demo-accounts';
 import { seedDemoCatalogue } from './demo-catalogue';
+import { seedDemoReliability } from './demo-reliability';
 
 /** Loads the fictional demo scenario into an empty database. Returns false when there was data already. */
 export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean } = {}): Promise<boolean> {
@@ -38,7 +39,8 @@ export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean 
         { action: 'user.created', entityType: 'User', entityId: user.id, after: { email: a.email, roles: a.roles, source: 'demo' } },
       );
     }
-    await seedDemoCatalogue(m, orgs, users);
+    const { products } = await seedDemoCatalogue(m, orgs, users);
+    await seedDemoReliability(m, orgs, users, [...products.values()]);
   });
   return true;
 }
