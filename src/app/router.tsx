@@ -29,6 +29,8 @@ export const router = createBrowserRouter([
       { path: 'installations', lazy: () => import('./routes/catalogue/installations').then((m) => ({ Component: m.InstallationsRoute })) },
       { path: 'installations/new', lazy: () => import('./routes/catalogue/installation-new').then((m) => ({ Component: m.InstallationNewRoute })) },
       { path: 'installations/:id', lazy: () => import('./routes/catalogue/installation').then((m) => ({ Component: m.InstallationRoute })) },
+      { path: 'analytics', lazy: () => import('./routes/analytics/failure-analysis').then((m) => ({ Component: m.FailureAnalysisRoute })) },
+      { path: 'reserve', lazy: () => import('./routes/analytics/reserve').then((m) => ({ Component: m.ReserveRoute })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
     ],
   },

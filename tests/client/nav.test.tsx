@@ -11,9 +11,9 @@ describe('navigation by role', () => {
       navFor(defineAbilityFor(user(roles, kind), { demoMode })).map((i) => i.label);
     // Everyone browses the catalogue; installations ("Sites") are scoped to one's own organisation.
     expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites']);
-    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites']);
-    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites']);
+    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites', 'Failure analysis']);
+    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites', 'Reserve']);
     expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites', 'People', 'Mailbox']);
-    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Catalogue', 'Sites', 'People']);
+    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Catalogue', 'Sites', 'Failure analysis', 'Reserve', 'People']);
   });
 });
