@@ -13,6 +13,7 @@ export function ChartCard({
   summary,
   csvHref,
   table,
+  decorative = true,
   children,
 }: {
   title: string;
@@ -20,6 +21,8 @@ export function ChartCard({
   summary: ReactNode;
   csvHref?: string;
   table: ReactNode;
+  /** false when the "chart" is itself readable (a table): then it is not hidden from screen readers. */
+  decorative?: boolean;
   children: ReactNode;
 }) {
   const [showNumbers, setShowNumbers] = useState(false);
@@ -51,8 +54,8 @@ export function ChartCard({
       />
       <div className="space-y-3 px-4 py-4 sm:px-5">
         <p className="text-sm text-ink-700">{summary}</p>
-        <div aria-hidden="true">{children}</div>
-        <div id={tableId} hidden={!showNumbers} className="max-h-96 overflow-auto rounded-lg border border-ink-100">
+        <div aria-hidden={decorative ? 'true' : undefined}>{children}</div>
+        <div id={tableId} hidden={!showNumbers} tabIndex={0} role="region" aria-label={`Numbers: ${title}`} className="max-h-96 overflow-auto rounded-lg border border-ink-100">
           {showNumbers ? table : null}
         </div>
       </div>

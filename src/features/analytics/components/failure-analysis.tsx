@@ -190,6 +190,7 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
               description="Each row is the units installed in a month; each column how long they ran before the claim. A hot row is a bad batch; a hot column a wear-out age."
               summary={`${formatNumber(modes.data.ageing.rowTotals.reduce((a, b) => a + b, 0))} claims over ${modes.data.ageing.installMonths.length} install months.`}
               csvHref={csvUrl('/analytics/failure-modes', { ...population, table: 'ageing' })}
+              decorative={false}
               table={
                 <NumbersTable
                   caption="Claims by install month and months in service"

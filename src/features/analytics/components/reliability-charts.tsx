@@ -131,7 +131,7 @@ export function RankedBars({ rows, label }: { rows: readonly (RankedCount & { la
 export function AgeingHeatTable({ table }: { table: AgeingTable }) {
   const max = Math.max(1, ...table.counts.flat());
   return (
-    <div className="overflow-x-auto">
+    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Claims by install month and months in service">
       <table className="text-xs tabular-nums">
         <caption className="sr-only">Claims by install month (rows) and whole months in service at failure (columns)</caption>
         <thead>

@@ -58,6 +58,7 @@ export function WarrantyReserve() {
         description="Units of one model installed in one month under one set of terms, still working today. Largest reserve first."
         summary={`${formatNumber(r.cohorts.length)} cohorts from ${formatNumber(r.fits.length)} fitted models${r.unforecast.length ? `; ${r.unforecast.length} models have too few failures to forecast` : ''}.`}
         csvHref={csvUrl('/reserve', { table: 'cohorts' })}
+        decorative={false}
         table={
           <NumbersTable
             caption="Fitted life models"
@@ -66,7 +67,7 @@ export function WarrantyReserve() {
           />
         }
       >
-        <div className="overflow-x-auto">
+        <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Reserve by cohort">
           <table className="min-w-full divide-y divide-ink-200 text-left text-sm">
             <caption className="sr-only">Reserve by cohort</caption>
             <thead className="bg-ink-50">
