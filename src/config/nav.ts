@@ -1,4 +1,4 @@
-import { Activity, Home, Inbox, Landmark, Lightbulb, MapPin, Users, type LucideIcon } from 'lucide-react';
+import { Activity, ClipboardList, Home, Inbox, Landmark, Lightbulb, MapPin, Users, type LucideIcon } from 'lucide-react';
 import type { AppAbility } from '../../shared/abilities';
 
 export type NavItem = { to: string; label: string; icon: LucideIcon; end?: boolean };
@@ -6,6 +6,7 @@ export type NavItem = { to: string; label: string; icon: LucideIcon; end?: boole
 /** The navigation a user sees: only what their abilities allow. */
 export function navFor(ability: AppAbility): NavItem[] {
   const items: NavItem[] = [{ to: '/', label: 'Home', icon: Home, end: true }];
+  if (ability.can('read', 'Claim')) items.push({ to: '/claims', label: 'Claims', icon: ClipboardList });
   if (ability.can('read', 'ProductModel')) items.push({ to: '/catalogue', label: 'Catalogue', icon: Lightbulb });
   if (ability.can('read', 'Installation')) items.push({ to: '/installations', label: 'Sites', icon: MapPin });
   if (ability.can('read', 'Analytics')) items.push({ to: '/analytics', label: 'Failure analysis', icon: Activity });

@@ -10,10 +10,10 @@ describe('navigation by role', () => {
     const labels = (roles: Role[], kind: OrganizationKind, demoMode = true) =>
       navFor(defineAbilityFor(user(roles, kind), { demoMode })).map((i) => i.label);
     // Everyone browses the catalogue; installations ("Sites") are scoped to one's own organisation.
-    expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites']);
-    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites', 'Failure analysis']);
-    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites', 'Reserve']);
-    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites', 'People', 'Mailbox']);
-    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Catalogue', 'Sites', 'Failure analysis', 'Reserve', 'People']);
+    expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites']);
+    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Failure analysis']);
+    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Reserve']);
+    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'People', 'Mailbox']);
+    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Failure analysis', 'Reserve', 'People']);
   });
 });

@@ -5,6 +5,7 @@ import { User } from '../entities/user.entity';
 import { recordAudit } from '../../lib/audit';
 import { DEMO_ACCOUNTS, DEMO_ORGANIZATIONS, DEMO_PASSWORD } from './demo-accounts';
 import { seedDemoCatalogue } from './demo-catalogue';
+import { seedDemoClaims } from './demo-claims';
 import { seedDemoReliability } from './demo-reliability';
 
 /** Loads the fictional demo scenario into an empty database. Returns false when there was data already. */
@@ -39,8 +40,9 @@ export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean 
         { action: 'user.created', entityType: 'User', entityId: user.id, after: { email: a.email, roles: a.roles, source: 'demo' } },
       );
     }
-    const { products } = await seedDemoCatalogue(m, orgs, users);
-    await seedDemoReliability(m, orgs, users, [...products.values()]);
+    const catalogue = await seedDemoCatalogue(m, orgs, users);
+    await seedDemoClaims(m, orgs, users, catalogue);
+    await seedDemoReliability(m, orgs, users, [...catalogue.products.values()]);
   });
   return true;
 }
