@@ -23,7 +23,7 @@ export function failureModeSql(c = 'c'): string {
   const cases = FAILURE_MODE_RULES.map((rule) => {
     const tests = [
       ...rule.findings.map((f) => `JSON_SEARCH(${c}.evaluation, 'one', ${literal(f)}, NULL, '$.findings[*].code') IS NOT NULL`),
-      ...(rule.observations ?? []).map((o) => `JSON_VALUE(${c}.observations, '$.${o.replace(/[^A-Za-z]/g, '')}') = 'true'`),
+      ...(rule.observations ?? []).map((o) => `COALESCE(JSON_CONTAINS(${c}.observations, 'true', '$.${o.replace(/[^A-Za-z]/g, '')}'), 0) = 1`),
       ...rule.symptoms.map((s) => `JSON_CONTAINS(${c}.symptoms, '"${s.replace(/[^a-z_]/g, '')}"')`),
     ];
     return `WHEN ${tests.join(' OR ')} THEN ${literal(rule.mode)}`;
