@@ -12,7 +12,7 @@ import { generateStory, prng, stageFor, storyUuid } from '../../server/db/seed/r
 // second run replaces them. Claims carry the engine's verdict 'covered' without the stored evaluation (the
 // analytics read symptoms and site observations); they are for measuring, not for reading one by one.
 
-export const LARGE_STORY = { months: 36, perMonth: 78, quantity: [12, 60] as [number, number], scaleFactor: 0.13, seed: 1_000_003 };
+export const LARGE_STORY = { months: 36, perMonth: 78, quantity: [12, 60] as [number, number], scaleFactor: 0.165, seed: 1_000_003 };
 
 export async function generateLarge(ds: AppDataSource, opts: { today: string; log?: (s: string) => void } = { today: new Date().toISOString().slice(0, 10) }) {
   const log = opts.log ?? console.log;

@@ -40,6 +40,13 @@ describe('the demo reliability story', () => {
     expect(r.body.modes[0].key).toBe('driver');
   });
 
+  it('Aldercrest AC-CL54-E39 fan-cooled corn lamps outdoors: insects first', async () => {
+    const rhea = await as('rhea@aldercrest.test');
+    const cl = await model('AC-CL54-E39');
+    const r = await rhea.get(`/api/analytics/failure-modes?productModelId=${cl.id}`);
+    expect(r.body.modes[0].key).toBe('insects_debris');
+  });
+
   it('every demo model can be fitted, and both accountants get a reserve in dollars for the next 12 months', async () => {
     for (const [reviewer, accountant] of [
       ['rhea@aldercrest.test', 'ada@aldercrest.test'],
