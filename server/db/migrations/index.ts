@@ -7,4 +7,12 @@ import { Claims1796166977901 } from './1796166977901-Claims';
 import { Attachments1796167007046 } from './1796167007046-Attachments';
 import { InstallationLot1796167600000 } from './1796167600000-InstallationLot';
 
-export const migrations = [Foundation1796165467051, SessionsAndAuditGuard1796165468051, Catalogue1796166270710, CatalogueGuards1796166271710, Claims1796166977901, Attachments1796167007046, InstallationLot1796167600000];
+export const migrations = [
+  Foundation1796165467051,
+  SessionsAndAuditGuard1796165468051,
+  Catalogue1796166270710,
+  CatalogueGuards1796166271710,
+  Claims1796166977901,
+  Attachments1796167007046,
+  InstallationLot1796167600000,
+];
