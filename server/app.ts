@@ -17,6 +17,7 @@ import { sessionPolicy } from './middleware/auth';
 import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
+import { analyticsRouter } from './modules/analytics/analytics.router';
 import { authRouter } from './modules/auth/auth.router';
 import { claimActionsRouter } from './modules/claim-actions/claim-actions.router';
 import { claimsRouter } from './modules/claims/claims.router';
@@ -28,6 +29,7 @@ import { mailboxRouter } from './modules/mailbox/mailbox.router';
 import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
+import { reserveRouter } from './modules/reserve/reserve.router';
 import { usersRouter } from './modules/users/users.router';
 
 export type CreateAppOptions = {
@@ -125,6 +127,8 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/claims', claimActionsRouter(ctx));
   api.use('/claims', claimsRouter(ctx));
   api.use('/review', reviewRouter(ctx));
+  api.use('/analytics', analyticsRouter(ctx));
+  api.use('/reserve', reserveRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));

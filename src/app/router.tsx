@@ -36,6 +36,8 @@ export const router = createBrowserRouter([
       { path: 'claims/new', lazy: () => import('./routes/claims/claim-new').then((m) => ({ Component: m.ClaimNewRoute })) },
       { path: 'claims/batch', lazy: () => import('./routes/claims/claim-batch').then((m) => ({ Component: m.ClaimBatchRoute })) },
       { path: 'claims/:id', lazy: () => import('./routes/claims/claim').then((m) => ({ Component: m.ClaimRoute })) },
+      { path: 'analytics', lazy: () => import('./routes/analytics/failure-analysis').then((m) => ({ Component: m.FailureAnalysisRoute })) },
+      { path: 'reserve', lazy: () => import('./routes/analytics/reserve').then((m) => ({ Component: m.ReserveRoute })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
     ],
   },

@@ -11,9 +11,17 @@ describe('navigation by role', () => {
       navFor(defineAbilityFor(user(roles, kind), { demoMode })).map((i) => i.label);
     // Everyone browses the catalogue; installations ("Sites") are scoped to one's own organisation.
     expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites']);
-    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Review desk']);
-    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites']);
+    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Review desk', 'Failure analysis']);
+    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Reserve']);
     expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'People', 'Mailbox']);
-    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'People']);
+    expect(labels(['administrator'], 'manufacturer', false)).toEqual([
+      'Home',
+      'Claims',
+      'Catalogue',
+      'Sites',
+      'Failure analysis',
+      'Reserve',
+      'People',
+    ]);
   });
 });

@@ -6,6 +6,7 @@ import { recordAudit } from '../../lib/audit';
 import { DEMO_ACCOUNTS, DEMO_ORGANIZATIONS, DEMO_PASSWORD } from './demo-accounts';
 import { seedDemoCatalogue } from './demo-catalogue';
 import { seedDemoClaims } from './demo-claims';
+import { seedDemoReliability } from './demo-reliability';
 
 /** Loads the fictional demo scenario into an empty database. Returns false when there was data already. */
 export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean } = {}): Promise<boolean> {
@@ -41,6 +42,7 @@ export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean 
     }
     const catalogue = await seedDemoCatalogue(m, orgs, users);
     await seedDemoClaims(m, orgs, users, catalogue);
+    await seedDemoReliability(m, orgs, users, [...catalogue.products.values()]);
   });
   return true;
 }
