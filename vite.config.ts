@@ -6,7 +6,7 @@ const apiPort = Number(process.env.API_PORT ?? 3000);
 
 export default defineConfig({
   plugins: [react(), tailwindcss()],
-  build: { outDir: 'dist', sourcemap: true, chunkSizeWarningLimit: 600 },
+  build: { outDir: 'dist', sourcemap: true, manifest: true, chunkSizeWarningLimit: 600 },
   server: {
     host: '127.0.0.1',
     port: Number(process.env.VITE_PORT ?? 5173),

@@ -1,16 +1,19 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useForm } from 'react-hook-form';
-import { loginSchema, type LoginInput } from '../../../../shared/schemas/auth';
+import { useState, type FormEvent } from 'react';
+import { loginSchema } from '../../../../shared/schemas/auth';
 import { Button } from '../../../components/ui/button';
 import { InputField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
 import { authQueries } from '../api/auth-queries';
 import { login } from '../api/login';
 
+// The first screen anyone loads, so it is kept light: two fields checked with the same shared schema the
+// server uses, without a form library.
 export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   const qc = useQueryClient();
-  const form = useForm<LoginInput>({ resolver: zodResolver(loginSchema), defaultValues: { email: '', password: '' } });
+  const [email, setEmail] = useState('');
+  const [password, setPassword] = useState('');
+  const [errors, setErrors] = useState<{ email?: string; password?: string }>({});
   const mutation = useMutation({
     mutationFn: login,
     onSuccess: async () => {
@@ -21,8 +24,24 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   });
   const error = mutation.error instanceof ApiError ? mutation.error.message : mutation.error ? 'Sign-in failed.' : null;
 
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    const parsed = loginSchema.safeParse({ email, password });
+    if (!parsed.success) {
+      const next: typeof errors = {};
+      for (const issue of parsed.error.issues) {
+        const key = issue.path[0] as 'email' | 'password';
+        next[key] ??= issue.message;
+      }
+      setErrors(next);
+      return;
+    }
+    setErrors({});
+    mutation.mutate(parsed.data);
+  };
+
   return (
-    <form noValidate onSubmit={form.handleSubmit((v) => mutation.mutate(v))} className="space-y-4">
+    <form noValidate onSubmit={submit} className="space-y-4">
       {error ? (
         <div role="alert" className="rounded-lg border border-bad-200 bg-bad-50 px-3 py-2.5 text-sm font-medium text-bad-800">
           {error}
@@ -31,19 +50,23 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
       <InputField
         label="E-mail"
         type="email"
+        name="email"
         autoComplete="username"
         inputMode="email"
         autoCapitalize="none"
         spellCheck={false}
-        error={form.formState.errors.email?.message}
-        {...form.register('email')}
+        value={email}
+        onChange={(e) => setEmail(e.target.value)}
+        error={errors.email}
       />
       <InputField
         label="Password"
         type="password"
+        name="password"
         autoComplete="current-password"
-        error={form.formState.errors.password?.message}
-        {...form.register('password')}
+        value={password}
+        onChange={(e) => setPassword(e.target.value)}
+        error={errors.password}
       />
       <Button type="submit" size="lg" className="w-full" loading={mutation.isPending}>
         Sign in

@@ -1,0 +1,190 @@
+// Where the claims come from: counts of claims (and claimed units) by failure mode, by a condition of the
+// installation, by lot and by contractor, a failure mode x condition table, and the claims-ageing table
+// (install month x months in service). Plain aggregation over rows the caller has already loaded.
+
+import { isoMonth, isoYear, wholeMonthsBetween } from '../engine/dates';
+
+/** One claim, flattened with the conditions of the installation it came from. */
+export interface ClaimRow {
+  failureMode: string;
+  /** YYYY-MM-DD. */
+  installedOn: string;
+  failedOn: string;
+  /** Units the claim names; 1 by default. */
+  units?: number;
+  lot?: string | null;
+  contractor?: string | null;
+  location?: string | null;
+  enclosure?: string | null;
+  dimmer?: string | null;
+  supply?: string | null;
+  /** An ambient band such as ambientBand() gives. */
+  ambientBand?: string | null;
+}
+
+export const ENVIRONMENT_FACTORS = ['location', 'enclosure', 'dimmer', 'supply', 'ambientBand'] as const;
+export type EnvironmentFactor = (typeof ENVIRONMENT_FACTORS)[number];
+
+/** The key of rows that do not record the field. */
+export const NOT_RECORDED = 'not recorded';
+
+export interface RankedCount {
+  key: string;
+  claims: number;
+  units: number;
+  /** This key's claims as a fraction of all the rows' claims. */
+  share: number;
+}
+
+function compareKeys(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}
+
+function keyOrNotRecorded(value: string | null | undefined): string {
+  return value === null || value === undefined || value === '' ? NOT_RECORDED : value;
+}
+
+/** Counts by any key, most claims first (then most units, then the key in code-point order). */
+export function rankBy(
+  rows: readonly ClaimRow[],
+  keyOf: (row: ClaimRow) => string | null | undefined,
+): RankedCount[] {
+  const counts = new Map<string, { claims: number; units: number }>();
+  for (const row of rows) {
+    const key = keyOrNotRecorded(keyOf(row));
+    const entry = counts.get(key) ?? { claims: 0, units: 0 };
+    entry.claims += 1;
+    entry.units += row.units ?? 1;
+    counts.set(key, entry);
+  }
+  const total = rows.length;
+  return [...counts.entries()]
+    .map(([key, { claims, units }]) => ({ key, claims, units, share: total === 0 ? 0 : claims / total }))
+    .sort((a, b) => b.claims - a.claims || b.units - a.units || compareKeys(a.key, b.key));
+}
+
+export function rankFailureModes(rows: readonly ClaimRow[]): RankedCount[] {
+  return rankBy(rows, (row) => row.failureMode);
+}
+
+export function rankByEnvironment(rows: readonly ClaimRow[], factor: EnvironmentFactor): RankedCount[] {
+  return rankBy(rows, (row) => row[factor]);
+}
+
+export function rankByLot(rows: readonly ClaimRow[]): RankedCount[] {
+  return rankBy(rows, (row) => row.lot);
+}
+
+export function rankByContractor(rows: readonly ClaimRow[]): RankedCount[] {
+  return rankBy(rows, (row) => row.contractor);
+}
+
+export interface CrossTable {
+  /** Row and column keys, each ordered by its total claims (most first). */
+  rows: string[];
+  columns: string[];
+  /** counts[i][j]: claims with rows[i] and columns[j]. */
+  counts: number[][];
+  rowTotals: number[];
+  columnTotals: number[];
+  total: number;
+}
+
+/** Claims counted by two keys at once, e.g. failure mode x enclosure. */
+export function crossTabulate(
+  rows: readonly ClaimRow[],
+  rowKeyOf: (row: ClaimRow) => string | null | undefined,
+  columnKeyOf: (row: ClaimRow) => string | null | undefined,
+): CrossTable {
+  const rowKeys = rankBy(rows, rowKeyOf).map((r) => r.key);
+  const columnKeys = rankBy(rows, columnKeyOf).map((r) => r.key);
+  const rowIndex = new Map(rowKeys.map((key, i) => [key, i]));
+  const columnIndex = new Map(columnKeys.map((key, j) => [key, j]));
+  const counts = rowKeys.map(() => new Array<number>(columnKeys.length).fill(0));
+  for (const row of rows) {
+    counts[rowIndex.get(keyOrNotRecorded(rowKeyOf(row)))!][
+      columnIndex.get(keyOrNotRecorded(columnKeyOf(row)))!
+    ] += 1;
+  }
+  return {
+    rows: rowKeys,
+    columns: columnKeys,
+    counts,
+    rowTotals: counts.map((line) => line.reduce((sum, n) => sum + n, 0)),
+    columnTotals: columnKeys.map((_, j) => counts.reduce((sum, line) => sum + line[j], 0)),
+    total: rows.length,
+  };
+}
+
+export function failureModesByEnvironment(rows: readonly ClaimRow[], factor: EnvironmentFactor): CrossTable {
+  return crossTabulate(
+    rows,
+    (row) => row.failureMode,
+    (row) => row[factor],
+  );
+}
+
+/**
+ * An ambient temperature's band, for grouping: "below 25 °C", "25-35 °C", ..., "45 °C and above" with the
+ * default edges. A temperature on an edge belongs to the band above it; null when none was recorded.
+ */
+export function ambientBand(
+  celsius: number | null | undefined,
+  edges: readonly number[] = [25, 35, 45],
+): string | null {
+  if (celsius === null || celsius === undefined || !Number.isFinite(celsius)) return null;
+  if (edges.length === 0) return 'all';
+  if (celsius < edges[0]) return `below ${edges[0]} °C`;
+  for (let i = 1; i < edges.length; i++) if (celsius < edges[i]) return `${edges[i - 1]}-${edges[i]} °C`;
+  return `${edges[edges.length - 1]} °C and above`;
+}
+
+export interface AgeingTable {
+  /** YYYY-MM, from the earliest to the latest install month present (months without claims included). */
+  installMonths: string[];
+  /** 0 .. the oldest claim's months in service. */
+  monthsInService: number[];
+  /** counts[i][m]: claims from units installed in installMonths[i] that failed m whole months in service. */
+  counts: number[][];
+  rowTotals: number[];
+  columnTotals: number[];
+}
+
+function monthIndex(iso: string): number {
+  return isoYear(iso) * 12 + (isoMonth(iso) - 1);
+}
+
+function monthLabel(index: number): string {
+  const year = Math.floor(index / 12);
+  const month = index - year * 12 + 1;
+  return `${String(year).padStart(4, '0')}-${month < 10 ? '0' : ''}${month}`;
+}
+
+/** Claims by install month and whole months in service at failure (the engine's ageMonths). */
+export function ageingTable(rows: readonly ClaimRow[]): AgeingTable {
+  if (rows.length === 0) {
+    return { installMonths: [], monthsInService: [], counts: [], rowTotals: [], columnTotals: [] };
+  }
+  let first = Infinity;
+  let last = -Infinity;
+  let oldest = 0;
+  const cells = rows.map((row) => {
+    const install = monthIndex(row.installedOn);
+    const age = wholeMonthsBetween(row.installedOn, row.failedOn);
+    if (install < first) first = install;
+    if (install > last) last = install;
+    if (age > oldest) oldest = age;
+    return { install, age };
+  });
+  const counts = Array.from({ length: last - first + 1 }, () => new Array<number>(oldest + 1).fill(0));
+  for (const { install, age } of cells) counts[install - first][age] += 1;
+  return {
+    installMonths: counts.map((_, i) => monthLabel(first + i)),
+    monthsInService: Array.from({ length: oldest + 1 }, (_, m) => m),
+    counts,
+    rowTotals: counts.map((line) => line.reduce((sum, n) => sum + n, 0)),
+    columnTotals: Array.from({ length: oldest + 1 }, (_, m) =>
+      counts.reduce((sum, line) => sum + line[m], 0),
+    ),
+  };
+}
