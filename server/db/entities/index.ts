@@ -1,3 +1,4 @@
+import { Attachment } from './attachment.entity';
 import { AuditEvent } from './audit-event.entity';
 import { ClaimBatch } from './claim-batch.entity';
 import { Claim } from './claim.entity';
@@ -29,4 +30,5 @@ export const entities = [
   InstallationUnit,
   Claim,
   ClaimBatch,
+  Attachment,
 ];

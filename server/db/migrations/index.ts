@@ -4,5 +4,6 @@ import { SessionsAndAuditGuard1796165468051 } from './1796165468051-SessionsAndA
 import { Catalogue1796166270710 } from './1796166270710-Catalogue';
 import { CatalogueGuards1796166271710 } from './1796166271710-CatalogueGuards';
 import { Claims1796166977901 } from './1796166977901-Claims';
+import { Attachments1796167007046 } from './1796167007046-Attachments';
 
-export const migrations = [Foundation1796165467051, SessionsAndAuditGuard1796165468051, Catalogue1796166270710, CatalogueGuards1796166271710, Claims1796166977901];
+export const migrations = [Foundation1796165467051, SessionsAndAuditGuard1796165468051, Catalogue1796166270710, CatalogueGuards1796166271710, Claims1796166977901, Attachments1796167007046];

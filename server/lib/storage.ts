@@ -1,0 +1,188 @@
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadObjectCommand,
+  PutObjectCommand,
+  S3Client,
+  type S3ClientConfig,
+} from '@aws-sdk/client-s3';
+import { Upload } from '@aws-sdk/lib-storage';
+import type { AppConfig } from '../config/env';
+
+// Where uploaded files live: a folder on this machine by default, S3-compatible object storage past one machine.
+// Keys are ours (random ids), never a user's file name; both adapters refuse anything that is not a plain key.
+
+export interface Storage {
+  readonly driver: 'disk' | 's3';
+  put(key: string, body: Buffer | Readable, contentType: string): Promise<void>;
+  get(key: string): Promise<Readable>;
+  getBuffer(key: string): Promise<Buffer>;
+  delete(key: string): Promise<void>;
+  exists(key: string): Promise<boolean>;
+}
+
+export class StorageKeyError extends Error {}
+export class StorageObjectMissing extends Error {
+  constructor(public key: string) {
+    super(`No stored object under ${key}.`);
+  }
+}
+
+const KEY = /^[A-Za-z0-9][A-Za-z0-9._-]{0,127}(\/[A-Za-z0-9][A-Za-z0-9._-]{0,127}){0,7}$/;
+
+/** A key is one to eight segments of letters, digits, dot, dash and underscore; no segment starts with a dot. */
+export function assertStorageKey(key: string): void {
+  if (typeof key !== 'string' || !KEY.test(key) || key.split('/').some((s) => s === '.' || s === '..')) {
+    throw new StorageKeyError(`Not a valid storage key: ${JSON.stringify(key)}`);
+  }
+}
+
+async function toBuffer(stream: Readable): Promise<Buffer> {
+  const chunks: Buffer[] = [];
+  for await (const chunk of stream)
+    chunks.push(Buffer.isBuffer(chunk) ? chunk : Buffer.from(chunk as Uint8Array));
+  return Buffer.concat(chunks);
+}
+
+export function createDiskStorage(root: string): Storage {
+  const base = path.resolve(root);
+  const fileOf = (key: string) => {
+    assertStorageKey(key);
+    const file = path.resolve(base, ...key.split('/'));
+    // Belt and braces: the key pattern already rules out traversal.
+    if (!file.startsWith(base + path.sep))
+      throw new StorageKeyError(`Key escapes the storage folder: ${key}`);
+    return file;
+  };
+  const missing = (err: unknown) => (err as NodeJS.ErrnoException)?.code === 'ENOENT';
+
+  return {
+    driver: 'disk',
+    async put(key, body) {
+      const file = fileOf(key);
+      await fs.promises.mkdir(path.dirname(file), { recursive: true, mode: 0o750 });
+      // Written beside the target under a temporary name, then renamed: readers never see half a file.
+      const temp = path.join(path.dirname(file), `.tmp-${crypto.randomUUID()}`);
+      try {
+        if (Buffer.isBuffer(body)) await fs.promises.writeFile(temp, body, { mode: 0o640, flag: 'wx' });
+        else await pipeline(body, fs.createWriteStream(temp, { mode: 0o640, flags: 'wx' }));
+        await fs.promises.rename(temp, file);
+      } catch (err) {
+        await fs.promises.rm(temp, { force: true });
+        throw err;
+      }
+    },
+    async get(key) {
+      const file = fileOf(key);
+      // Opened before returning, so that a missing object is an error here and not on the first read.
+      const handle = await fs.promises.open(file, 'r').catch((err) => {
+        throw missing(err) ? new StorageObjectMissing(key) : err;
+      });
+      return handle.createReadStream();
+    },
+    async getBuffer(key) {
+      return fs.promises.readFile(fileOf(key)).catch((err) => {
+        throw missing(err) ? new StorageObjectMissing(key) : err;
+      });
+    },
+    async delete(key) {
+      await fs.promises.rm(fileOf(key), { force: true });
+    },
+    async exists(key) {
+      try {
+        return (await fs.promises.stat(fileOf(key))).isFile();
+      } catch (err) {
+        if (missing(err)) return false;
+        throw err;
+      }
+    },
+  };
+}
+
+export type S3StorageOptions = {
+  bucket: string;
+  region: string;
+  endpoint?: string;
+  accessKeyId?: string;
+  secretAccessKey?: string;
+};
+
+export function createS3Storage(opts: S3StorageOptions): Storage & { client: S3Client } {
+  const clientConfig: S3ClientConfig = {
+    region: opts.region,
+    endpoint: opts.endpoint,
+    // Path-style addressing works with every S3-compatible server (no bucket subdomains needed).
+    forcePathStyle: true,
+    // Checksums only where the API requires them: S3-compatible servers (and the local fake) otherwise
+    // store the aws-chunked framing of streamed uploads as if it were the object.
+    requestChecksumCalculation: 'WHEN_REQUIRED',
+    responseChecksumValidation: 'WHEN_REQUIRED',
+    ...(opts.accessKeyId && opts.secretAccessKey
+      ? { credentials: { accessKeyId: opts.accessKeyId, secretAccessKey: opts.secretAccessKey } }
+      : {}),
+  };
+  const client = new S3Client(clientConfig);
+  const Bucket = opts.bucket;
+  const notFound = (err: unknown) => {
+    const e = err as { name?: string; $metadata?: { httpStatusCode?: number } };
+    return e?.name === 'NoSuchKey' || e?.name === 'NotFound' || e?.$metadata?.httpStatusCode === 404;
+  };
+
+  return {
+    driver: 's3',
+    client,
+    async put(key, body, contentType) {
+      assertStorageKey(key);
+      if (Buffer.isBuffer(body)) {
+        await client.send(new PutObjectCommand({ Bucket, Key: key, Body: body, ContentType: contentType }));
+      } else {
+        // Streams of unknown length go up in parts.
+        await new Upload({
+          client,
+          params: { Bucket, Key: key, Body: body, ContentType: contentType },
+        }).done();
+      }
+    },
+    async get(key) {
+      assertStorageKey(key);
+      try {
+        const out = await client.send(new GetObjectCommand({ Bucket, Key: key }));
+        if (out.Body instanceof Readable) return out.Body;
+        throw new Error('The object store answered without a readable body.');
+      } catch (err) {
+        throw notFound(err) ? new StorageObjectMissing(key) : err;
+      }
+    },
+    async getBuffer(key) {
+      return toBuffer(await this.get(key));
+    },
+    async delete(key) {
+      assertStorageKey(key);
+      await client.send(new DeleteObjectCommand({ Bucket, Key: key }));
+    },
+    async exists(key) {
+      assertStorageKey(key);
+      try {
+        await client.send(new HeadObjectCommand({ Bucket, Key: key }));
+        return true;
+      } catch (err) {
+        if (notFound(err)) return false;
+        throw err;
+      }
+    },
+  };
+}
+
+export function createStorage(config: Pick<AppConfig, 'storage'>): Storage {
+  const s = config.storage;
+  if (s.driver === 's3') {
+    if (!s.s3.bucket) throw new Error('S3_BUCKET is required when STORAGE_DRIVER=s3.');
+    return createS3Storage({ ...s.s3, bucket: s.s3.bucket });
+  }
+  return createDiskStorage(s.dir);
+}
