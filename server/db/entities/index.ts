@@ -2,10 +2,14 @@ import { Attachment } from './attachment.entity';
 import { AuditEvent } from './audit-event.entity';
 import { ClaimBatch } from './claim-batch.entity';
 import { Claim } from './claim.entity';
+import { CreditMemo } from './credit-memo.entity';
+import { IdempotencyKey } from './idempotency-key.entity';
 import { InstallationUnit } from './installation-unit.entity';
 import { Installation } from './installation.entity';
 import { Invitation } from './invitation.entity';
+import { LedgerEntry } from './ledger-entry.entity';
 import { LoginAttempt } from './login-attempt.entity';
+import { MemoPrefix, MemoSequence } from './memo-sequence.entity';
 import { Organization } from './organization.entity';
 import { OutboxMessage } from './outbox-message.entity';
 import { PolicyModel } from './policy-model.entity';
@@ -31,4 +35,9 @@ export const entities = [
   Claim,
   ClaimBatch,
   Attachment,
+  CreditMemo,
+  LedgerEntry,
+  MemoSequence,
+  MemoPrefix,
+  IdempotencyKey,
 ];

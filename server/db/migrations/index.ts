@@ -5,5 +5,7 @@ import { Catalogue1796166270710 } from './1796166270710-Catalogue';
 import { CatalogueGuards1796166271710 } from './1796166271710-CatalogueGuards';
 import { Claims1796166977901 } from './1796166977901-Claims';
 import { Attachments1796167007046 } from './1796167007046-Attachments';
+import { Credits1796167459216 } from './1796167459216-Credits';
+import { CreditsGuards1796167460216 } from './1796167460216-CreditsGuards';
 
-export const migrations = [Foundation1796165467051, SessionsAndAuditGuard1796165468051, Catalogue1796166270710, CatalogueGuards1796166271710, Claims1796166977901, Attachments1796167007046];
+export const migrations = [Foundation1796165467051, SessionsAndAuditGuard1796165468051, Catalogue1796166270710, CatalogueGuards1796166271710, Claims1796166977901, Attachments1796167007046, Credits1796167459216, CreditsGuards1796167460216];
