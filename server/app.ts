@@ -17,6 +17,7 @@ import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { authRouter } from './modules/auth/auth.router';
+import { claimCreditsRouter, creditsRouter } from './modules/credits/credits.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
@@ -109,6 +110,8 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
   api.use('/evaluations', evaluationsRouter());
+  api.use('/claims', claimCreditsRouter(ctx));
+  api.use('/credits', creditsRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));
   app.use('/api', api);

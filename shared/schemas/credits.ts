@@ -46,20 +46,25 @@ export const creditListQuerySchema = listQuerySchema
     kind: z.enum(MEMO_KINDS).optional(),
     contractorId: uuid.optional(),
     manufacturerId: uuid.optional(),
-    currency: z.string().regex(/^[A-Z]{3}$/, 'A currency is three capital letters.').optional(),
+    currency: z
+      .string()
+      .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
+      .optional(),
     ...dateRange,
   })
   .refine(rangeInOrder, rangeMessage);
 export type CreditListQuery = z.infer<typeof creditListQuerySchema>;
 
-export const creditQueueQuerySchema = listQuerySchema
-  .extend({
-    sort: z.enum(['approvedAt', '-approvedAt', 'amount', '-amount', 'number', '-number']).default('approvedAt'),
-    contractorId: uuid.optional(),
-    currency: z.string().regex(/^[A-Z]{3}$/, 'A currency is three capital letters.').optional(),
-    /** Only claims approved at least this many days ago. */
-    minAgeDays: z.coerce.number().int().min(0).max(3650).optional(),
-  });
+export const creditQueueQuerySchema = listQuerySchema.extend({
+  sort: z.enum(['approvedAt', '-approvedAt', 'amount', '-amount', 'number', '-number']).default('approvedAt'),
+  contractorId: uuid.optional(),
+  currency: z
+    .string()
+    .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
+    .optional(),
+  /** Only claims approved at least this many days ago. */
+  minAgeDays: z.coerce.number().int().min(0).max(3650).optional(),
+});
 export type CreditQueueQuery = z.infer<typeof creditQueueQuerySchema>;
 
 export const creditExportQuerySchema = z
@@ -75,13 +80,25 @@ export const creditExportQuerySchema = z
 export type CreditExportQuery = z.infer<typeof creditExportQuerySchema>;
 
 export const warrantyCostQuerySchema = z
-  .strictObject({ ...dateRange, currency: z.string().regex(/^[A-Z]{3}$/).optional() })
+  .strictObject({
+    ...dateRange,
+    currency: z
+      .string()
+      .regex(/^[A-Z]{3}$/)
+      .optional(),
+  })
   .refine(rangeInOrder, rangeMessage);
 export type WarrantyCostQuery = z.infer<typeof warrantyCostQuerySchema>;
 
 // Answers
 
-export type CreditMemoSummary = { id: string; number: string; amount: string; currency: string; claimId: string };
+export type CreditMemoSummary = {
+  id: string;
+  number: string;
+  amount: string;
+  currency: string;
+  claimId: string;
+};
 
 export type CreditMemoDto = CreditMemoSummary & {
   kind: MemoKind;
