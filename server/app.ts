@@ -1,7 +1,7 @@
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
-import express, { type Express } from 'express';
+import express, { type Express, type Router } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type session from 'express-session';
@@ -12,12 +12,14 @@ import type { AppContext } from './context';
 import type { AppDataSource } from './db/data-source';
 import { AppError } from './lib/errors';
 import type { Logger } from './lib/logger';
+import { createStorage, type Storage } from './lib/storage';
 import { sessionPolicy } from './middleware/auth';
 import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { authRouter } from './modules/auth/auth.router';
 import { claimCreditsRouter, creditsRouter } from './modules/credits/credits.router';
+import { claimsRouter } from './modules/claims/claims.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
@@ -34,6 +36,10 @@ export type CreateAppOptions = {
   databaseUrl: string;
   /** Where the built client lives; served when it exists. */
   clientDir?: string;
+  /** Attachment storage; by default the one config.storage describes. */
+  storage?: Storage;
+  /** More routers under /api, after the built-in ones and before the 404 (tests mount test-only owners here). */
+  mountApi?: (api: Router, ctx: AppContext) => void;
 };
 
 export type App = Express & { close: () => Promise<void>; sessionStore: session.Store };
@@ -42,7 +48,8 @@ export function createApp(opts: CreateAppOptions): App {
   const { config, ds, logger } = opts;
   const app = express() as App;
   const base = config.publicUrl ?? `http://${config.host}:${config.port}`;
-  const ctx: AppContext = { config, ds, logger, publicUrl: (p) => new URL(p, base).toString() };
+  const storage = opts.storage ?? createStorage(config);
+  const ctx: AppContext = { config, ds, logger, storage, publicUrl: (p) => new URL(p, base).toString() };
 
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy ? 1 : false);
@@ -106,13 +113,15 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/auth', authRouter(ctx, pp));
   api.use('/invitations', invitationsRouter(ctx));
   api.use('/users', usersRouter(ctx));
+  api.use('/evaluations', evaluationsRouter());
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
-  api.use('/evaluations', evaluationsRouter());
   api.use('/claims', claimCreditsRouter(ctx));
+  api.use('/claims', claimsRouter(ctx));
   api.use('/credits', creditsRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
+  opts.mountApi?.(api, ctx);
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));
   app.use('/api', api);
 

@@ -66,3 +66,11 @@ export function authorize(
 export function authorizeType(req: { ability: AppAbility }, action: Action, type: Exclude<SubjectName, 'all'>) {
   if (!req.ability.can(action, type)) throw forbidden();
 }
+
+/**
+ * For creating a record whose owners are known before it exists (the candidate's organisation ids): a
+ * refusal is 403, since there is no record to hide.
+ */
+export function authorizeNew(req: { ability: AppAbility }, action: Action, type: Exclude<SubjectName, 'all'>, candidate: Record<string, unknown>) {
+  if (!req.ability.can(action, subject(type, { ...candidate }))) throw forbidden();
+}

@@ -24,9 +24,15 @@ export function parseQuery<S extends z.ZodType>(schema: S, req: Request): z.infe
   return parseWith(schema, req.query ?? {}, 'query');
 }
 
+// File uploads (POST …/attachments) are the one place a multipart body is let through; the upload middleware
+// parses it there, after the route has authorised the request.
+const MULTIPART_ROUTE = /\/attachments\/?$/;
+
 /** JSON bodies only on JSON routes: a body of any other type is a 415. */
 export const requireJsonBody: RequestHandler = (req, _res, next) => {
   const hasBody = Number(req.get('content-length') ?? 0) > 0 || req.get('transfer-encoding') !== undefined;
+  if (hasBody && req.method === 'POST' && MULTIPART_ROUTE.test(req.path) && req.is('multipart/form-data'))
+    return next();
   if (hasBody && !req.is('application/json')) {
     return next(new AppError(415, 'request.unsupported_media_type', 'Send the body as application/json.'));
   }

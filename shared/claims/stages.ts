@@ -110,6 +110,7 @@ type ActionDef = {
   refusal: string;
 };
 
+// A contracting company's administrator may do whatever its installers may on a claim, as in the abilities.
 const CONTRACTOR_ROLES = ['installer', 'administrator'] as const satisfies readonly Role[];
 
 export const ACTIONS = {
@@ -243,6 +244,9 @@ export const ACTIONS = {
     does: 'deny a claim',
     refusal: 'be denied',
   },
+  // A decision can be reopened (back to in review, with a written reason) until it is settled: an approved
+  // claim before its credit (void the credit first), a denied claim before it is closed. Closed and withdrawn
+  // claims stay final; new facts on those start a new claim.
   reopen: {
     label: 'Reopen decision',
     from: ['approved', 'denied'],
@@ -282,6 +286,7 @@ export const ACTIONS = {
     does: 'void a credit',
     refusal: 'have a credit voided',
   },
+  // The server closes settled claims itself (actor 'system'), e.g. after the period for questions runs out.
   close: {
     label: 'Close claim',
     from: ['denied', 'credited'],

@@ -42,7 +42,9 @@ export type AttachmentDto = {
   width: number | null;
   height: number | null;
   capturedAt: string | null;
-  hasThumbnail: boolean;
+  /** Where to download the file (as an attachment) and its thumbnail (photos only). */
+  contentUrl: string;
+  thumbnailUrl: string | null;
   uploadedBy: { id: string };
   createdAt: string;
 };

@@ -1,40 +1,17 @@
 import { z } from 'zod';
+import { STAGE_LABELS, STAGES, type Stage } from '../claims/stages';
 import { SYMPTOMS, type Evaluation, type Verdict } from '../engine';
+import type { AttachmentDto } from './attachments';
 import { isoDateSchema, uuidSchema, type HistoryEventDto, type OrgRef, type ProductFamily } from './catalogue';
 import { listQuerySchema } from './users';
 
 // Claims: one strict schema per payload, shared by the claim form (its resolver and the live checks), the CSV
 // batch import and the server. Readings are stored in base units (V, A, W); the form converts what meters show.
 
-/** The stages of API.md, in journey order. The screens word them in CLAIM_STAGE_LABELS. */
-export const CLAIM_STAGES = [
-  'draft',
-  'filed',
-  'in_review',
-  'needs_info',
-  'return_requested',
-  'unit_received',
-  'approved',
-  'denied',
-  'credited',
-  'closed',
-  'withdrawn',
-] as const;
-export type ClaimStage = (typeof CLAIM_STAGES)[number];
-
-export const CLAIM_STAGE_LABELS: Record<ClaimStage, string> = {
-  draft: 'Draft',
-  filed: 'Filed',
-  in_review: 'In review',
-  needs_info: 'Needs information',
-  return_requested: 'Return requested',
-  unit_received: 'Unit received',
-  approved: 'Approved',
-  denied: 'Denied',
-  credited: 'Credited',
-  closed: 'Closed',
-  withdrawn: 'Withdrawn',
-};
+// The stage names and their wording come from the stage machine (shared/claims/stages.ts), defined once.
+export const CLAIM_STAGES = STAGES;
+export type ClaimStage = Stage;
+export const CLAIM_STAGE_LABELS: Record<ClaimStage, string> = STAGE_LABELS;
 
 /** Stages where the claim is still open: something is left to do by one side or the other. */
 export const OPEN_STAGES: readonly ClaimStage[] = ['draft', 'filed', 'in_review', 'needs_info', 'return_requested', 'unit_received', 'approved'];
@@ -71,8 +48,7 @@ const reading = (what: string, unit: string, max: number) =>
     .refine(Number.isFinite, `Enter ${what} as a number of ${unit}.`)
     .min(0, `${what[0].toUpperCase()}${what.slice(1)} cannot be negative.`)
     .max(max, `${what[0].toUpperCase()}${what.slice(1)} must be at most ${max.toLocaleString('en-US')} ${unit}: check the meter's range.`)
-    .nullish()
-    .transform((v) => v ?? undefined);
+    .optional();
 
 export const stringReadingInputSchema = z.strictObject({
   volts: reading('the string voltage', 'V', 2000),
@@ -82,8 +58,7 @@ export const stringReadingInputSchema = z.strictObject({
     .int('Enter the dark LEDs as a whole number.')
     .min(0, 'Dark LEDs cannot be negative.')
     .max(1000, 'At most 1,000 dark LEDs on one string.')
-    .nullish()
-    .transform((v) => v ?? undefined),
+    .optional(),
 });
 
 export const claimMeasurementsSchema = z.strictObject({
@@ -93,13 +68,12 @@ export const claimMeasurementsSchema = z.strictObject({
     .number({ error: 'Enter the power factor as a number between 0 and 1, like 0.93.' })
     .gt(0, 'The power factor must be above 0.')
     .max(1, 'The power factor is at most 1 (a reading like 93 % is 0.93).')
-    .nullish()
-    .transform((v) => v ?? undefined),
+    .optional(),
   driverOutputVolts: reading('the driver output voltage', 'V', 2000),
   driverOutputAmps: reading('the driver output current', 'A', 100),
   strings: z.array(stringReadingInputSchema).max(1000, 'At most 1,000 strings.').optional(),
 });
-export type ClaimMeasurements = Partial<z.output<typeof claimMeasurementsSchema>>;
+export type ClaimMeasurements = z.output<typeof claimMeasurementsSchema>;
 export type ClaimMeasurementsInput = z.input<typeof claimMeasurementsSchema>;
 
 export const claimObservationsSchema = z.strictObject(
@@ -154,10 +128,6 @@ export type UpdateClaimInput = z.input<typeof updateClaimSchema>;
 export const fileClaimSchema = z.strictObject({
   /** Optional: file only if the draft is still at this version (what the user last saw). */
   version: z.number().int().min(1).optional(),
-});
-
-export const withdrawClaimSchema = z.strictObject({
-  reason: z.string().trim().max(1000, 'The reason has at most 1,000 characters.').optional(),
 });
 
 const stageList = z
@@ -296,16 +266,6 @@ export type ClaimEngineContext = {
   };
 };
 
-export type ClaimAttachmentDto = {
-  id: string;
-  kind: string;
-  filename: string;
-  contentType: string;
-  size: number;
-  url: string;
-  createdAt: string;
-};
-
 export type ClaimDetailDto = ClaimListItemDto & {
   symptoms: Symptom[];
   measurements: ClaimMeasurements;
@@ -325,7 +285,7 @@ export type ClaimDetailDto = ClaimListItemDto & {
   };
   engineContext: ClaimEngineContext;
   evaluation: (Evaluation & { evaluatedAt: string }) | null;
-  attachments: ClaimAttachmentDto[];
+  attachments: AttachmentDto[];
   /** What the manufacturer asked for (information or a return); the review issue fills this in. */
   requests: { id: string; kind: string; message: string; createdAt: string; answeredAt: string | null }[];
   decision: null | Record<string, unknown>;

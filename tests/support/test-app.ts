@@ -1,6 +1,6 @@
 import { inject } from 'vitest';
 import supertest from 'supertest';
-import { createApp, type App } from '../../server/app';
+import { createApp, type App, type CreateAppOptions } from '../../server/app';
 import { loadConfig, type AppConfig } from '../../server/config/env';
 import { createDataSource, type AppDataSource } from '../../server/db/data-source';
 import { createLogger } from '../../server/lib/logger';
@@ -8,7 +8,10 @@ import { createLogger } from '../../server/lib/logger';
 export type TestContext = { app: App; ds: AppDataSource; config: AppConfig; request: () => supertest.Agent };
 
 /** createApp() on the real test database, as the server would build it, without listening. */
-export async function createTestApp(overrides: Record<string, string> = {}): Promise<TestContext> {
+export async function createTestApp(
+  overrides: Record<string, string> = {},
+  options: Pick<CreateAppOptions, 'storage' | 'mountApi'> = {},
+): Promise<TestContext> {
   const databaseUrl = inject('databaseUrl');
   const config = loadConfig({
     NODE_ENV: 'test',
@@ -20,7 +23,7 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
   });
   const ds = createDataSource(databaseUrl, { poolSize: 5 });
   await ds.initialize();
-  const app = createApp({ config, ds, logger: createLogger('silent'), databaseUrl });
+  const app = createApp({ config, ds, logger: createLogger('silent'), databaseUrl, ...options });
   return { app, ds, config, request: () => supertest.agent(app) };
 }
 

@@ -4,6 +4,7 @@ import { Organization } from '../entities/organization.entity';
 import { User } from '../entities/user.entity';
 import { recordAudit } from '../../lib/audit';
 import { DEMO_ACCOUNTS, DEMO_ORGANIZATIONS, DEMO_PASSWORD } from './demo-accounts';
+import { seedDemoCatalogue } from './demo-catalogue';
 
 /** Loads the fictional demo scenario into an empty database. Returns false when there was data already. */
 export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean } = {}): Promise<boolean> {
@@ -18,6 +19,7 @@ export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean 
       await m.save(org);
       orgs.set(o.key, org);
     }
+    const users = new Map<string, User>();
     for (const [i, a] of DEMO_ACCOUNTS.entries()) {
       const org = orgs.get(a.org)!;
       const user = m.create(User, {
@@ -29,12 +31,14 @@ export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean 
         passwordHash: hashes[i],
       });
       await m.save(user);
+      users.set(a.email, user);
       await recordAudit(
         m,
         { userId: null, organizationId: org.id },
         { action: 'user.created', entityType: 'User', entityId: user.id, after: { email: a.email, roles: a.roles, source: 'demo' } },
       );
     }
+    await seedDemoCatalogue(m, orgs, users);
   });
   return true;
 }

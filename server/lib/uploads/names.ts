@@ -4,6 +4,7 @@
 export const MAX_NAME_LENGTH = 120;
 
 // C0 and C1 controls, bidirectional embeddings, overrides and isolates, directional marks, zero-width characters.
+// eslint-disable-next-line no-control-regex -- matching control characters is the point
 const INVISIBLE = /[\u0000-\u001f\u007f-\u009f\u061c\u200b-\u200f\u202a-\u202e\u2060-\u2069\ufeff]/g;
 // Characters Windows and most file systems refuse in a name.
 const RESERVED = /[<>:"|?*]/g;

@@ -13,7 +13,7 @@ import { templateCsv } from '../../lib/csv-import';
 import { AppError } from '../../lib/errors';
 import { loadHistory } from '../../lib/history';
 import { pageOf } from '../../lib/pagination';
-import { authorize, authorizeType, requireUser } from '../../middleware/auth';
+import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
 import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { presentInstallation, presentInstallationDetail } from './installations.presenter';
 import { createInstallationsService, INSTALLATION_COLUMNS, scopeOf } from './installations.service';
@@ -40,7 +40,7 @@ export function installationsRouter(ctx: AppContext) {
         { path: 'productModelId', message: 'No such product model in the catalogue.' },
       ]);
     }
-    authorize(req, 'create', 'Installation', { contractorId: req.user!.organizationId, manufacturerId: product.manufacturerId });
+    authorizeNew(req, 'create', 'Installation', { contractorId: req.user!.organizationId, manufacturerId: product.manufacturerId });
     const id = await service.create(req.user!.organizationId, product, input, actorFromRequest(req));
     res.status(201).json({ installation: presentInstallationDetail((await service.findById(id))!) });
   });
@@ -53,7 +53,7 @@ export function installationsRouter(ctx: AppContext) {
   r.post('/import', async (req, res) => {
     const { dryRun } = parseQuery(importQuerySchema, req);
     const input = parseBody(importRequestSchema, req);
-    authorize(req, 'create', 'Installation', { contractorId: req.user!.organizationId });
+    authorizeNew(req, 'create', 'Installation', { contractorId: req.user!.organizationId });
     const result = await service.importRows(req.user!.organizationId, input, dryRun, actorFromRequest(req));
     res.status(dryRun || result.imported === 0 ? 200 : 201).json(result);
   });

@@ -211,7 +211,9 @@ export function createInstallationsService(ds: AppDataSource) {
     async update(target: Installation, input: UpdateInstallationInput, actor: Actor) {
       const current = installationAuditView({ ...target, serials: target.units.map((u) => u.serial) });
       const patch = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)) as Partial<InstallationValues>;
-      const merged = installationInputSchema.safeParse({ ...current, ...patch, productModelId: target.productModelId, policyVersionId: undefined });
+      const { policyVersionId: _pv, ...editable } = current;
+      void _pv;
+      const merged = installationInputSchema.safeParse({ ...editable, ...patch });
       if (!merged.success) {
         throw new AppError(
           400,

@@ -6,7 +6,7 @@ import { actorFromRequest } from '../../lib/audit';
 import { conflict } from '../../lib/errors';
 import { loadHistory } from '../../lib/history';
 import { pageOf } from '../../lib/pagination';
-import { authorize, authorizeType, requireUser } from '../../middleware/auth';
+import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
 import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { presentPolicy, presentPolicyDetail } from './policies.presenter';
 import { createPoliciesService } from './policies.service';
@@ -34,7 +34,7 @@ export function policiesRouter(ctx: AppContext) {
 
   r.post('/', async (req, res) => {
     const input = parseBody(createPolicySchema, req);
-    authorize(req, 'create', 'WarrantyPolicy', { manufacturerId: req.user!.organizationId });
+    authorizeNew(req, 'create', 'WarrantyPolicy', { manufacturerId: req.user!.organizationId });
     const id = await service.create(req.user!.organizationId, input, actorFromRequest(req));
     res.status(201).json({ policy: await detailOf(id) });
   });

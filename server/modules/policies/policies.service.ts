@@ -1,6 +1,6 @@
 import { In, type EntityManager } from 'typeorm';
 import type { CreatePolicyInput, PolicyListQuery, PolicyTerms, UpdatePolicyInput } from '../../../shared/schemas/catalogue';
-import { createPolicySchema, policyTermsSchema } from '../../../shared/schemas/catalogue';
+import { type createPolicySchema, type policyTermsSchema } from '../../../shared/schemas/catalogue';
 import type { z } from 'zod';
 import type { AppDataSource } from '../../db/data-source';
 import { PolicyModel } from '../../db/entities/policy-model.entity';

@@ -12,7 +12,7 @@ import { actorFromRequest } from '../../lib/audit';
 import { templateCsv } from '../../lib/csv-import';
 import { loadHistory } from '../../lib/history';
 import { pageOf } from '../../lib/pagination';
-import { authorize, authorizeType, requireUser } from '../../middleware/auth';
+import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
 import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { presentProduct } from './products.presenter';
 import { createProductsService, PRODUCT_COLUMNS } from './products.service';
@@ -33,7 +33,7 @@ export function productsRouter(ctx: AppContext) {
 
   r.post('/', async (req, res) => {
     const input = parseBody(productInputSchema, req);
-    authorize(req, 'create', 'ProductModel', { manufacturerId: req.user!.organizationId });
+    authorizeNew(req, 'create', 'ProductModel', { manufacturerId: req.user!.organizationId });
     const id = await service.create(req.user!.organizationId, input, actorFromRequest(req));
     res.status(201).json({ product: presentProduct((await service.findById(id))!) });
   });
@@ -46,7 +46,7 @@ export function productsRouter(ctx: AppContext) {
   r.post('/import', async (req, res) => {
     const { dryRun } = parseQuery(importQuerySchema, req);
     const input = parseBody(importRequestSchema, req);
-    authorize(req, 'create', 'ProductModel', { manufacturerId: req.user!.organizationId });
+    authorizeNew(req, 'create', 'ProductModel', { manufacturerId: req.user!.organizationId });
     const result = await service.importRows(req.user!.organizationId, input, dryRun, actorFromRequest(req));
     res.status(dryRun || result.imported === 0 ? 200 : 201).json(result);
   });

@@ -1,0 +1,66 @@
+import type { AttachmentDto } from '../../../shared/schemas/attachments';
+import type { ClaimDetailDto, ClaimListItemDto, FilingIssue } from '../../../shared/schemas/claims';
+import type { HistoryEventDto } from '../../../shared/schemas/catalogue';
+import type { Claim } from '../../db/entities/claim.entity';
+import type { LoadedClaim } from './claims.service';
+import { engineContextOf } from './engine-input';
+
+export function presentClaimListItem(c: Claim): ClaimListItemDto {
+  return {
+    id: c.id,
+    number: c.number,
+    stage: c.stage,
+    waitingOn: c.waitingOn,
+    contractor: { id: c.contractorId, name: c.contractor?.name ?? '' },
+    manufacturer: { id: c.manufacturerId, name: c.manufacturer?.name ?? '' },
+    product: { id: c.productModelId, modelNumber: c.productModel?.modelNumber ?? '', name: c.productModel?.name ?? '', family: c.productModel?.family ?? 'other' },
+    installation: { id: c.installationId, siteName: c.installation?.siteName ?? '', siteCity: c.installation?.siteCity ?? '' },
+    serials: c.serials,
+    units: c.units ?? c.serials.length,
+    failedOn: c.failedOn,
+    filedAt: c.filedAt ? c.filedAt.toISOString() : null,
+    stageChangedAt: c.stageChangedAt.toISOString(),
+    evaluation: c.verdict && c.engineVersion ? { verdict: c.verdict, engineVersion: c.engineVersion } : null,
+    expectedCredit: c.expectedCredit,
+    currency: c.currency,
+    createdAt: c.createdAt.toISOString(),
+    updatedAt: c.updatedAt.toISOString(),
+    version: c.version,
+  };
+}
+
+export function presentClaimDetail(
+  c: LoadedClaim,
+  extra: { history: HistoryEventDto[]; attachments: AttachmentDto[]; filingIssues: FilingIssue[]; createdBy: { id: string; name: string } | null },
+): ClaimDetailDto {
+  const i = c.installation;
+  const v = c.policyVersion;
+  return {
+    ...presentClaimListItem(c),
+    symptoms: c.symptoms,
+    measurements: c.measurements,
+    observations: c.observations,
+    narrative: c.narrative,
+    installationDetail: {
+      id: i.id,
+      siteName: i.siteName,
+      siteAddress: i.siteAddress,
+      siteCity: i.siteCity,
+      siteRegion: i.siteRegion,
+      quantity: i.quantity,
+      installDate: i.installDate,
+      purchaseDate: i.purchaseDate,
+      serials: i.units.map((u) => u.serial).sort(),
+      policyVersion: v ? { id: v.id, policyName: v.policy?.name ?? '', versionNumber: v.versionNumber, effectiveFrom: v.effectiveFrom } : null,
+    },
+    engineContext: engineContextOf(c.productModel, v, i),
+    evaluation: c.evaluation && c.evaluatedAt ? { ...c.evaluation, evaluatedAt: c.evaluatedAt.toISOString() } : null,
+    attachments: extra.attachments,
+    requests: [],
+    decision: null,
+    credit: null,
+    history: extra.history,
+    filingIssues: extra.filingIssues,
+    createdBy: extra.createdBy,
+  };
+}

@@ -1,0 +1,121 @@
+import { subject } from '@casl/ability';
+import { Router, type Request } from 'express';
+import { z } from 'zod';
+import {
+  claimListQuerySchema,
+  createClaimSchema,
+  fileClaimSchema,
+  updateClaimSchema,
+} from '../../../shared/schemas/claims';
+import { withdrawSchema } from '../../../shared/claims/actions.schema';
+import type { AppContext } from '../../context';
+import { Attachment } from '../../db/entities/attachment.entity';
+import { Installation } from '../../db/entities/installation.entity';
+import { User } from '../../db/entities/user.entity';
+import { actorFromRequest } from '../../lib/audit';
+import { loadHistory } from '../../lib/history';
+import { pageOf } from '../../lib/pagination';
+import { authorize, authorizeType, requireUser } from '../../middleware/auth';
+import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
+import { presentAttachment } from '../attachments/attachments.presenter';
+import { attachmentsRouter } from '../attachments/attachments.router';
+import { listAttachments } from '../attachments/attachments.service';
+import { presentClaimDetail, presentClaimListItem } from './claims.presenter';
+import { createClaimsService, currentFilingIssues, scopeOf, type ClaimsService, type EvidenceCounter, type LoadedClaim } from './claims.service';
+
+const asClaim = (c: LoadedClaim) => subject('Claim', { contractorId: c.contractorId, manufacturerId: c.manufacturerId, stage: c.stage } as Record<string, unknown>);
+
+const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
+
+/** Photos and proof of purchase on the claim, as the engine counts evidence (removed files do not count). */
+export const claimEvidence: EvidenceCounter = async (m, claimId) => {
+  const rows = await m.find(Attachment, { where: { ownerType: 'claim', ownerId: claimId }, select: { id: true, kind: true, purpose: true } });
+  return { photos: rows.filter((a) => a.kind === 'photo').length, proofOfPurchase: rows.some((a) => a.purpose === 'proof_of_purchase') };
+};
+
+export async function claimDetail(ctx: AppContext, req: Request, c: LoadedClaim) {
+  const createdBy = c.createdById ? await ctx.ds.getRepository(User).findOne({ where: { id: c.createdById }, select: { id: true, name: true, organizationId: true } }) : null;
+  return presentClaimDetail(c, {
+    history: await loadHistory(ctx.ds, 'Claim', c.id, req.user!.organizationId),
+    attachments: (await listAttachments(ctx, { type: 'claim', id: c.id })).map((a) => presentAttachment(a, `/api/claims/${c.id}/attachments`)),
+    filingIssues: c.stage === 'draft' ? currentFilingIssues(c) : [],
+    createdBy: createdBy ? { id: createdBy.id, name: createdBy.organizationId === req.user!.organizationId ? createdBy.name : '' } : null,
+  });
+}
+
+export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } = {}) {
+  const r = Router();
+  const service = opts.service ?? createClaimsService(ctx.ds, { publicUrl: ctx.publicUrl, evidence: claimEvidence });
+  r.use(requireUser);
+
+  const load = async (req: Request, action: 'read' | 'update' | 'file' | 'delete') => {
+    const { id } = parseWith(idParam, req.params, 'address');
+    const claim = await service.findById(id);
+    authorize(req, action, 'Claim', claim, 'claim');
+    return claim;
+  };
+
+  r.get('/', async (req, res) => {
+    authorizeType(req, 'read', 'Claim');
+    const q = parseQuery(claimListQuerySchema, req);
+    const { items, total } = await service.list(scopeOf(req.user!), q);
+    res.json(pageOf(items.map(presentClaimListItem), total, q));
+  });
+
+  r.post('/', async (req, res) => {
+    const { installationId, ...fields } = parseBody(createClaimSchema, req);
+    const inst = await ctx.ds.getRepository(Installation).findOne({ where: { id: installationId } });
+    authorize(req, 'read', 'Installation', inst, 'installation');
+    authorize(req, 'create', 'Claim', { contractorId: inst.contractorId, manufacturerId: inst.manufacturerId }, 'claim');
+    const id = await service.create(inst, fields, actorFromRequest(req));
+    res.status(201).json({ claim: await claimDetail(ctx, req, (await service.findById(id))!) });
+  });
+
+  // Photos and documents: readable by whoever may read the claim (anyone else gets 404); added while a draft or
+  // while the manufacturer waits on the installer; removed only before filing.
+  r.use(
+    '/:id/attachments',
+    attachmentsRouter<LoadedClaim>(ctx, {
+      ownerType: 'claim',
+      ownerLabel: 'claim',
+      loadOwner: (_req, id) => service.findById(id),
+      canRead: (req, c) => req.ability.can('read', asClaim(c)),
+      canWrite: (req, c) => req.ability.can('update', asClaim(c)) && (c.stage === 'draft' || (req.method === 'POST' && c.stage === 'needs_info')),
+    }),
+  );
+
+  r.get('/:id', async (req, res) => {
+    const claim = await load(req, 'read');
+    res.json({ claim: await claimDetail(ctx, req, claim) });
+  });
+
+  r.patch('/:id', async (req, res) => {
+    const input = parseBody(updateClaimSchema, req);
+    const claim = await load(req, 'update');
+    await service.update(claim, input, actorFromRequest(req));
+    res.json({ claim: await claimDetail(ctx, req, (await service.findById(claim.id))!) });
+  });
+
+  r.post('/:id/file', async (req, res) => {
+    const input = parseBody(fileClaimSchema, req);
+    const claim = await load(req, 'file');
+    const result = await service.file(claim.id, req.user!, actorFromRequest(req), input);
+    res.status(200).json({ claim: await claimDetail(ctx, req, (await service.findById(claim.id))!), replayed: result.replayed });
+  });
+
+  r.post('/:id/withdraw', async (req, res) => {
+    const input = parseBody(withdrawSchema, req);
+    // The stage machine's withdraw move asks for the same ability as filing.
+    const claim = await load(req, 'file');
+    await service.withdraw(claim, input.reason, req.user!, actorFromRequest(req));
+    res.json({ claim: await claimDetail(ctx, req, (await service.findById(claim.id))!) });
+  });
+
+  r.delete('/:id', async (req, res) => {
+    const claim = await load(req, 'delete');
+    await service.remove(claim, actorFromRequest(req));
+    res.status(204).end();
+  });
+
+  return r;
+}

@@ -1,0 +1,409 @@
+import { Brackets, In, type EntityManager } from 'typeorm';
+import { newClaimNumber, normalizeClaimNumber } from '../../../shared/claims/claim-number';
+import type { ClaimEvidence } from '../../../shared/claims/engine-input';
+import { safeEvaluateClaim, type Evaluation } from '../../../shared/engine';
+import {
+  CLAIM_STAGE_LABELS,
+  claimFieldsSchema,
+  filingIssues,
+  OPEN_STAGES,
+  type ClaimFields,
+  type ClaimListQuery,
+  type FilingIssue,
+  type UpdateClaimInput,
+} from '../../../shared/schemas/claims';
+import { canPerform, REFUSAL_STATUS, type Refusal } from '../../../shared/claims/stages';
+import type { SessionUser } from '../../auth/passport';
+import { toAbilityUser } from '../../middleware/auth';
+import type { AppDataSource } from '../../db/data-source';
+import { Attachment } from '../../db/entities/attachment.entity';
+import { Claim } from '../../db/entities/claim.entity';
+import type { Installation } from '../../db/entities/installation.entity';
+import { User } from '../../db/entities/user.entity';
+import { recordAudit, type Actor } from '../../lib/audit';
+import { clock } from '../../lib/clock';
+import { AppError, conflict } from '../../lib/errors';
+import { changedFields } from '../../lib/history';
+import { enqueueEmail } from '../../lib/outbox';
+import { likeContains, parseSort } from '../../lib/pagination';
+import { claimFieldsOf, engineInputOfClaim } from './engine-input';
+
+const SORTS = {
+  filedAt: 'c.filed_at',
+  updatedAt: 'c.updated_at',
+  createdAt: 'c.created_at',
+  failedOn: 'c.failed_on',
+  number: 'c.number',
+};
+
+function refuse(r: Refusal): never {
+  throw new AppError(REFUSAL_STATUS[r.code], r.code, r.message, r.details);
+}
+
+export type LoadedClaim = Claim & {
+  installation: Installation & { units: { serial: string }[] };
+};
+
+type Scope = { kind: 'contractor' | 'manufacturer'; orgId: string };
+export const scopeOf = (u: SessionUser): Scope => ({ kind: u.organization.kind, orgId: u.organization.id });
+
+export const todayIso = () => clock.now().toISOString().slice(0, 10);
+
+/** The evidence the engine counts. Attachments plug in here (photos and proof of purchase on the claim). */
+export type EvidenceCounter = (m: EntityManager, claimId: string) => Promise<ClaimEvidence>;
+const noEvidence: EvidenceCounter = async () => ({ photos: 0, proofOfPurchase: false });
+
+function isDuplicate(err: unknown, index: string) {
+  const e = err as { code?: string; driverError?: { code?: string }; message?: string };
+  return (e.code === 'ER_DUP_ENTRY' || e.driverError?.code === 'ER_DUP_ENTRY') && String(e.message).includes(index);
+}
+
+export function claimAuditView(f: ClaimFields) {
+  return {
+    serials: f.serials ?? [],
+    units: f.units ?? null,
+    failedOn: f.failedOn ?? null,
+    symptoms: f.symptoms ?? [],
+    measurements: f.measurements ?? {},
+    observations: f.observations ?? {},
+    narrative: f.narrative ?? '',
+  };
+}
+
+export function filingContextOf(c: LoadedClaim) {
+  return {
+    installDate: c.installation.installDate,
+    quantity: c.installation.quantity,
+    serials: c.installation.units.map((u) => u.serial),
+    today: todayIso(),
+    hasPolicy: c.policyVersion !== null,
+    ledStrings: c.productModel.ledStrings,
+    ledsPerString: c.productModel.ledsPerString,
+  };
+}
+
+export function currentFilingIssues(c: LoadedClaim): FilingIssue[] {
+  return filingIssues(claimFieldsOf(c), filingContextOf(c));
+}
+
+async function recipientsOf(m: EntityManager, organizationId: string, role: 'reviewer' | 'administrator') {
+  const users = await m.find(User, { where: { organizationId, status: 'active' }, select: { id: true, email: true, name: true, roles: true } });
+  return users.filter((u) => u.roles.includes(role));
+}
+
+export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path: string) => string; evidence?: EvidenceCounter }) {
+  const repo = ds.getRepository(Claim);
+  const countEvidence = opts.evidence ?? noEvidence;
+
+  const loadWith = (m: EntityManager, id: string, lock = false) => {
+    const qb = m
+      .createQueryBuilder(Claim, 'c')
+      .where('c.id = :id', { id });
+    if (lock) return qb.setLock('pessimistic_write').getOne();
+    return qb.getOne();
+  };
+
+  async function findById(id: string, m: EntityManager = ds.manager): Promise<LoadedClaim | null> {
+    return (await m.findOne(Claim, {
+      where: { id },
+      relations: {
+        contractor: true,
+        manufacturer: true,
+        productModel: true,
+        installation: { units: true },
+        policyVersion: { policy: true },
+      },
+    })) as LoadedClaim | null;
+  }
+
+  /** Evaluates a claim now, as it stands: the same input the form's live view builds. */
+  async function evaluate(m: EntityManager, c: LoadedClaim, filedOn: string) {
+    const evidence = await countEvidence(m, c.id);
+    const result = safeEvaluateClaim(engineInputOfClaim(c, evidence, filedOn));
+    if (!result.ok) {
+      throw new AppError(
+        422,
+        'claim.incomplete',
+        'The claim cannot be evaluated yet: some fields are missing or do not fit the product.',
+        result.issues.map((i) => ({ path: i.path.replace(/^claim\./, ''), message: i.message })),
+      );
+    }
+    return result.evaluation;
+  }
+
+  return {
+    findById,
+
+    async list(scope: Scope, q: ClaimListQuery) {
+      const sort = parseSort(q.sort, SORTS)!;
+      // Two queries whatever the page size: the page with its joins, and the count.
+      const qb = repo
+        .createQueryBuilder('c')
+        .select([
+          'c.id', 'c.number', 'c.stage', 'c.waitingOn', 'c.contractorId', 'c.manufacturerId', 'c.installationId', 'c.productModelId',
+          'c.serials', 'c.units', 'c.failedOn', 'c.filedAt', 'c.stageChangedAt', 'c.verdict', 'c.engineVersion', 'c.expectedCredit',
+          'c.currency', 'c.createdAt', 'c.updatedAt', 'c.version',
+          'co.id', 'co.name', 'mo.id', 'mo.name', 'p.id', 'p.modelNumber', 'p.name', 'p.family', 'i.id', 'i.siteName', 'i.siteCity',
+        ])
+        .innerJoin('c.contractor', 'co')
+        .innerJoin('c.manufacturer', 'mo')
+        .innerJoin('c.productModel', 'p')
+        .innerJoin('c.installation', 'i')
+        .orderBy(sort.column, sort.direction)
+        .addOrderBy('c.id', 'ASC')
+        .offset((q.page - 1) * q.pageSize)
+        .limit(q.pageSize);
+      if (scope.kind === 'contractor') qb.andWhere('c.contractor_id = :org', { org: scope.orgId });
+      else qb.andWhere("c.manufacturer_id = :org AND c.stage <> 'draft'", { org: scope.orgId });
+      if (q.stage) qb.andWhere('c.stage IN (:...stages)', { stages: q.stage });
+      if (q.open !== undefined) qb.andWhere(`c.stage ${q.open ? 'IN' : 'NOT IN'} (:...open)`, { open: OPEN_STAGES });
+      if (q.manufacturerId) qb.andWhere('c.manufacturer_id = :mid', { mid: q.manufacturerId });
+      if (q.contractorId) qb.andWhere('c.contractor_id = :cid', { cid: q.contractorId });
+      if (q.installationId) qb.andWhere('c.installation_id = :iid', { iid: q.installationId });
+      if (q.productModelId) qb.andWhere('c.product_model_id = :pm', { pm: q.productModelId });
+      if (q.verdict) qb.andWhere('c.verdict = :verdict', { verdict: q.verdict });
+      if (q.site) qb.andWhere('(i.site_name LIKE :site OR i.site_city LIKE :site)', { site: likeContains(q.site) });
+      if (q.product) qb.andWhere('(p.model_number LIKE :prod OR p.name LIKE :prod)', { prod: likeContains(q.product) });
+      if (q.filedFrom) qb.andWhere('c.filed_at >= :from', { from: `${q.filedFrom} 00:00:00` });
+      if (q.filedTo) qb.andWhere('c.filed_at < DATE_ADD(:to, INTERVAL 1 DAY)', { to: q.filedTo });
+      if (q.q) {
+        const exact = normalizeClaimNumber(q.q);
+        const like = likeContains(q.q.trim());
+        qb.andWhere(
+          new Brackets((w) => {
+            if (exact) w.where('c.number = :exact', { exact });
+            else w.where('c.number LIKE :q', { q: like });
+            // Serials are a JSON array of strings; a contains match on its text finds one serial or part of one.
+            w.orWhere('CAST(c.serials AS CHAR) LIKE :q', { q: like });
+          }),
+        );
+      }
+      const [items, total] = await qb.getManyAndCount();
+      return { items, total };
+    },
+
+    async create(installation: Installation, fields: ClaimFields, actor: Actor, extra: { batchId?: string; m?: EntityManager } = {}) {
+      const run = <T>(fn: (m: EntityManager) => Promise<T>) => (extra.m ? fn(extra.m) : ds.transaction(fn));
+      return run(async (m) => {
+        const now = clock.now();
+        const claim = m.create(Claim, {
+          number: null,
+          contractorId: installation.contractorId,
+          manufacturerId: installation.manufacturerId,
+          installationId: installation.id,
+          productModelId: installation.productModelId,
+          policyVersionId: installation.policyVersionId,
+          stage: 'draft',
+          stageChangedAt: now,
+          waitingOn: null,
+          units: fields.units ?? null,
+          serials: fields.serials ?? [],
+          failedOn: fields.failedOn ?? null,
+          symptoms: fields.symptoms ?? [],
+          measurements: (fields.measurements ?? {}) as Claim['measurements'],
+          observations: fields.observations ?? {},
+          narrative: fields.narrative ?? '',
+          evaluation: null,
+          engineVersion: null,
+          evaluatedAt: null,
+          verdict: null,
+          expectedCredit: null,
+          currency: null,
+          filedAt: null,
+          filedById: null,
+          batchId: extra.batchId ?? null,
+          assignedReviewerId: null,
+          createdById: actor.userId,
+        });
+        await m.save(claim);
+        await recordAudit(m, actor, {
+          action: 'claim.created',
+          entityType: 'Claim',
+          entityId: claim.id,
+          after: { stage: 'draft', installationId: installation.id, ...claimAuditView(claim as unknown as ClaimFields) },
+        });
+        return claim.id;
+      });
+    },
+
+    /** Draft autosave, conditional on the version the client last saw. */
+    async update(target: LoadedClaim, input: UpdateClaimInput & ClaimFields, actor: Actor) {
+      if (target.stage !== 'draft') {
+        throw conflict('claim.not_editable', `This claim is ${CLAIM_STAGE_LABELS[target.stage].toLowerCase()}; only a draft can be changed.`);
+      }
+      const { version, ...patch } = input;
+      const current = claimAuditView(claimFieldsOf(target));
+      const defined = Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined)) as Partial<ClaimFields>;
+      const next = { ...current, ...defined };
+      const diff = changedFields(current, next);
+      if (version !== target.version) {
+        throw conflict('claim.changed', 'This draft was changed elsewhere (another device or tab) since you opened it. Reload to see the latest.');
+      }
+      if (!diff.changed) return target.version;
+      return ds.transaction(async (m) => {
+        const result = await m
+          .createQueryBuilder()
+          .update(Claim)
+          .set({
+            serials: next.serials,
+            units: next.units,
+            failedOn: next.failedOn,
+            symptoms: next.symptoms,
+            measurements: next.measurements as Claim['measurements'],
+            observations: next.observations,
+            narrative: next.narrative,
+            version: () => 'version + 1',
+          })
+          .where("id = :id AND version = :v AND stage = 'draft'", { id: target.id, v: version })
+          .execute();
+        if (!result.affected) {
+          throw conflict('claim.changed', 'This draft was changed elsewhere (another device or tab) since you opened it. Reload to see the latest.');
+        }
+        await recordAudit(m, actor, { action: 'claim.updated', entityType: 'Claim', entityId: target.id, before: diff.before, after: diff.after });
+        return version + 1;
+      });
+    },
+
+    /**
+     * Files a draft: validates it whole, evaluates it with the engine (the result stored with its version), gives
+     * it a number, moves it to filed, audits and queues the e-mails, all in one transaction. Filing a claim that
+     * is already filed answers it as it is (replayed), so a double tap or a retry makes one claim.
+     */
+    async file(claimId: string, user: SessionUser, actor: Actor, when: { version?: number } = {}) {
+      return ds.transaction(async (m) => {
+        // The row lock makes a second, simultaneous request wait here and then see the claim filed.
+        const locked = await loadWith(m, claimId, true);
+        if (!locked) throw new AppError(404, 'not_found', 'That claim does not exist or is not shared with you.');
+        const move = canPerform(locked, toAbilityUser(user), 'file');
+        if (!move.ok) {
+          // Already filed (and anywhere past it): the same claim again, so a retry or a double tap files once.
+          if (move.code === 'claim.invalid_transition' && locked.stage !== 'withdrawn') return { id: claimId, replayed: true };
+          refuse(move);
+        }
+        if (when.version !== undefined && when.version !== locked.version) {
+          throw conflict('claim.changed', 'This draft was changed elsewhere since you opened it. Reload, check it and file again.');
+        }
+        const c = (await findById(claimId, m))!;
+        const stored = claimFieldsSchema.safeParse(claimFieldsOf(c));
+        const issues = stored.success
+          ? currentFilingIssues(c)
+          : stored.error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
+        if (issues.length) {
+          throw new AppError(422, 'claim.incomplete', 'The claim is not ready to file: fill in the fields listed.', issues);
+        }
+        const now = clock.now();
+        const evaluation: Evaluation = await evaluate(m, c, now.toISOString().slice(0, 10));
+        let number = '';
+        for (let attempt = 0; ; attempt++) {
+          number = newClaimNumber(now);
+          try {
+            await m
+              .createQueryBuilder()
+              .update(Claim)
+              .set({
+                number,
+                stage: 'filed',
+                stageChangedAt: now,
+                waitingOn: 'manufacturer',
+                units: c.units ?? c.serials.length,
+                evaluation,
+                engineVersion: evaluation.engineVersion,
+                evaluatedAt: now,
+                verdict: evaluation.verdict,
+                expectedCredit: evaluation.computed.credit,
+                currency: evaluation.computed.currency,
+                filedAt: now,
+                filedById: user.id,
+                version: () => 'version + 1',
+              })
+              .where("id = :id AND stage = 'draft'", { id: claimId })
+              .execute();
+            break;
+          } catch (err) {
+            // A number already taken (about one in 20 million a month): draw again. InnoDB undoes only the statement.
+            if (attempt < 5 && isDuplicate(err, 'uq_claims_number')) continue;
+            throw err;
+          }
+        }
+        await recordAudit(m, actor, {
+          action: 'claim.filed',
+          entityType: 'Claim',
+          entityId: claimId,
+          before: { stage: 'draft' },
+          after: { stage: 'filed', number, verdict: evaluation.verdict, engineVersion: evaluation.engineVersion, expectedCredit: evaluation.computed.credit },
+        });
+        const view = {
+          number,
+          site: c.installation.siteName,
+          city: c.installation.siteCity,
+          contractor: c.contractor.name,
+          manufacturer: c.manufacturer.name,
+          model: `${c.productModel.modelNumber} ${c.productModel.name}`,
+          units: c.units ?? c.serials.length,
+          serials: c.serials.join(', ') || 'not given',
+          failedOn: c.failedOn,
+          verdictText: { covered: 'likely covered', review: 'needs a reviewer', excluded: 'likely excluded' }[evaluation.verdict],
+          credit: `${evaluation.computed.credit} ${evaluation.computed.currency}`,
+          link: opts.publicUrl(`/claims/${claimId}`),
+          filerName: user.name,
+        };
+        let reviewers = await recipientsOf(m, c.manufacturerId, 'reviewer');
+        if (!reviewers.length) reviewers = await recipientsOf(m, c.manufacturerId, 'administrator');
+        if (reviewers.length) await enqueueEmail(m, { to: reviewers.map((r) => r.email), template: 'claim-filed-manufacturer', view });
+        await enqueueEmail(m, { to: [user.email], template: 'claim-filed-confirmation', view: { ...view, name: user.name } });
+        return { id: claimId, replayed: false };
+      });
+    },
+
+    async withdraw(target: LoadedClaim, reason: string | undefined, user: SessionUser, actor: Actor) {
+      const move = canPerform(target, toAbilityUser(user), 'withdraw', reason === undefined ? {} : { reason });
+      if (!move.ok) refuse(move);
+      await ds.transaction(async (m) => {
+        const now = clock.now();
+        const result = await m
+          .createQueryBuilder()
+          .update(Claim)
+          .set({ stage: 'withdrawn', stageChangedAt: now, waitingOn: null, version: () => 'version + 1' })
+          .where('id = :id AND stage = :stage', { id: target.id, stage: target.stage })
+          .execute();
+        if (!result.affected) throw conflict('claim.changed', 'This claim changed just now. Reload and try again.');
+        await recordAudit(m, actor, {
+          action: 'claim.withdrawn',
+          entityType: 'Claim',
+          entityId: target.id,
+          before: { stage: target.stage },
+          after: { stage: 'withdrawn', reason: reason ?? null },
+        });
+        if (target.stage !== 'draft') {
+          const reviewers = await recipientsOf(m, target.manufacturerId, 'reviewer');
+          if (reviewers.length) {
+            await enqueueEmail(m, {
+              to: reviewers.map((r) => r.email),
+              template: 'claim-withdrawn',
+              view: { number: target.number, contractor: target.contractor.name, reason: reason || 'No reason given.', by: user.name, link: opts.publicUrl(`/claims/${target.id}`) },
+            });
+          }
+        }
+      });
+    },
+
+    async remove(target: LoadedClaim, actor: Actor) {
+      if (target.stage !== 'draft') {
+        throw conflict('claim.not_deletable', 'Only a draft can be deleted; a filed claim can be withdrawn instead.');
+      }
+      await ds.transaction(async (m) => {
+        const result = await m.createQueryBuilder().delete().from(Claim).where("id = :id AND stage = 'draft'", { id: target.id }).execute();
+        if (!result.affected) throw conflict('claim.changed', 'This claim changed just now. Reload and try again.');
+        // The draft's files go with it (marked removed; the bytes stay until a clean-up, as for any removal).
+        await m.softDelete(Attachment, { ownerType: 'claim', ownerId: target.id });
+        await recordAudit(m, actor, { action: 'claim.deleted', entityType: 'Claim', entityId: target.id, before: { stage: 'draft', ...claimAuditView(claimFieldsOf(target)) } });
+      });
+    },
+
+    async findMany(ids: string[]) {
+      return ids.length ? ((await repo.find({ where: { id: In(ids) } })) as Claim[]) : [];
+    },
+  };
+}
+
+export type ClaimsService = ReturnType<typeof createClaimsService>;

@@ -1,0 +1,26 @@
+import { useQuery } from '@tanstack/react-query';
+import { useParams } from 'react-router-dom';
+import { PageHeader } from '../../../components/ui/page-header';
+import { Spinner } from '../../../components/ui/spinner';
+import { installationQueries } from '../../../features/catalogue/api/installation-queries';
+import { HistoryPanel } from '../../../features/catalogue/components/history-panel';
+import { InstallationDetail } from '../../../features/catalogue/components/installation-detail';
+import { ApiError } from '../../../lib/api-client';
+import { NotFoundRoute } from '../not-found';
+
+export function InstallationRoute() {
+  const { id = '' } = useParams();
+  const q = useQuery(installationQueries.detail(id));
+  if (q.isPending) return <Spinner label="Loading the installation" />;
+  if (q.error) return q.error instanceof ApiError && (q.error.status === 404 || q.error.status === 400) ? <NotFoundRoute /> : <p role="alert">{q.error.message}</p>;
+  const i = q.data.installation;
+  return (
+    <>
+      <PageHeader title={i.siteName} description={`${i.quantity} × ${i.product.modelNumber}, installed ${i.installDate}`} />
+      <div className="space-y-5">
+        <InstallationDetail installation={i} />
+        <HistoryPanel query={installationQueries.history(id)} />
+      </div>
+    </>
+  );
+}
