@@ -29,6 +29,7 @@ export const router = createBrowserRouter([
       { path: 'installations', lazy: () => import('./routes/catalogue/installations').then((m) => ({ Component: m.InstallationsRoute })) },
       { path: 'installations/new', lazy: () => import('./routes/catalogue/installation-new').then((m) => ({ Component: m.InstallationNewRoute })) },
       { path: 'installations/:id', lazy: () => import('./routes/catalogue/installation').then((m) => ({ Component: m.InstallationRoute })) },
+      { path: 'credits', lazy: () => import('./routes/credits').then((m) => ({ Component: m.CreditsRoute })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
     ],
   },

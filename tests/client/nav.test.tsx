@@ -9,10 +9,10 @@ describe('navigation by role', () => {
   it('shows each role only what it may do', () => {
     const labels = (roles: Role[], kind: OrganizationKind, demoMode = true) =>
       navFor(defineAbilityFor(user(roles, kind), { demoMode })).map((i) => i.label);
-    expect(labels(['installer'], 'contractor')).toEqual(['Home']);
-    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home']);
-    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home']);
-    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'People', 'Mailbox']);
-    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'People']);
+    expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites', 'Credits']);
+    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites']);
+    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites', 'Credits']);
+    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites', 'Credits', 'People', 'Mailbox']);
+    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Catalogue', 'Sites', 'People']);
   });
 });

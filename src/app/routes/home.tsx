@@ -1,9 +1,5 @@
-import {
-  AccountantHome,
-  AdministratorHome,
-  InstallerHome,
-  ReviewerHome,
-} from '../../features/home/components/home-panels';
+import { AccountantDesk } from '../../features/credits/components/accountant-desk';
+import { AdministratorHome, InstallerHome, ReviewerHome } from '../../features/home/components/home-panels';
 import { useSession } from '../../lib/ability';
 
 /** Each role lands on its own home; a user with several roles gets the one of their daily work first. */
@@ -12,6 +8,6 @@ export function HomeRoute() {
   const props = { name: user.name, organization: user.organization.name };
   if (user.roles.includes('installer')) return <InstallerHome {...props} />;
   if (user.roles.includes('reviewer')) return <ReviewerHome {...props} />;
-  if (user.roles.includes('accountant')) return <AccountantHome {...props} />;
+  if (user.roles.includes('accountant')) return <AccountantDesk {...props} />;
   return <AdministratorHome {...props} />;
 }
