@@ -83,7 +83,8 @@ export function CreditsTable({
                 <Th>{partyLabel}</Th>
                 <Th className="text-right">Amount</Th>
                 <Th>Issued</Th>
-                <Th>
+                {/* relative: an absolutely placed sr-only label would otherwise widen the page past the table's scroll box */}
+                <Th className="relative">
                   <span className="sr-only">Actions</span>
                 </Th>
               </tr>

@@ -12,7 +12,7 @@ export function Money({
   if (amount === null) return <span className={className}>–</span>;
   return (
     <span className={`tabular-nums ${className ?? ''}`}>
-      {groupAmount(amount)} <span className="text-xs text-ink-500">{currency}</span>
+      {groupAmount(amount)} <span className="text-xs text-ink-600">{currency}</span>
     </span>
   );
 }
