@@ -30,6 +30,7 @@ export default tseslint.config(
             { target: './src/features/mailbox', from: './src/features', except: ['./mailbox'], message: 'Features do not import each other; compose them in app/routes.' },
             { target: './src/features/evaluation', from: './src/features', except: ['./evaluation'], message: 'Features do not import each other; compose them in app/routes.' },
             { target: './src/features/catalogue', from: './src/features', except: ['./catalogue'], message: 'Features do not import each other; compose them in app/routes.' },
+            { target: './src/features/claims', from: './src/features', except: ['./claims'], message: 'Features do not import each other; compose them in app/routes.' },
             { target: './src/components', from: './src/features', message: 'Shared components must not import features.' },
           ],
         },

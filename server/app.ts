@@ -104,6 +104,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(requireJsonBody);
   // Spreadsheet imports carry a whole file (10,000 rows is about 2 MB); every other body stays small.
   api.use(['/products/import', '/installations/import'], express.json({ limit: '20mb', strict: true }));
+  api.use('/claims/batches', express.json({ limit: '6mb', strict: true }));
   api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
   api.use(sessionMiddleware(config, sessionStore));

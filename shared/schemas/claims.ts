@@ -150,6 +150,7 @@ export const claimListQuerySchema = listQuerySchema.extend({
   filedFrom: isoDateSchema('the first filing date').optional(),
   filedTo: isoDateSchema('the last filing date').optional(),
   open: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
+  batchId: uuidSchema.optional(),
 });
 export type ClaimListQuery = z.infer<typeof claimListQuerySchema>;
 
@@ -299,6 +300,15 @@ export type ClaimDetailDto = ClaimListItemDto & {
 // Batches (bulk filing from a spreadsheet)
 
 export const CLAIM_BATCH_MAX_ROWS = 2000;
+
+/** The spreadsheet: CSV text or JSON rows (as the installations import takes them), and the file's name. */
+export const batchRequestSchema = z
+  .strictObject({
+    csv: z.string().max(5_000_000, 'The file is larger than 5 MB.').optional(),
+    rows: z.array(z.record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()]))).max(CLAIM_BATCH_MAX_ROWS, `At most ${CLAIM_BATCH_MAX_ROWS} rows at once.`).optional(),
+    filename: z.string().trim().max(200).optional(),
+  })
+  .refine((v) => (v.csv === undefined) !== (v.rows === undefined), 'Send either csv or rows.');
 
 export type ClaimBatchRowError = { row: number; column: string; message: string };
 export type ClaimBatchResult = {

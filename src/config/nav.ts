@@ -1,4 +1,4 @@
-import { Home, Inbox, Lightbulb, MapPin, Receipt, Users, type LucideIcon } from 'lucide-react';
+import { ClipboardList, Home, Inbox, Lightbulb, MapPin, Receipt, Users, type LucideIcon } from 'lucide-react';
 import type { AppAbility } from '../../shared/abilities';
 
 export type NavItem = { to: string; label: string; icon: LucideIcon; end?: boolean };
@@ -6,8 +6,8 @@ export type NavItem = { to: string; label: string; icon: LucideIcon; end?: boole
 /** The navigation a user sees: only what their abilities allow. */
 export function navFor(ability: AppAbility): NavItem[] {
   const items: NavItem[] = [{ to: '/', label: 'Home', icon: Home, end: true }];
-  if (ability.can('read', 'ProductModel'))
-    items.push({ to: '/catalogue', label: 'Catalogue', icon: Lightbulb });
+  if (ability.can('read', 'Claim')) items.push({ to: '/claims', label: 'Claims', icon: ClipboardList });
+  if (ability.can('read', 'ProductModel')) items.push({ to: '/catalogue', label: 'Catalogue', icon: Lightbulb });
   if (ability.can('read', 'Installation')) items.push({ to: '/installations', label: 'Sites', icon: MapPin });
   if (ability.can('read', 'CreditMemo')) items.push({ to: '/credits', label: 'Credits', icon: Receipt });
   if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });

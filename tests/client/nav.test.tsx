@@ -9,10 +9,12 @@ describe('navigation by role', () => {
   it('shows each role only what it may do', () => {
     const labels = (roles: Role[], kind: OrganizationKind, demoMode = true) =>
       navFor(defineAbilityFor(user(roles, kind), { demoMode })).map((i) => i.label);
-    expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites', 'Credits']);
-    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites']);
-    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Catalogue', 'Sites', 'Credits']);
-    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Catalogue', 'Sites', 'Credits', 'People', 'Mailbox']);
-    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Catalogue', 'Sites', 'People']);
+    // Everyone browses the catalogue; installations ("Sites") are scoped to one's own organisation.
+    // Claims for everyone who reads claims; Credits for contractors (their own) and accountants.
+    expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Credits']);
+    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites']);
+    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Credits']);
+    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Credits', 'People', 'Mailbox']);
+    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'People']);
   });
 });

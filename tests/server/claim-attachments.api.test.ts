@@ -39,7 +39,7 @@ describe('claim attachments', () => {
     expect((await w.installer.agent.post(base).field('purpose', 'failure').attach('file', await pngImage(), 'dark-strings.png')).status).toBe(201);
     expect((await w.installer.agent.post(base).field('purpose', 'proof_of_purchase').attach('file', await receiptPdf(), 'invoice.pdf')).status).toBe(201);
 
-    const content = await w.installer.agent.get(nameplate.body.attachment.contentUrl).buffer(true).parse(binary);
+    const content = await w.installer.agent.get(nameplate.body.attachment.contentUrl).buffer(true).parse(binary as never);
     expect(content.status).toBe(200);
     expect(await exifr.gps(content.body as Buffer).catch(() => undefined)).toBeUndefined();
 

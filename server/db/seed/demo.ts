@@ -8,6 +8,7 @@ import { seedDemoCatalogue } from './demo-catalogue';
 import { seedDemoCredits } from './demo-credits';
 import type { AppConfig } from '../../config/env';
 import type { Storage } from '../../lib/storage';
+import { seedDemoClaims } from './demo-claims';
 
 /** Loads the fictional demo scenario into an empty database. Returns false when there was data already. */
 /**
@@ -53,7 +54,8 @@ export async function seedDemo(
         },
       );
     }
-    await seedDemoCatalogue(m, orgs, users);
+    const catalogue = await seedDemoCatalogue(m, orgs, users);
+    await seedDemoClaims(m, orgs, users, catalogue);
   });
   if (opts.credits) await seedDemoCredits(ds, opts.credits.storage, opts.credits.config);
   return true;

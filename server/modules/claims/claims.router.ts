@@ -6,20 +6,24 @@ import {
   createClaimSchema,
   fileClaimSchema,
   updateClaimSchema,
+  batchRequestSchema,
 } from '../../../shared/schemas/claims';
+import { importQuerySchema } from '../../../shared/schemas/catalogue';
 import { withdrawSchema } from '../../../shared/claims/actions.schema';
 import type { AppContext } from '../../context';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { Installation } from '../../db/entities/installation.entity';
 import { User } from '../../db/entities/user.entity';
 import { actorFromRequest } from '../../lib/audit';
+import { templateCsv } from '../../lib/csv-import';
 import { loadHistory } from '../../lib/history';
 import { pageOf } from '../../lib/pagination';
-import { authorize, authorizeType, requireUser } from '../../middleware/auth';
+import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
 import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { presentAttachment } from '../attachments/attachments.presenter';
 import { attachmentsRouter } from '../attachments/attachments.router';
 import { listAttachments } from '../attachments/attachments.service';
+import { CLAIM_BATCH_COLUMNS, createClaimBatchesService } from './claim-batches.service';
 import { presentClaimDetail, presentClaimListItem } from './claims.presenter';
 import { createClaimsService, currentFilingIssues, scopeOf, type ClaimsService, type EvidenceCounter, type LoadedClaim } from './claims.service';
 
@@ -48,12 +52,45 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
   const service = opts.service ?? createClaimsService(ctx.ds, { publicUrl: ctx.publicUrl, evidence: claimEvidence });
   r.use(requireUser);
 
+  const batches = createClaimBatchesService(ctx.ds, service);
+
   const load = async (req: Request, action: 'read' | 'update' | 'file' | 'delete') => {
     const { id } = parseWith(idParam, req.params, 'address');
     const claim = await service.findById(id);
     authorize(req, action, 'Claim', claim, 'claim');
     return claim;
   };
+
+  // Batches first: "/batches" is not a claim id.
+  r.get('/batches/template.csv', (req, res) => {
+    authorizeType(req, 'create', 'Claim');
+    res.type('text/csv').attachment('lumenproof-claims-template.csv').send(templateCsv(CLAIM_BATCH_COLUMNS));
+  });
+
+  r.post('/batches', async (req, res) => {
+    const { dryRun } = parseQuery(importQuerySchema, req);
+    const input = parseBody(batchRequestSchema, req);
+    authorizeNew(req, 'create', 'Claim', { contractorId: req.user!.organizationId });
+    const { filename, ...rest } = input;
+    const result = await batches.importRows(req.user!, rest, dryRun, actorFromRequest(req), filename ?? null);
+    res.status(dryRun || result.created === 0 ? 200 : 201).json(result);
+  });
+
+  r.get('/batches/:id', async (req, res) => {
+    const { id } = parseWith(idParam, req.params, 'address');
+    const batch = await batches.findBatch(req.user!, id);
+    const ids = await batches.claimIdsOf(batch.id);
+    const { items } = await service.list(scopeOf(req.user!), claimListQuerySchema.parse({ pageSize: '200', sort: '-createdAt', batchId: batch.id }));
+    res.json({ batch: { id: batch.id, filename: batch.filename, rowCount: batch.rowCount, createdAt: batch.createdAt.toISOString(), claimIds: ids }, claims: items.map(presentClaimListItem) });
+  });
+
+  r.post('/batches/:id/file', async (req, res) => {
+    const { id } = parseWith(idParam, req.params, 'address');
+    parseBody(fileClaimSchema.pick({}), req);
+    const batch = await batches.findBatch(req.user!, id);
+    authorizeNew(req, 'file', 'Claim', { contractorId: batch.contractorId });
+    res.json(await batches.fileBatch(req.user!, batch.id, actorFromRequest(req)));
+  });
 
   r.get('/', async (req, res) => {
     authorizeType(req, 'read', 'Claim');

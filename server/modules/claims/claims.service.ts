@@ -160,6 +160,7 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
       if (q.manufacturerId) qb.andWhere('c.manufacturer_id = :mid', { mid: q.manufacturerId });
       if (q.contractorId) qb.andWhere('c.contractor_id = :cid', { cid: q.contractorId });
       if (q.installationId) qb.andWhere('c.installation_id = :iid', { iid: q.installationId });
+      if (q.batchId) qb.andWhere('c.batch_id = :bid', { bid: q.batchId });
       if (q.productModelId) qb.andWhere('c.product_model_id = :pm', { pm: q.productModelId });
       if (q.verdict) qb.andWhere('c.verdict = :verdict', { verdict: q.verdict });
       if (q.site) qb.andWhere('(i.site_name LIKE :site OR i.site_city LIKE :site)', { site: likeContains(q.site) });

@@ -16,7 +16,7 @@ export function FieldShell({ label, hint, error, unit, children, className }: Fi
     <div className={cn('space-y-1.5', className)}>
       <label htmlFor={id} className="block text-sm font-medium text-ink-800">
         {label}
-        {unit ? <span className="ml-1 font-normal text-ink-500">({unit})</span> : null}
+        {unit ? <span className="ml-1 font-normal text-ink-600">({unit})</span> : null}
       </label>
       {children({ id, describedBy })}
       {hint ? (

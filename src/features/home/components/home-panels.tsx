@@ -25,7 +25,7 @@ function Step({ n, title, children }: { n: number; title: string; children: Reac
   );
 }
 
-export function InstallerHome({ name, organization }: { name: string; organization: string }) {
+export function InstallerHome({ name, organization, openClaims }: { name: string; organization: string; openClaims?: ReactNode }) {
   return (
     <>
       <PageHeader title="Field claims" description={`${organization} · signed in as ${name}`} />
@@ -34,11 +34,18 @@ export function InstallerHome({ name, organization }: { name: string; organizati
           <CardHeader
             title="Your open claims"
             description="Claims your company has filed and what each one is waiting for."
+            actions={
+              <Link to="/claims/new" className={buttonClasses('primary', 'sm')}>
+                New claim
+              </Link>
+            }
           />
-          <EmptyState icon={<HardHat className="size-6" />} title="No open claims">
-            When a fixture fails on site, file a claim from its installation with readings and photos; it
-            shows up here with what the manufacturer asks of you.
-          </EmptyState>
+          {openClaims ?? (
+            <EmptyState icon={<HardHat className="size-6" />} title="No open claims">
+              When a fixture fails on site, file a claim from its installation with readings and photos; it shows up here
+              with what the manufacturer asks of you.
+            </EmptyState>
+          )}
         </Card>
         <Card>
           <CardHeader title="Before you measure" />
