@@ -5,7 +5,7 @@ import type { Symptom } from '../../../shared/schemas/claims';
 import type { AppConfig } from '../../config/env';
 import { clock } from '../../lib/clock';
 import type { Storage } from '../../lib/storage';
-import { createCreditsService } from '../../modules/credits/credits.service';
+import { approvedAmountOf, createCreditsService } from '../../modules/credits/credits.service';
 import type { AppDataSource } from '../data-source';
 import { Claim } from '../entities/claim.entity';
 import { Installation } from '../entities/installation.entity';
@@ -45,6 +45,23 @@ export async function seedDemoCredits(ds: AppDataSource, storage: Storage, confi
     new URL(p, config.publicUrl ?? 'http://127.0.0.1:3000').toString(),
   );
   const rand = prng(7007);
+
+  // The claims demo moves some claims to `credited` on its own; a credited claim must carry its memo, so those
+  // are handed back to `approved` and credited through the service like the rest (their memos come first).
+  const bare: Claim[] = await ds
+    .getRepository(Claim)
+    .createQueryBuilder('c')
+    .where("c.stage = 'credited'")
+    .andWhere('NOT EXISTS (SELECT 1 FROM credit_memos cm WHERE cm.credited_claim_id = c.id)')
+    .getMany();
+  for (const c of bare) {
+    await ds.getRepository(Claim).update({ id: c.id }, { stage: 'approved' });
+    if (!approvedAmountOf(c)) {
+      await ds
+        .getRepository(Claim)
+        .update({ id: c.id }, { expectedCredit: '75.00', currency: c.currency ?? 'USD' });
+    }
+  }
 
   for (const [mfrName, accountantEmail, voidOne] of [
     ['Aldercrest Lighting', 'ada@aldercrest.test', true],
@@ -120,6 +137,16 @@ export async function seedDemoCredits(ds: AppDataSource, storage: Storage, confi
       .slice(0, 6);
     const issued: string[] = [];
     try {
+      for (const c of bare.filter((b) => b.manufacturerId === mfr.id)) {
+        const r = await service.issue(
+          c.id,
+          who,
+          actor,
+          {},
+          { key: crypto.randomUUID(), path: `/api/claims/${c.id}/credits`, body: {} },
+        );
+        void r;
+      }
       for (const c of oldest) {
         clock.reset();
         clock.advance(c.stageChangedAt.getTime() + 3 * DAY - clock.nowMs());
