@@ -46,23 +46,6 @@ export async function seedDemoCredits(ds: AppDataSource, storage: Storage, confi
   );
   const rand = prng(7007);
 
-  // The claims demo moves some claims to `credited` on its own; a credited claim must carry its memo, so those
-  // are handed back to `approved` and credited through the service like the rest (their memos come first).
-  const bare: Claim[] = await ds
-    .getRepository(Claim)
-    .createQueryBuilder('c')
-    .where("c.stage = 'credited'")
-    .andWhere('NOT EXISTS (SELECT 1 FROM credit_memos cm WHERE cm.credited_claim_id = c.id)')
-    .getMany();
-  for (const c of bare) {
-    await ds.getRepository(Claim).update({ id: c.id }, { stage: 'approved' });
-    if (!approvedAmountOf(c)) {
-      await ds
-        .getRepository(Claim)
-        .update({ id: c.id }, { expectedCredit: '75.00', currency: c.currency ?? 'USD' });
-    }
-  }
-
   for (const [mfrName, accountantEmail, voidOne] of [
     ['Aldercrest Lighting', 'ada@aldercrest.test', true],
     ['Veltra Luminaires', 'vera@veltra.test', false],
@@ -76,9 +59,14 @@ export async function seedDemoCredits(ds: AppDataSource, storage: Storage, confi
     const versions = new Map(
       (await ds.getRepository(WarrantyPolicyVersion).find()).map((v) => [v.id, v] as const),
     );
-    const claims: Claim[] = [];
+    // The claims demo's own approved claims (engine-evaluated, with their audit trail) when there are enough
+    // to credit some and still leave five; otherwise claims of our own.
+    const existing = (
+      await ds.getRepository(Claim).find({ where: { manufacturerId: mfr.id, stage: 'approved' } })
+    ).filter((c) => approvedAmountOf(c));
+    const claims: Claim[] = existing.length >= 7 ? existing : [];
     const now = clock.nowMs();
-    for (let n = 0; n < 14 && installations.length; n++) {
+    for (let n = 0; n < 14 && installations.length && existing.length < 7; n++) {
       const inst = installations[(n * 5) % installations.length];
       const version = inst.policyVersionId ? versions.get(inst.policyVersionId) : undefined;
       const units = 1 + Math.floor(rand() * Math.min(4, inst.quantity));
@@ -122,7 +110,8 @@ export async function seedDemoCredits(ds: AppDataSource, storage: Storage, confi
         }),
       );
     }
-    await ds.getRepository(Claim).save(claims);
+    if (!existing.length || existing.length < 7)
+      await ds.getRepository(Claim).save(claims.filter((c) => !c.id));
 
     const who = {
       id: accountant.id,
@@ -134,19 +123,9 @@ export async function seedDemoCredits(ds: AppDataSource, storage: Storage, confi
     // memos, ledger and cost-by-month read like months of work (and put right again after).
     const oldest = [...claims]
       .sort((a, b) => a.stageChangedAt.getTime() - b.stageChangedAt.getTime())
-      .slice(0, 6);
+      .slice(0, existing.length >= 7 ? Math.min(6, existing.length - 5) : 6);
     const issued: string[] = [];
     try {
-      for (const c of bare.filter((b) => b.manufacturerId === mfr.id)) {
-        const r = await service.issue(
-          c.id,
-          who,
-          actor,
-          {},
-          { key: crypto.randomUUID(), path: `/api/claims/${c.id}/credits`, body: {} },
-        );
-        void r;
-      }
       for (const c of oldest) {
         clock.reset();
         clock.advance(c.stageChangedAt.getTime() + 3 * DAY - clock.nowMs());
