@@ -20,6 +20,7 @@ import { requireJsonBody } from './middleware/validate';
 import { analyticsRouter } from './modules/analytics/analytics.router';
 import { authRouter } from './modules/auth/auth.router';
 import { claimActionsRouter } from './modules/claim-actions/claim-actions.router';
+import { claimCreditsRouter, creditsRouter } from './modules/credits/credits.router';
 import { claimsRouter } from './modules/claims/claims.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
@@ -123,10 +124,13 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
-  // The review workflow's routes first: they are specific paths under /:id; the claims router has the rest.
+  // The review workflow's and the credits' routes first: they are specific paths under /:id; the claims router
+  // has the rest.
   api.use('/claims', claimActionsRouter(ctx));
+  api.use('/claims', claimCreditsRouter(ctx));
   api.use('/claims', claimsRouter(ctx));
   api.use('/review', reviewRouter(ctx));
+  api.use('/credits', creditsRouter(ctx));
   api.use('/analytics', analyticsRouter(ctx));
   api.use('/reserve', reserveRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));

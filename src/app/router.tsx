@@ -38,6 +38,7 @@ export const router = createBrowserRouter([
       { path: 'claims/:id', lazy: () => import('./routes/claims/claim').then((m) => ({ Component: m.ClaimRoute })) },
       { path: 'analytics', lazy: () => import('./routes/analytics/failure-analysis').then((m) => ({ Component: m.FailureAnalysisRoute })) },
       { path: 'reserve', lazy: () => import('./routes/analytics/reserve').then((m) => ({ Component: m.ReserveRoute })) },
+      { path: 'credits', lazy: () => import('./routes/credits').then((m) => ({ Component: m.CreditsRoute })) },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
     ],
   },
