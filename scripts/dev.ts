@@ -5,23 +5,35 @@ import path from 'node:path';
 import { loadConfig } from '../server/config/env';
 import { createDataSource } from '../server/db/data-source';
 import { seedDemo } from '../server/db/seed/demo';
+import { createStorage } from '../server/lib/storage';
 import { startFakeSmtp } from './fake-smtp';
 import { startLocalDb } from './lib/mariadb';
 
 async function main() {
   const config = loadConfig({ NODE_ENV: 'development', ...process.env });
-  const db = config.databaseUrl ? null : await startLocalDb({ dataDir: config.dataDir, profile: 'demo', port: config.dbPort });
+  const db = config.databaseUrl
+    ? null
+    : await startLocalDb({ dataDir: config.dataDir, profile: 'demo', port: config.dbPort });
   const databaseUrl = config.databaseUrl ?? db!.url;
   const ds = createDataSource(databaseUrl, { poolSize: 1 });
   await ds.initialize();
   await ds.runMigrations({ transaction: 'each' });
-  if (config.mode === 'demo') await seedDemo(ds);
+  if (config.mode === 'demo') await seedDemo(ds, { credits: { storage: createStorage(config), config } });
   await ds.destroy();
-  const smtp = config.mode === 'demo' ? await startFakeSmtp({ port: config.smtp.port, dir: config.mailboxDir }) : null;
+  const smtp =
+    config.mode === 'demo' ? await startFakeSmtp({ port: config.smtp.port, dir: config.mailboxDir }) : null;
 
-  const env = { ...process.env, DATABASE_URL: databaseUrl, PUBLIC_URL: 'http://127.0.0.1:5173', API_PORT: String(config.port) };
+  const env = {
+    ...process.env,
+    DATABASE_URL: databaseUrl,
+    PUBLIC_URL: 'http://127.0.0.1:5173',
+    API_PORT: String(config.port),
+  };
   const children: ChildProcess[] = [
-    spawn(path.resolve('node_modules/.bin/tsx'), ['watch', '--clear-screen=false', 'server/index.ts'], { stdio: 'inherit', env }),
+    spawn(path.resolve('node_modules/.bin/tsx'), ['watch', '--clear-screen=false', 'server/index.ts'], {
+      stdio: 'inherit',
+      env,
+    }),
     spawn(process.execPath, [path.resolve('node_modules/vite/bin/vite.js')], { stdio: 'inherit', env }),
   ];
   console.log('\nLumenproof (development) on http://127.0.0.1:5173 — API on port', config.port);

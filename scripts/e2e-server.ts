@@ -5,6 +5,7 @@ import path from 'node:path';
 import { loadConfig } from '../server/config/env';
 import { createDataSource } from '../server/db/data-source';
 import { seedDemo } from '../server/db/seed/demo';
+import { createStorage } from '../server/lib/storage';
 import { startServer } from '../server/index';
 import { startFakeSmtp } from './fake-smtp';
 import { resetDatabase, startLocalDb } from './lib/mariadb';
@@ -23,12 +24,17 @@ async function main() {
     STORAGE_DIR: path.join(base.dataDir, 'e2e', 'uploads'),
     LOG_LEVEL: 'warn',
   });
-  const db = await startLocalDb({ dataDir: config.dataDir, profile: 'e2e', port: config.dbPort + 2, log: () => {} });
+  const db = await startLocalDb({
+    dataDir: config.dataDir,
+    profile: 'e2e',
+    port: config.dbPort + 2,
+    log: () => {},
+  });
   await resetDatabase(db);
   const ds = createDataSource(db.url, { poolSize: 1 });
   await ds.initialize();
   await ds.runMigrations({ transaction: 'each' });
-  await seedDemo(ds);
+  await seedDemo(ds, { credits: { storage: createStorage(config), config } });
   await ds.destroy();
   const server = await startServer(config, db.url);
   console.log(`e2e server on ${server.url}`);

@@ -4,6 +4,7 @@ import { loadConfig } from '../server/config/env';
 import { createDataSource } from '../server/db/data-source';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../server/db/seed/demo-accounts';
 import { seedDemo } from '../server/db/seed/demo';
+import { createStorage } from '../server/lib/storage';
 import { startServer } from '../server/index';
 import { buildClientIfNeeded } from './lib/build-client';
 import { startLocalDb, type LocalDb } from './lib/mariadb';
@@ -28,7 +29,11 @@ async function main() {
 
     let databaseUrl = config.databaseUrl;
     if (!databaseUrl) {
-      const db: LocalDb = await startLocalDb({ dataDir: config.dataDir, profile: 'demo', port: config.dbPort });
+      const db: LocalDb = await startLocalDb({
+        dataDir: config.dataDir,
+        profile: 'demo',
+        port: config.dbPort,
+      });
       stops.push(db.stop);
       databaseUrl = db.url;
       console.log(`MariaDB on 127.0.0.1:${db.port} (data in ${config.dataDir}/demo)`);
@@ -39,7 +44,8 @@ async function main() {
     const ran = await ds.runMigrations({ transaction: 'each' });
     if (ran.length) console.log(`Applied ${ran.length} migration(s).`);
     if (config.mode === 'demo') {
-      if (await seedDemo(ds)) console.log('Loaded the demo scenario.');
+      if (await seedDemo(ds, { credits: { storage: createStorage(config), config } }))
+        console.log('Loaded the demo scenario.');
     }
     await ds.destroy();
 

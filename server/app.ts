@@ -18,8 +18,10 @@ import { sessionPolicy } from './middleware/auth';
 import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
+import { analyticsRouter } from './modules/analytics/analytics.router';
 import { authRouter } from './modules/auth/auth.router';
 import { claimActionsRouter } from './modules/claim-actions/claim-actions.router';
+import { claimCreditsRouter, creditsRouter } from './modules/credits/credits.router';
 import { claimsRouter } from './modules/claims/claims.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
@@ -29,6 +31,7 @@ import { mailboxRouter } from './modules/mailbox/mailbox.router';
 import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
+import { reserveRouter } from './modules/reserve/reserve.router';
 import { usersRouter } from './modules/users/users.router';
 
 export type CreateAppOptions = {
@@ -123,10 +126,15 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
-  // The review workflow's routes first: they are specific paths under /:id; the claims router has the rest.
+  // The review workflow's and the credits' routes first: they are specific paths under /:id; the claims router
+  // has the rest.
   api.use('/claims', claimActionsRouter(ctx));
+  api.use('/claims', claimCreditsRouter(ctx));
   api.use('/claims', claimsRouter(ctx));
   api.use('/review', reviewRouter(ctx));
+  api.use('/credits', creditsRouter(ctx));
+  api.use('/analytics', analyticsRouter(ctx));
+  api.use('/reserve', reserveRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));

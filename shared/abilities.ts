@@ -30,6 +30,8 @@ export type SubjectName =
   | 'AuditEvent'
   | 'Mailbox'
   | 'Evaluation'
+  | 'Analytics'
+  | 'Reserve'
   | 'all';
 
 export type AbilityUser = {
@@ -82,6 +84,10 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     can('read', 'Installation', { manufacturerId: orgId });
     can('read', 'Claim', { manufacturerId: orgId, stage: { $ne: 'draft' } });
     if (has('reviewer')) can(['review', 'decide'], 'Claim', { manufacturerId: orgId });
+    // Failure analysis is the reviewers' (and their administrator's); the reserve is the accountants'. Both read
+    // only their own manufacturer's record: the server scopes every query to manufacturerId.
+    if (has('reviewer') || has('administrator')) can('read', 'Analytics', { manufacturerId: orgId });
+    if (has('accountant') || has('administrator')) can(['read', 'export'], 'Reserve', { manufacturerId: orgId });
     if (has('accountant')) {
       can('credit', 'Claim', { manufacturerId: orgId });
       can(['read', 'create', 'export'], 'CreditMemo', { manufacturerId: orgId });

@@ -35,6 +35,8 @@ const envSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   OUTBOX_WORKER: bool.default(true),
+  /** Tests only (NODE_ENV=test): the credit-issuing transaction sleeps this long after the memo insert. */
+  TEST_CREDIT_PAUSE_MS: z.coerce.number().int().min(0).max(120_000).default(0),
 });
 
 export type AppConfig = {
@@ -59,6 +61,8 @@ export type AppConfig = {
   };
   logLevel: string;
   outboxWorker: boolean;
+  /** 0 unless NODE_ENV=test asks for a pause inside the issuing transaction (the crash test). */
+  testCreditPauseMs: number;
 };
 
 export class ConfigError extends Error {}
@@ -113,5 +117,6 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     },
     logLevel: e.LOG_LEVEL,
     outboxWorker: e.OUTBOX_WORKER,
+    testCreditPauseMs: e.NODE_ENV === 'test' ? e.TEST_CREDIT_PAUSE_MS : 0,
   };
 }

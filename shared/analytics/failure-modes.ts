@@ -10,8 +10,10 @@ export interface ClaimRow {
   /** YYYY-MM-DD. */
   installedOn: string;
   failedOn: string;
-  /** Units the claim names; 1 by default. */
+  /** Units the claim names; 1 by default. For a grouped row, the units of all its claims. */
   units?: number;
+  /** How many claims this row stands for (grouped counts from SQL); 1 by default. */
+  claims?: number;
   lot?: string | null;
   contractor?: string | null;
   location?: string | null;
@@ -40,6 +42,12 @@ function compareKeys(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
+function claimCount(rows: readonly ClaimRow[]): number {
+  let total = 0;
+  for (const row of rows) total += row.claims ?? 1;
+  return total;
+}
+
 function keyOrNotRecorded(value: string | null | undefined): string {
   return value === null || value === undefined || value === '' ? NOT_RECORDED : value;
 }
@@ -53,11 +61,12 @@ export function rankBy(
   for (const row of rows) {
     const key = keyOrNotRecorded(keyOf(row));
     const entry = counts.get(key) ?? { claims: 0, units: 0 };
-    entry.claims += 1;
-    entry.units += row.units ?? 1;
+    const claims = row.claims ?? 1;
+    entry.claims += claims;
+    entry.units += row.units ?? claims;
     counts.set(key, entry);
   }
-  const total = rows.length;
+  const total = claimCount(rows);
   return [...counts.entries()]
     .map(([key, { claims, units }]) => ({ key, claims, units, share: total === 0 ? 0 : claims / total }))
     .sort((a, b) => b.claims - a.claims || b.units - a.units || compareKeys(a.key, b.key));
@@ -104,7 +113,7 @@ export function crossTabulate(
   for (const row of rows) {
     counts[rowIndex.get(keyOrNotRecorded(rowKeyOf(row)))!][
       columnIndex.get(keyOrNotRecorded(columnKeyOf(row)))!
-    ] += 1;
+    ] += row.claims ?? 1;
   }
   return {
     rows: rowKeys,
@@ -112,7 +121,7 @@ export function crossTabulate(
     counts,
     rowTotals: counts.map((line) => line.reduce((sum, n) => sum + n, 0)),
     columnTotals: columnKeys.map((_, j) => counts.reduce((sum, line) => sum + line[j], 0)),
-    total: rows.length,
+    total: claimCount(rows),
   };
 }
 
@@ -160,24 +169,42 @@ function monthLabel(index: number): string {
   return `${String(year).padStart(4, '0')}-${month < 10 ? '0' : ''}${month}`;
 }
 
+/** One cell of the ageing table already counted (by SQL): install month YYYY-MM, whole months in service. */
+export interface AgeingCount {
+  installMonth: string;
+  monthsInService: number;
+  claims: number;
+}
+
 /** Claims by install month and whole months in service at failure (the engine's ageMonths). */
 export function ageingTable(rows: readonly ClaimRow[]): AgeingTable {
-  if (rows.length === 0) {
+  return ageingTableFromCounts(
+    rows.map((row) => ({
+      installMonth: row.installedOn.slice(0, 7),
+      monthsInService: wholeMonthsBetween(row.installedOn, row.failedOn),
+      claims: row.claims ?? 1,
+    })),
+  );
+}
+
+/** The ageing table from counted cells: the same table ageingTable gives from the claims themselves. */
+export function ageingTableFromCounts(cells: readonly AgeingCount[]): AgeingTable {
+  if (cells.length === 0) {
     return { installMonths: [], monthsInService: [], counts: [], rowTotals: [], columnTotals: [] };
   }
   let first = Infinity;
   let last = -Infinity;
   let oldest = 0;
-  const cells = rows.map((row) => {
-    const install = monthIndex(row.installedOn);
-    const age = wholeMonthsBetween(row.installedOn, row.failedOn);
+  const indexed = cells.map((cell) => {
+    const install = monthIndex(`${cell.installMonth}-01`);
+    const age = cell.monthsInService < 0 ? 0 : cell.monthsInService;
     if (install < first) first = install;
     if (install > last) last = install;
     if (age > oldest) oldest = age;
-    return { install, age };
+    return { install, age, claims: cell.claims };
   });
   const counts = Array.from({ length: last - first + 1 }, () => new Array<number>(oldest + 1).fill(0));
-  for (const { install, age } of cells) counts[install - first][age] += 1;
+  for (const { install, age, claims } of indexed) counts[install - first][age] += claims;
   return {
     installMonths: counts.map((_, i) => monthLabel(first + i)),
     monthsInService: Array.from({ length: oldest + 1 }, (_, m) => m),

@@ -1,4 +1,4 @@
-import { ClipboardCheck, ClipboardList, Home, Inbox, Lightbulb, MapPin, Users, type LucideIcon } from 'lucide-react';
+import { Activity, ClipboardCheck, ClipboardList, Home, Inbox, Landmark, Lightbulb, MapPin, Receipt, Users, type LucideIcon } from 'lucide-react';
 import type { AppAbility } from '../../shared/abilities';
 
 export type NavItem = { to: string; label: string; icon: LucideIcon; end?: boolean };
@@ -10,6 +10,9 @@ export function navFor(ability: AppAbility): NavItem[] {
   if (ability.can('read', 'ProductModel')) items.push({ to: '/catalogue', label: 'Catalogue', icon: Lightbulb });
   if (ability.can('read', 'Installation')) items.push({ to: '/installations', label: 'Sites', icon: MapPin });
   if (ability.can('review', 'Claim')) items.push({ to: '/review', label: 'Review desk', icon: ClipboardCheck });
+  if (ability.can('read', 'CreditMemo')) items.push({ to: '/credits', label: 'Credits', icon: Receipt });
+  if (ability.can('read', 'Analytics')) items.push({ to: '/analytics', label: 'Failure analysis', icon: Activity });
+  if (ability.can('read', 'Reserve')) items.push({ to: '/reserve', label: 'Reserve', icon: Landmark });
   if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });
   if (ability.can('read', 'Mailbox')) items.push({ to: '/admin/mailbox', label: 'Mailbox', icon: Inbox });
   return items;

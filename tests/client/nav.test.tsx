@@ -10,10 +10,19 @@ describe('navigation by role', () => {
     const labels = (roles: Role[], kind: OrganizationKind, demoMode = true) =>
       navFor(defineAbilityFor(user(roles, kind), { demoMode })).map((i) => i.label);
     // Everyone browses the catalogue; installations ("Sites") are scoped to one's own organisation.
-    expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites']);
-    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Review desk']);
-    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites']);
-    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'People', 'Mailbox']);
-    expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'People']);
+    // Claims for everyone who reads claims; Credits for contractors (their own) and accountants.
+    expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Credits']);
+    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Review desk', 'Failure analysis']);
+    expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Credits', 'Reserve']);
+    expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Credits', 'People', 'Mailbox']);
+    expect(labels(['administrator'], 'manufacturer', false)).toEqual([
+      'Home',
+      'Claims',
+      'Catalogue',
+      'Sites',
+      'Failure analysis',
+      'Reserve',
+      'People',
+    ]);
   });
 });

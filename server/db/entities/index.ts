@@ -6,10 +6,14 @@ import { ClaimDocument } from './claim-document.entity';
 import { ClaimMessage } from './claim-message.entity';
 import { Claim } from './claim.entity';
 import { Decision } from './decision.entity';
+import { CreditMemo } from './credit-memo.entity';
+import { IdempotencyKey } from './idempotency-key.entity';
 import { InstallationUnit } from './installation-unit.entity';
 import { Installation } from './installation.entity';
 import { Invitation } from './invitation.entity';
+import { LedgerEntry } from './ledger-entry.entity';
 import { LoginAttempt } from './login-attempt.entity';
+import { MemoPrefix, MemoSequence } from './memo-sequence.entity';
 import { Organization } from './organization.entity';
 import { OutboxMessage } from './outbox-message.entity';
 import { PolicyModel } from './policy-model.entity';
@@ -41,4 +45,9 @@ export const entities = [
   BenchTest,
   Decision,
   ClaimDocument,
+  CreditMemo,
+  LedgerEntry,
+  MemoSequence,
+  MemoPrefix,
+  IdempotencyKey,
 ];

@@ -32,6 +32,7 @@ import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 @Index('ix_installations_supply', ['nominalSupplyVolts'])
 @Index('ix_installations_quantity', ['quantity'])
 @Index('ix_installations_city', ['siteCity'])
+@Index('ix_installations_mfr_lot', ['manufacturerId', 'lot'])
 export class Installation {
   @PrimaryGeneratedColumn('uuid')
   id: string;
@@ -112,6 +113,10 @@ export class Installation {
 
   @Column({ type: 'double', name: 'ambient_c' })
   ambientC: number;
+
+  /** The date code (manufacturing lot) on the units' labels, when the installer recorded one. */
+  @Column({ type: 'varchar', length: 32, nullable: true })
+  lot: string | null;
 
   @OneToMany(() => InstallationUnit, (u) => u.installation)
   units: Relation<InstallationUnit[]>;

@@ -6,6 +6,9 @@ import { CatalogueGuards1796166271710 } from './1796166271710-CatalogueGuards';
 import { Claims1796166977901 } from './1796166977901-Claims';
 import { Attachments1796167007046 } from './1796167007046-Attachments';
 import { ReviewWorkflow1796167448755 } from './1796167448755-ReviewWorkflow';
+import { Credits1796167459216 } from './1796167459216-Credits';
+import { CreditsGuards1796167460216 } from './1796167460216-CreditsGuards';
+import { InstallationLot1796167600000 } from './1796167600000-InstallationLot';
 import { ReviewQueueIndexes1796168302753 } from './1796168302753-ReviewQueueIndexes';
 
 export const migrations = [
@@ -16,5 +19,8 @@ export const migrations = [
   Claims1796166977901,
   Attachments1796167007046,
   ReviewWorkflow1796167448755,
+  Credits1796167459216,
+  CreditsGuards1796167460216,
+  InstallationLot1796167600000,
   ReviewQueueIndexes1796168302753,
 ];

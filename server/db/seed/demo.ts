@@ -5,10 +5,21 @@ import { User } from '../entities/user.entity';
 import { recordAudit } from '../../lib/audit';
 import { DEMO_ACCOUNTS, DEMO_ORGANIZATIONS, DEMO_PASSWORD } from './demo-accounts';
 import { seedDemoCatalogue } from './demo-catalogue';
+import { seedDemoCredits } from './demo-credits';
+import type { AppConfig } from '../../config/env';
+import type { Storage } from '../../lib/storage';
 import { seedDemoClaims } from './demo-claims';
+import { seedDemoReliability } from './demo-reliability';
 
 /** Loads the fictional demo scenario into an empty database. Returns false when there was data already. */
-export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean } = {}): Promise<boolean> {
+/**
+ * With `credits` (the storage for memo PDFs and the config), the credits scenario is loaded too: approved claims,
+ * memos issued through the real service, a reversal.
+ */
+export async function seedDemo(
+  ds: AppDataSource,
+  opts: { onlyIfEmpty?: boolean; credits?: { storage: Storage; config: AppConfig } } = {},
+): Promise<boolean> {
   const orgs = ds.getRepository(Organization);
   if (opts.onlyIfEmpty !== false && (await orgs.count()) > 0) return false;
   if (await orgs.exists({ where: { name: DEMO_ORGANIZATIONS[0].name } })) return false;
@@ -36,11 +47,18 @@ export async function seedDemo(ds: AppDataSource, opts: { onlyIfEmpty?: boolean 
       await recordAudit(
         m,
         { userId: null, organizationId: org.id },
-        { action: 'user.created', entityType: 'User', entityId: user.id, after: { email: a.email, roles: a.roles, source: 'demo' } },
+        {
+          action: 'user.created',
+          entityType: 'User',
+          entityId: user.id,
+          after: { email: a.email, roles: a.roles, source: 'demo' },
+        },
       );
     }
     const catalogue = await seedDemoCatalogue(m, orgs, users);
     await seedDemoClaims(m, orgs, users, catalogue);
+    await seedDemoReliability(m, orgs, users, [...catalogue.products.values()]);
   });
+  if (opts.credits) await seedDemoCredits(ds, opts.credits.storage, opts.credits.config);
   return true;
 }

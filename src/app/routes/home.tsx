@@ -1,9 +1,6 @@
-import {
-  AccountantHome,
-  AdministratorHome,
-  InstallerHome,
-} from '../../features/home/components/home-panels';
 import { OpenClaims } from '../../features/claims/components/open-claims';
+import { AccountantDesk } from '../../features/credits/components/accountant-desk';
+import { AdministratorHome, InstallerHome } from '../../features/home/components/home-panels';
 import { useSession } from '../../lib/ability';
 import { PageHeader } from '../../components/ui/page-header';
 import { ReviewDeskSummary } from '../../features/review/components/review-queue';
@@ -21,6 +18,6 @@ export function HomeRoute() {
       </>
     );
   }
-  if (user.roles.includes('accountant')) return <AccountantHome {...props} />;
+  if (user.roles.includes('accountant')) return <AccountantDesk {...props} />;
   return <AdministratorHome {...props} />;
 }

@@ -1,6 +1,6 @@
-import type { ReactNode } from 'react';
-import { NavLink } from 'react-router-dom';
-import { LogOut } from 'lucide-react';
+import { useEffect, useState, type ReactNode } from 'react';
+import { NavLink, useLocation } from 'react-router-dom';
+import { LogOut, MoreHorizontal } from 'lucide-react';
 import type { NavItem } from '../../config/nav';
 import { cn } from '../../lib/cn';
 import { Logo } from './logo';
@@ -82,24 +82,59 @@ export function AppShell({ nav, userName, organizationName, roleText, onSignOut,
         <div className="mx-auto max-w-6xl">{children}</div>
       </main>
 
-      <nav aria-label="Main" className="fixed inset-x-0 bottom-0 z-30 border-t border-ink-200 bg-white pb-[env(safe-area-inset-bottom)] lg:hidden">
-        <ul className="flex">
-          {nav.map((item) => (
-            <li key={item.to} className="flex-1">
+      <PhoneTabs nav={nav} />
+    </div>
+  );
+}
+
+const tabClass = (active: boolean) =>
+  cn('flex h-16 w-full flex-col items-center justify-center gap-1 text-xs font-medium', active ? 'text-brand-700' : 'text-ink-600');
+
+/** The phone's bottom bar: the first four places within thumb reach, the rest behind "More". */
+function PhoneTabs({ nav }: { nav: NavItem[] }) {
+  const [open, setOpen] = useState(false);
+  const location = useLocation();
+  useEffect(() => setOpen(false), [location.pathname]);
+  const primary = nav.length > 5 ? nav.slice(0, 4) : nav;
+  const more = nav.length > 5 ? nav.slice(4) : [];
+  const moreActive = more.some((i) => location.pathname.startsWith(i.to));
+  return (
+    <nav aria-label="Main" className="fixed inset-x-0 bottom-0 z-30 border-t border-ink-200 bg-white pb-[env(safe-area-inset-bottom)] lg:hidden">
+      {open ? (
+        <ul id="more-places" className="border-b border-ink-100 py-1">
+          {more.map((item) => (
+            <li key={item.to}>
               <NavLink
                 to={item.to}
-                end={item.end}
                 className={({ isActive }) =>
-                  cn('flex h-16 flex-col items-center justify-center gap-1 text-xs font-medium', isActive ? 'text-brand-700' : 'text-ink-600')
+                  cn('flex h-12 items-center gap-3 px-5 text-sm font-medium', isActive ? 'bg-brand-50 text-brand-800' : 'text-ink-800')
                 }
               >
-                <item.icon className="size-6" aria-hidden />
+                <item.icon className="size-5" aria-hidden />
                 {item.label}
               </NavLink>
             </li>
           ))}
         </ul>
-      </nav>
-    </div>
+      ) : null}
+      <ul className="flex">
+        {primary.map((item) => (
+          <li key={item.to} className="min-w-0 flex-1">
+            <NavLink to={item.to} end={item.end} className={({ isActive }) => tabClass(isActive)}>
+              <item.icon className="size-6" aria-hidden />
+              <span className="max-w-full truncate px-1">{item.label}</span>
+            </NavLink>
+          </li>
+        ))}
+        {more.length ? (
+          <li className="min-w-0 flex-1">
+            <button type="button" aria-expanded={open} aria-controls="more-places" onClick={() => setOpen((o) => !o)} className={tabClass(moreActive || open)}>
+              <MoreHorizontal className="size-6" aria-hidden />
+              More
+            </button>
+          </li>
+        ) : null}
+      </ul>
+    </nav>
   );
 }

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { HardHat, Receipt, ShieldCheck, Users } from 'lucide-react';
+import { HardHat, ShieldCheck, Users } from 'lucide-react';
 import type { ReactNode } from 'react';
 import { buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
@@ -11,7 +11,10 @@ import { userQueries } from '../../users/api/user-queries';
 function Step({ n, title, children }: { n: number; title: string; children: ReactNode }) {
   return (
     <li className="flex gap-3">
-      <span aria-hidden className="grid size-7 shrink-0 place-items-center rounded-full bg-brand-100 text-sm font-bold text-brand-800">
+      <span
+        aria-hidden
+        className="grid size-7 shrink-0 place-items-center rounded-full bg-brand-100 text-sm font-bold text-brand-800"
+      >
         {n}
       </span>
       <div>
@@ -48,7 +51,8 @@ export function InstallerHome({ name, organization, openClaims }: { name: string
           <CardHeader title="Before you measure" />
           <ul className="space-y-4 px-4 py-4 sm:px-5">
             <Step n={1} title="Qualified persons only">
-              Live readings follow NFPA 70E and your employer&apos;s procedures, with suitable PPE and a meter rated CAT III or IV.
+              Live readings follow NFPA 70E and your employer&apos;s procedures, with suitable PPE and a meter
+              rated CAT III or IV.
             </Step>
             <Step n={2} title="De-energise when you can">
               Lock out whenever possible. LED driver outputs can exceed 50 V DC.
@@ -59,20 +63,6 @@ export function InstallerHome({ name, organization, openClaims }: { name: string
           </ul>
         </Card>
       </div>
-    </>
-  );
-}
-
-export function AccountantHome({ name, organization }: { name: string; organization: string }) {
-  return (
-    <>
-      <PageHeader title="Credits and warranty cost" description={`${organization} · signed in as ${name}`} />
-      <Card>
-        <CardHeader title="Approved, not yet credited" description="Each credit memo is issued once and lands on the contractor's ledger." />
-        <EmptyState icon={<Receipt className="size-6" />} title="No credits to issue">
-          Claims your reviewers approve appear here for a credit memo.
-        </EmptyState>
-      </Card>
     </>
   );
 }
@@ -109,7 +99,8 @@ export function AdministratorHome({ name, organization }: { name: string; organi
           <CardHeader title="Access is per organisation" />
           <p className="flex gap-3 px-5 py-4 text-sm text-ink-700">
             <ShieldCheck className="size-5 shrink-0 text-brand-700" aria-hidden />
-            People you invite see only your organisation&apos;s records, and the claims that tie you to the other party.
+            People you invite see only your organisation&apos;s records, and the claims that tie you to the
+            other party.
           </p>
         </Card>
       </div>

@@ -1,0 +1,141 @@
+import { Router, type Request } from 'express';
+import { z } from 'zod';
+import {
+  creditExportQuerySchema,
+  creditListQuerySchema,
+  creditQueueQuerySchema,
+  idempotencyKeySchema,
+  issueCreditSchema,
+  voidCreditSchema,
+  warrantyCostQuerySchema,
+} from '../../../shared/schemas/credits';
+import type { AppContext } from '../../context';
+import { Claim } from '../../db/entities/claim.entity';
+import { actorFromRequest } from '../../lib/audit';
+import { REPLAY_HEADER } from '../../lib/idempotency';
+import { pageOf } from '../../lib/pagination';
+import { createStorage, type Storage } from '../../lib/storage';
+import { authorize, authorizeType, requireUser, toAbilityUser } from '../../middleware/auth';
+import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
+import { presentMemo } from './credits.presenter';
+import { createCreditsReports } from './credits.reports';
+import { createCreditsService } from './credits.service';
+
+const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
+
+function idempotencyKey(req: Request) {
+  return parseWith(
+    z.strictObject({ 'idempotency-key': idempotencyKeySchema }),
+    { 'idempotency-key': req.get('idempotency-key') },
+    'Idempotency-Key header',
+  );
+}
+
+function services(ctx: AppContext, storage?: Storage) {
+  const store = storage ?? createStorage(ctx.config);
+  return {
+    storage: store,
+    service: createCreditsService(ctx.ds, store, ctx.config, ctx.publicUrl),
+    reports: createCreditsReports(ctx.ds),
+  };
+}
+
+/** POST /api/claims/:id/credits: mounted on /claims beside the claims router. */
+export function claimCreditsRouter(ctx: AppContext, storage?: Storage) {
+  const r = Router();
+  const { service } = services(ctx, storage);
+
+  r.post('/:id/credits', requireUser, async (req, res) => {
+    const { id } = parseWith(idParam, req.params, 'address');
+    const key = idempotencyKey(req)['idempotency-key'];
+    const input = parseBody(issueCreditSchema, req);
+    const claim = await ctx.ds.getRepository(Claim).findOne({ where: { id } });
+    authorize(req, 'credit', 'Claim', claim, 'claim');
+    const answer = await service.issue(claim.id, toAbilityUser(req.user!), actorFromRequest(req), input, {
+      key,
+      path: `/api/claims/${claim.id}/credits`,
+      body: input,
+    });
+    if (answer.replayed) res.setHeader(REPLAY_HEADER, 'true');
+    res.status(answer.status).json(answer.body);
+  });
+
+  return r;
+}
+
+export function creditsRouter(ctx: AppContext, storage?: Storage) {
+  const r = Router();
+  const { service, reports, storage: store } = services(ctx, storage);
+  r.use(requireUser);
+
+  r.get('/', async (req, res) => {
+    authorizeType(req, 'read', 'CreditMemo');
+    const q = parseQuery(creditListQuerySchema, req);
+    const { items, total } = await reports.list(toAbilityUser(req.user!), q);
+    res.json(pageOf(items, total, q));
+  });
+
+  r.get('/queue', async (req, res) => {
+    authorizeType(req, 'credit', 'Claim');
+    const q = parseQuery(creditQueueQuerySchema, req);
+    const { items, total, totals } = await reports.queue(toAbilityUser(req.user!), q);
+    res.json({ ...pageOf(items, total, q), totals });
+  });
+
+  r.get('/balances', async (req, res) => {
+    authorizeType(req, 'read', 'CreditMemo');
+    parseQuery(z.strictObject({}), req);
+    res.json({ items: await reports.balances(toAbilityUser(req.user!)) });
+  });
+
+  r.get('/export', async (req, res) => {
+    authorizeType(req, 'export', 'CreditMemo');
+    const q = parseQuery(creditExportQuerySchema, req);
+    const data = await reports.exportRows(req.user!.organizationId, q);
+    res
+      .type('text/csv; charset=utf-8')
+      .attachment(`lumenproof-credits-${q.from}-to-${q.to}.csv`)
+      .send(reports.toCsv(data));
+  });
+
+  r.get('/cost', async (req, res) => {
+    authorizeType(req, 'export', 'CreditMemo');
+    const q = parseQuery(warrantyCostQuerySchema, req);
+    res.json(await reports.warrantyCost(req.user!.organizationId, q));
+  });
+
+  r.get('/:id', async (req, res) => {
+    const { id } = parseWith(idParam, req.params, 'address');
+    const memo = await reports.findMemo(id);
+    authorize(req, 'read', 'CreditMemo', memo, 'credit memo');
+    res.json({ creditMemo: presentMemo(memo) });
+  });
+
+  r.get('/:id/pdf', async (req, res) => {
+    const { id } = parseWith(idParam, req.params, 'address');
+    const memo = await reports.findMemo(id);
+    authorize(req, 'read', 'CreditMemo', memo, 'credit memo');
+    const pdf = await store.getBuffer(memo.pdfStorageKey);
+    res
+      .type('application/pdf')
+      .setHeader('Content-Disposition', `attachment; filename="${memo.number}.pdf"`)
+      .setHeader('X-Content-SHA256', memo.pdfSha256)
+      .send(pdf);
+  });
+
+  r.post('/:id/void', async (req, res) => {
+    const { id } = parseWith(idParam, req.params, 'address');
+    const input = parseBody(voidCreditSchema, req);
+    const memo = await reports.findMemo(id);
+    authorize(req, 'create', 'CreditMemo', memo, 'credit memo');
+    const reversal = await service.voidMemo(
+      memo.id,
+      toAbilityUser(req.user!),
+      actorFromRequest(req),
+      input.reason,
+    );
+    res.status(201).json({ creditMemo: reversal });
+  });
+
+  return r;
+}

@@ -1,0 +1,404 @@
+import { Decision } from '../../db/entities/decision.entity';
+import crypto from 'node:crypto';
+import type { EntityManager } from 'typeorm';
+import type { AbilityUser } from '../../../shared/abilities';
+import { canPerform, REFUSAL_STATUS } from '../../../shared/claims/stages';
+import { negate, normalizeAmount, toDecimal } from '../../../shared/credits/money';
+import type { IssueCreditInput } from '../../../shared/schemas/credits';
+import type { AppConfig } from '../../config/env';
+import type { AppDataSource } from '../../db/data-source';
+import { Claim } from '../../db/entities/claim.entity';
+import { CreditMemo } from '../../db/entities/credit-memo.entity';
+import { LedgerEntry } from '../../db/entities/ledger-entry.entity';
+import { Organization } from '../../db/entities/organization.entity';
+import { ProductModel } from '../../db/entities/product-model.entity';
+import { User } from '../../db/entities/user.entity';
+import { recordAudit, type Actor } from '../../lib/audit';
+import { clock } from '../../lib/clock';
+import { AppError, conflict } from '../../lib/errors';
+import { retryOnDeadlock, runIdempotent, type IdempotentAnswer } from '../../lib/idempotency';
+import { enqueueEmail } from '../../lib/outbox';
+import { renderCreditMemo, type CreditMemoData } from '../../lib/pdf/credit-memo';
+import { paperFor } from '../../lib/pdf/document';
+import { sha256Hex } from '../../lib/pdf/hash';
+import type { Storage } from '../../lib/storage';
+import { nextMemoNumber } from './memo-numbers';
+import { presentMemoSummary } from './credits.presenter';
+
+export const ISSUE_ROUTE = 'POST /claims/:id/credits';
+export const VOID_ROUTE = 'POST /credits/:id/void';
+
+/**
+ * The amount a credit memo settles. Until the review branch's decisions table lands, the approved amount is
+ * the claim's expected credit (set by the engine at filing, confirmed at approval); this is the one place to
+ * switch to the decision's amount.
+ */
+export function approvedAmountOf(claim: Pick<Claim, 'expectedCredit' | 'currency'>) {
+  if (claim.expectedCredit === null || claim.currency === null) return null;
+  const amount = toDecimal(claim.expectedCredit);
+  if (amount.lte(0)) return null;
+  return { amount: normalizeAmount(amount), currency: claim.currency };
+}
+
+const isoDay = (d: Date) => d.toISOString().slice(0, 10);
+
+type Parties = { manufacturer: Organization; contractor: Organization; product: ProductModel };
+
+async function partiesOf(m: EntityManager, claim: Claim): Promise<Parties> {
+  const [manufacturer, contractor, product] = await Promise.all([
+    m.findOneByOrFail(Organization, { id: claim.manufacturerId }),
+    m.findOneByOrFail(Organization, { id: claim.contractorId }),
+    m.findOneByOrFail(ProductModel, { id: claim.productModelId }),
+  ]);
+  return { manufacturer, contractor, product };
+}
+
+function memoData(
+  p: Parties,
+  claim: Claim,
+  memo: { number: string; date: Date; amount: string; currency: string },
+  reversal?: CreditMemoData['reversal'],
+): CreditMemoData {
+  const units = claim.units && claim.units > 0 ? claim.units : 1;
+  return {
+    memoNumber: memo.number,
+    memoDate: isoDay(memo.date),
+    manufacturer: { name: p.manufacturer.name },
+    contractor: { name: p.contractor.name },
+    claimNumber: claim.number ?? claim.id,
+    currency: memo.currency,
+    lines: [
+      {
+        description:
+          `${p.product.name} (${p.product.modelNumber}), warranty claim ${claim.number ?? ''}`.trim(),
+        units,
+        unitCredit: toDecimal(memo.amount).div(units).toFixed(2),
+        coveragePercent: 100,
+        amount: memo.amount,
+      },
+    ],
+    reversal,
+    paper: paperFor({ currency: memo.currency }),
+  };
+}
+
+/** The contractor's people who hear about credits: its administrators and whoever filed the claim. */
+async function contractorRecipients(m: EntityManager, claim: Claim) {
+  const users = await m.find(User, { where: { organizationId: claim.contractorId, status: 'active' } });
+  return users
+    .filter((u) => u.roles.includes('administrator') || u.id === claim.filedById)
+    .map((u) => u.email);
+}
+
+function refuse(code: keyof typeof REFUSAL_STATUS, message: string): never {
+  throw new AppError(REFUSAL_STATUS[code], code, message);
+}
+
+const lockClaim = (m: EntityManager, id: string) =>
+  m.createQueryBuilder(Claim, 'c').setLock('pessimistic_write').where('c.id = :id', { id }).getOne();
+
+export function createCreditsService(
+  ds: AppDataSource,
+  storage: Storage,
+  config: AppConfig,
+  links: (p: string) => string,
+) {
+  async function storePdf(manufacturerId: string, memoId: string, pdf: Buffer) {
+    const key = `credit-memos/${manufacturerId}/${memoId}.pdf`;
+    // Written before the commit: a rolled-back transaction leaves an unreferenced file, never a memo without one.
+    await storage.put(key, pdf, 'application/pdf');
+    return { key, sha256: sha256Hex(pdf) };
+  }
+
+  async function pauseForCrashTest(m: EntityManager) {
+    if (config.env === 'test' && config.testCreditPauseMs > 0) {
+      await m.query('SELECT SLEEP(?)', [config.testCreditPauseMs / 1000]);
+    }
+  }
+
+  return {
+    /**
+     * Issues the credit memo for an approved claim, idempotently: in one transaction the key's row, the memo
+     * (numbered), its ledger entry, the claim's move to credited, the audit rows and the e-mail with the PDF.
+     */
+    issue(
+      claimId: string,
+      user: AbilityUser & { email?: string },
+      actor: Actor,
+      input: IssueCreditInput,
+      idem: { key: string; path: string; body: unknown },
+    ): Promise<IdempotentAnswer> {
+      return runIdempotent(
+        ds,
+        {
+          key: idem.key,
+          userId: user.id,
+          route: ISSUE_ROUTE,
+          method: 'POST',
+          path: idem.path,
+          body: idem.body,
+        },
+        async (m) => {
+          // The row lock serialises every request for this claim; the unique index on credited_claim_id would
+          // refuse a second standing credit even if it did not.
+          const claim = await lockClaim(m, claimId);
+          if (!claim)
+            throw new AppError(404, 'not_found', 'That claim does not exist or is not shared with you.');
+          if (claim.stage === 'credited') {
+            const standing = await m.findOne(CreditMemo, { where: { creditedClaimId: claim.id } });
+            throw conflict(
+              'credit.already_issued',
+              `Claim ${claim.number ?? claim.id} is already credited${standing ? ` by memo ${standing.number}` : ''}.`,
+            );
+          }
+          const allowed = canPerform(claim, user, 'credit', {});
+          if (!allowed.ok) refuse(allowed.code, allowed.message);
+          // The reviewer's decision fixes the amount; claims approved before decisions were recorded fall back to
+          // the engine's expected credit.
+          const decision = await m.findOneBy(Decision, { currentClaimId: claim.id });
+          const approved =
+            decision?.amount && decision.currency && toDecimal(decision.amount).gt(0)
+              ? { amount: normalizeAmount(toDecimal(decision.amount)), currency: decision.currency }
+              : approvedAmountOf(claim);
+          if (!approved) throw conflict('credit.no_amount', 'This claim has no approved amount to credit.');
+
+          const parties = await partiesOf(m, claim);
+          const now = clock.now();
+          const memoId = crypto.randomUUID();
+          const number = await nextMemoNumber(m, parties.manufacturer, now.getUTCFullYear());
+          const pdf = await renderCreditMemo(memoData(parties, claim, { number, date: now, ...approved }));
+          const stored = await storePdf(claim.manufacturerId, memoId, pdf);
+
+          await m.insert(CreditMemo, {
+            id: memoId,
+            number,
+            kind: 'credit',
+            manufacturerId: claim.manufacturerId,
+            contractorId: claim.contractorId,
+            claimId: claim.id,
+            creditedClaimId: claim.id,
+            reversesMemoId: null,
+            amount: approved.amount,
+            currency: approved.currency,
+            reason: null,
+            pdfStorageKey: stored.key,
+            pdfSha256: stored.sha256,
+            issuedById: user.id,
+            issuedAt: now,
+          });
+          await pauseForCrashTest(m);
+          await m.insert(LedgerEntry, {
+            contractorId: claim.contractorId,
+            manufacturerId: claim.manufacturerId,
+            currency: approved.currency,
+            amount: approved.amount,
+            memoId,
+            createdAt: now,
+          });
+          const moved = await m
+            .createQueryBuilder()
+            .update(Claim)
+            .set({ stage: 'credited', stageChangedAt: now, waitingOn: null, version: () => 'version + 1' })
+            .where('id = :id AND stage = :stage AND version = :v', {
+              id: claim.id,
+              stage: 'approved',
+              v: claim.version,
+            })
+            .execute();
+          if (moved.affected !== 1)
+            throw conflict('claim.changed', 'The claim changed while the credit was issued. Try again.');
+
+          await recordAudit(m, actor, {
+            action: 'claim.credited',
+            entityType: 'Claim',
+            entityId: claim.id,
+            before: { stage: 'approved' },
+            after: {
+              stage: 'credited',
+              memoId,
+              memoNumber: number,
+              amount: approved.amount,
+              currency: approved.currency,
+            },
+          });
+          await recordAudit(m, actor, {
+            action: 'credit_memo.issued',
+            entityType: 'CreditMemo',
+            entityId: memoId,
+            after: {
+              number,
+              claimId: claim.id,
+              contractorId: claim.contractorId,
+              amount: approved.amount,
+              currency: approved.currency,
+              pdfSha256: stored.sha256,
+              ...(input.note ? { note: input.note } : {}),
+            },
+          });
+          const to = await contractorRecipients(m, claim);
+          if (to.length) {
+            await enqueueEmail(m, {
+              to,
+              template: 'credit-memo',
+              view: {
+                memoNumber: number,
+                manufacturer: parties.manufacturer.name,
+                contractor: parties.contractor.name,
+                claimNumber: claim.number ?? '',
+                amount: approved.amount,
+                currency: approved.currency,
+                sha256: stored.sha256,
+                link: links('/credits'),
+              },
+              attachments: [
+                { filename: `${number}.pdf`, contentType: 'application/pdf', storageKey: stored.key },
+              ],
+            });
+          }
+          return {
+            status: 201,
+            body: {
+              creditMemo: presentMemoSummary({
+                id: memoId,
+                number,
+                amount: approved.amount,
+                currency: approved.currency,
+                claimId: claim.id,
+              }),
+            },
+          };
+        },
+      );
+    },
+
+    /**
+     * Voids a standing credit with a reversal memo: its negative ledger entry, the original's claim freed, the
+     * claim back to approved. The original memo and its entry stay as they were.
+     */
+    async voidMemo(memoId: string, user: AbilityUser, actor: Actor, reason: string) {
+      return retryOnDeadlock(() =>
+        ds.transaction(async (m) => {
+          const original = await m.findOne(CreditMemo, { where: { id: memoId } });
+          if (!original)
+            throw new AppError(
+              404,
+              'not_found',
+              'That credit memo does not exist or is not shared with you.',
+            );
+          const claim = await lockClaim(m, original.claimId);
+          const memo = await m
+            .createQueryBuilder(CreditMemo, 'cm')
+            .setLock('pessimistic_write')
+            .where('cm.id = :id', { id: memoId })
+            .getOneOrFail();
+          if (memo.kind !== 'credit')
+            throw conflict('credit.not_a_credit', 'A reversal cannot itself be voided.');
+          if (memo.creditedClaimId === null) {
+            const rev = await m.findOne(CreditMemo, { where: { reversesMemoId: memo.id } });
+            throw conflict(
+              'credit.already_voided',
+              `Memo ${memo.number} is already voided${rev ? ` by ${rev.number}` : ''}.`,
+            );
+          }
+          if (!claim) throw new Error('memo without claim');
+          const allowed = canPerform(claim, user, 'void_credit', { reason });
+          if (!allowed.ok) refuse(allowed.code, allowed.message);
+
+          const parties = await partiesOf(m, claim);
+          const now = clock.now();
+          const reversalId = crypto.randomUUID();
+          const number = await nextMemoNumber(m, parties.manufacturer, now.getUTCFullYear());
+          const pdf = await renderCreditMemo(
+            memoData(
+              parties,
+              claim,
+              { number, date: now, amount: memo.amount, currency: memo.currency },
+              {
+                originalMemoNumber: memo.number,
+                originalDate: isoDay(memo.issuedAt),
+                reason,
+              },
+            ),
+          );
+          const stored = await storePdf(claim.manufacturerId, reversalId, pdf);
+          await m.insert(CreditMemo, {
+            id: reversalId,
+            number,
+            kind: 'reversal',
+            manufacturerId: memo.manufacturerId,
+            contractorId: memo.contractorId,
+            claimId: memo.claimId,
+            creditedClaimId: null,
+            reversesMemoId: memo.id,
+            amount: memo.amount,
+            currency: memo.currency,
+            reason,
+            pdfStorageKey: stored.key,
+            pdfSha256: stored.sha256,
+            issuedById: user.id,
+            issuedAt: now,
+          });
+          await m.insert(LedgerEntry, {
+            contractorId: memo.contractorId,
+            manufacturerId: memo.manufacturerId,
+            currency: memo.currency,
+            amount: negate(memo.amount),
+            memoId: reversalId,
+            createdAt: now,
+          });
+          await m.update(CreditMemo, { id: memo.id }, { creditedClaimId: null });
+          const moved = await m
+            .createQueryBuilder()
+            .update(Claim)
+            .set({ stage: 'approved', stageChangedAt: now, version: () => 'version + 1' })
+            .where('id = :id AND stage = :stage', { id: claim.id, stage: 'credited' })
+            .execute();
+          if (moved.affected !== 1)
+            throw conflict('claim.changed', 'The claim changed while the credit was voided. Try again.');
+          await recordAudit(m, actor, {
+            action: 'claim.credit_voided',
+            entityType: 'Claim',
+            entityId: claim.id,
+            before: { stage: 'credited', memoNumber: memo.number },
+            after: { stage: 'approved', reversalNumber: number, reason },
+          });
+          await recordAudit(m, actor, {
+            action: 'credit_memo.voided',
+            entityType: 'CreditMemo',
+            entityId: memo.id,
+            before: { standing: true },
+            after: { standing: false, reversalId, reversalNumber: number, reason, pdfSha256: stored.sha256 },
+          });
+          const to = await contractorRecipients(m, claim);
+          if (to.length) {
+            await enqueueEmail(m, {
+              to,
+              template: 'credit-memo-reversal',
+              view: {
+                memoNumber: number,
+                originalNumber: memo.number,
+                manufacturer: parties.manufacturer.name,
+                claimNumber: claim.number ?? '',
+                amount: memo.amount,
+                currency: memo.currency,
+                reason,
+                sha256: stored.sha256,
+                link: links('/credits'),
+              },
+              attachments: [
+                { filename: `${number}.pdf`, contentType: 'application/pdf', storageKey: stored.key },
+              ],
+            });
+          }
+          return presentMemoSummary({
+            id: reversalId,
+            number,
+            amount: memo.amount,
+            currency: memo.currency,
+            claimId: memo.claimId,
+          });
+        }),
+      );
+    },
+  };
+}

@@ -1,0 +1,141 @@
+import { z } from 'zod';
+import { listQuerySchema } from './users';
+
+// Payloads of the credits API: issuing a memo, voiding one, the lists, the export and the cost view.
+
+export const MEMO_KINDS = ['credit', 'reversal'] as const;
+export type MemoKind = (typeof MEMO_KINDS)[number];
+
+const uuid = z.uuid({ error: 'Not a valid id.' });
+const isoDate = z.iso.date({ error: 'Use a date as YYYY-MM-DD.' });
+
+/** The body of POST /api/claims/:id/credits: the amount and currency come from the approved decision. */
+export const issueCreditSchema = z.strictObject({
+  /** A line the accountant adds to the memo's audit record (not printed). */
+  note: z.string().trim().max(500, 'Keep the note under 500 characters.').optional(),
+});
+export type IssueCreditInput = z.infer<typeof issueCreditSchema>;
+
+/** Printable ASCII, 8-255 characters: a UUID from the client fits. */
+export const idempotencyKeySchema = z
+  .string({ error: 'Send an Idempotency-Key header.' })
+  .regex(/^[\x21-\x7e]{8,255}$/, 'The Idempotency-Key header must be 8 to 255 printable characters.');
+
+export const voidCreditSchema = z.strictObject({
+  reason: z
+    .string({ error: 'Give the reason for voiding the credit.' })
+    .trim()
+    .min(5, 'Give the reason for voiding the credit (at least 5 characters).')
+    .max(2000, 'Keep the reason under 2,000 characters.'),
+});
+export type VoidCreditInput = z.infer<typeof voidCreditSchema>;
+
+const dateRange = {
+  from: isoDate.optional(),
+  to: isoDate.optional(),
+};
+
+function rangeInOrder(v: { from?: string; to?: string }) {
+  return !v.from || !v.to || v.from <= v.to;
+}
+const rangeMessage = { message: 'The start date must not be after the end date.', path: ['to'] };
+
+export const creditListQuerySchema = listQuerySchema
+  .extend({
+    sort: z.enum(['issuedAt', '-issuedAt', 'number', '-number', 'amount', '-amount']).default('-issuedAt'),
+    kind: z.enum(MEMO_KINDS).optional(),
+    contractorId: uuid.optional(),
+    manufacturerId: uuid.optional(),
+    currency: z
+      .string()
+      .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
+      .optional(),
+    ...dateRange,
+  })
+  .refine(rangeInOrder, rangeMessage);
+export type CreditListQuery = z.infer<typeof creditListQuerySchema>;
+
+export const creditQueueQuerySchema = listQuerySchema.extend({
+  sort: z.enum(['approvedAt', '-approvedAt', 'amount', '-amount', 'number', '-number']).default('approvedAt'),
+  contractorId: uuid.optional(),
+  currency: z
+    .string()
+    .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
+    .optional(),
+  /** Only claims approved at least this many days ago. */
+  minAgeDays: z.coerce.number().int().min(0).max(3650).optional(),
+});
+export type CreditQueueQuery = z.infer<typeof creditQueueQuerySchema>;
+
+export const creditExportQuerySchema = z
+  .strictObject({
+    from: isoDate,
+    to: isoDate,
+  })
+  .refine(rangeInOrder, rangeMessage)
+  .refine((v) => Date.parse(v.to) - Date.parse(v.from) <= 366 * 5 * 86_400_000, {
+    message: 'Export at most five years at a time.',
+    path: ['to'],
+  });
+export type CreditExportQuery = z.infer<typeof creditExportQuerySchema>;
+
+export const warrantyCostQuerySchema = z
+  .strictObject({
+    ...dateRange,
+    currency: z
+      .string()
+      .regex(/^[A-Z]{3}$/)
+      .optional(),
+  })
+  .refine(rangeInOrder, rangeMessage);
+export type WarrantyCostQuery = z.infer<typeof warrantyCostQuerySchema>;
+
+// Answers
+
+export type CreditMemoSummary = {
+  id: string;
+  number: string;
+  amount: string;
+  currency: string;
+  claimId: string;
+};
+
+export type CreditMemoDto = CreditMemoSummary & {
+  kind: MemoKind;
+  claim: { id: string; number: string | null };
+  contractor: { id: string; name: string };
+  manufacturer: { id: string; name: string };
+  issuedAt: string;
+  issuedBy: { id: string; name: string } | null;
+  reason: string | null;
+  reverses: { id: string; number: string } | null;
+  reversedBy: { id: string; number: string } | null;
+  pdfSha256: string;
+};
+
+export type QueueItemDto = {
+  claimId: string;
+  number: string | null;
+  contractor: { id: string; name: string };
+  product: { id: string; modelNumber: string; name: string };
+  amount: string | null;
+  currency: string | null;
+  approvedAt: string;
+  ageDays: number;
+};
+
+export type BalanceDto = {
+  contractor: { id: string; name: string };
+  manufacturer: { id: string; name: string };
+  currency: string;
+  balance: string;
+  memos: number;
+};
+
+export type CostRow = { key: string; label: string; currency: string; credited: string; pending: string };
+export type WarrantyCostDto = {
+  byMonth: CostRow[];
+  byProduct: CostRow[];
+  byContractor: CostRow[];
+  totals: { currency: string; credited: string; pending: string }[];
+};

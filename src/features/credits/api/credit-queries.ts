@@ -1,0 +1,44 @@
+import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import type { Paginated } from '../../../../shared/schemas/users';
+import type {
+  BalanceDto,
+  CreditMemoDto,
+  QueueItemDto,
+  WarrantyCostDto,
+} from '../../../../shared/schemas/credits';
+import { api, toQuery } from '../../../lib/api-client';
+
+export type CreditFilters = { page: number; q?: string; kind?: string; from?: string; to?: string };
+export type QueueFilters = { page: number; q?: string; currency?: string; minAgeDays?: string };
+export type QueuePage = Paginated<QueueItemDto> & {
+  totals: { currency: string; amount: string; claims: number }[];
+};
+
+export const creditQueries = {
+  all: ['credits'] as const,
+  list: (f: CreditFilters) =>
+    queryOptions({
+      queryKey: ['credits', 'list', f],
+      queryFn: () => api<Paginated<CreditMemoDto>>(`/credits${toQuery({ ...f, pageSize: 25 })}`),
+      placeholderData: keepPreviousData,
+    }),
+  queue: (f: QueueFilters) =>
+    queryOptions({
+      queryKey: ['credits', 'queue', f],
+      queryFn: () => api<QueuePage>(`/credits/queue${toQuery({ ...f, pageSize: 50 })}`),
+      placeholderData: keepPreviousData,
+    }),
+  balances: () =>
+    queryOptions({
+      queryKey: ['credits', 'balances'],
+      queryFn: () => api<{ items: BalanceDto[] }>('/credits/balances'),
+    }),
+  cost: (f: { from?: string; to?: string }) =>
+    queryOptions({
+      queryKey: ['credits', 'cost', f],
+      queryFn: () => api<WarrantyCostDto>(`/credits/cost${toQuery(f)}`),
+    }),
+};
+
+export const creditPdfUrl = (id: string) => `/api/credits/${encodeURIComponent(id)}/pdf`;
+export const creditExportUrl = (from: string, to: string) => `/api/credits/export${toQuery({ from, to })}`;
