@@ -19,6 +19,7 @@ import {
 } from '../support/catalogue-factories';
 import { createDraft, daysAgo, goodClaimFields } from '../support/claim-factories';
 import { createOrganization, createUser, signIn, TEST_PASSWORD } from '../support/factories';
+import { createApprovedClaim } from '../support/credit-factories';
 import { createClaimAt, createReviewWorld, type ReviewWorld } from '../support/review-factories';
 import { pngImage } from '../support/upload-fixtures';
 import { Claim } from '../../server/db/entities/claim.entity';
@@ -73,6 +74,8 @@ type World = {
   letterDocId: string;
   answeredId: string;
   answerFileId: string;
+  /** A credit memo issued for an approved claim. */
+  memoId: string;
 };
 
 type Params = Record<string, string>;
@@ -94,7 +97,9 @@ type Entry = {
   target?: (w: World, actor: Actor) => Params | Promise<Params>;
   /** A valid body, so that validation never hides the authorisation answer. */
   body?: (c: Ctx) => unknown;
-  query?: string;
+  query?: string | ((c: Ctx) => string);
+  /** The actors refused by role are refused before any record is looked up: the same answer whatever the record. */
+  roleCheckFirst?: boolean;
   /** Use a new session for every case (the route ends or replaces it). */
   freshSession?: boolean;
   /** Why an allowed actor still gets 409/422 here. */
@@ -103,6 +108,8 @@ type Entry = {
   fixed?: string[];
   /** What an own first id with the other world's second id answers, where not the usual (404 once past the check). */
   crossed?: number;
+  /** Request headers beyond the session (an Idempotency-Key). */
+  headers?: () => Record<string, string>;
   /** A multipart upload instead of a JSON body. */
   upload?: () => Promise<{ purpose: string; file: Buffer; filename: string }>;
   /** The body names a record (no route parameter): also send it naming the other world's record. */
@@ -165,11 +172,36 @@ const photoUpload = async () => ({
   filename: 'matrix.png',
 });
 
-const claimAt = async (w: World, stage: Stage) =>
-  (await createClaimAt(t.ds, w.review, stage, { reviewerId: w.users.reviewer.id })).id;
+// createClaimAt numbers every claim in June 2025 (5 random symbols): with thousands in the test database a
+// number is sometimes taken; draw again.
+async function claimAt(w: World, stage: Stage): Promise<string> {
+  for (let attempt = 0; ; attempt++) {
+    try {
+      return (await createClaimAt(t.ds, w.review, stage, { reviewerId: w.users.reviewer.id })).id;
+    } catch (err) {
+      if (attempt > 4 || !String((err as Error).message).includes('uq_claims_number')) throw err;
+    }
+  }
+}
 const creditOf = async (id: string) =>
   (await t.ds.getRepository(Claim).findOneBy({ id }))?.expectedCredit ?? '96.00';
 const PNG_BASE64 = async () => (await pngImage(32, 24)).toString('base64');
+
+const approvedClaim = async (w: World) =>
+  (await createApprovedClaim(t.ds, { manufacturer: w.m, contractor: w.c, amount: '73.41' })).id;
+async function newMemo(w: World) {
+  const accountant = await signIn(t.request(), w.users.accountant.email);
+  const claimId = await approvedClaim(w);
+  const r = await accountant
+    .post(`/api/claims/${claimId}/credits`)
+    .set('Idempotency-Key', crypto.randomUUID())
+    .send({});
+  if (r.status !== 201) throw new Error(`credit fixture: ${r.status} ${JSON.stringify(r.body)}`);
+  return r.body.creditMemo.id as string;
+}
+// Credit memos: the two parties' to read (the contractor's accountants-to-be and the manufacturer's
+// accountant); only the accountant issues, voids, lists the queue and exports.
+const MEMO_READERS = members([...CONTRACTORS, 'accountant'], 200);
 
 /** One variant per move: a fresh claim at a stage where the move is legal, and a valid body for it. */
 function move(
@@ -512,6 +544,43 @@ const ROUTES: Record<string, Entry> = {
   'GET /api/review/queue': { ok: REVIEWER },
   'GET /api/review/summary': { ok: REVIEWER },
 
+  // Credits: one memo per approved claim, by the manufacturer's accountant, with an Idempotency-Key.
+  'POST /api/claims/:id/credits': {
+    ok: { accountant: 201 },
+    target: async (w) => ({ id: await approvedClaim(w) }),
+    headers: () => ({ 'Idempotency-Key': crypto.randomUUID() }),
+    body: () => ({}),
+  },
+  'GET /api/credits': { ok: MEMO_READERS },
+  'GET /api/credits/queue': { ok: { accountant: 200 } },
+  'GET /api/credits/balances': { ok: MEMO_READERS },
+  'GET /api/credits/export': { ok: { accountant: 200 }, query: 'from=2025-01-01&to=2026-12-31' },
+  'GET /api/credits/cost': { ok: { accountant: 200 } },
+  'GET /api/credits/:id': { ok: MEMO_READERS, denied: 404, target: (w) => ({ id: w.memoId }) },
+  'GET /api/credits/:id/pdf': { ok: MEMO_READERS, denied: 404, target: (w) => ({ id: w.memoId }) },
+  'POST /api/credits/:id/void': {
+    ok: { accountant: 201 },
+    denied: { installer: 403, cAdmin: 403, reviewer: 404, mAdmin: 404 },
+    target: async (w) => ({ id: await newMemo(w) }),
+    body: () => ({ reason: 'Issued against the wrong account.' }),
+  },
+
+  // Reliability analytics for the manufacturer's reviewers and administrators; the reserve for its accountants.
+  // Per product model: another manufacturer's model is as missing as a made-up one.
+  ...Object.fromEntries(
+    ['life', 'failure-modes'].map((r) => [
+      `GET /api/analytics/${r}`,
+      {
+        ok: members(['reviewer', 'mAdmin'], 200),
+        query: (c: Ctx) => `productModelId=${c.world.product.id}`,
+        foreignBody: true,
+        roleCheckFirst: true,
+      } satisfies Entry,
+    ]),
+  ),
+  'GET /api/analytics/claims-ageing': { ok: members(['reviewer', 'mAdmin'], 200) },
+  'GET /api/reserve': { ok: members(['accountant', 'mAdmin'], 200) },
+
   // Bulk filing: the contractor's own batches only; anyone else's batch is as missing as a made-up one.
   'GET /api/claims/batches/template.csv': { ok: members(CONTRACTORS, 200) },
   'POST /api/claims/batches': {
@@ -585,6 +654,7 @@ async function buildWorld(): Promise<World> {
     letterDocId: '',
     answeredId: '',
     answerFileId: '',
+    memoId: '',
   };
   w.draftId = await newDraft(w);
   w.draftPhotoId = await newPhoto(w, w.draftId);
@@ -608,6 +678,7 @@ async function buildWorld(): Promise<World> {
   if (up.status !== 201)
     throw new Error(`conversation file fixture: ${up.status} ${JSON.stringify(up.body)}`);
   w.answerFileId = up.body.file.id;
+  w.memoId = await newMemo(w);
   const answered = await agent
     .post(`/api/claims/${w.answeredId}/actions/answer_info`)
     .send({ message: 'Here it is.', attachmentIds: [w.answerFileId] });
@@ -637,6 +708,7 @@ function expected(entry: Entry, route: string, actor: Actor, kase: Case): number
     return typeof d === 'number' ? d : (d[actor] ?? 403);
   };
   if (kase === 'own') return own();
+  if (entry.roleCheckFirst && actor !== 'anon' && entry.ok?.[actor] === undefined) return own();
   if (actor === 'anon' && entry.ok?.anon === undefined) return 401;
   const passes = (o: number) => o < 300 || o === 409 || o === 422;
   // Another record's id under one the actor may use: as missing as a made-up one (unless refused before it is looked up).
@@ -655,6 +727,7 @@ const auditCount = async () => Number((await t.ds.query('SELECT COUNT(*) AS n FR
 async function send(agent: supertest.Agent, method: string, url: string, entry: Entry, body: unknown) {
   const m = method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';
   const req = agent[m](url);
+  if (entry.headers) req.set(entry.headers());
   if (entry.upload) {
     const u = await entry.upload();
     return req.field('purpose', u.purpose).attach('file', u.file, u.filename);
@@ -736,9 +809,13 @@ describe('authorisation matrix', () => {
                   for (const n of entry.fixed) params[n] = own[n];
                 }
               }
+              const query =
+                typeof entry.query === 'function'
+                  ? entry.query({ actor, world, own: w1, params })
+                  : entry.query;
               const url =
                 r.path.replace(/:([A-Za-z]+)/g, (_m, n: string) => encodeURIComponent(params[n])) +
-                (entry.query ? `?${entry.query}` : '');
+                (query ? `?${query}` : '');
               const agent = entry.freshSession
                 ? actor === 'anon'
                   ? t.request()
