@@ -32,6 +32,7 @@ import { User } from '../../db/entities/user.entity';
 import { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-version.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
+import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict } from '../../lib/errors';
 import type { OutboxAttachment } from '../../db/entities/outbox-message.entity';
 import { enqueueEmail } from '../../lib/outbox';
@@ -465,6 +466,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         default:
           throw new AppError(409, 'claim.move_elsewhere', 'This move has its own route.');
       }
+      await crashPoint('claim.move.after_update', m);
 
       await recordAudit(m, actor, {
         action: def.audit,
@@ -474,6 +476,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         before,
         after: { stage: moved.stage, version: moved.version, waitingOn: moved.waitingOn, ...after },
       });
+      await crashPoint('claim.move.before_commit', m);
       const fresh = await m.findOneByOrFail(Claim, { id: claim.id });
       return { claim: fresh, to: moved.stage };
     });

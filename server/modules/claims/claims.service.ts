@@ -22,6 +22,7 @@ import type { Installation } from '../../db/entities/installation.entity';
 import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
+import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict } from '../../lib/errors';
 import { changedFields } from '../../lib/history';
 import { enqueueEmail } from '../../lib/outbox';
@@ -326,6 +327,7 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
             throw err;
           }
         }
+        await crashPoint('claim.file.after_update', m);
         await recordAudit(m, actor, {
           action: 'claim.filed',
           entityType: 'Claim',
@@ -352,6 +354,7 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
         if (!reviewers.length) reviewers = await recipientsOf(m, c.manufacturerId, 'administrator');
         if (reviewers.length) await enqueueEmail(m, { to: reviewers.map((r) => r.email), template: 'claim-filed-manufacturer', view });
         await enqueueEmail(m, { to: [user.email], template: 'claim-filed-confirmation', view: { ...view, name: user.name } });
+        await crashPoint('claim.file.before_commit', m);
         return { id: claimId, replayed: false };
       });
     },

@@ -18,6 +18,7 @@ import { clock } from '../../lib/clock';
 import { AppError, conflict } from '../../lib/errors';
 import { retryOnDeadlock, runIdempotent, type IdempotentAnswer } from '../../lib/idempotency';
 import { enqueueEmail } from '../../lib/outbox';
+import { crashPoint } from '../../lib/crash-point';
 import { renderCreditMemo, type CreditMemoData } from '../../lib/pdf/credit-memo';
 import { paperFor } from '../../lib/pdf/document';
 import { sha256Hex } from '../../lib/pdf/hash';
@@ -187,6 +188,7 @@ export function createCreditsService(
             issuedAt: now,
           });
           await pauseForCrashTest(m);
+          await crashPoint('credit.issue.after_memo', m);
           await m.insert(LedgerEntry, {
             contractorId: claim.contractorId,
             manufacturerId: claim.manufacturerId,
@@ -255,6 +257,7 @@ export function createCreditsService(
               ],
             });
           }
+          await crashPoint('credit.issue.before_commit', m);
           return {
             status: 201,
             body: {
