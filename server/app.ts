@@ -10,6 +10,7 @@ import { createSessionStore, sessionMiddleware } from './auth/session';
 import type { AppConfig } from './config/env';
 import type { AppContext } from './context';
 import type { AppDataSource } from './db/data-source';
+import { armCrashPoint } from './lib/crash-point';
 import { AppError } from './lib/errors';
 import type { Logger } from './lib/logger';
 import { createStorage, type Storage } from './lib/storage';
@@ -53,6 +54,7 @@ export function createApp(opts: CreateAppOptions): App {
   const app = express() as App;
   const base = config.publicUrl ?? `http://${config.host}:${config.port}`;
   const storage = opts.storage ?? createStorage(config);
+  armCrashPoint(config.testCrashPoint);
   const ctx: AppContext = { config, ds, logger, storage, publicUrl: (p) => new URL(p, base).toString() };
 
   app.disable('x-powered-by');

@@ -8,6 +8,8 @@ const bool = z
 
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  /** Tests only (NODE_ENV=test): the named crash point (server/lib/crash-point.ts) where the server waits to be killed. */
+  TEST_CRASH_POINT: z.string().regex(/^[a-z0-9_.]+$/).optional(),
   APP_MODE: z.enum(['demo', 'production']).optional(),
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
@@ -39,6 +41,8 @@ const envSchema = z.object({
 
 export type AppConfig = {
   env: 'development' | 'test' | 'production';
+  /** null unless NODE_ENV=test arms a crash point. */
+  testCrashPoint: string | null;
   mode: 'demo' | 'production';
   host: string;
   port: number;
@@ -80,6 +84,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
   const dataDir = path.resolve(e.DATA_DIR);
   return {
     env: e.NODE_ENV,
+    testCrashPoint: e.NODE_ENV === 'test' ? (e.TEST_CRASH_POINT ?? null) : null,
     mode,
     host: e.HOST,
     port: e.PORT,

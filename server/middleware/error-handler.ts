@@ -31,6 +31,13 @@ export const errorHandler: ErrorRequestHandler = (err: HttpishError, req, res, _
   } else if ((err.status ?? err.statusCode) && (err.status ?? err.statusCode)! < 500 && err.expose) {
     status = (err.status ?? err.statusCode)!;
     body = { code: 'request.invalid', message: err.message };
+  } else if ((err.status ?? err.statusCode) && (err.status ?? err.statusCode)! < 500) {
+    // A 4xx whose message is not for the client: a missing static file, whose message names a path on disk.
+    status = (err.status ?? err.statusCode)!;
+    body =
+      status === 404
+        ? { code: 'route.not_found', message: 'There is nothing at this address.' }
+        : { code: 'request.invalid', message: 'The request was refused.' };
   } else {
     body = { code: 'internal', message: 'Something went wrong on our side. It has been logged.', requestId: String(req.id) };
   }

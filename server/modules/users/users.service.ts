@@ -7,6 +7,7 @@ import { Invitation } from '../../db/entities/invitation.entity';
 import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
+import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict } from '../../lib/errors';
 import { enqueueEmail } from '../../lib/outbox';
 import { likeContains, parseSort } from '../../lib/pagination';
@@ -70,6 +71,7 @@ export function createUsersService(ds: AppDataSource, opts: { publicUrl: (path: 
           passwordHash: null,
         });
         await m.save(user);
+        await crashPoint('user.invite.after_user', m);
         await m.insert(Invitation, {
           userId: user.id,
           tokenHash: hashToken(token),
@@ -90,6 +92,7 @@ export function createUsersService(ds: AppDataSource, opts: { publicUrl: (path: 
             expiresOn: expiresAt.toISOString().slice(0, 10),
           },
         });
+        await crashPoint('user.invite.before_commit', m);
         return { user, token };
       });
     },

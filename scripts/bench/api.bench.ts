@@ -1,0 +1,208 @@
+// npm run bench:api
+// On the benchmarks' own database (scripts/bench/generate-claims.ts fills it when empty): the list (50 rows, a
+// filter and a sort) through the real API on 127.0.0.1 beside the raw mysql2 query returning the same rows, in
+// the same run (medians and their ratio; aim: the API within 2x); then throughput and latency with 16
+// concurrent keep-alive connections for the list and a record's page (aim: 400 req/s, p99 under 100 ms).
+// Bounded: BENCH_LOAD_SECONDS (10) per load run, BENCH_ROUNDS (100) per median. Asserts nothing.
+import type { AddressInfo } from 'node:net';
+import mysql from 'mysql2/promise';
+import { createApp } from '../../server/app';
+import { loadConfig } from '../../server/config/env';
+import { createLogger } from '../../server/lib/logger';
+import { BENCH_PASSWORD, benchEmail, generate } from './generate-claims';
+import { hasTable, openBenchDb, report } from './lib/bench-db';
+import { median, runLoad } from './lib/load';
+
+const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 10);
+const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 100);
+const CONNECTIONS = 16;
+
+type Target = {
+  name: string;
+  /** The list through the API. */
+  listPath: string;
+  /** The same page by hand: the rows and the total. */
+  raw: (conn: mysql.Connection) => Promise<unknown[]>;
+  /** A record's page through the API, cycling through these ids. */
+  detailPath: (id: string) => string;
+  ids: string[];
+};
+
+async function signIn(base: string, email: string) {
+  const r = await fetch(`${base}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password: BENCH_PASSWORD }),
+  });
+  if (r.status !== 200) throw new Error(`sign-in of ${email}: ${r.status} ${await r.text()}`);
+  return r.headers.get('set-cookie')!.split(';')[0];
+}
+
+async function main() {
+  const bench = await openBenchDb({ reset: false });
+  const conn = await mysql.createConnection({ uri: bench.url, dateStrings: false });
+  const server = await (async () => {
+    const [{ n }] = (await bench.ds.query('SELECT COUNT(*) AS n FROM installations')) as { n: string }[];
+    if (Number(n) === 0) {
+      console.log('the bench database is empty: generating (BENCH_CLAIMS claims) first');
+      await generate(bench.ds, { claims: Number(process.env.BENCH_CLAIMS ?? 100_000) });
+    }
+    const config = loadConfig({
+      NODE_ENV: 'test',
+      APP_MODE: 'production',
+      LOG_LEVEL: 'silent',
+      DATA_DIR: '.data/bench',
+      OUTBOX_WORKER: 'false',
+    });
+    const app = createApp({ config, ds: bench.ds, logger: createLogger('silent'), databaseUrl: bench.url });
+    const s = app.listen(0, '127.0.0.1');
+    await new Promise((r) => s.once('listening', r));
+    return { s, app };
+  })();
+  const base = `http://127.0.0.1:${(server.s.address() as AddressInfo).port}`;
+  try {
+    const [mfr] = (await bench.ds.query("SELECT id FROM organizations WHERE name = 'Bench Lighting 0'")) as {
+      id: string;
+    }[];
+    const cookie = await signIn(base, benchEmail('m', 0, 'reviewer'));
+    const targets: Target[] = [];
+    if (
+      (await hasTable(bench.ds, 'claims')) &&
+      (await fetch(`${base}/api/claims?pageSize=1`, { headers: { cookie } })).status === 200
+    ) {
+      targets.push(await claimsTarget(bench.ds, mfr.id));
+    }
+    targets.push(await installationsTarget(bench.ds, mfr.id));
+
+    for (const tg of targets) {
+      const apiMs: number[] = [];
+      const rawMs: number[] = [];
+      let apiRows = 0;
+      let rawRows = 0;
+      for (let i = 0; i < ROUNDS + 10; i++) {
+        let t0 = performance.now();
+        const r = await fetch(`${base}${tg.listPath}`, { headers: { cookie } });
+        const body = (await r.json()) as { items: unknown[] };
+        if (r.status !== 200) throw new Error(`${tg.listPath}: ${r.status} ${JSON.stringify(body)}`);
+        const a = performance.now() - t0;
+        t0 = performance.now();
+        const rows = await tg.raw(conn);
+        const b = performance.now() - t0;
+        if (i >= 10) {
+          apiMs.push(a);
+          rawMs.push(b);
+        }
+        apiRows = body.items.length;
+        rawRows = rows.length;
+      }
+      const api = median(apiMs);
+      const raw = median(rawMs);
+      console.log(
+        `${tg.name} list (${apiRows} rows through the API, ${rawRows} by hand): API median ${api.toFixed(2)} ms, raw mysql2 ${raw.toFixed(2)} ms, ${(api / raw).toFixed(2)}x (aim: within 2x)`,
+      );
+      report({
+        part: 'api',
+        figure: `${tg.name} list, API median (50 rows, filter + sort)`,
+        value: api,
+        unit: 'ms',
+        baseline: raw,
+        aim: 'within 2x of raw',
+      });
+      report({
+        part: 'api',
+        figure: `${tg.name} list, raw mysql2 median (same rows)`,
+        value: raw,
+        unit: 'ms',
+      });
+
+      for (const [what, path] of [
+        ['list', () => tg.listPath],
+        ['page', (n: number) => tg.detailPath(tg.ids[n % tg.ids.length])],
+      ] as const) {
+        const res = await runLoad({
+          base,
+          path,
+          headers: { cookie },
+          connections: CONNECTIONS,
+          seconds: SECONDS,
+        });
+        console.log(
+          `${tg.name} ${what} at ${CONNECTIONS} connections for ${res.seconds.toFixed(1)} s: ${res.perSecond.toFixed(0)} req/s, p50 ${res.p50.toFixed(1)} ms, p99 ${res.p99.toFixed(1)} ms, ${res.errors} errors of ${res.requests}`,
+        );
+        report({
+          part: 'load',
+          figure: `${tg.name} ${what}, ${CONNECTIONS} connections`,
+          value: res.perSecond,
+          unit: 'req/s',
+          aim: '400 req/s',
+        });
+        report({ part: 'load', figure: `${tg.name} ${what}, p50`, value: res.p50, unit: 'ms' });
+        report({
+          part: 'load',
+          figure: `${tg.name} ${what}, p99`,
+          value: res.p99,
+          unit: 'ms',
+          aim: 'under 100 ms',
+        });
+        report({
+          part: 'load',
+          figure: `${tg.name} ${what}, errors`,
+          value: res.errors,
+          unit: `of ${res.requests}`,
+        });
+      }
+    }
+  } finally {
+    await new Promise((r) => server.s.close(r));
+    await server.app.close();
+    await conn.end();
+    await bench.close();
+  }
+}
+
+/** Installations of one manufacturer's products in damp locations, newest installed first. */
+async function installationsTarget(
+  ds: { query: (s: string, p?: unknown[]) => Promise<unknown> },
+  mfrId: string,
+): Promise<Target> {
+  const ids = (
+    (await ds.query('SELECT id FROM installations WHERE manufacturer_id = ? LIMIT 500', [mfrId])) as {
+      id: string;
+    }[]
+  ).map((r) => r.id);
+  return {
+    name: 'installations',
+    listPath: '/api/installations?page=1&pageSize=50&sort=-installDate&location=damp',
+    detailPath: (id) => `/api/installations/${id}`,
+    ids,
+    async raw(conn) {
+      const [rows] = await conn.query(
+        `SELECT i.*, p.model_number, p.name AS product_name, c.name AS contractor_name, m.name AS manufacturer_name, v.version_number, pol.name AS policy_name
+           FROM installations i
+           JOIN product_models p ON p.id = i.product_model_id
+           JOIN organizations c ON c.id = i.contractor_id
+           JOIN organizations m ON m.id = i.manufacturer_id
+           LEFT JOIN warranty_policy_versions v ON v.id = i.policy_version_id
+           LEFT JOIN warranty_policies pol ON pol.id = v.policy_id
+          WHERE i.manufacturer_id = ? AND i.location = 'damp'
+          ORDER BY i.install_date DESC, i.id ASC LIMIT 50 OFFSET 0`,
+        [mfrId],
+      );
+      await conn.query(
+        "SELECT COUNT(*) AS n FROM installations i WHERE i.manufacturer_id = ? AND i.location = 'damp'",
+        [mfrId],
+      );
+      return rows as unknown[];
+    },
+  };
+}
+
+// Replaced by the claims list once the claims feature is on main.
+async function claimsTarget(_ds: unknown, _mfrId: string): Promise<Target> {
+  throw new Error('claims bench target not written yet');
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});
