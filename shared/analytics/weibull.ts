@@ -13,6 +13,9 @@
 import { gamma } from './gamma';
 
 /** A time (any positive unit: months, hours) and how many units share it. */
+/** Failure times whose logarithms agree within this step count as one time. */
+const DISTINCT_LOG_STEP = 1e-9;
+
 export interface LifeGroup {
   time: number;
   count: number;
@@ -155,7 +158,7 @@ function prepare(data: LifeData): Prepared {
         failureLogs[i] = log;
         failureCounts[i] = count;
         failures += count;
-        distinct.add(log);
+        distinct.add(Math.round(log / DISTINCT_LOG_STEP));
       }
       allLogs[used] = log;
       allCounts[used] = count;
@@ -163,7 +166,8 @@ function prepare(data: LifeData): Prepared {
       if (log > maxLog) maxLog = log;
     }
   }
-  // Distinct after taking logs: two times a few ulps apart can share a logarithm, and then nothing can be fitted.
+  // Distinct to a relative precision of 1e-9: times closer than that are one time as far as a fit can tell (their
+  // logarithms agree to rounding), and a regression through them would be vertical.
   if (distinct.size < 2) {
     return {
       ok: false,

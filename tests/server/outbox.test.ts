@@ -38,8 +38,11 @@ describe('the e-mail outbox', () => {
     ).rejects.toThrow('the change failed');
 
     const transport = createTransport(t.config);
-    await deliverDue(t.ds, transport, { from: t.config.smtp.from, batch: 100 });
-    await deliverDue(t.ds, transport, { from: t.config.smtp.from, batch: 100 });
+    // Other tests (and the demo seed) leave messages queued before ours: deliver until the queue is empty.
+    for (let i = 0; i < 100; i++) {
+      const r = await deliverDue(t.ds, transport, { from: t.config.smtp.from, batch: 100 });
+      if (r.claimed === 0) break;
+    }
     transport.close();
     expect(smtp.received.filter((m) => m.to.includes(kept))).toHaveLength(1);
     expect(smtp.received.filter((m) => m.to.includes(dropped))).toHaveLength(0);
