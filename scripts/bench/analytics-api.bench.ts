@@ -42,8 +42,13 @@ async function main() {
   const app = createApp({ config, ds, logger: createLogger('silent'), databaseUrl: url });
   try {
     const agent = supertest.agent(app);
-    const login = await agent.post('/api/auth/login').send({ email: 'rhea@aldercrest.test', password: DEMO_PASSWORD });
-    if (login.status !== 200) throw new Error('Sign-in failed: load the demo (npm start) and the large demo (npm run demo:large) first.');
+    const login = await agent
+      .post('/api/auth/login')
+      .send({ email: 'rhea@aldercrest.test', password: DEMO_PASSWORD });
+    if (login.status !== 200)
+      throw new Error(
+        'Sign-in failed: load the demo (npm start) and the large demo (npm run demo:large) first.',
+      );
     const accountant = supertest.agent(app);
     await accountant.post('/api/auth/login').send({ email: 'ada@aldercrest.test', password: DEMO_PASSWORD });
     const mfr = login.body.user.organization.id as string;
@@ -54,11 +59,23 @@ async function main() {
     );
     const service = createAnalyticsService(ds);
     const asOf = new Date().toISOString().slice(0, 10);
-    console.log(`Aldercrest on this database: ${Number(units).toLocaleString('en-US')} installed units, ${Number(claims).toLocaleString('en-US')} claims; ${RUNS} runs each, medians.\n`);
+    console.log(
+      `Aldercrest on this database: ${Number(units).toLocaleString('en-US')} installed units, ${Number(claims).toLocaleString('en-US')} claims; ${RUNS} runs each, medians.\n`,
+    );
 
     const cases = [
-      { name: 'life, one model, months', path: `/api/analytics/life?productModelId=${model.id}&ageUnit=months`, pop: { kind: 'model' as const, productModelId: model.id, label: '' }, unit: 'months' as const },
-      { name: 'life, high-bay family, hours', path: '/api/analytics/life?family=high_bay&ageUnit=hours', pop: { kind: 'family' as const, family: 'high_bay' as const, label: '' }, unit: 'hours' as const },
+      {
+        name: 'life, one model, months',
+        path: `/api/analytics/life?productModelId=${model.id}&ageUnit=months`,
+        pop: { kind: 'model' as const, productModelId: model.id, label: '' },
+        unit: 'months' as const,
+      },
+      {
+        name: 'life, high-bay family, hours',
+        path: '/api/analytics/life?family=high_bay&ageUnit=hours',
+        pop: { kind: 'family' as const, family: 'high_bay' as const, label: '' },
+        unit: 'hours' as const,
+      },
     ];
     const rows: string[][] = [];
     for (const c of cases) {
@@ -69,16 +86,42 @@ async function main() {
         const r = await agent.get(c.path);
         if (r.status !== 200) throw new Error(`${c.path}: ${r.status}`);
       });
-      rows.push([c.name, `${life.units.toLocaleString('en-US')} units, ${(life.failures.length + life.suspensions.length).toLocaleString('en-US')} groups`, endpoint.toFixed(1), query.toFixed(1), fit.toFixed(2), (endpoint / query).toFixed(2)]);
+      rows.push([
+        c.name,
+        `${life.units.toLocaleString('en-US')} units, ${(life.failures.length + life.suspensions.length).toLocaleString('en-US')} groups`,
+        endpoint.toFixed(1),
+        query.toFixed(1),
+        fit.toFixed(2),
+        (endpoint / query).toFixed(2),
+      ]);
     }
-    const reserveQuery = await median(() => Promise.all([service.lifeDataByModel(mfr, { asOf, midpoint: true }), service.reserveCohorts(mfr, asOf)]));
+    const reserveQuery = await median(() =>
+      Promise.all([
+        service.lifeDataByModel(mfr, { asOf, midpoint: true }),
+        service.reserveCohorts(mfr, asOf),
+      ]),
+    );
     const reserve = await median(async () => {
       const r = await accountant.get('/api/reserve');
       if (r.status !== 200) throw new Error(`reserve: ${r.status}`);
     });
-    rows.push(['reserve, 12 months', 'all models', reserve.toFixed(1), reserveQuery.toFixed(1), '-', (reserve / reserveQuery).toFixed(2)]);
+    rows.push([
+      'reserve, 12 months',
+      'all models',
+      reserve.toFixed(1),
+      reserveQuery.toFixed(1),
+      '-',
+      (reserve / reserveQuery).toFixed(2),
+    ]);
 
-    const head = ['case', 'data', 'endpoint ms', 'GROUP BY query ms (baseline)', 'fit ms', 'ratio endpoint/query'];
+    const head = [
+      'case',
+      'data',
+      'endpoint ms',
+      'GROUP BY query ms (baseline)',
+      'fit ms',
+      'ratio endpoint/query',
+    ];
     const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
     const line = (r: string[]) => r.map((c, i) => c.padEnd(widths[i])).join('  ');
     console.log(line(head));

@@ -197,9 +197,43 @@ async function installationsTarget(
   };
 }
 
-// Replaced by the claims list once the claims feature is on main.
-async function claimsTarget(_ds: unknown, _mfrId: string): Promise<Target> {
-  throw new Error('claims bench target not written yet');
+/** The manufacturer's claims waiting on them in review, newest filed first (what the claims list screen asks). */
+async function claimsTarget(
+  ds: { query: (s: string, p?: unknown[]) => Promise<unknown> },
+  mfrId: string,
+): Promise<Target> {
+  const ids = (
+    (await ds.query("SELECT id FROM claims WHERE manufacturer_id = ? AND stage <> 'draft' LIMIT 500", [
+      mfrId,
+    ])) as { id: string }[]
+  ).map((r) => r.id);
+  return {
+    name: 'claims',
+    listPath: '/api/claims?page=1&pageSize=50&sort=-filedAt&stage=in_review',
+    detailPath: (id) => `/api/claims/${id}`,
+    ids,
+    async raw(conn) {
+      const [rows] = await conn.query(
+        `SELECT c.id, c.number, c.stage, c.waiting_on, c.contractor_id, c.manufacturer_id, c.installation_id, c.product_model_id, c.serials, c.units,
+                c.failed_on, c.filed_at, c.stage_changed_at, c.verdict, c.engine_version, c.expected_credit, c.currency, c.created_at, c.updated_at,
+                c.version, co.name AS contractor_name, mo.name AS manufacturer_name, p.model_number, p.name AS product_name, p.family,
+                i.site_name, i.site_city
+           FROM claims c
+           JOIN organizations co ON co.id = c.contractor_id
+           JOIN organizations mo ON mo.id = c.manufacturer_id
+           JOIN product_models p ON p.id = c.product_model_id
+           JOIN installations i ON i.id = c.installation_id
+          WHERE c.manufacturer_id = ? AND c.stage <> 'draft' AND c.stage IN ('in_review')
+          ORDER BY c.filed_at DESC, c.id ASC LIMIT 50 OFFSET 0`,
+        [mfrId],
+      );
+      await conn.query(
+        "SELECT COUNT(*) AS n FROM claims c WHERE c.manufacturer_id = ? AND c.stage <> 'draft' AND c.stage IN ('in_review')",
+        [mfrId],
+      );
+      return rows as unknown[];
+    },
+  };
 }
 
 main().catch((err) => {

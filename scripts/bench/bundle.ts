@@ -9,7 +9,9 @@ type Chunk = { file: string; imports?: string[]; css?: string[] };
 const dist = path.resolve('dist');
 
 export function routeBytes(routeModules: string[]) {
-  const manifest: Record<string, Chunk> = JSON.parse(fs.readFileSync(path.join(dist, '.vite/manifest.json'), 'utf8'));
+  const manifest: Record<string, Chunk> = JSON.parse(
+    fs.readFileSync(path.join(dist, '.vite/manifest.json'), 'utf8'),
+  );
   const seen = new Set<string>();
   const visit = (key: string) => {
     if (seen.has(key) || !manifest[key]) return;
@@ -40,7 +42,14 @@ function main() {
   for (const [name, mods] of ROUTES) {
     const r = routeBytes(mods);
     const aim = name === 'sign-in' ? (r.gzip < 150 * 1024 ? 'under 150 KB: met' : 'over 150 KB') : '';
-    console.log(name.padEnd(34), String(r.chunks).padStart(6), kb(r.raw).padStart(10), kb(r.gzip).padStart(10), ' ', aim);
+    console.log(
+      name.padEnd(34),
+      String(r.chunks).padStart(6),
+      kb(r.raw).padStart(10),
+      kb(r.gzip).padStart(10),
+      ' ',
+      aim,
+    );
   }
 }
 

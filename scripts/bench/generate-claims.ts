@@ -222,21 +222,120 @@ export async function generate(ds: AppDataSource, opts: { claims: number }): Pro
   return { manufacturers: MANUFACTURERS, contractors: CONTRACTORS, installations: installationCount, claims };
 }
 
-// Filled in once the claims table exists on main (see the claims feature).
+const STAGES = [
+  'draft',
+  'filed',
+  'in_review',
+  'needs_info',
+  'return_requested',
+  'unit_received',
+  'approved',
+  'denied',
+  'credited',
+  'closed',
+  'withdrawn',
+];
+const WAITING: Record<string, string | null> = {
+  draft: 'contractor',
+  filed: 'manufacturer',
+  in_review: 'manufacturer',
+  needs_info: 'contractor',
+  return_requested: 'contractor',
+  unit_received: 'manufacturer',
+  approved: 'manufacturer',
+  denied: null,
+  credited: null,
+  closed: null,
+  withdrawn: null,
+};
+const NUMBER_ALPHABET = '23456789ABCDEFGHJKMNPQRSTWXYZ';
+
+/** Claims spread over every stage, with numbers, verdicts and amounts; 1,000 rows a statement. */
 async function generateClaims(
-  _ds: AppDataSource,
-  _n: number,
-  _installations: {
+  ds: AppDataSource,
+  n: number,
+  installations: {
     id: string;
     contractorId: string;
     manufacturerId: string;
     productId: string;
     installMs: number;
   }[],
-  _rand: () => number,
-  _now: number,
+  rand: () => number,
+  now: number,
 ): Promise<number> {
-  return 0;
+  const cols = [
+    'id',
+    'number',
+    'contractor_id',
+    'manufacturer_id',
+    'installation_id',
+    'product_model_id',
+    'stage',
+    'stage_changed_at',
+    'waiting_on',
+    'units',
+    'serials',
+    'failed_on',
+    'symptoms',
+    'measurements',
+    'observations',
+    'narrative',
+    'verdict',
+    'expected_credit',
+    'currency',
+    'filed_at',
+    'created_at',
+    'updated_at',
+    'version',
+  ];
+  const verdicts = ['covered', 'covered', 'covered', 'review', 'excluded'];
+  const symptoms = ['["dark"]', '["partly_dark"]', '["cycling"]', '["flicker"]', '["dim"]'];
+  const used = new Set<string>();
+  const rows: unknown[][] = [];
+  for (let k = 0; k < n; k++) {
+    const inst = installations[Math.floor(rand() * installations.length)];
+    const stage = STAGES[Math.floor(rand() * STAGES.length)];
+    const filedMs = Math.min(now, inst.installMs + Math.floor(rand() * 3 * 365) * 86_400_000);
+    const d = new Date(filedMs);
+    let number: string | null = null;
+    if (stage !== 'draft') {
+      do {
+        let body = '';
+        for (let i = 0; i < 7; i++) body += NUMBER_ALPHABET[Math.floor(rand() * NUMBER_ALPHABET.length)];
+        number = `LP-${String(d.getUTCFullYear() % 100).padStart(2, '0')}${String(d.getUTCMonth() + 1).padStart(2, '0')}-${body.slice(0, 3)}-${body.slice(3)}`;
+      } while (used.has(number));
+      used.add(number);
+    }
+    rows.push([
+      crypto.randomUUID(),
+      number,
+      inst.contractorId,
+      inst.manufacturerId,
+      inst.id,
+      inst.productId,
+      stage,
+      stamp(filedMs),
+      WAITING[stage],
+      1 + (k % 3),
+      JSON.stringify([`SN-${k}`]),
+      iso(filedMs - 5 * 86_400_000),
+      symptoms[k % symptoms.length],
+      JSON.stringify({ supplyVolts: 270 + (k % 15), inputWatts: 20 + (k % 7) }),
+      '{}',
+      'Strings went dark on the east row.',
+      stage === 'draft' ? null : verdicts[k % verdicts.length],
+      stage === 'draft' ? null : (60 + (k % 40)).toFixed(2),
+      stage === 'draft' ? null : 'USD',
+      stage === 'draft' ? null : stamp(filedMs),
+      stamp(filedMs - 86_400_000),
+      stamp(filedMs),
+      1 + (k % 5),
+    ]);
+    if (rows.length === 1000) await insertRows(ds, 'claims', cols, rows.splice(0));
+  }
+  if (rows.length) await insertRows(ds, 'claims', cols, rows);
+  return n;
 }
 
 async function main() {
