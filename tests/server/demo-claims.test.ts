@@ -4,6 +4,7 @@ import { isValidClaimNumber } from '../../shared/claims/claim-number';
 import { CLAIM_STAGES } from '../../shared/schemas/claims';
 import { ENGINE_VERSION } from '../../shared/engine';
 import { seedDemo } from '../../server/db/seed/demo';
+import { createStorage } from '../../server/lib/storage';
 import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { Claim } from '../../server/db/entities/claim.entity';
 import { Organization } from '../../server/db/entities/organization.entity';
@@ -14,7 +15,7 @@ let claims: Claim[];
 let names: Map<string, string>;
 beforeAll(async () => {
   t = await createTestApp();
-  await seedDemo(t.ds, { onlyIfEmpty: false });
+  await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage: createStorage(t.config), config: t.config } });
   const orgs = await t.ds.getRepository(Organization).findBy({ name: In(['Aldercrest Lighting', 'Veltra Luminaires', 'Harborview Electric', 'Copperline Electrical']) });
   names = new Map(orgs.map((o) => [o.id, o.name]));
   claims = await t.ds.getRepository(Claim).findBy({ contractorId: In(orgs.map((o) => o.id)) });

@@ -32,9 +32,7 @@ it('the demo holds memos, a reversal, and at least five approved, not yet credit
     expect(memos.filter((m) => m.kind === 'credit').length).toBeGreaterThanOrEqual(2);
     for (const m of memos) expect(m.number).toMatch(MEMO_NUMBER_PATTERN);
     const report = await checkLedger(t.ds, { manufacturerId: mfr.id });
-    // Known gap: the claims demo writes some claims straight to `credited` with no memo (to be seeded through
-    // the credits service instead); every other check of the ledger holds.
-    expect(report.problems.filter((p) => !p.includes('is credited with 0 standing memos'))).toEqual([]);
+    expect(report.problems).toEqual([]);
   }
   const ald = await t.ds.getRepository(Organization).findOneByOrFail({ name: 'Aldercrest Lighting' });
   const reversals = await t.ds.getRepository(CreditMemo).findBy({ manufacturerId: ald.id, kind: 'reversal' });
