@@ -191,8 +191,5 @@ export function stageFor(
   if (age <= 20) return rand() < 0.25 ? { stage: 'needs_info', waitingOn: 'contractor', decidedOn: null } : { stage: 'in_review', waitingOn: 'manufacturer', decidedOn: null };
   if (verdict === 'excluded') return { stage: rand() < 0.7 ? 'denied' : 'closed', waitingOn: null, decidedOn };
   if (age <= 40) return { stage: 'approved', waitingOn: 'manufacturer', decidedOn };
-  // Older approvals were settled and closed before this history's credit memos were kept in Lumenproof: closed,
-  // not credited, so the ledger (one standing memo per credited claim) holds. The draw is kept for the sequence.
-  void rand();
-  return { stage: 'closed', waitingOn: null, decidedOn };
+  return { stage: verdict === 'covered' && rand() < 0.3 ? 'closed' : 'credited', waitingOn: null, decidedOn };
 }
