@@ -140,7 +140,7 @@ describe('the demo accounts', () => {
       const org = DEMO_ORGANIZATIONS.find((o) => o.key === account.org)!;
       expect(me.body.user).toMatchObject({ email: account.email, roles: account.roles, organization: { name: org.name, kind: org.kind } });
     }
-  });
+  }, 120_000); // loading the whole demo (its letters and memos too) on a busy machine
 });
 
 describe('the API spine', () => {
