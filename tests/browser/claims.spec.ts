@@ -9,6 +9,9 @@ test.describe('filing a claim on a phone', () => {
 
   test('an installer files a claim with two photos and finds it filed', async ({ page }) => {
     await signInAs(page, 'ines@harborview.test');
+    // The home with its open claims fits the phone: a page wider than 360 px would widen the layout viewport.
+    await expect(page.getByRole('list', { name: 'Open claims' })).toBeVisible();
+    expect(await page.evaluate(() => window.innerWidth)).toBe(PHONE.width);
     const list = await page.request.get('/api/installations?pageSize=100&sort=-installDate');
     type Inst = { id: string; siteName: string; serialCount: number; nominalSupplyVolts: number; installDate: string; policyVersion: unknown; location: string; enclosure: string };
     const inst = ((await list.json()).items as Inst[]).find(
@@ -50,6 +53,7 @@ test.describe('filing a claim on a phone', () => {
     await page.getByLabel('Take a photo').setInputFiles({ name: 'failure.jpg', mimeType: 'image/jpeg', buffer: await photo('#7d4a4a') });
     await expect(files.getByRole('link')).toHaveCount(2);
     expect(await hasNoHorizontalScroll(page)).toBe(true);
+    expect(await page.evaluate(() => window.innerWidth)).toBe(PHONE.width);
 
     await expect(page.getByRole('status').filter({ hasText: 'Saved' })).toBeVisible();
     await page.getByRole('button', { name: 'File claim' }).click();
@@ -62,5 +66,6 @@ test.describe('filing a claim on a phone', () => {
     await page.getByRole('button', { name: 'Search' }).click();
     await expect(page.getByRole('list', { name: 'Claims' }).getByRole('listitem')).toHaveCount(1);
     await expect(page.getByRole('list', { name: 'Claims' })).toContainText(number);
+    expect(await page.evaluate(() => window.innerWidth)).toBe(PHONE.width);
   });
 });
