@@ -18,12 +18,14 @@ import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { authRouter } from './modules/auth/auth.router';
+import { claimActionsRouter } from './modules/claim-actions/claim-actions.router';
 import { claimsRouter } from './modules/claims/claims.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
 import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
 import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
+import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
 import { usersRouter } from './modules/users/users.router';
@@ -104,6 +106,8 @@ export function createApp(opts: CreateAppOptions): App {
   // Spreadsheet imports carry a whole file (10,000 rows is about 2 MB); every other body stays small.
   api.use(['/products/import', '/installations/import'], express.json({ limit: '20mb', strict: true }));
   api.use('/claims/batches', express.json({ limit: '6mb', strict: true }));
+  // A conversation file travels as base64 JSON (at most 15 MB of file).
+  api.use('/claims/:id/conversation/files', express.json({ limit: '21mb', strict: true }));
   api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
   api.use(sessionMiddleware(config, sessionStore));
@@ -117,7 +121,10 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
   api.use('/installations', installationsRouter(ctx));
+  // The review workflow's routes first: they are specific paths under /:id; the claims router has the rest.
+  api.use('/claims', claimActionsRouter(ctx));
   api.use('/claims', claimsRouter(ctx));
+  api.use('/review', reviewRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
   api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));

@@ -5,6 +5,7 @@ import { loadConfig, type AppConfig } from './config/env';
 import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { startOutboxWorker } from './lib/outbox';
+import { createStorage } from './lib/storage';
 
 export async function startServer(config: AppConfig, databaseUrl: string) {
   const logger = createLogger(config.logLevel);
@@ -12,8 +13,12 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
   await ds.initialize();
   const pending = await ds.showMigrations();
   if (pending) throw new Error('The database has migrations still to run: run `npm run migrate` (npm start does it).');
-  const app = createApp({ config, ds, logger, databaseUrl, clientDir: path.resolve('dist') });
-  const worker = config.outboxWorker ? startOutboxWorker(ds, config, logger) : null;
+  const storage = createStorage(config);
+  const app = createApp({ config, ds, logger, databaseUrl, clientDir: path.resolve('dist'), storage });
+  // E-mail attachments (letters, packing slips) are read from the same storage the documents were written to.
+  const worker = config.outboxWorker
+    ? startOutboxWorker(ds, config, logger, { loadAttachment: (a) => storage.getBuffer(a.storageKey) })
+    : null;
 
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 passes the listen error (EADDRINUSE and the like) to the callback.

@@ -1,4 +1,4 @@
-import { ClipboardList, Home, Inbox, Lightbulb, MapPin, Users, type LucideIcon } from 'lucide-react';
+import { ClipboardCheck, ClipboardList, Home, Inbox, Lightbulb, MapPin, Users, type LucideIcon } from 'lucide-react';
 import type { AppAbility } from '../../shared/abilities';
 
 export type NavItem = { to: string; label: string; icon: LucideIcon; end?: boolean };
@@ -9,6 +9,7 @@ export function navFor(ability: AppAbility): NavItem[] {
   if (ability.can('read', 'Claim')) items.push({ to: '/claims', label: 'Claims', icon: ClipboardList });
   if (ability.can('read', 'ProductModel')) items.push({ to: '/catalogue', label: 'Catalogue', icon: Lightbulb });
   if (ability.can('read', 'Installation')) items.push({ to: '/installations', label: 'Sites', icon: MapPin });
+  if (ability.can('review', 'Claim')) items.push({ to: '/review', label: 'Review desk', icon: ClipboardCheck });
   if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });
   if (ability.can('read', 'Mailbox')) items.push({ to: '/admin/mailbox', label: 'Mailbox', icon: Inbox });
   return items;

@@ -9,10 +9,9 @@ describe('navigation by role', () => {
   it('shows each role only what it may do', () => {
     const labels = (roles: Role[], kind: OrganizationKind, demoMode = true) =>
       navFor(defineAbilityFor(user(roles, kind), { demoMode })).map((i) => i.label);
-    // Everyone sees their organisation's claims and browses the catalogue; installations ("Sites") are scoped to
-    // one's own organisation.
+    // Everyone browses the catalogue; installations ("Sites") are scoped to one's own organisation.
     expect(labels(['installer'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites']);
-    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites']);
+    expect(labels(['reviewer'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'Review desk']);
     expect(labels(['accountant'], 'manufacturer')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites']);
     expect(labels(['administrator'], 'contractor')).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'People', 'Mailbox']);
     expect(labels(['administrator'], 'manufacturer', false)).toEqual(['Home', 'Claims', 'Catalogue', 'Sites', 'People']);

@@ -594,6 +594,32 @@ describe('the service on its own', () => {
     expect(await rowsOf(org.id)).toHaveLength(0);
   });
 
+  it('lets exactly as many simultaneous uploads through as the limit has room for', async () => {
+    const org = await createOrganization(t.ds, 'contractor');
+    const user = await createUser(t.ds, org, ['installer']);
+    const owner = { type: OWNER_TYPE, id: org.id };
+    const png = await pngImage(16, 16);
+    const one = (i: number) =>
+      saveAttachment(svc(), {
+        owner,
+        uploader: user,
+        purpose: 'site',
+        file: { buffer: png, originalname: `p${i}.png` },
+      });
+    for (let i = 0; i < 18; i++) await one(i);
+    const before = listFiles(storageDir).length;
+    const results = await Promise.allSettled([18, 19, 20, 21].map(one));
+    expect(results.filter((r) => r.status === 'fulfilled')).toHaveLength(2);
+    const refusals = results.filter((r): r is PromiseRejectedResult => r.status === 'rejected');
+    expect(refusals.map((r) => r.reason.code)).toEqual([
+      'attachment.limit_reached',
+      'attachment.limit_reached',
+    ]);
+    expect(await rowsOf(org.id)).toHaveLength(20);
+    // Two new photos, each with its thumbnail; the refused ones left nothing.
+    expect(listFiles(storageDir).length).toBe(before + 4);
+  });
+
   it("keeps a draft's files apart per uploader and hands them to the owner once it exists", async () => {
     const org = await createOrganization(t.ds, 'contractor');
     const a = await createUser(t.ds, org, ['installer']);

@@ -28,6 +28,14 @@ import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 @Index('ix_claims_installation', ['installationId'])
 @Index('ix_claims_batch', ['batchId'])
 @Index('ix_claims_reviewer', ['assignedReviewerId', 'stage'])
+// The reviewer's queue: every filter and sort leads with the manufacturer (review module).
+@Index('ix_claims_mfr_stage_changed', ['manufacturerId', 'stageChangedAt'])
+@Index('ix_claims_mfr_waiting', ['manufacturerId', 'waitingOn', 'stageChangedAt'])
+@Index('ix_claims_mfr_verdict', ['manufacturerId', 'verdict', 'stageChangedAt'])
+@Index('ix_claims_mfr_product', ['manufacturerId', 'productModelId', 'stageChangedAt'])
+@Index('ix_claims_mfr_contractor', ['manufacturerId', 'contractorId', 'stageChangedAt'])
+@Index('ix_claims_mfr_credit', ['manufacturerId', 'expectedCredit'])
+@Index('ix_claims_mfr_number', ['manufacturerId', 'number'])
 export class Claim {
   @PrimaryGeneratedColumn('uuid')
   id: string;

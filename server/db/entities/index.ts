@@ -1,7 +1,11 @@
 import { Attachment } from './attachment.entity';
 import { AuditEvent } from './audit-event.entity';
+import { BenchTest } from './bench-test.entity';
 import { ClaimBatch } from './claim-batch.entity';
+import { ClaimDocument } from './claim-document.entity';
+import { ClaimMessage } from './claim-message.entity';
 import { Claim } from './claim.entity';
+import { Decision } from './decision.entity';
 import { InstallationUnit } from './installation-unit.entity';
 import { Installation } from './installation.entity';
 import { Invitation } from './invitation.entity';
@@ -10,6 +14,7 @@ import { Organization } from './organization.entity';
 import { OutboxMessage } from './outbox-message.entity';
 import { PolicyModel } from './policy-model.entity';
 import { ProductModel } from './product-model.entity';
+import { ReturnAuthorization } from './return-authorization.entity';
 import { User } from './user.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 import { WarrantyPolicy } from './warranty-policy.entity';
@@ -31,4 +36,9 @@ export const entities = [
   Claim,
   ClaimBatch,
   Attachment,
+  ClaimMessage,
+  ReturnAuthorization,
+  BenchTest,
+  Decision,
+  ClaimDocument,
 ];

@@ -2,17 +2,25 @@ import {
   AccountantHome,
   AdministratorHome,
   InstallerHome,
-  ReviewerHome,
 } from '../../features/home/components/home-panels';
 import { OpenClaims } from '../../features/claims/components/open-claims';
 import { useSession } from '../../lib/ability';
+import { PageHeader } from '../../components/ui/page-header';
+import { ReviewDeskSummary } from '../../features/review/components/review-queue';
 
 /** Each role lands on its own home; a user with several roles gets the one of their daily work first. */
 export function HomeRoute() {
   const { user } = useSession();
   const props = { name: user.name, organization: user.organization.name };
   if (user.roles.includes('installer')) return <InstallerHome {...props} openClaims={<OpenClaims />} />;
-  if (user.roles.includes('reviewer')) return <ReviewerHome {...props} />;
+  if (user.roles.includes('reviewer')) {
+    return (
+      <>
+        <PageHeader title="Review desk" description={`${props.organization} · signed in as ${props.name}`} />
+        <ReviewDeskSummary />
+      </>
+    );
+  }
   if (user.roles.includes('accountant')) return <AccountantHome {...props} />;
   return <AdministratorHome {...props} />;
 }

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { ClipboardCheck, HardHat, Receipt, ShieldCheck, Users } from 'lucide-react';
+import { HardHat, Receipt, ShieldCheck, Users } from 'lucide-react';
 import type { ReactNode } from 'react';
 import { buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
@@ -59,20 +59,6 @@ export function InstallerHome({ name, organization, openClaims }: { name: string
           </ul>
         </Card>
       </div>
-    </>
-  );
-}
-
-export function ReviewerHome({ name, organization }: { name: string; organization: string }) {
-  return (
-    <>
-      <PageHeader title="Review desk" description={`${organization} · signed in as ${name}`} />
-      <Card>
-        <CardHeader title="Claims waiting for a decision" description="Oldest first, with the engine's findings beside the evidence." />
-        <EmptyState icon={<ClipboardCheck className="size-6" />} title="Nothing waiting">
-          Filed claims on your products arrive here after the automatic screening.
-        </EmptyState>
-      </Card>
     </>
   );
 }

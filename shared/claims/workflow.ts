@@ -1,0 +1,235 @@
+import { z } from 'zod';
+
+import type { Evaluation, Verdict } from '../engine/schema';
+import type { HistoryEventDto, OrgRef } from '../schemas/catalogue';
+import { CLAIM_STAGES, type ClaimStage, type WaitingOn } from '../schemas/claims';
+import { listQuerySchema } from '../schemas/users';
+import { CLAIM_NUMBER_ALPHABET } from './claim-number';
+import type { Address, DenialCode, Resolution } from './actions.schema';
+import type { ClaimActionName } from './stages';
+
+// The review workflow around the stage machine: who the claim waits on at each stage, the return
+// authorisation's number, the deadlines we set, the reviewer's queue query and the answers the screens read.
+
+/** Who must act next at each stage; null once nothing is left to do by either side. */
+export const WAITING_ON_BY_STAGE: Record<ClaimStage, WaitingOn | null> = {
+  draft: 'contractor',
+  filed: 'manufacturer',
+  in_review: 'manufacturer',
+  needs_info: 'contractor',
+  // Until the installer records the shipment; then the manufacturer waits for the box.
+  return_requested: 'contractor',
+  unit_received: 'manufacturer',
+  // The manufacturer's accountant issues the credit.
+  approved: 'manufacturer',
+  denied: null,
+  credited: null,
+  closed: null,
+  withdrawn: null,
+};
+
+/** Days the installer has to answer a question, and to ship a requested unit. Our own service levels. */
+export const INFO_RESPONSE_DAYS = 14;
+export const RETURN_SHIP_DAYS = 30;
+
+/** Return authorisation numbers: RA-YYMM-XXXXXX, in the claim numbers' alphabet (no look-alikes). */
+export const RETURN_NUMBER_PATTERN = /^RA-\d{4}-[2-9A-HJKMNP-TW-Z]{6}$/;
+
+export function newReturnNumber(date: Date, random: (n: number) => number): string {
+  const yymm = `${String(date.getUTCFullYear() % 100).padStart(2, '0')}${String(date.getUTCMonth() + 1).padStart(2, '0')}`;
+  let body = '';
+  for (let i = 0; i < 6; i++) body += CLAIM_NUMBER_ALPHABET[random(CLAIM_NUMBER_ALPHABET.length)];
+  return `RA-${yymm}-${body}`;
+}
+
+/** YYYY-MM-DD plus whole days (UTC). */
+export function addDays(isoDate: string, days: number): string {
+  const d = new Date(`${isoDate}T00:00:00Z`);
+  d.setUTCDate(d.getUTCDate() + days);
+  return d.toISOString().slice(0, 10);
+}
+
+/** Whole days from one instant to another, rounded down (the queue's "days waiting"). */
+export function daysBetween(from: string | Date, to: string | Date): number {
+  const a = typeof from === 'string' ? Date.parse(from) : from.getTime();
+  const b = typeof to === 'string' ? Date.parse(to) : to.getTime();
+  return Math.max(0, Math.floor((b - a) / 86_400_000));
+}
+
+// The reviewer's queue: the claims list with the reviewer's filters.
+
+const stageList = z
+  .string()
+  .transform((s) =>
+    s
+      .split(',')
+      .map((x) => x.trim())
+      .filter(Boolean),
+  )
+  .pipe(z.array(z.enum(CLAIM_STAGES, { error: 'Pick a known stage.' })).min(1).max(CLAIM_STAGES.length));
+
+const money = z.string().regex(/^\d{1,10}(\.\d{1,2})?$/, 'Enter an amount like "96.00".');
+const uuid = z.uuid({ error: 'Not a valid id.' });
+
+export const QUEUE_SORTS = [
+  'filedAt',
+  '-filedAt',
+  'stageChangedAt',
+  '-stageChangedAt',
+  'amount',
+  '-amount',
+  'number',
+  '-number',
+] as const;
+
+export const queueQuerySchema = listQuerySchema.extend({
+  sort: z.enum(QUEUE_SORTS).default('stageChangedAt'),
+  stage: stageList.optional(),
+  verdict: z.enum(['covered', 'excluded', 'review']).optional(),
+  waitingOn: z.enum(['manufacturer', 'contractor']).optional(),
+  /** Days since filing, at least / at most. */
+  minAgeDays: z.coerce.number().int().min(0).max(3650).optional(),
+  maxAgeDays: z.coerce.number().int().min(0).max(3650).optional(),
+  productModelId: uuid.optional(),
+  contractorId: uuid.optional(),
+  minAmount: money.optional(),
+  maxAmount: money.optional(),
+  /** `me`: assigned to the signed-in reviewer; `none`: nobody's yet; or a reviewer's id. */
+  assignee: z.union([z.literal('me'), z.literal('none'), uuid]).optional(),
+});
+export type QueueQuery = z.infer<typeof queueQuerySchema>;
+
+export const assignClaimSchema = z.strictObject({
+  /** The reviewer to own the claim; null gives it back to the queue. */
+  assigneeId: uuid.nullable(),
+});
+export type AssignClaimInput = z.infer<typeof assignClaimSchema>;
+
+export type QueueItemDto = {
+  id: string;
+  number: string | null;
+  stage: ClaimStage;
+  waitingOn: WaitingOn | null;
+  contractor: OrgRef;
+  product: { id: string; modelNumber: string; name: string };
+  siteName: string;
+  units: number;
+  filedAt: string | null;
+  stageChangedAt: string;
+  /** Whole days since the claim reached its stage. */
+  daysInStage: number;
+  daysSinceFiling: number | null;
+  verdict: Verdict | null;
+  expectedCredit: string | null;
+  currency: string | null;
+  assignee: { id: string; name: string } | null;
+  version: number;
+};
+
+export type QueueSummaryDto = {
+  counts: Partial<Record<ClaimStage, number>>;
+  mine: number;
+  unassigned: number;
+  oldestWaitingDays: number | null;
+};
+
+// What the review screen and the installer's claim page read: GET /api/claims/:id/workflow.
+
+export type ClaimMessageDto = {
+  id: string;
+  kind: 'info_request' | 'info_answer' | 'note';
+  body: string;
+  author: { name: string; organization: string; side: 'manufacturer' | 'contractor' };
+  dueOn: string | null;
+  answeredAt: string | null;
+  createdAt: string;
+  attachments: { id: string; name: string; contentType: string; kind: string; url: string }[];
+};
+
+export type ClaimDocumentDto = {
+  id: string;
+  kind: 'letter' | 'packing_slip';
+  filename: string;
+  sha256: string;
+  byteSize: number;
+  createdAt: string;
+  url: string;
+};
+
+export type ReturnAuthorizationDto = {
+  id: string;
+  number: string;
+  shipTo: Address;
+  instructions: string | null;
+  shipBy: string;
+  carrier: string | null;
+  trackingNumber: string | null;
+  shippedOn: string | null;
+  receivedOn: string | null;
+  receivedCondition: string | null;
+  receivedNote: string | null;
+  packingSlip: ClaimDocumentDto | null;
+  createdAt: string;
+};
+
+export type BenchTestDto = {
+  id: string;
+  testedOn: string;
+  result: string;
+  readings: Record<string, unknown>;
+  evaluation: Evaluation;
+  engineVersion: string;
+  note: string | null;
+  testedBy: string;
+  testedAt: string;
+};
+
+export type DecisionDto = {
+  id: string;
+  outcome: 'approved' | 'partly_approved' | 'denied';
+  resolution: Resolution | null;
+  amount: string | null;
+  currency: string | null;
+  engineAmount: string | null;
+  approvedUnits: number | null;
+  reasonCodes: DenialCode[];
+  note: string | null;
+  overrideReason: string | null;
+  againstEngine: boolean;
+  decidedBy: string;
+  decidedAt: string;
+  letter: ClaimDocumentDto | null;
+};
+
+export type ClaimWorkflowDto = {
+  claim: {
+    id: string;
+    number: string | null;
+    stage: ClaimStage;
+    waitingOn: WaitingOn | null;
+    version: number;
+    stageChangedAt: string;
+    assignee: { id: string; name: string } | null;
+  };
+  /** What this user can do now, in the stage machine's order. */
+  actions: ClaimActionName[];
+  openRequest: ClaimMessageDto | null;
+  messages: ClaimMessageDto[];
+  returns: ReturnAuthorizationDto[];
+  benchTests: BenchTestDto[];
+  decision: DecisionDto | null;
+  documents: ClaimDocumentDto[];
+  history: HistoryEventDto[];
+};
+
+/** A file for the conversation, sent as JSON (base64) until the shared multipart uploads route lands. */
+export const conversationFileSchema = z.strictObject({
+  name: z.string().trim().min(1, 'Give the file a name.').max(160),
+  purpose: z.enum(['nameplate', 'failure', 'site', 'proof_of_purchase', 'other']).default('other'),
+  dataBase64: z
+    .string({ error: 'Send the file as base64.' })
+    .min(4, 'The file is empty.')
+    .max(21_000_000, 'Each file can be at most 15 MB.')
+    .regex(/^[A-Za-z0-9+/]+={0,2}$/, 'Send the file as base64.'),
+});
+export type ConversationFileInput = z.infer<typeof conversationFileSchema>;

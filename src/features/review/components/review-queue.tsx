@@ -1,0 +1,176 @@
+import { useQuery } from '@tanstack/react-query';
+import { useEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { Link, useNavigate } from 'react-router-dom';
+import { ClipboardCheck } from 'lucide-react';
+import { STAGE_LABELS } from '../../../../shared/claims/stages';
+import { Badge, type Tone } from '../../../components/ui/badge';
+import { buttonClasses } from '../../../components/ui/button';
+import { Card, CardHeader } from '../../../components/ui/card';
+import { EmptyState } from '../../../components/ui/empty-state';
+import { InputField, SelectField } from '../../../components/ui/field';
+import { Spinner } from '../../../components/ui/spinner';
+import { Pagination } from '../../../components/ui/table';
+import { cn } from '../../../lib/cn';
+import { reviewQueries, type QueueFilters } from '../api/review-queries';
+
+const VERDICT: Record<string, { label: string; tone: Tone }> = {
+  covered: { label: 'Likely covered', tone: 'ok' },
+  excluded: { label: 'Likely excluded', tone: 'bad' },
+  review: { label: 'Needs a person', tone: 'warn' },
+};
+
+export const WAITING_LABEL = { manufacturer: 'on us', contractor: 'on the installer' } as const;
+
+/** The reviewer's queue: filters, a keyboard-driven list (j/k or arrows, Enter opens), ageing in plain words. */
+export function ReviewQueue() {
+  const [filters, setFilters] = useState<QueueFilters>({ stage: 'filed,in_review,unit_received,return_requested,needs_info', sort: 'stageChangedAt' });
+  const { data, isPending, isError } = useQuery(reviewQueries.queue(filters));
+  const [active, setActive] = useState(0);
+  const [announce, setAnnounce] = useState('');
+  const rows = useRef<(HTMLAnchorElement | null)[]>([]);
+  const navigate = useNavigate();
+  const items = useMemo(() => data?.items ?? [], [data]);
+  const set = (patch: Partial<QueueFilters>) => {
+    setFilters((f) => ({ ...f, page: 1, ...patch }));
+    setActive(0);
+  };
+
+  useEffect(() => {
+    const item = items[active];
+    if (item) setAnnounce(`${active + 1} of ${items.length}: claim ${item.number}, ${STAGE_LABELS[item.stage]}, ${item.daysInStage} days`);
+  }, [active, items]);
+
+  function onKey(e: KeyboardEvent<HTMLUListElement>) {
+    if (!items.length) return;
+    const next = e.key === 'j' || e.key === 'ArrowDown' ? active + 1 : e.key === 'k' || e.key === 'ArrowUp' ? active - 1 : null;
+    if (next !== null) {
+      e.preventDefault();
+      const i = Math.max(0, Math.min(items.length - 1, next));
+      setActive(i);
+      rows.current[i]?.focus();
+    } else if (e.key === 'Enter' && items[active]) {
+      e.preventDefault();
+      navigate(`/review/${items[active].id}`);
+    }
+  }
+
+  return (
+    <Card>
+      <CardHeader title="Claims on your desk" description="j / k or the arrow keys move, Enter opens. Oldest in its stage first." />
+      <div className="grid gap-3 border-b border-ink-200 px-4 py-3 sm:grid-cols-2 sm:px-5 lg:grid-cols-5">
+        <InputField label="Search" placeholder="Claim number, site, contractor, model, serial" value={filters.q ?? ''} onChange={(e) => set({ q: e.target.value })} />
+        <SelectField label="Stage" value={filters.stage ?? ''} onChange={(e) => set({ stage: e.target.value || undefined })}>
+          <option value="filed,in_review,unit_received,return_requested,needs_info">All open</option>
+          <option value="filed">{STAGE_LABELS.filed}</option>
+          <option value="in_review">{STAGE_LABELS.in_review}</option>
+          <option value="needs_info">{STAGE_LABELS.needs_info}</option>
+          <option value="return_requested">{STAGE_LABELS.return_requested}</option>
+          <option value="unit_received">{STAGE_LABELS.unit_received}</option>
+          <option value="approved,denied">Decided</option>
+          <option value="">Every stage</option>
+        </SelectField>
+        <SelectField label="Engine verdict" value={filters.verdict ?? ''} onChange={(e) => set({ verdict: e.target.value || undefined })}>
+          <option value="">Any</option>
+          <option value="covered">Likely covered</option>
+          <option value="review">Needs a person</option>
+          <option value="excluded">Likely excluded</option>
+        </SelectField>
+        <SelectField label="Assigned" value={filters.assignee ?? ''} onChange={(e) => set({ assignee: e.target.value || undefined })}>
+          <option value="">Anyone</option>
+          <option value="me">Me</option>
+          <option value="none">Nobody yet</option>
+        </SelectField>
+        <SelectField label="Sort" value={filters.sort ?? 'stageChangedAt'} onChange={(e) => set({ sort: e.target.value })}>
+          <option value="stageChangedAt">Waiting longest</option>
+          <option value="-filedAt">Newest filed</option>
+          <option value="-amount">Largest amount</option>
+          <option value="number">Claim number</option>
+        </SelectField>
+      </div>
+      <p className="sr-only" aria-live="polite">
+        {announce}
+      </p>
+      {isPending ? (
+        <div className="p-6">
+          <Spinner label="Loading the queue" />
+        </div>
+      ) : isError ? (
+        <p className="p-6 text-bad-700">The queue could not be loaded. Try again in a moment.</p>
+      ) : items.length === 0 ? (
+        <EmptyState icon={<ClipboardCheck className="size-6" />} title="Nothing matches">
+          No claims with these filters. Filed claims on your products arrive here after the automatic screening.
+        </EmptyState>
+      ) : (
+        <>
+          <ul aria-label="Claims" className="divide-y divide-ink-100" onKeyDown={onKey}>
+            {items.map((c, i) => (
+              <li key={c.id}>
+                <Link
+                  ref={(el) => {
+                    rows.current[i] = el;
+                  }}
+                  to={`/review/${c.id}`}
+                  tabIndex={i === active ? 0 : -1}
+                  onFocus={() => setActive(i)}
+                  aria-current={i === active ? 'true' : undefined}
+                  className={cn(
+                    'grid gap-1 px-4 py-3 outline-none sm:grid-cols-[10rem_1fr_auto] sm:items-center sm:px-5',
+                    'focus-visible:bg-brand-50 focus-visible:ring-2 focus-visible:ring-inset focus-visible:ring-brand-600',
+                    i === active && 'bg-ink-50',
+                  )}
+                >
+                  <span className="font-mono text-sm font-semibold text-ink-900">{c.number}</span>
+                  <span className="text-sm text-ink-700">
+                    {c.contractor.name} · {c.product.modelNumber} · {c.siteName}
+                    <span className="block text-xs text-ink-500">
+                      {STAGE_LABELS[c.stage]} for {c.daysInStage} {c.daysInStage === 1 ? 'day' : 'days'}
+                      {c.waitingOn ? `, waiting ${WAITING_LABEL[c.waitingOn]}` : ''}
+                      {c.daysSinceFiling !== null ? ` · filed ${c.daysSinceFiling} days ago` : ''}
+                      {c.assignee ? ` · ${c.assignee.name}` : ' · unassigned'}
+                    </span>
+                  </span>
+                  <span className="flex flex-wrap items-center gap-2">
+                    {c.verdict ? <Badge tone={VERDICT[c.verdict].tone}>{VERDICT[c.verdict].label}</Badge> : null}
+                    {c.expectedCredit ? (
+                      <span className="text-sm tabular-nums text-ink-700">
+                        {c.expectedCredit} {c.currency}
+                      </span>
+                    ) : null}
+                  </span>
+                </Link>
+              </li>
+            ))}
+          </ul>
+          <Pagination page={data.page} pageSize={data.pageSize} total={data.total} onPage={(p) => setFilters((f) => ({ ...f, page: p }))} />
+        </>
+      )}
+    </Card>
+  );
+}
+
+/** The reviewer's home: the desk in numbers, and the way in. */
+export function ReviewDeskSummary() {
+  const { data } = useQuery(reviewQueries.summary());
+  const open = (s: keyof NonNullable<typeof data>['counts']) => data?.counts[s] ?? 0;
+  return (
+    <Card>
+      <CardHeader title="Claims waiting for a decision" description="The engine's findings sit beside the evidence on every claim." actions={<Link className={buttonClasses('primary', 'md')} to="/review">Open the review desk</Link>} />
+      <dl className="grid grid-cols-2 gap-4 px-4 py-4 sm:grid-cols-4 sm:px-5">
+        {[
+          ['Filed, not yet taken', open('filed')],
+          ['In review', open('in_review') + open('unit_received')],
+          ['Waiting on installers', open('needs_info') + open('return_requested')],
+          ['Assigned to you', data?.mine ?? 0],
+        ].map(([label, n]) => (
+          <div key={label as string}>
+            <dt className="text-sm text-ink-600">{label}</dt>
+            <dd className="text-2xl font-semibold tabular-nums text-ink-900">{n}</dd>
+          </div>
+        ))}
+      </dl>
+      {data?.oldestWaitingDays != null ? (
+        <p className="px-4 pb-4 text-sm text-ink-600 sm:px-5">The oldest claim waiting on your team has waited {data.oldestWaitingDays} days.</p>
+      ) : null}
+    </Card>
+  );
+}

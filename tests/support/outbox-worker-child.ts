@@ -1,0 +1,32 @@
+// A stand-alone outbox worker for the crash test: sends slowly (so that it can be killed mid-batch) and, with
+// UNTIL_SENT_FROM, exits once every message from that id on has been sent.
+import type { Transporter } from 'nodemailer';
+import { MoreThanOrEqual } from 'typeorm';
+import { loadConfig } from '../../server/config/env';
+import { createDataSource } from '../../server/db/data-source';
+import { OutboxMessage } from '../../server/db/entities/outbox-message.entity';
+import { createTransport, deliverDue } from '../../server/lib/outbox';
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+const config = loadConfig({ ...process.env, NODE_ENV: 'test', LOG_LEVEL: 'silent' });
+const ds = createDataSource(process.env.DATABASE_URL!, { poolSize: 2 });
+await ds.initialize();
+const real = createTransport(config);
+const delay = Number(process.env.SEND_DELAY_MS ?? 150);
+const slow = {
+  sendMail: async (msg: Parameters<Transporter['sendMail']>[0]) => {
+    await sleep(delay);
+    return real.sendMail(msg);
+  },
+} as unknown as Transporter;
+const from = process.env.UNTIL_SENT_FROM;
+for (;;) {
+  await deliverDue(ds, slow, { from: config.smtp.from, batch: 10, leaseMs: Number(process.env.LEASE_MS ?? 2000) });
+  if (from) {
+    const left = await ds.getRepository(OutboxMessage).count({ where: { id: MoreThanOrEqual(from), status: 'pending' } });
+    if (left === 0) break;
+  }
+  await sleep(200);
+}
+real.close();
+await ds.destroy();
