@@ -9,6 +9,9 @@ test.describe('filing a claim on a phone', () => {
 
   test('an installer files a claim with two photos and finds it filed', async ({ page }) => {
     await signInAs(page, 'ines@harborview.test');
+    // The home with its open claims fits the phone: a page wider than 360 px would widen the layout viewport.
+    await expect(page.getByRole('list', { name: 'Open claims' })).toBeVisible();
+    expect(await page.evaluate(() => window.innerWidth)).toBe(PHONE.width);
     type Inst = { id: string; siteName: string; serialCount: number; nominalSupplyVolts: number; installDate: string; policyVersion: unknown; location: string; enclosure: string };
     // The demo holds years of history; look through the pages for a site with serials under a policy.
     let inst: Inst | undefined;
@@ -55,6 +58,7 @@ test.describe('filing a claim on a phone', () => {
     await page.getByLabel('Take a photo').setInputFiles({ name: 'failure.jpg', mimeType: 'image/jpeg', buffer: await photo('#7d4a4a') });
     await expect(files.getByRole('link')).toHaveCount(2);
     expect(await hasNoHorizontalScroll(page)).toBe(true);
+    expect(await page.evaluate(() => window.innerWidth)).toBe(PHONE.width);
 
     await expect(page.getByRole('status').filter({ hasText: 'Saved' })).toBeVisible();
     await page.getByRole('button', { name: 'File claim' }).click();
@@ -67,5 +71,6 @@ test.describe('filing a claim on a phone', () => {
     await page.getByRole('button', { name: 'Search' }).click();
     await expect(page.getByRole('list', { name: 'Claims' }).getByRole('listitem')).toHaveCount(1);
     await expect(page.getByRole('list', { name: 'Claims' })).toContainText(number);
+    expect(await page.evaluate(() => window.innerWidth)).toBe(PHONE.width);
   });
 });

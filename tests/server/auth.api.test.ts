@@ -3,6 +3,7 @@ import { LoginAttempt } from '../../server/db/entities/login-attempt.entity';
 import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { DEMO_ACCOUNTS, DEMO_ORGANIZATIONS, DEMO_PASSWORD } from '../../server/db/seed/demo-accounts';
 import { seedDemo } from '../../server/db/seed/demo';
+import { createStorage } from '../../server/lib/storage';
 import { clock } from '../../server/lib/clock';
 import { createOrganization, createUser, sessionCookie, TEST_PASSWORD } from '../support/factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
@@ -130,7 +131,7 @@ describe('sign-in and sign-out', () => {
 
 describe('the demo accounts', () => {
   it('each signs in and /me tells its role and organisation kind', async () => {
-    await seedDemo(t.ds, { onlyIfEmpty: false });
+    await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage: createStorage(t.config), config: t.config } });
     for (const account of DEMO_ACCOUNTS) {
       const agent = t.request();
       const login = await agent.post('/api/auth/login').send({ email: account.email, password: DEMO_PASSWORD });
@@ -139,7 +140,7 @@ describe('the demo accounts', () => {
       const org = DEMO_ORGANIZATIONS.find((o) => o.key === account.org)!;
       expect(me.body.user).toMatchObject({ email: account.email, roles: account.roles, organization: { name: org.name, kind: org.kind } });
     }
-  });
+  }, 120_000); // loading the whole demo (its letters and memos too) on a busy machine
 });
 
 describe('the API spine', () => {

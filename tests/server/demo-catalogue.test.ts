@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemo } from '../../server/db/seed/demo';
+import { createStorage } from '../../server/lib/storage';
 import { Installation } from '../../server/db/entities/installation.entity';
 import { Organization } from '../../server/db/entities/organization.entity';
 import { ProductModel } from '../../server/db/entities/product-model.entity';
@@ -10,7 +11,7 @@ import { closeTestApp, createTestApp, type TestContext } from '../support/test-a
 let t: TestContext;
 beforeAll(async () => {
   t = await createTestApp();
-  await seedDemo(t.ds, { onlyIfEmpty: false });
+  await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage: createStorage(t.config), config: t.config } });
 });
 afterAll(() => closeTestApp(t));
 

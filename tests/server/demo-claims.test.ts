@@ -4,9 +4,19 @@ import { isValidClaimNumber } from '../../shared/claims/claim-number';
 import { CLAIM_STAGES } from '../../shared/schemas/claims';
 import { ENGINE_VERSION } from '../../shared/engine';
 import { seedDemo } from '../../server/db/seed/demo';
+import { createStorage } from '../../server/lib/storage';
 import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { Claim } from '../../server/db/entities/claim.entity';
 import { Organization } from '../../server/db/entities/organization.entity';
+import { BenchTest } from '../../server/db/entities/bench-test.entity';
+import { ClaimDocument } from '../../server/db/entities/claim-document.entity';
+import { ClaimMessage } from '../../server/db/entities/claim-message.entity';
+import { CreditMemo } from '../../server/db/entities/credit-memo.entity';
+import { Decision } from '../../server/db/entities/decision.entity';
+import { LedgerEntry } from '../../server/db/entities/ledger-entry.entity';
+import { ReturnAuthorization } from '../../server/db/entities/return-authorization.entity';
+import { DEMO_PASSWORD } from '../../server/db/seed/demo-accounts';
+import { signIn } from '../support/factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
 let t: TestContext;
@@ -14,12 +24,19 @@ let claims: Claim[];
 let names: Map<string, string>;
 beforeAll(async () => {
   t = await createTestApp();
-  await seedDemo(t.ds, { onlyIfEmpty: false });
+  await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage: createStorage(t.config), config: t.config } });
   const orgs = await t.ds.getRepository(Organization).findBy({ name: In(['Aldercrest Lighting', 'Veltra Luminaires', 'Harborview Electric', 'Copperline Electrical']) });
   names = new Map(orgs.map((o) => [o.id, o.name]));
   claims = await t.ds.getRepository(Claim).findBy({ contractorId: In(orgs.map((o) => o.id)) });
 });
 afterAll(() => closeTestApp(t));
+
+/** The claims demo's own claims (the reliability history's have no filing in the audit trail). */
+async function claimsDemo() {
+  const filed = await t.ds.getRepository(AuditEvent).findBy({ entityType: 'Claim', action: 'claim.filed', entityId: In(claims.map((c) => c.id)) });
+  const ids = new Set(filed.map((a) => a.entityId));
+  return claims.filter((c) => ids.has(c.id));
+}
 
 describe('the demo claims (API.md demo data)', () => {
   it('hold at least 60 claims over every stage, both manufacturers and both contractors', () => {
@@ -46,8 +63,54 @@ describe('the demo claims (API.md demo data)', () => {
       expect(c.verdict).toBe(c.evaluation!.verdict);
     }
     expect(new Set(filed.map((c) => c.verdict)).size).toBeGreaterThanOrEqual(2);
-    const credited = filed.find((c) => c.stage === 'credited')!;
+    const credited = (await claimsDemo()).find((c) => c.stage === 'credited')!; // credited through the credits service
     const trail = (await t.ds.getRepository(AuditEvent).find({ where: { entityType: 'Claim', entityId: credited.id }, order: { id: 'ASC' } })).map((a) => a.action);
     expect(trail).toEqual(['claim.created', 'claim.filed', 'claim.review_started', 'claim.approved', 'claim.credited']);
+  });
+
+  it('decided claims carry their decision in force and a stored letter; questions, returns and credits their rows', async () => {
+    const claims = await claimsDemo();
+    const decided = claims.filter((c) => ['approved', 'denied', 'credited', 'closed'].includes(c.stage));
+    const decisions = await t.ds.getRepository(Decision).findBy({ currentClaimId: In(decided.map((c) => c.id)) });
+    expect(decisions).toHaveLength(decided.length);
+    const letters = await t.ds.getRepository(ClaimDocument).findBy({ id: In(decisions.map((d) => d.letterId!)), kind: 'letter' });
+    expect(letters).toHaveLength(decided.length);
+    for (const d of decisions) {
+      const c = decided.find((x) => x.id === d.claimId)!;
+      expect(d.outcome).toBe(c.stage === 'approved' || c.stage === 'credited' ? 'approved' : 'denied');
+    }
+    for (const c of claims.filter((x) => x.stage === 'needs_info')) {
+      const open = await t.ds.getRepository(ClaimMessage).findBy({ claimId: c.id, kind: 'info_request' });
+      expect(open).toHaveLength(1);
+      expect(open[0].answeredAt).toBeNull();
+    }
+    const returning = claims.filter((x) => x.stage === 'return_requested' || x.stage === 'unit_received');
+    const ras = await t.ds.getRepository(ReturnAuthorization).findBy({ claimId: In(returning.map((c) => c.id)) });
+    expect(ras).toHaveLength(returning.length);
+    for (const ra of ras) expect(ra.packingSlipId).toBeTruthy();
+    const received = claims.filter((x) => x.stage === 'unit_received');
+    const benches = await t.ds.getRepository(BenchTest).findBy({ claimId: In(received.map((c) => c.id)) });
+    expect(benches.length).toBeGreaterThan(0);
+    for (const c of claims.filter((x) => x.stage === 'credited')) {
+      expect(await t.ds.getRepository(CreditMemo).countBy({ creditedClaimId: c.id })).toBe(1);
+      const memo = await t.ds.getRepository(CreditMemo).findOneByOrFail({ creditedClaimId: c.id });
+      expect(await t.ds.getRepository(LedgerEntry).countBy({ memoId: memo.id })).toBe(1);
+      expect(await t.ds.getRepository(AuditEvent).countBy({ entityId: c.id, action: 'claim.credited' })).toBe(1);
+    }
+  });
+
+  it('a demo letter downloads as a PDF for the reviewer and the installer', async () => {
+    const claims = await claimsDemo();
+    const c = claims.find((x) => x.stage === 'approved' && names.get(x.manufacturerId) === 'Aldercrest Lighting')!;
+    const d = await t.ds.getRepository(Decision).findOneByOrFail({ currentClaimId: c.id });
+    const installer = names.get(c.contractorId) === 'Harborview Electric' ? 'ines@harborview.test' : 'omar@copperline.test';
+    for (const email of ['rhea@aldercrest.test', installer]) {
+      const agent = await signIn(t.request(), email, DEMO_PASSWORD);
+      const wf = await agent.get(`/api/claims/${c.id}/workflow`);
+      expect(wf.status).toBe(200);
+      const res = await agent.get(`/api/claims/${c.id}/documents/${d.letterId}`).buffer(true);
+      expect(res.status).toBe(200);
+      expect(res.headers['content-type']).toContain('application/pdf');
+    }
   });
 });

@@ -32,9 +32,17 @@ it('the demo holds memos, a reversal, and at least five approved, not yet credit
     expect(memos.filter((m) => m.kind === 'credit').length).toBeGreaterThanOrEqual(2);
     for (const m of memos) expect(m.number).toMatch(MEMO_NUMBER_PATTERN);
     const report = await checkLedger(t.ds, { manufacturerId: mfr.id });
-    // Known gap: the claims demo writes some claims straight to `credited` with no memo (to be seeded through
-    // the credits service instead); every other check of the ledger holds.
-    expect(report.problems.filter((p) => !p.includes('is credited with 0 standing memos'))).toEqual([]);
+    // Left open: the reliability history (demo-reliability.ts) writes ~190 old claims straight to `credited`
+    // with no memo; crediting them through the service would render as many memo PDFs at every start, and
+    // closing them instead changes the analytics. Only those claims' messages are set aside here: every
+    // credited claim of the claims demo has its memo.
+    const historyOnly: { number: string }[] = await t.ds.query(
+      `SELECT c.number FROM claims c WHERE c.manufacturer_id = ? AND c.stage = 'credited'
+          AND NOT EXISTS (SELECT 1 FROM audit_events a WHERE a.entity_id = c.id AND a.action = 'claim.filed')`,
+      [mfr.id],
+    );
+    const history = new Set(historyOnly.map((c) => `claim ${c.number} is credited with 0 standing memos`));
+    expect(report.problems.filter((p) => !history.has(p))).toEqual([]);
   }
   const ald = await t.ds.getRepository(Organization).findOneByOrFail({ name: 'Aldercrest Lighting' });
   const reversals = await t.ds.getRepository(CreditMemo).findBy({ manufacturerId: ald.id, kind: 'reversal' });

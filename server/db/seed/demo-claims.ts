@@ -15,8 +15,10 @@ import { WarrantyPolicyVersion } from '../entities/warranty-policy-version.entit
 import type { DemoCatalogue } from './demo-catalogue';
 
 // The demo's claims: both contractors against both manufacturers, at every stage the stage machine has, with
-// readings a meter would show for each model's LED topology. The review and credit issues add decisions and
-// memos; here the stages are set directly, each with the audit rows of the moves that lead to it. Fixed seed.
+// readings a meter would show for each model's LED topology. Here the stages are set, each with the audit rows of
+// the moves that lead to it; demo-workflow adds each stage's own rows (decisions and letters, questions, returns)
+// and demo-credits credits the oldest approved claims through the credits service, so a `credited` slot below is
+// seeded `approved` and gets its memo, its ledger entry and its one `claim.credited` row from there. Fixed seed.
 
 function prng(seed: number) {
   let s = seed >>> 0;
@@ -92,7 +94,8 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
     const serials = serialsOf.get(inst.id) ?? [];
     const k = turn.get(inst.manufacturerId) ?? 0;
     turn.set(inst.manufacturerId, k + 1);
-    const stage = STAGE_ROTATION[k % STAGE_ROTATION.length];
+    const slot = STAGE_ROTATION[k % STAGE_ROTATION.length];
+    const stage: ClaimStage = slot === 'credited' ? 'approved' : slot;
     const v = inst.policyVersionId ? versions.get(inst.policyVersionId) ?? null : null;
     if (!v && stage !== 'draft') continue; // nothing to claim against
 

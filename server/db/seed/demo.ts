@@ -10,11 +10,13 @@ import type { AppConfig } from '../../config/env';
 import type { Storage } from '../../lib/storage';
 import { seedDemoClaims } from './demo-claims';
 import { seedDemoReliability } from './demo-reliability';
+import { seedDemoWorkflow } from './demo-workflow';
 
-/** Loads the fictional demo scenario into an empty database. Returns false when there was data already. */
 /**
- * With `credits` (the storage for memo PDFs and the config), the credits scenario is loaded too: approved claims,
- * memos issued through the real service, a reversal.
+ * Loads the fictional demo scenario into an empty database. Returns false when there was data already.
+ * With `credits` (the storage for the PDFs and the config), the workflow's rows and files are loaded too: the
+ * decided claims' decisions and determination letters, questions, returns with packing slips, bench tests, and
+ * the credits scenario (the oldest approved claims credited through the real service, a reversal).
  */
 export async function seedDemo(
   ds: AppDataSource,
@@ -56,7 +58,8 @@ export async function seedDemo(
       );
     }
     const catalogue = await seedDemoCatalogue(m, orgs, users);
-    await seedDemoClaims(m, orgs, users, catalogue);
+    const claims = await seedDemoClaims(m, orgs, users, catalogue);
+    if (opts.credits) await seedDemoWorkflow(m, opts.credits.storage, claims, users);
     await seedDemoReliability(m, orgs, users, [...catalogue.products.values()]);
   });
   if (opts.credits) await seedDemoCredits(ds, opts.credits.storage, opts.credits.config);

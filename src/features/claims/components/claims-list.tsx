@@ -93,7 +93,7 @@ export function ClaimsList({ canCreate }: { canCreate: boolean }) {
             <ul className="divide-y divide-ink-100" aria-label="Claims">
               {list.data.items.map((c) => (
                 <li key={c.id}>
-                  <Link to={`/claims/${c.id}`} className="grid gap-1 px-4 py-3 hover:bg-ink-50 sm:grid-cols-[12rem_minmax(0,1fr)_12rem] sm:items-center sm:gap-4">
+                  <Link to={`/claims/${c.id}`} className="grid min-w-0 grid-cols-1 gap-1 px-4 py-3 hover:bg-ink-50 sm:grid-cols-[12rem_minmax(0,1fr)_12rem] sm:items-center sm:gap-4">
                     <span className="flex flex-wrap items-center gap-2">
                       <span className="font-mono text-sm font-semibold text-ink-900">{c.number ?? 'Draft'}</span>
                       <StageBadge stage={c.stage} />

@@ -24,9 +24,9 @@ export function OpenClaims() {
       <ul className="divide-y divide-ink-100" aria-label="Open claims">
         {mineFirst.map((c) => (
           <li key={c.id}>
-            <Link to={`/claims/${c.id}`} className="flex flex-wrap items-center justify-between gap-2 px-4 py-3 hover:bg-ink-50 sm:px-5">
-              <span className="min-w-0">
-                <span className="flex items-center gap-2"><span className="font-mono text-sm font-semibold">{c.number ?? 'Draft'}</span><StageBadge stage={c.stage} /></span>
+            <Link to={`/claims/${c.id}`} className="grid min-w-0 gap-1 px-4 py-3 hover:bg-ink-50 sm:grid-cols-[minmax(0,1fr)_auto] sm:items-center sm:gap-3 sm:px-5">
+              <span className="block min-w-0">
+                <span className="flex flex-wrap items-center gap-2"><span className="font-mono text-sm font-semibold">{c.number ?? 'Draft'}</span><StageBadge stage={c.stage} /></span>
                 <span className="block truncate text-sm text-ink-600">{c.product.modelNumber} · {c.installation.siteName}</span>
               </span>
               <span className="text-sm text-ink-800">{waitingText(c.stage, c.waitingOn)}</span>
