@@ -84,6 +84,8 @@ export function createCreditsReports(ds: AppDataSource) {
           org: user.organization.id,
           stage: 'approved',
         })
+        // Only what can be credited: an approved claim with an amount (a replacement without credit is not money).
+        .andWhere('c.expected_credit > 0')
         .orderBy(sort.column, sort.direction)
         .addOrderBy('c.id', 'ASC')
         .offset((q.page - 1) * q.pageSize)
