@@ -4,14 +4,11 @@
 // the same run (medians and their ratio; aim: the API within 2x); then throughput and latency with 16
 // concurrent keep-alive connections for the list and a record's page (aim: 400 req/s, p99 under 100 ms).
 // Bounded: BENCH_LOAD_SECONDS (10) per load run, BENCH_ROUNDS (100) per median. Asserts nothing.
-import type { AddressInfo } from 'node:net';
 import mysql from 'mysql2/promise';
-import { createApp } from '../../server/app';
-import { loadConfig } from '../../server/config/env';
-import { createLogger } from '../../server/lib/logger';
 import { BENCH_PASSWORD, benchEmail, generate } from './generate-claims';
 import { hasTable, openBenchDb, report } from './lib/bench-db';
 import { median, runLoad } from './lib/load';
+import { startServerProcess } from './lib/server-process';
 
 const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 10);
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 100);
@@ -41,25 +38,14 @@ async function signIn(base: string, email: string) {
 async function main() {
   const bench = await openBenchDb({ reset: false });
   const conn = await mysql.createConnection({ uri: bench.url, dateStrings: false });
-  const server = await (async () => {
-    const [{ n }] = (await bench.ds.query('SELECT COUNT(*) AS n FROM installations')) as { n: string }[];
-    if (Number(n) === 0) {
-      console.log('the bench database is empty: generating (BENCH_CLAIMS claims) first');
-      await generate(bench.ds, { claims: Number(process.env.BENCH_CLAIMS ?? 100_000) });
-    }
-    const config = loadConfig({
-      NODE_ENV: 'test',
-      APP_MODE: 'production',
-      LOG_LEVEL: 'silent',
-      DATA_DIR: '.data/bench',
-      OUTBOX_WORKER: 'false',
-    });
-    const app = createApp({ config, ds: bench.ds, logger: createLogger('silent'), databaseUrl: bench.url });
-    const s = app.listen(0, '127.0.0.1');
-    await new Promise((r) => s.once('listening', r));
-    return { s, app };
-  })();
-  const base = `http://127.0.0.1:${(server.s.address() as AddressInfo).port}`;
+  const [{ n }] = (await bench.ds.query('SELECT COUNT(*) AS n FROM installations')) as { n: string }[];
+  if (Number(n) === 0) {
+    console.log('the bench database is empty: generating (BENCH_CLAIMS claims) first');
+    await generate(bench.ds, { claims: Number(process.env.BENCH_CLAIMS ?? 100_000) });
+  }
+  // The API in a process of its own, as in production; the load comes from this one.
+  const server = await startServerProcess(bench.url);
+  const base = server.base;
   try {
     const [mfr] = (await bench.ds.query("SELECT id FROM organizations WHERE name = 'Bench Lighting 0'")) as {
       id: string;
@@ -153,8 +139,7 @@ async function main() {
       }
     }
   } finally {
-    await new Promise((r) => server.s.close(r));
-    await server.app.close();
+    await server.stop();
     await conn.end();
     await bench.close();
   }
@@ -179,13 +164,13 @@ async function installationsTarget(
       const [rows] = await conn.query(
         `SELECT i.*, p.model_number, p.name AS product_name, c.name AS contractor_name, m.name AS manufacturer_name, v.version_number, pol.name AS policy_name
            FROM installations i
-           JOIN product_models p ON p.id = i.product_model_id
-           JOIN organizations c ON c.id = i.contractor_id
-           JOIN organizations m ON m.id = i.manufacturer_id
+           LEFT JOIN product_models p ON p.id = i.product_model_id
+           LEFT JOIN organizations c ON c.id = i.contractor_id
+           LEFT JOIN organizations m ON m.id = i.manufacturer_id
            LEFT JOIN warranty_policy_versions v ON v.id = i.policy_version_id
            LEFT JOIN warranty_policies pol ON pol.id = v.policy_id
           WHERE i.manufacturer_id = ? AND i.location = 'damp'
-          ORDER BY i.install_date DESC, i.id ASC LIMIT 50 OFFSET 0`,
+          ORDER BY i.install_date DESC, i.id DESC LIMIT 50 OFFSET 0`,
         [mfrId],
       );
       await conn.query(
@@ -219,12 +204,12 @@ async function claimsTarget(
                 c.version, co.name AS contractor_name, mo.name AS manufacturer_name, p.model_number, p.name AS product_name, p.family,
                 i.site_name, i.site_city
            FROM claims c
-           JOIN organizations co ON co.id = c.contractor_id
-           JOIN organizations mo ON mo.id = c.manufacturer_id
-           JOIN product_models p ON p.id = c.product_model_id
-           JOIN installations i ON i.id = c.installation_id
+           LEFT JOIN organizations co ON co.id = c.contractor_id
+           LEFT JOIN organizations mo ON mo.id = c.manufacturer_id
+           LEFT JOIN product_models p ON p.id = c.product_model_id
+           LEFT JOIN installations i ON i.id = c.installation_id
           WHERE c.manufacturer_id = ? AND c.stage <> 'draft' AND c.stage IN ('in_review')
-          ORDER BY c.filed_at DESC, c.id ASC LIMIT 50 OFFSET 0`,
+          ORDER BY c.filed_at DESC, c.id DESC LIMIT 50 OFFSET 0`,
         [mfrId],
       );
       await conn.query(

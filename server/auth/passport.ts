@@ -36,7 +36,12 @@ export function createPassport(ds: AppDataSource) {
   // Loaded on every request: a disabled or deleted user's sessions stop working at once.
   instance.deserializeUser(async (id: string, done) => {
     try {
-      const user = await users.findOne({ where: { id }, relations: { organization: true } });
+      // One query (findOne with relations would add a DISTINCT pre-query): this runs on every request.
+      const user = await users
+        .createQueryBuilder('u')
+        .innerJoinAndSelect('u.organization', 'o')
+        .where('u.id = :id', { id })
+        .getOne();
       if (!user || user.status !== 'active') return done(null, false);
       return done(null, user as SessionUser);
     } catch (err) {

@@ -5,6 +5,12 @@ import type { AppConfig } from '../config/env';
 export const SESSION_COOKIE = 'lp.sid';
 export const IDLE_TIMEOUT_MS = 30 * 60 * 1000;
 export const ABSOLUTE_TIMEOUT_MS = 8 * 60 * 60 * 1000;
+/**
+ * How stale the recorded last activity may get before a request writes it again. Writing the session row on every
+ * request (express-session's rolling cookie and the store's touch) made every read a database write; now an active
+ * session is written at most once a minute, so the idle timeout is kept to within this much.
+ */
+export const SESSION_TOUCH_INTERVAL_MS = 60 * 1000;
 
 declare module 'express-session' {
   interface SessionData {
@@ -35,6 +41,7 @@ export function createSessionStore(databaseUrl: string) {
     clearExpired: true,
     checkExpirationInterval: 15 * 60 * 1000,
     expiration: IDLE_TIMEOUT_MS,
+    disableTouch: true, // the row is written when lastSeenAt moves (sessionPolicy), not on every request
     connectionLimit: 5,
     schema: { tableName: 'sessions', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
   });
@@ -48,7 +55,9 @@ export function sessionMiddleware(config: AppConfig, store: session.Store) {
     store,
     resave: false,
     saveUninitialized: false,
-    rolling: true, // every request pushes the idle deadline forward
+    // The cookie and the row move forward when the session changes, which sessionPolicy makes happen at most once
+    // a SESSION_TOUCH_INTERVAL_MS, not on every request.
+    rolling: false,
     proxy: config.trustProxy,
     cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: IDLE_TIMEOUT_MS, path: '/' },
   });

@@ -2,7 +2,7 @@ import { subject } from '@casl/ability';
 import type { RequestHandler } from 'express';
 import { defineAbilityFor, type Action, type AppAbility, type SubjectName } from '../../shared/abilities';
 import type { SessionUser } from '../auth/passport';
-import { ABSOLUTE_TIMEOUT_MS, IDLE_TIMEOUT_MS } from '../auth/session';
+import { ABSOLUTE_TIMEOUT_MS, IDLE_TIMEOUT_MS, SESSION_TOUCH_INTERVAL_MS } from '../auth/session';
 import { clock } from '../lib/clock';
 import { AppError, forbidden, notFound, unauthenticated } from '../lib/errors';
 
@@ -33,7 +33,7 @@ export function sessionPolicy(opts: { demoMode: boolean }): RequestHandler {
           next(new AppError(401, 'auth.session_expired', 'Your session has ended. Please sign in again.'));
         });
       }
-      s.lastSeenAt = now;
+      if (!s.lastSeenAt || now - s.lastSeenAt >= SESSION_TOUCH_INTERVAL_MS) s.lastSeenAt = now;
     }
     req.ability = defineAbilityFor(req.user ? toAbilityUser(req.user) : null, opts);
     next();

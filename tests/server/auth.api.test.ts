@@ -127,6 +127,31 @@ describe('sign-in and sign-out', () => {
     clock.advance(29 * 60 * 1000); // 8 h 13 min after sign-in
     expect((await busy.get('/api/auth/me')).status).toBe(401);
   });
+
+  it('writes the session row at most once a minute while the session is in use, not on every request', async () => {
+    const org = await createOrganization(t.ds, 'contractor');
+    const user = await createUser(t.ds, org, ['installer']);
+    const agent = t.request();
+    const login = await agent.post('/api/auth/login').send({ email: user.email, password: TEST_PASSWORD });
+    const sid = decodeURIComponent(sessionCookie(login)!.split('=')[1]).replace(/^s:/, '').split('.')[0];
+    const row = async () =>
+      ((await t.ds.query('SELECT data, expires FROM sessions WHERE session_id = ?', [sid])) as { data: string; expires: number }[])[0];
+    const signedIn = await row();
+    for (let i = 0; i < 5; i++) {
+      const r = await agent.get('/api/auth/me');
+      expect(r.status).toBe(200);
+      expect(r.headers['set-cookie']).toBeUndefined(); // nothing changed, nothing to send
+      clock.advance(10 * 1000);
+    }
+    expect(await row()).toEqual(signedIn);
+    clock.advance(15 * 1000); // 65 s after sign-in: the last activity is recorded again
+    const later = await agent.get('/api/auth/me');
+    expect(later.status).toBe(200);
+    expect(later.headers['set-cookie']?.[0]).toMatch(/^lp\.sid=.*Expires=/i);
+    const moved = await row();
+    expect(JSON.parse(moved.data).lastSeenAt).toBeGreaterThanOrEqual(JSON.parse(signedIn.data).lastSeenAt + 65_000);
+    clock.reset();
+  });
 });
 
 describe('the demo accounts', () => {

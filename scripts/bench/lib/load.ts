@@ -1,7 +1,7 @@
-import http from 'node:http';
+import autocannon from 'autocannon';
 
-// A small closed-loop load generator: N concurrent loops on keep-alive connections, each sending its next
-// request as soon as the last answer arrives, for a fixed time. Loopback only, bounded in time and count.
+// Load with autocannon: N keep-alive connections, each sending its next request as soon as the last answer
+// arrives, for a fixed time. Loopback only, bounded in time and count.
 
 export type LoadResult = {
   requests: number;
@@ -39,50 +39,23 @@ export async function runLoad(opts: LoadOptions): Promise<LoadResult> {
   const url = new URL(opts.base);
   if (url.hostname !== '127.0.0.1' && url.hostname !== 'localhost')
     throw new Error('load tests run against 127.0.0.1 only');
-  const connections = opts.connections ?? 16;
-  const seconds = opts.seconds ?? 10;
-  const maxRequests = opts.maxRequests ?? 200_000;
-  const agent = new http.Agent({ keepAlive: true, maxSockets: connections });
-  const latencies: number[] = [];
-  let errors = 0;
-  let sent = 0;
-  const started = performance.now();
-  const deadline = started + seconds * 1000;
-
-  const once = (path: string) =>
-    new Promise<number>((resolve) => {
-      const req = http.request(
-        { host: url.hostname, port: url.port, path, method: 'GET', agent, headers: opts.headers },
-        (res) => {
-          res.resume();
-          res.on('end', () => resolve(res.statusCode ?? 0));
-          res.on('error', () => resolve(0));
-        },
-      );
-      req.on('error', () => resolve(0));
-      req.end();
-    });
-
-  const loop = async () => {
-    while (performance.now() < deadline && sent < maxRequests) {
-      const n = sent++;
-      const t0 = performance.now();
-      const status = await once(opts.path(n));
-      latencies.push(performance.now() - t0);
-      if (status !== 200) errors++;
-    }
-  };
-  await Promise.all(Array.from({ length: connections }, loop));
-  const elapsed = (performance.now() - started) / 1000;
-  agent.destroy();
-  latencies.sort((a, b) => a - b);
+  let n = 0;
+  const result = await autocannon({
+    url: opts.base,
+    connections: opts.connections ?? 16,
+    duration: opts.seconds ?? 10,
+    amount: opts.maxRequests,
+    headers: opts.headers,
+    // Each request may ask for another path (a record page cycling through ids).
+    requests: [{ method: 'GET', setupRequest: (req) => ({ ...req, path: opts.path(n++) }) }],
+  });
   return {
-    requests: latencies.length,
-    errors,
-    seconds: elapsed,
-    perSecond: latencies.length / elapsed,
-    p50: percentile(latencies, 50),
-    p99: percentile(latencies, 99),
-    max: latencies[latencies.length - 1] ?? NaN,
+    requests: result.requests.total,
+    errors: result.errors + result.timeouts + result.non2xx,
+    seconds: result.duration,
+    perSecond: result.requests.total / result.duration,
+    p50: result.latency.p50,
+    p99: result.latency.p99,
+    max: result.latency.max,
   };
 }

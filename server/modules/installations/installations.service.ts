@@ -127,36 +127,43 @@ export function createInstallationsService(ds: AppDataSource) {
       const sort = parseSort(q.sort, SORTS)!;
       const qb = repo
         .createQueryBuilder('i')
-        .innerJoinAndSelect('i.productModel', 'p')
-        .innerJoinAndSelect('i.contractor', 'c')
-        .innerJoinAndSelect('i.manufacturer', 'm')
+        // Left joins on required keys keep installations first in the plan (see the claims list).
+        .leftJoinAndSelect('i.productModel', 'p')
+        .leftJoinAndSelect('i.contractor', 'c')
+        .leftJoinAndSelect('i.manufacturer', 'm')
         .leftJoinAndSelect('i.policyVersion', 'v')
         .leftJoinAndSelect('v.policy', 'pol')
         .orderBy(sort.column, sort.direction)
-        .addOrderBy('i.id', 'ASC')
+        .addOrderBy('i.id', sort.direction)
         .offset((q.page - 1) * q.pageSize)
         .limit(q.pageSize);
-      applyScope(qb, scope);
-      if (q.productModelId) qb.andWhere('i.product_model_id = :pm', { pm: q.productModelId });
-      if (q.manufacturerId) qb.andWhere('i.manufacturer_id = :mid', { mid: q.manufacturerId });
-      if (q.contractorId) qb.andWhere('i.contractor_id = :cid', { cid: q.contractorId });
-      if (q.location) qb.andWhere('i.location = :loc', { loc: q.location });
-      if (q.enclosure) qb.andWhere('i.enclosure = :enc', { enc: q.enclosure });
-      if (q.nominalSupplyVolts) qb.andWhere('i.nominal_supply_volts = :nsv', { nsv: q.nominalSupplyVolts });
-      if (q.q) {
-        const like = likeContains(q.q);
-        qb.andWhere(
-          new Brackets((w) =>
-            w
-              .where('i.site_name LIKE :q', { q: like })
-              .orWhere('i.site_city LIKE :q')
-              .orWhere('i.invoice_number LIKE :q')
-              .orWhere('p.model_number LIKE :q')
-              .orWhere('EXISTS (SELECT 1 FROM installation_units su WHERE su.installation_id = i.id AND su.serial LIKE :q)'),
-          ),
-        );
+      // The count joins only what the search needs.
+      const counter = repo.createQueryBuilder('i').select('COUNT(*)', 'n');
+      if (q.q) counter.leftJoin('i.productModel', 'p');
+      for (const w of [qb, counter]) {
+        applyScope(w, scope);
+        if (q.productModelId) w.andWhere('i.product_model_id = :pm', { pm: q.productModelId });
+        if (q.manufacturerId) w.andWhere('i.manufacturer_id = :mid', { mid: q.manufacturerId });
+        if (q.contractorId) w.andWhere('i.contractor_id = :cid', { cid: q.contractorId });
+        if (q.location) w.andWhere('i.location = :loc', { loc: q.location });
+        if (q.enclosure) w.andWhere('i.enclosure = :enc', { enc: q.enclosure });
+        if (q.nominalSupplyVolts) w.andWhere('i.nominal_supply_volts = :nsv', { nsv: q.nominalSupplyVolts });
+        if (q.q) {
+          const like = likeContains(q.q);
+          w.andWhere(
+            new Brackets((b) =>
+              b
+                .where('i.site_name LIKE :q', { q: like })
+                .orWhere('i.site_city LIKE :q')
+                .orWhere('i.invoice_number LIKE :q')
+                .orWhere('p.model_number LIKE :q')
+                .orWhere('EXISTS (SELECT 1 FROM installation_units su WHERE su.installation_id = i.id AND su.serial LIKE :q)'),
+            ),
+          );
+        }
       }
-      const [items, total] = await qb.getManyAndCount();
+      const [items, count] = await Promise.all([qb.getMany(), counter.getRawOne<{ n: string | number }>()]);
+      const total = Number(count?.n ?? 0);
       const counts = new Map<string, number>();
       if (items.length) {
         const raw = await ds
