@@ -105,16 +105,18 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
   };
 
   async function findById(id: string, m: EntityManager = ds.manager): Promise<LoadedClaim | null> {
-    return (await m.findOne(Claim, {
-      where: { id },
-      relations: {
-        contractor: true,
-        manufacturer: true,
-        productModel: true,
-        installation: { units: true },
-        policyVersion: { policy: true },
-      },
-    })) as LoadedClaim | null;
+    // One query: findOne with a to-many relation would first run a DISTINCT query for the id it was given.
+    return ((await m
+      .createQueryBuilder(Claim, 'c')
+      .leftJoinAndSelect('c.contractor', 'co')
+      .leftJoinAndSelect('c.manufacturer', 'mo')
+      .leftJoinAndSelect('c.productModel', 'p')
+      .leftJoinAndSelect('c.installation', 'i')
+      .leftJoinAndSelect('i.units', 'u')
+      .leftJoinAndSelect('c.policyVersion', 'v')
+      .leftJoinAndSelect('v.policy', 'pol')
+      .where('c.id = :id', { id })
+      .getOne()) ?? null) as LoadedClaim | null;
   }
 
   /** Evaluates a claim now, as it stands: the same input the form's live view builds. */

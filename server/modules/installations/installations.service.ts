@@ -180,10 +180,18 @@ export function createInstallationsService(ds: AppDataSource) {
     },
 
     findById(id: string) {
-      return repo.findOne({
-        where: { id },
-        relations: { productModel: { manufacturer: true }, contractor: true, manufacturer: true, policyVersion: { policy: true }, units: true },
-      });
+      // One query (findOne with the to-many units would run a DISTINCT query for the id first).
+      return repo
+        .createQueryBuilder('i')
+        .leftJoinAndSelect('i.productModel', 'p')
+        .leftJoinAndSelect('p.manufacturer', 'pm')
+        .leftJoinAndSelect('i.contractor', 'c')
+        .leftJoinAndSelect('i.manufacturer', 'm')
+        .leftJoinAndSelect('i.policyVersion', 'v')
+        .leftJoinAndSelect('v.policy', 'pol')
+        .leftJoinAndSelect('i.units', 'u')
+        .where('i.id = :id', { id })
+        .getOne();
     },
 
     findProduct(id: string) {
