@@ -6,6 +6,7 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../server/db/seed/demo-accounts';
 import { seedDemo } from '../server/db/seed/demo';
 import { createStorage } from '../server/lib/storage';
 import { startServer } from '../server/index';
+import { startCluster } from '../server/cluster';
 import { buildClientIfNeeded } from './lib/build-client';
 import { startLocalDb, type LocalDb } from './lib/mariadb';
 import { startFakeSmtp } from './fake-smtp';
@@ -55,7 +56,10 @@ async function main() {
       console.log(`Fake SMTP server on 127.0.0.1:${smtp.port} (mail kept in ${config.mailboxDir})`);
     }
 
-    const server = await startServer(config, databaseUrl);
+    const server =
+      config.workers > 1
+        ? await startCluster({ count: config.workers, databaseUrl, env: { NODE_ENV: config.env } })
+        : await startServer(config, databaseUrl);
     stops.push(server.stop);
 
     console.log(`\nLumenproof is running at ${server.url}\n`);

@@ -1,6 +1,7 @@
 import path from 'node:path';
 import type { Server } from 'node:http';
 import { createApp } from './app';
+import { startCluster } from './cluster';
 import { loadConfig, type AppConfig } from './config/env';
 import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
@@ -48,7 +49,8 @@ if (import.meta.url === `file://${process.argv[1]}`) {
     console.error('DATABASE_URL is required to run server/index.ts directly; `npm start` manages a local database.');
     process.exit(2);
   }
-  startServer(config, config.databaseUrl)
+  const databaseUrl = config.databaseUrl;
+  (config.workers > 1 ? startCluster({ count: config.workers, databaseUrl }) : startServer(config, databaseUrl))
     .then((srv) => {
       const stop = () => srv.stop().then(() => process.exit(0));
       process.on('SIGINT', stop);

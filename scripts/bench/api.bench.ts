@@ -4,6 +4,7 @@
 // the same run (medians and their ratio; aim: the API within 2x); then throughput and latency with 16
 // concurrent keep-alive connections for the list and a record's page (aim: 400 req/s, p99 under 100 ms).
 // Bounded: BENCH_LOAD_SECONDS (10) per load run, BENCH_ROUNDS (100) per median. Asserts nothing.
+import os from 'node:os';
 import mysql from 'mysql2/promise';
 import { BENCH_PASSWORD, benchEmail, generate } from './generate-claims';
 import { hasTable, openBenchDb, report } from './lib/bench-db';
@@ -44,7 +45,7 @@ async function main() {
     await generate(bench.ds, { claims: Number(process.env.BENCH_CLAIMS ?? 100_000) });
   }
   // The API in a process of its own, as in production; the load comes from this one.
-  const server = await startServerProcess(bench.url);
+  let server = await startServerProcess(bench.url);
   const base = server.base;
   try {
     const [mfr] = (await bench.ds.query("SELECT id FROM organizations WHERE name = 'Bench Lighting 0'")) as {
@@ -100,48 +101,40 @@ async function main() {
         value: raw,
         unit: 'ms',
       });
-
-      for (const [what, path] of [
-        ['list', () => tg.listPath],
-        ['page', (n: number) => tg.detailPath(tg.ids[n % tg.ids.length])],
-      ] as const) {
-        const res = await runLoad({
-          base,
-          path,
-          headers: { cookie },
-          connections: CONNECTIONS,
-          seconds: SECONDS,
-        });
-        console.log(
-          `${tg.name} ${what} at ${CONNECTIONS} connections for ${res.seconds.toFixed(1)} s: ${res.perSecond.toFixed(0)} req/s, p50 ${res.p50.toFixed(1)} ms, p99 ${res.p99.toFixed(1)} ms, ${res.errors} errors of ${res.requests}`,
-        );
-        report({
-          part: 'load',
-          figure: `${tg.name} ${what}, ${CONNECTIONS} connections`,
-          value: res.perSecond,
-          unit: 'req/s',
-          aim: '400 req/s',
-        });
-        report({ part: 'load', figure: `${tg.name} ${what}, p50`, value: res.p50, unit: 'ms' });
-        report({
-          part: 'load',
-          figure: `${tg.name} ${what}, p99`,
-          value: res.p99,
-          unit: 'ms',
-          aim: 'under 100 ms',
-        });
-        report({
-          part: 'load',
-          figure: `${tg.name} ${what}, errors`,
-          value: res.errors,
-          unit: `of ${res.requests}`,
-        });
-      }
+    }
+    await loadRuns(base, cookie, targets, 1);
+    await server.stop();
+    // The same load against a cluster with a process per core (WEB_CONCURRENCY), as production would run it.
+    const workers = Number(process.env.BENCH_WORKERS ?? os.availableParallelism());
+    if (workers > 1) {
+      server = await startServerProcess(bench.url, { workers });
+      await loadRuns(server.base, await signIn(server.base, benchEmail('m', 0, 'reviewer')), targets, workers);
     }
   } finally {
     await server.stop();
     await conn.end();
     await bench.close();
+  }
+}
+
+/** 16 connections on the list and on a record's page of each target, against a server of `workers` processes. */
+async function loadRuns(base: string, cookie: string, targets: Target[], workers: number) {
+  const label = workers === 1 ? '1 process' : `${workers} processes`;
+  for (const tg of targets) {
+    for (const [what, path] of [
+      ['list', () => tg.listPath],
+      ['page', (n: number) => tg.detailPath(tg.ids[n % tg.ids.length])],
+    ] as const) {
+      const res = await runLoad({ base, path, headers: { cookie }, connections: CONNECTIONS, seconds: SECONDS });
+      console.log(
+        `${tg.name} ${what}, ${label}, ${CONNECTIONS} connections for ${res.seconds.toFixed(1)} s: ${res.perSecond.toFixed(0)} req/s, p50 ${res.p50.toFixed(1)} ms, p99 ${res.p99.toFixed(1)} ms, ${res.errors} errors of ${res.requests}`,
+      );
+      const figure = `${tg.name} ${what}, ${label}`;
+      report({ part: 'load', figure: `${figure}, ${CONNECTIONS} connections`, value: res.perSecond, unit: 'req/s', aim: '400 req/s' });
+      report({ part: 'load', figure: `${figure}, p50`, value: res.p50, unit: 'ms' });
+      report({ part: 'load', figure: `${figure}, p99`, value: res.p99, unit: 'ms', aim: 'under 100 ms' });
+      report({ part: 'load', figure: `${figure}, errors`, value: res.errors, unit: `of ${res.requests}` });
+    }
   }
 }
 

@@ -13,6 +13,8 @@ const envSchema = z.object({
   APP_MODE: z.enum(['demo', 'production']).optional(),
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  /** Serving processes (node:cluster); 1 serves from the starting process itself. */
+  WEB_CONCURRENCY: z.coerce.number().int().min(1).max(64).default(1),
   PUBLIC_URL: z.url().optional(),
   DATABASE_URL: z.string().optional(),
   DB_PORT: z.coerce.number().int().min(1).max(65535).default(3307),
@@ -46,6 +48,7 @@ export type AppConfig = {
   mode: 'demo' | 'production';
   host: string;
   port: number;
+  workers: number;
   publicUrl: string | undefined;
   databaseUrl: string | undefined;
   dbPort: number;
@@ -88,6 +91,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     mode,
     host: e.HOST,
     port: e.PORT,
+    workers: e.WEB_CONCURRENCY,
     publicUrl: e.PUBLIC_URL,
     databaseUrl: e.DATABASE_URL,
     dbPort: e.DB_PORT,
