@@ -127,12 +127,15 @@ export function createInstallationsService(ds: AppDataSource) {
       const sort = parseSort(q.sort, SORTS)!;
       const qb = repo
         .createQueryBuilder('i')
-        // Left joins on required keys keep installations first in the plan (see the claims list).
-        .leftJoinAndSelect('i.productModel', 'p')
-        .leftJoinAndSelect('i.contractor', 'c')
-        .leftJoinAndSelect('i.manufacturer', 'm')
-        .leftJoinAndSelect('i.policyVersion', 'v')
-        .leftJoinAndSelect('v.policy', 'pol')
+        // Left joins on required keys keep installations first in the plan (see the claims list); of the joined
+        // records, only what a list row shows.
+        .leftJoin('i.productModel', 'p')
+        .leftJoin('i.contractor', 'c')
+        .leftJoin('i.manufacturer', 'm')
+        .leftJoin('i.policyVersion', 'v')
+        .leftJoin('v.policy', 'pol')
+        .addSelect(['p.id', 'p.modelNumber', 'p.name', 'p.family', 'c.id', 'c.name', 'm.id', 'm.name'])
+        .addSelect(['v.id', 'v.policyId', 'v.versionNumber', 'v.effectiveFrom', 'pol.id', 'pol.name'])
         .orderBy(sort.column, sort.direction)
         .addOrderBy('i.id', sort.direction)
         .offset((q.page - 1) * q.pageSize)
