@@ -1,6 +1,6 @@
 // npm run bench:import
 // Imports 10,000 installation rows (two serials each) from CSV through the real import service, on the private
-// test MariaDB (profile "test", port DB_PORT + 1, emptied first: do not run it beside the test suite), and
+// MariaDB of its own (profile "bench-import", port DB_PORT + 5, emptied first), and
 // beside it, as the baseline, raw multi-row INSERTs of the same installation and serial rows. Prints rows per
 // second for both and the ratio; asserts nothing.
 import crypto from 'node:crypto';
@@ -21,8 +21,8 @@ async function main() {
   const config = loadConfig();
   const db = await startLocalDb({
     dataDir: config.dataDir,
-    profile: 'test',
-    port: config.dbPort + 1,
+    profile: 'bench-import',
+    port: config.dbPort + 5,
     log: () => {},
   });
   await resetDatabase(db);

@@ -4,7 +4,7 @@
 //   api.bench.ts        the list through the API beside raw mysql2; 16-connection load on the list and a page
 //   engine.bench.ts     evaluations per second beside schema validation alone
 //   pdf.bench.ts        letters and memos per second beside a bare pdfkit page
-//   import.bench.ts     CSV import rows per second beside raw INSERTs (on the test database: not beside tests)
+//   import.bench.ts     CSV import rows per second beside raw INSERTs (a database of its own, DB_PORT + 5)
 //   bundle.ts           the client's gzipped JavaScript for sign-in and the homes
 // BENCH_ONLY=api,pdf runs some parts only.
 import { spawn } from 'node:child_process';

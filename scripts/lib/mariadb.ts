@@ -7,8 +7,9 @@ import mysql from 'mysql2/promise';
 // Lifecycle of a private MariaDB server for the demo and for the tests: Debian's mariadbd, its own data
 // directory under .data/, listening on 127.0.0.1 only, stopped by its pid.
 
-// bench: the benchmarks' own database (port DB_PORT + 4), filled by scripts/bench/generate-claims.ts.
-export type DbProfile = 'demo' | 'test' | 'e2e' | 'restore' | 'bench';
+// bench: the benchmarks' own database (port DB_PORT + 4), filled by scripts/bench/generate-claims.ts;
+// bench-import: the import benchmark's (port DB_PORT + 5), emptied at each run.
+export type DbProfile = 'demo' | 'test' | 'e2e' | 'restore' | 'bench' | 'bench-import';
 
 export type LocalDb = {
   url: string;
