@@ -42,7 +42,7 @@ export function createSessionStore(databaseUrl: string) {
     checkExpirationInterval: 15 * 60 * 1000,
     expiration: IDLE_TIMEOUT_MS,
     disableTouch: true, // the row is written when lastSeenAt moves (sessionPolicy), not on every request
-    connectionLimit: 5,
+    connectionLimit: 10, // every authenticated request reads its session first: enough for 16 at once without queueing long
     schema: { tableName: 'sessions', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
   });
 }
