@@ -48,7 +48,13 @@ async function runHere(directory: string) {
 function runInChild(directory: string): Promise<{ port: number; close: () => Promise<void> }> {
   const child = spawn(
     process.execPath,
-    ['--openssl-legacy-provider', '--import', 'tsx', path.resolve('tests/support/s3rver-child.ts'), directory],
+    [
+      '--openssl-legacy-provider',
+      '--import',
+      'tsx',
+      path.resolve('tests/support/s3rver-child.ts'),
+      directory,
+    ],
     { stdio: ['ignore', 'pipe', 'inherit'] },
   );
   const close = async () => {

@@ -12,6 +12,7 @@ import { paperFor } from '../../lib/pdf/document';
 import { sha256Hex } from '../../lib/pdf/hash';
 import { renderPackingSlip } from '../../lib/pdf/packing-slip';
 import type { Storage } from '../../lib/storage';
+import { putForTransaction } from '../../lib/transaction-objects';
 
 // The claim's generated PDFs: made once, at the move that calls for them, stored through the storage adapter
 // with their hash, and served as those very bytes ever after.
@@ -46,9 +47,9 @@ async function store(
 ): Promise<ClaimDocument> {
   const id = crypto.randomUUID();
   const storageKey = `claims/${claim.id}/documents/${id}.pdf`;
-  // Written before the row commits: if the transaction rolls back, an unreferenced file stays behind, which is
-  // harmless (its key is random and nothing points at it); a row pointing at no file would not be.
-  await storage.put(storageKey, bytes, 'application/pdf');
+  // Written before the row commits (a row pointing at no file must never exist); a rollback deletes it again,
+  // and a crash leaves it to the storage sweep.
+  await putForTransaction(m, storage, storageKey, bytes, 'application/pdf');
   const doc = m.create(ClaimDocument, {
     id,
     claimId: claim.id,
