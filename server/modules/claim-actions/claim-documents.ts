@@ -7,6 +7,7 @@ import type { Claim } from '../../db/entities/claim.entity';
 import { Installation } from '../../db/entities/installation.entity';
 import { Organization } from '../../db/entities/organization.entity';
 import { ProductModel } from '../../db/entities/product-model.entity';
+import { crashPoint } from '../../lib/crash-point';
 import { renderDeterminationLetter } from '../../lib/pdf/determination-letter';
 import { paperFor } from '../../lib/pdf/document';
 import { sha256Hex } from '../../lib/pdf/hash';
@@ -50,6 +51,7 @@ async function store(
   // Written before the row commits (a row pointing at no file must never exist); a rollback deletes it again,
   // and a crash leaves it to the storage sweep.
   await putForTransaction(m, storage, storageKey, bytes, 'application/pdf');
+  await crashPoint('claim.document.after_store', m);
   const doc = m.create(ClaimDocument, {
     id,
     claimId: claim.id,
@@ -60,6 +62,7 @@ async function store(
     byteSize: bytes.length,
   });
   await m.insert(ClaimDocument, doc);
+  await crashPoint('claim.document.after_row', m);
   return doc;
 }
 

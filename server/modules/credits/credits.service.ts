@@ -169,8 +169,10 @@ export function createCreditsService(
           const now = clock.now();
           const memoId = crypto.randomUUID();
           const number = await nextMemoNumber(m, parties.manufacturer, now.getUTCFullYear());
+          await crashPoint('credit.issue.after_number', m);
           const pdf = await renderCreditMemo(memoData(parties, claim, { number, date: now, ...approved }));
           const stored = await storePdf(m, claim.manufacturerId, memoId, pdf);
+          await crashPoint('credit.issue.after_pdf', m);
 
           await m.insert(CreditMemo, {
             id: memoId,
@@ -199,6 +201,7 @@ export function createCreditsService(
             memoId,
             createdAt: now,
           });
+          await crashPoint('credit.issue.after_ledger', m);
           const moved = await m
             .createQueryBuilder()
             .update(Claim)
@@ -211,6 +214,7 @@ export function createCreditsService(
             .execute();
           if (moved.affected !== 1)
             throw conflict('claim.changed', 'The claim changed while the credit was issued. Try again.');
+          await crashPoint('credit.issue.after_move', m);
 
           await recordAudit(m, actor, {
             action: 'claim.credited',
@@ -239,6 +243,7 @@ export function createCreditsService(
               ...(input.note ? { note: input.note } : {}),
             },
           });
+          await crashPoint('credit.issue.after_audit', m);
           const to = await contractorRecipients(m, claim);
           if (to.length) {
             await enqueueEmail(m, {
