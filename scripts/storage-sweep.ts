@@ -65,6 +65,7 @@ async function main() {
       `Storage sweep (${config.storage.driver}, grace ${graceMs / 60_000} min): ${r.listed} objects listed, ` +
         `${r.referenced} referenced, ${r.fresh} inside the grace period, ${verb} ${r.removed.length}` +
         (r.failed.length ? `, ${r.failed.length} could not be removed` : '') +
+        (r.temporaries.length ? `; ${r.temporaries.length} temporary files of cut-off writes removed` : '') +
         '.',
     );
     for (const k of r.removed) console.log(`  ${k}`);

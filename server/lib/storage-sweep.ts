@@ -54,6 +54,8 @@ export type SweepResult = {
   failed: string[];
   /** Another sweep held the lock, so this one did nothing. */
   skipped: boolean;
+  /** Disk only: temporary files of writes a crash cut off, removed. */
+  temporaries: string[];
 };
 
 const placeholders = (n: number) => `(${Array.from({ length: n }, () => '?').join(',')})`;
@@ -90,7 +92,15 @@ export async function sweepStorage(
   const graceMs = opts.graceMs ?? DEFAULT_SWEEP_GRACE_MS;
   if (!(graceMs >= 0)) throw new Error('The grace period cannot be negative.');
   const batchSize = opts.batchSize ?? 500;
-  const result: SweepResult = { listed: 0, fresh: 0, referenced: 0, removed: [], failed: [], skipped: false };
+  const result: SweepResult = {
+    listed: 0,
+    fresh: 0,
+    referenced: 0,
+    removed: [],
+    failed: [],
+    skipped: false,
+    temporaries: [],
+  };
 
   // One sweep at a time across every server on this database: two would only do the same work twice.
   const qr = ds.createQueryRunner();
@@ -137,18 +147,22 @@ export async function sweepStorage(
         if (batch.length >= batchSize) await settle();
       }
       if (batch.length) await settle();
+      // A temporary file is never named by a row; one older than the grace period is a write that died.
+      if (!opts.dryRun && !opts.prefix && storage.removeStaleTemporaries)
+        result.temporaries = await storage.removeStaleTemporaries(new Date(cutoff));
     } finally {
       await qr.query('DO RELEASE_LOCK(?)', [LOCK]).catch(() => undefined);
     }
   } finally {
     await qr.release();
   }
-  if (result.removed.length || result.failed.length) {
+  if (result.removed.length || result.failed.length || result.temporaries.length) {
     opts.logger?.info(
       {
         listed: result.listed,
         removed: result.removed.length,
         failed: result.failed.length,
+        temporaries: result.temporaries.length,
         dryRun: opts.dryRun ?? false,
       },
       'storage sweep removed unreferenced objects',

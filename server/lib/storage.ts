@@ -30,6 +30,12 @@ export interface Storage {
    * pages as the store hands them out: the orphan sweep walks a whole store without holding it in memory.
    */
   list(prefix?: string): AsyncIterable<StoredObject>;
+  /**
+   * Disk only: removes the temporary files of writes cut off by a crash, last touched before `before`, and
+   * returns their paths. (On S3 an upload cut off never becomes an object; its parts are for the bucket's
+   * lifecycle rule, AbortIncompleteMultipartUpload.)
+   */
+  removeStaleTemporaries?(before: Date): Promise<string[]>;
 }
 
 export type StoredObject = { key: string; lastModified: Date; size: number };
@@ -131,6 +137,25 @@ export function createDiskStorage(root: string): Storage {
         }
       }
       yield* walk(base, '');
+    },
+    async removeStaleTemporaries(before) {
+      const removed: string[] = [];
+      const walk = async (dir: string, rel: string) => {
+        const entries = await fs.promises.readdir(dir, { withFileTypes: true }).catch(() => []);
+        for (const e of entries) {
+          const file = path.join(dir, e.name);
+          if (e.isDirectory()) await walk(file, `${rel}${e.name}/`);
+          else if (e.isFile() && e.name.startsWith('.tmp-')) {
+            const stat = await fs.promises.stat(file).catch(() => null);
+            if (stat && stat.mtime.getTime() < before.getTime()) {
+              await fs.promises.rm(file, { force: true });
+              removed.push(`${rel}${e.name}`);
+            }
+          }
+        }
+      };
+      await walk(base, '');
+      return removed;
     },
   };
 }

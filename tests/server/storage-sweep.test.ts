@@ -1,8 +1,10 @@
+import { execFile } from 'node:child_process';
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { promisify } from 'node:util';
+import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import { ClaimDocument } from '../../server/db/entities/claim-document.entity';
 import { CreditMemo } from '../../server/db/entities/credit-memo.entity';
 import { OutboxMessage } from '../../server/db/entities/outbox-message.entity';
@@ -27,6 +29,7 @@ import { pngImage } from '../support/upload-fixtures';
 // period; and the rollback clean-up removes what a failed transaction wrote.
 
 const HOUR = 60 * 60_000;
+const execFileAsync = promisify(execFile);
 const logger = createLogger('silent');
 let t: TestContext;
 let diskDir: string;
@@ -151,6 +154,47 @@ function sweepContract(name: string, make: () => Storage) {
 
 sweepContract('the disk', () => createDiskStorage(diskDir));
 sweepContract('S3 (s3rver)', () => s3.storage);
+
+describe('the sweep on the disk, specifically', () => {
+  it('removes the temporary file of a write a crash cut off, once it is older than the grace period', async () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lumenproof-sweep-tmp-'));
+    const storage = createDiskStorage(dir);
+    fs.mkdirSync(path.join(dir, 'attachments'));
+    const temp = `attachments/.tmp-${crypto.randomUUID()}`;
+    fs.writeFileSync(path.join(dir, temp), 'half a photo');
+    expect((await sweepStorage(t.ds, storage, { graceMs: HOUR })).temporaries).toEqual([]);
+    expect(fs.existsSync(path.join(dir, temp))).toBe(true);
+    clock.advance(2 * HOUR);
+    expect((await sweepStorage(t.ds, storage, { graceMs: HOUR })).temporaries).toEqual([temp]);
+    expect(fs.existsSync(path.join(dir, temp))).toBe(false);
+    fs.rmSync(dir, { recursive: true, force: true });
+  });
+
+  it(
+    'runs as a script (npm run storage:sweep): a dry run names the orphan, the sweep removes it',
+    { timeout: 60_000 },
+    async () => {
+      const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lumenproof-sweep-script-'));
+      const storage = createDiskStorage(dir);
+      const orphan = `claims/${crypto.randomUUID()}/documents/${crypto.randomUUID()}.pdf`;
+      await storage.put(orphan, Buffer.from('orphan'), 'application/pdf');
+      const run = (...args: string[]) =>
+        execFileAsync(process.execPath, ['--import', 'tsx', 'scripts/storage-sweep.ts', ...args], {
+          env: { ...process.env, DATABASE_URL: inject('databaseUrl'), STORAGE_DIR: dir, NODE_ENV: 'test' },
+        });
+      // Inside the default grace period (an hour) it stays.
+      expect((await run()).stdout).toContain('1 inside the grace period, removed 0');
+      const dry = await run('--dry-run', '--grace-minutes', '0');
+      expect(dry.stdout).toContain('would remove 1');
+      expect(dry.stdout).toContain(orphan);
+      expect(await storage.exists(orphan)).toBe(true);
+      expect((await run('--grace-minutes', '0')).stdout).toContain('removed 1');
+      expect(await storage.exists(orphan)).toBe(false);
+      await expect(run('--grace-minutes', 'soon')).rejects.toMatchObject({ code: 2 });
+      fs.rmSync(dir, { recursive: true, force: true });
+    },
+  );
+});
 
 describe('what the sweep counts as a reference', () => {
   it('knows every column that holds a storage key (a new `*_key` column must be listed)', () => {
