@@ -8,6 +8,8 @@ import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vi
 import { ClaimDocument } from '../../server/db/entities/claim-document.entity';
 import { CreditMemo } from '../../server/db/entities/credit-memo.entity';
 import { OutboxMessage } from '../../server/db/entities/outbox-message.entity';
+import { loadConfig } from '../../server/config/env';
+import { startServer } from '../../server/index';
 import { clock } from '../../server/lib/clock';
 import { createLogger } from '../../server/lib/logger';
 import { createDiskStorage, type Storage } from '../../server/lib/storage';
@@ -21,6 +23,7 @@ import { pendingObjectKeys, putForTransaction } from '../../server/lib/transacti
 import { saveAttachment } from '../../server/modules/attachments/attachments.service';
 import { createApprovedClaim } from '../support/credit-factories';
 import { createOrganization, createUser } from '../support/factories';
+import { until } from '../support/crash-harness';
 import { startFakeS3 } from '../support/fake-s3';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 import { pngImage } from '../support/upload-fixtures';
@@ -228,6 +231,31 @@ describe('the sweeper in the server', () => {
       'claims/old/documents/orphan.pdf',
     ]);
     expect(await keysOf(storage)).toEqual([]);
+  });
+});
+
+describe('the server', () => {
+  it('sweeps at start-up (startServer)', { timeout: 60_000 }, async () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lumenproof-sweep-start-'));
+    const storage = createDiskStorage(dir);
+    const orphan = `credit-memos/${crypto.randomUUID()}/${crypto.randomUUID()}.pdf`;
+    await storage.put(orphan, Buffer.from('orphan'), 'application/pdf');
+    clock.advance(2 * HOUR);
+    const config = loadConfig({
+      NODE_ENV: 'test',
+      LOG_LEVEL: 'silent',
+      PORT: '0',
+      OUTBOX_WORKER: 'false',
+      STORAGE_DIR: dir,
+      DATA_DIR: '.data/test-run',
+    });
+    const srv = await startServer(config, inject('databaseUrl'));
+    try {
+      await until('the start-up sweep', async () => !(await storage.exists(orphan)));
+    } finally {
+      await srv.stop();
+      fs.rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
 
