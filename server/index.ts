@@ -7,6 +7,7 @@ import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { startOutboxWorker } from './lib/outbox';
 import { createStorage } from './lib/storage';
+import { startStorageSweeper } from './lib/storage-sweep';
 
 export async function startServer(config: AppConfig, databaseUrl: string) {
   const logger = createLogger(config.logLevel);
@@ -20,6 +21,8 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
   const worker = config.outboxWorker
     ? startOutboxWorker(ds, config, logger, { loadAttachment: (a) => storage.getBuffer(a.storageKey) })
     : null;
+  // Objects a killed process wrote without committing their rows: swept now and then periodically.
+  const sweeper = startStorageSweeper(ds, storage, logger, config.storage.sweep);
 
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 passes the listen error (EADDRINUSE and the like) to the callback.
@@ -36,6 +39,7 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections?.();
       await worker?.stop();
+      await sweeper.stop();
       await app.close();
       await ds.destroy();
     },

@@ -35,6 +35,10 @@ const envSchema = z.object({
   S3_BUCKET: z.string().optional(),
   S3_ACCESS_KEY_ID: z.string().optional(),
   S3_SECRET_ACCESS_KEY: z.string().optional(),
+  /** Unreferenced stored objects younger than this are kept (uploads in flight); server/lib/storage-sweep.ts. */
+  STORAGE_SWEEP_GRACE_MINUTES: z.coerce.number().int().min(5).max(7 * 24 * 60).default(60),
+  /** How often the server sweeps after the sweep at start-up; 0 sweeps only at start-up. */
+  STORAGE_SWEEP_INTERVAL_MINUTES: z.coerce.number().int().min(0).max(7 * 24 * 60).default(60),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   OUTBOX_WORKER: bool.default(true),
   /** Tests only (NODE_ENV=test): the credit-issuing transaction sleeps this long after the memo insert. */
@@ -61,6 +65,7 @@ export type AppConfig = {
     driver: 'disk' | 's3';
     dir: string;
     s3: { endpoint?: string; region: string; bucket?: string; accessKeyId?: string; secretAccessKey?: string };
+    sweep: { graceMs: number; intervalMs: number };
   };
   logLevel: string;
   outboxWorker: boolean;
@@ -117,6 +122,10 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
         bucket: e.S3_BUCKET,
         accessKeyId: e.S3_ACCESS_KEY_ID,
         secretAccessKey: e.S3_SECRET_ACCESS_KEY,
+      },
+      sweep: {
+        graceMs: e.STORAGE_SWEEP_GRACE_MINUTES * 60_000,
+        intervalMs: e.STORAGE_SWEEP_INTERVAL_MINUTES * 60_000,
       },
     },
     logLevel: e.LOG_LEVEL,

@@ -1,5 +1,6 @@
 import 'reflect-metadata';
 import { DataSource, type Logger as TypeOrmLogger } from 'typeorm';
+import { TransactionObjectsSubscriber } from '../lib/transaction-objects';
 import { entities } from './entities';
 import { migrations } from './migrations';
 
@@ -28,6 +29,8 @@ export function createDataSource(url: string, opts: { poolSize?: number } = {}) 
     url,
     entities,
     migrations,
+    // Deletes the stored objects of a transaction that rolls back (server/lib/transaction-objects.ts).
+    subscribers: [TransactionObjectsSubscriber],
     synchronize: false,
     migrationsRun: false,
     migrationsTransactionMode: 'each',

@@ -7,6 +7,7 @@ import {
   DeleteObjectCommand,
   GetObjectCommand,
   HeadObjectCommand,
+  ListObjectsV2Command,
   PutObjectCommand,
   S3Client,
   type S3ClientConfig,
@@ -24,7 +25,20 @@ export interface Storage {
   getBuffer(key: string): Promise<Buffer>;
   delete(key: string): Promise<void>;
   exists(key: string): Promise<boolean>;
+  /**
+   * Every stored object whose key starts with prefix (all of them without one), with its last-modified time, in
+   * pages as the store hands them out: the orphan sweep walks a whole store without holding it in memory.
+   */
+  list(prefix?: string): AsyncIterable<StoredObject>;
+  /**
+   * Disk only: removes the temporary files of writes cut off by a crash, last touched before `before`, and
+   * returns their paths. (On S3 an upload cut off never becomes an object; its parts are for the bucket's
+   * lifecycle rule, AbortIncompleteMultipartUpload.)
+   */
+  removeStaleTemporaries?(before: Date): Promise<string[]>;
 }
+
+export type StoredObject = { key: string; lastModified: Date; size: number };
 
 export class StorageKeyError extends Error {}
 export class StorageObjectMissing extends Error {
@@ -101,6 +115,48 @@ export function createDiskStorage(root: string): Storage {
         throw err;
       }
     },
+    async *list(prefix = '') {
+      // Walks the folder depth first in name order; temporary files of writes in flight (and anything else that
+      // is not a key) are not objects and are never listed.
+      async function* walk(dir: string, keyPrefix: string): AsyncGenerator<StoredObject> {
+        const entries = await fs.promises.readdir(dir, { withFileTypes: true }).catch((err) => {
+          if (missing(err)) return [];
+          throw err;
+        });
+        entries.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
+        for (const e of entries) {
+          const key = `${keyPrefix}${e.name}`;
+          if (e.isDirectory()) {
+            if (prefix.startsWith(`${key}/`) || `${key}/`.startsWith(prefix))
+              yield* walk(path.join(dir, e.name), `${key}/`);
+          } else if (e.isFile() && key.startsWith(prefix) && KEY.test(key)) {
+            const stat = await fs.promises.stat(path.join(dir, e.name)).catch(() => null);
+            // Gone between the listing and the stat: deleted meanwhile, so not there.
+            if (stat) yield { key, lastModified: stat.mtime, size: stat.size };
+          }
+        }
+      }
+      yield* walk(base, '');
+    },
+    async removeStaleTemporaries(before) {
+      const removed: string[] = [];
+      const walk = async (dir: string, rel: string) => {
+        const entries = await fs.promises.readdir(dir, { withFileTypes: true }).catch(() => []);
+        for (const e of entries) {
+          const file = path.join(dir, e.name);
+          if (e.isDirectory()) await walk(file, `${rel}${e.name}/`);
+          else if (e.isFile() && e.name.startsWith('.tmp-')) {
+            const stat = await fs.promises.stat(file).catch(() => null);
+            if (stat && stat.mtime.getTime() < before.getTime()) {
+              await fs.promises.rm(file, { force: true });
+              removed.push(`${rel}${e.name}`);
+            }
+          }
+        }
+      };
+      await walk(base, '');
+      return removed;
+    },
   };
 }
 
@@ -110,6 +166,8 @@ export type S3StorageOptions = {
   endpoint?: string;
   accessKeyId?: string;
   secretAccessKey?: string;
+  /** Keys per ListObjectsV2 page (S3's own limit and default is 1,000); tests set it small to page. */
+  listPageSize?: number;
 };
 
 export function createS3Storage(opts: S3StorageOptions): Storage & { client: S3Client } {
@@ -174,6 +232,25 @@ export function createS3Storage(opts: S3StorageOptions): Storage & { client: S3C
         if (notFound(err)) return false;
         throw err;
       }
+    },
+    async *list(prefix) {
+      let ContinuationToken: string | undefined;
+      do {
+        const page = await client.send(
+          new ListObjectsV2Command({
+            Bucket,
+            Prefix: prefix || undefined,
+            MaxKeys: opts.listPageSize ?? 1000,
+            ContinuationToken,
+          }),
+        );
+        for (const o of page.Contents ?? []) {
+          if (!o.Key) continue;
+          // A store that gives no time is taken as "just written": the sweep then leaves the object alone.
+          yield { key: o.Key, lastModified: o.LastModified ?? new Date(), size: o.Size ?? 0 };
+        }
+        ContinuationToken = page.IsTruncated ? page.NextContinuationToken : undefined;
+      } while (ContinuationToken);
     },
   };
 }

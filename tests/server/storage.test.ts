@@ -3,11 +3,13 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { Readable } from 'node:stream';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ListObjectsV2Command } from '@aws-sdk/client-s3';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { loadConfig } from '../../server/config/env';
 import {
   assertStorageKey,
   createDiskStorage,
+  createS3Storage,
   createStorage,
   StorageKeyError,
   StorageObjectMissing,
@@ -106,7 +108,41 @@ function contract(name: string, make: () => { storage: Storage; listing: () => P
       await expect(storage.get('a/../../etc/passwd')).rejects.toBeInstanceOf(StorageKeyError);
       expect(await listing()).toEqual([]);
     });
+
+    it('lists every object with its size and last-modified time, or those under a prefix', async () => {
+      const { storage, listing } = make();
+      // Stores keep seconds at least; the window allows for a store that truncates to the second.
+      const before = Date.now() - 1000;
+      const keys = [
+        'claims/c1/documents/d1.pdf',
+        'claims/c1/documents/d2.pdf',
+        'claims/c2/x',
+        'credit-memos/m/1.pdf',
+      ];
+      for (const k of keys) await storage.put(k, Buffer.from(k), 'application/pdf');
+      const after = Date.now() + 1000;
+      const all = await collect(storage.list());
+      expect(all.map((o) => o.key).sort()).toEqual(keys);
+      for (const o of all) {
+        expect(o.size).toBe(Buffer.byteLength(o.key));
+        expect(o.lastModified.getTime()).toBeGreaterThanOrEqual(before);
+        expect(o.lastModified.getTime()).toBeLessThanOrEqual(after);
+      }
+      expect((await collect(storage.list('claims/c1/'))).map((o) => o.key).sort()).toEqual(keys.slice(0, 2));
+      // A prefix is a prefix of the key, not a folder: it may end inside a segment.
+      expect((await collect(storage.list('claims/c'))).map((o) => o.key).sort()).toEqual(keys.slice(0, 3));
+      expect(await collect(storage.list('nothing/'))).toEqual([]);
+      for (const k of keys) await storage.delete(k);
+      expect(await listing()).toEqual([]);
+      expect(await collect(storage.list())).toEqual([]);
+    });
   });
+}
+
+async function collect<T>(it: AsyncIterable<T>) {
+  const out: T[] = [];
+  for await (const x of it) out.push(x);
+  return out;
 }
 
 let diskDir: string;
@@ -123,6 +159,25 @@ afterAll(async () => {
 contract('disk', () => ({ storage: createDiskStorage(diskDir), listing: async () => listFiles(diskDir) }));
 contract('S3 (against s3rver)', () => ({ storage: s3.storage, listing: () => s3.keys() }));
 
+describe('S3 listing', () => {
+  it('follows continuation tokens across pages (ListObjectsV2)', { timeout: 60_000 }, async () => {
+    const own = await startFakeS3('lumenproof-paged', { ownProcess: true });
+    const storage = createS3Storage({ ...own.settings, listPageSize: 2 });
+    const keys = ['paged/a', 'paged/b', 'paged/c', 'paged/d', 'paged/e'];
+    for (const k of keys) await storage.put(k, Buffer.from(k), 'text/plain');
+    const send = vi.spyOn(storage.client, 'send');
+    const listed = await collect(storage.list('paged/'));
+    expect(listed.map((o) => o.key)).toEqual(keys);
+    // 5 keys at 2 a page: three requests.
+    expect(send.mock.calls.filter(([c]) => c instanceof ListObjectsV2Command)).toHaveLength(3);
+    send.mockRestore();
+    for (const k of keys) await storage.delete(k);
+    storage.client.destroy();
+    expect(await own.keys()).toEqual([]);
+    await own.stop();
+  });
+});
+
 describe('disk adapter specifics', () => {
   it('leaves no temporary file behind when a streamed write fails', async () => {
     const storage = createDiskStorage(diskDir);
@@ -136,6 +191,15 @@ describe('disk adapter specifics', () => {
       'connection dropped',
     );
     expect(listFiles(diskDir)).toEqual([]);
+  });
+
+  it('does not list a write in flight (its temporary file) or anything that is not a key', async () => {
+    const storage = createDiskStorage(diskDir);
+    fs.mkdirSync(path.join(diskDir, 'attachments'), { recursive: true });
+    fs.writeFileSync(path.join(diskDir, 'attachments', `.tmp-${crypto.randomUUID()}`), 'half');
+    await storage.put('attachments/whole', Buffer.from('whole'), 'text/plain');
+    expect((await collect(storage.list())).map((o) => o.key)).toEqual(['attachments/whole']);
+    fs.rmSync(path.join(diskDir, 'attachments'), { recursive: true, force: true });
   });
 });
 

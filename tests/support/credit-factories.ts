@@ -1,11 +1,11 @@
 import crypto from 'node:crypto';
 import type { AppDataSource } from '../../server/db/data-source';
-import { Claim } from '../../server/db/entities/claim.entity';
+import type { Claim } from '../../server/db/entities/claim.entity';
 import { Installation } from '../../server/db/entities/installation.entity';
 import type { Organization } from '../../server/db/entities/organization.entity';
 import type { ProductModel } from '../../server/db/entities/product-model.entity';
-import { newClaimNumber } from '../../shared/claims/claim-number';
 import { createProduct } from './catalogue-factories';
+import { saveNumberedClaim } from './claim-numbers';
 
 // Claims already decided, written straight into the database. The review branch (issue 6) will own the
 // decisions and their approved amount; until it lands, an approved claim here is stage 'approved' with the
@@ -56,36 +56,32 @@ export async function createApprovedClaim(
   const product = opts.product ?? (await createProduct(ds, opts.manufacturer));
   const installation = await createInstallation(ds, opts.contractor, product);
   const at = opts.approvedAt ?? new Date();
-  const repo = ds.getRepository(Claim);
-  return repo.save(
-    repo.create({
-      number: newClaimNumber(at),
-      contractorId: opts.contractor.id,
-      manufacturerId: opts.manufacturer.id,
-      installationId: installation.id,
-      productModelId: product.id,
-      policyVersionId: null,
-      stage: opts.stage ?? 'approved',
-      stageChangedAt: at,
-      waitingOn: null,
-      units: opts.units ?? 2,
-      serials: [],
-      failedOn: '2025-06-01',
-      symptoms: ['partly_dark'],
-      measurements: {},
-      observations: {},
-      narrative: 'Test claim',
-      evaluation: null,
-      engineVersion: null,
-      evaluatedAt: null,
-      verdict: null,
-      expectedCredit: opts.amount === undefined ? '192.00' : opts.amount,
-      currency: opts.currency ?? 'USD',
-      filedAt: at,
-      filedById: null,
-      batchId: null,
-      assignedReviewerId: null,
-      createdById: null,
-    }),
-  );
+  return saveNumberedClaim(ds, at, {
+    contractorId: opts.contractor.id,
+    manufacturerId: opts.manufacturer.id,
+    installationId: installation.id,
+    productModelId: product.id,
+    policyVersionId: null,
+    stage: opts.stage ?? 'approved',
+    stageChangedAt: at,
+    waitingOn: null,
+    units: opts.units ?? 2,
+    serials: [],
+    failedOn: '2025-06-01',
+    symptoms: ['partly_dark'],
+    measurements: {},
+    observations: {},
+    narrative: 'Test claim',
+    evaluation: null,
+    engineVersion: null,
+    evaluatedAt: null,
+    verdict: null,
+    expectedCredit: opts.amount === undefined ? '192.00' : opts.amount,
+    currency: opts.currency ?? 'USD',
+    filedAt: at,
+    filedById: null,
+    batchId: null,
+    assignedReviewerId: null,
+    createdById: null,
+  });
 }

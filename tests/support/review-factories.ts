@@ -1,10 +1,10 @@
 import crypto from 'node:crypto';
 import { engineContextFrom, engineInputFor } from '../../shared/claims/engine-input';
-import { newClaimNumber } from '../../shared/claims/claim-number';
 import { WAITING_ON_BY_STAGE } from '../../shared/claims/workflow';
 import type { Stage } from '../../shared/claims/stages';
 import { safeEvaluateClaim } from '../../shared/engine';
 import type { ClaimFields, ClaimMeasurements } from '../../shared/schemas/claims';
+import type { DeepPartial } from 'typeorm';
 import type { AppDataSource } from '../../server/db/data-source';
 import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { BenchTest } from '../../server/db/entities/bench-test.entity';
@@ -19,6 +19,7 @@ import type { ProductModel } from '../../server/db/entities/product-model.entity
 import { ReturnAuthorization } from '../../server/db/entities/return-authorization.entity';
 import type { WarrantyPolicyVersion } from '../../server/db/entities/warranty-policy-version.entity';
 import { createPolicy, createProduct, installationPayload } from './catalogue-factories';
+import { saveNumberedClaim } from './claim-numbers';
 
 // Claims straight into the database at any stage, with what that stage implies (an open return authorisation
 // for a claim waiting for its unit, a decision for a decided one), for tests of the review workflow.
@@ -107,9 +108,7 @@ export async function createClaimAt(
   const evaluation = stage === 'draft' ? null : evaluationFor(w, { failedOn: '2025-05-20', filedOn: filedAt.toISOString().slice(0, 10), measurements: FAILED_READINGS, serials });
   if (evaluation && opts.verdict) evaluation.verdict = opts.verdict;
   const repo = ds.getRepository(Claim);
-  const claim = await repo.save(
-    repo.create({
-      number: stage === 'draft' ? null : newClaimNumber(filedAt, (n) => crypto.randomInt(n)),
+  const fields: Omit<DeepPartial<Claim>, 'number'> = {
       contractorId: w.contractor.id,
       manufacturerId: w.manufacturer.id,
       installationId: w.installation.id,
@@ -135,8 +134,9 @@ export async function createClaimAt(
       filedById: opts.filedById ?? null,
       assignedReviewerId: opts.assigneeId ?? null,
       createdById: opts.filedById ?? null,
-    }),
-  );
+  };
+  // A draft has no number yet; any other stage gets a fresh one (drawn again if taken).
+  const claim = stage === 'draft' ? await repo.save(repo.create({ ...fields, number: null })) : await saveNumberedClaim(ds, filedAt, fields);
   const reviewerId = opts.reviewerId ?? opts.filedById ?? crypto.randomUUID();
   if (stage === 'needs_info') {
     await ds.getRepository(ClaimMessage).insert({

@@ -22,6 +22,8 @@ import { User } from './user.entity';
 // the owner's module authorises access after loading the owner, so there is no foreign key to it here.
 @Entity({ name: 'attachments' })
 @Index('ix_attachments_owner', ['ownerType', 'ownerId'])
+// The storage sweep asks which keys a row names (server/lib/storage-sweep.ts).
+@Index('ix_attachments_thumbnail_key', ['thumbnailKey'])
 export class Attachment {
   @PrimaryGeneratedColumn('uuid')
   id: string;

@@ -15,6 +15,8 @@ import { User } from './user.entity';
 @Index('ix_credit_memos_mfr_issued', ['manufacturerId', 'issuedAt'])
 @Index('ix_credit_memos_contractor_issued', ['contractorId', 'issuedAt'])
 @Index('ix_credit_memos_claim', ['claimId'])
+// The storage sweep asks which keys a row names (server/lib/storage-sweep.ts).
+@Index('ix_credit_memos_pdf_storage_key', ['pdfStorageKey'])
 export class CreditMemo {
   @PrimaryGeneratedColumn('uuid')
   id: string;

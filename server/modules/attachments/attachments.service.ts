@@ -6,6 +6,7 @@ import type { AppContext } from '../../context';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
+import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import { StorageObjectMissing } from '../../lib/storage';
 import { inspectUpload } from '../../lib/uploads/inspect';
@@ -98,6 +99,7 @@ export async function saveAttachment(
       await ctx.storage.put(thumbnailKey, inspected.thumbnail.body, inspected.thumbnail.contentType);
       stored.push(thumbnailKey);
     }
+    await crashPoint('attachment.save.after_store');
     return await withOwnerLock(ctx, owner, uploader.id, async (m) => {
       if ((await countAttachments(m, owner, uploader.id)) >= MAX_ATTACHMENTS_PER_OWNER) throw limitReached();
       const row = m.create(Attachment, {
@@ -119,12 +121,14 @@ export async function saveAttachment(
         deletedAt: null,
       });
       await m.save(row);
+      await crashPoint('attachment.save.after_row', m);
       await recordAudit(m, input.actor ?? { userId: uploader.id, organizationId: uploader.organizationId }, {
         action: 'attachment.added',
         entityType: 'Attachment',
         entityId: row.id,
         after: auditView(row),
       });
+      await crashPoint('attachment.save.before_commit', m);
       return row;
     });
   } catch (err) {

@@ -545,6 +545,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
       letterId: letter.id,
     });
     await m.insert(Decision, decision);
+    await crashPoint('claim.move.after_decision', m);
 
     const letterFile: OutboxAttachment = { filename: letter.filename, contentType: 'application/pdf', storageKey: letter.storageKey };
     if (letterDecision.outcome === 'denied') {
@@ -577,6 +578,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         nextStep: 'Issue the credit memo in Lumenproof.',
       });
     }
+    await crashPoint('claim.move.after_outbox', m);
     return {
       moved,
       audit: {

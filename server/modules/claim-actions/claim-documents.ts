@@ -7,11 +7,13 @@ import type { Claim } from '../../db/entities/claim.entity';
 import { Installation } from '../../db/entities/installation.entity';
 import { Organization } from '../../db/entities/organization.entity';
 import { ProductModel } from '../../db/entities/product-model.entity';
+import { crashPoint } from '../../lib/crash-point';
 import { renderDeterminationLetter } from '../../lib/pdf/determination-letter';
 import { paperFor } from '../../lib/pdf/document';
 import { sha256Hex } from '../../lib/pdf/hash';
 import { renderPackingSlip } from '../../lib/pdf/packing-slip';
 import type { Storage } from '../../lib/storage';
+import { putForTransaction } from '../../lib/transaction-objects';
 
 // The claim's generated PDFs: made once, at the move that calls for them, stored through the storage adapter
 // with their hash, and served as those very bytes ever after.
@@ -46,9 +48,10 @@ async function store(
 ): Promise<ClaimDocument> {
   const id = crypto.randomUUID();
   const storageKey = `claims/${claim.id}/documents/${id}.pdf`;
-  // Written before the row commits: if the transaction rolls back, an unreferenced file stays behind, which is
-  // harmless (its key is random and nothing points at it); a row pointing at no file would not be.
-  await storage.put(storageKey, bytes, 'application/pdf');
+  // Written before the row commits (a row pointing at no file must never exist); a rollback deletes it again,
+  // and a crash leaves it to the storage sweep.
+  await putForTransaction(m, storage, storageKey, bytes, 'application/pdf');
+  await crashPoint('claim.document.after_store', m);
   const doc = m.create(ClaimDocument, {
     id,
     claimId: claim.id,
@@ -59,6 +62,7 @@ async function store(
     byteSize: bytes.length,
   });
   await m.insert(ClaimDocument, doc);
+  await crashPoint('claim.document.after_row', m);
   return doc;
 }
 

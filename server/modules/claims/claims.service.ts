@@ -306,6 +306,7 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
         }
         const now = clock.now();
         const evaluation: Evaluation = await evaluate(m, c, now.toISOString().slice(0, 10));
+        await crashPoint('claim.file.after_evaluation', m);
         let number = '';
         for (let attempt = 0; ; attempt++) {
           number = newClaimNumber(now);
@@ -346,6 +347,7 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
           before: { stage: 'draft' },
           after: { stage: 'filed', number, verdict: evaluation.verdict, engineVersion: evaluation.engineVersion, expectedCredit: evaluation.computed.credit },
         });
+        await crashPoint('claim.file.after_audit', m);
         const view = {
           number,
           site: c.installation.siteName,

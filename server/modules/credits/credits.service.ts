@@ -23,6 +23,7 @@ import { renderCreditMemo, type CreditMemoData } from '../../lib/pdf/credit-memo
 import { paperFor } from '../../lib/pdf/document';
 import { sha256Hex } from '../../lib/pdf/hash';
 import type { Storage } from '../../lib/storage';
+import { putForTransaction } from '../../lib/transaction-objects';
 import { nextMemoNumber } from './memo-numbers';
 import { presentMemoSummary } from './credits.presenter';
 
@@ -104,10 +105,11 @@ export function createCreditsService(
   config: AppConfig,
   links: (p: string) => string,
 ) {
-  async function storePdf(manufacturerId: string, memoId: string, pdf: Buffer) {
+  async function storePdf(m: EntityManager, manufacturerId: string, memoId: string, pdf: Buffer) {
     const key = `credit-memos/${manufacturerId}/${memoId}.pdf`;
-    // Written before the commit: a rolled-back transaction leaves an unreferenced file, never a memo without one.
-    await storage.put(key, pdf, 'application/pdf');
+    // Written before the commit, never a memo without its PDF; a rollback (a refusal, a deadlock retried) deletes
+    // it again, and a crash leaves it to the storage sweep.
+    await putForTransaction(m, storage, key, pdf, 'application/pdf');
     return { key, sha256: sha256Hex(pdf) };
   }
 
@@ -167,8 +169,10 @@ export function createCreditsService(
           const now = clock.now();
           const memoId = crypto.randomUUID();
           const number = await nextMemoNumber(m, parties.manufacturer, now.getUTCFullYear());
+          await crashPoint('credit.issue.after_number', m);
           const pdf = await renderCreditMemo(memoData(parties, claim, { number, date: now, ...approved }));
-          const stored = await storePdf(claim.manufacturerId, memoId, pdf);
+          const stored = await storePdf(m, claim.manufacturerId, memoId, pdf);
+          await crashPoint('credit.issue.after_pdf', m);
 
           await m.insert(CreditMemo, {
             id: memoId,
@@ -197,6 +201,7 @@ export function createCreditsService(
             memoId,
             createdAt: now,
           });
+          await crashPoint('credit.issue.after_ledger', m);
           const moved = await m
             .createQueryBuilder()
             .update(Claim)
@@ -209,6 +214,7 @@ export function createCreditsService(
             .execute();
           if (moved.affected !== 1)
             throw conflict('claim.changed', 'The claim changed while the credit was issued. Try again.');
+          await crashPoint('credit.issue.after_move', m);
 
           await recordAudit(m, actor, {
             action: 'claim.credited',
@@ -237,6 +243,7 @@ export function createCreditsService(
               ...(input.note ? { note: input.note } : {}),
             },
           });
+          await crashPoint('credit.issue.after_audit', m);
           const to = await contractorRecipients(m, claim);
           if (to.length) {
             await enqueueEmail(m, {
@@ -323,7 +330,7 @@ export function createCreditsService(
               },
             ),
           );
-          const stored = await storePdf(claim.manufacturerId, reversalId, pdf);
+          const stored = await storePdf(m, claim.manufacturerId, reversalId, pdf);
           await m.insert(CreditMemo, {
             id: reversalId,
             number,
