@@ -9,7 +9,8 @@ import {
   ENCLOSURE_LABELS,
   ENCLOSURES,
   installationConditionsSchema,
-  installationInputSchema,
+  installationSchemas,
+  latestInstallDate,
   LOCATION_LABELS,
   LOCATIONS,
   NOMINAL_SUPPLY_VOLTS,
@@ -35,8 +36,11 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
   const qc = useQueryClient();
   const [productSearch, setProductSearch] = useState('');
   const products = useQuery(productQueries.list({ page: 1, pageSize: 100, q: productSearch || undefined }));
+  // The browser's clock only for early feedback: the server checks the install date against its own.
+  const [latest] = useState(() => latestInstallDate(new Date()));
+  const schema = useMemo(() => installationSchemas(latest).input, [latest]);
   const form = useForm<InstallationInput, unknown, InstallationValues>({
-    resolver: zodResolver(installationInputSchema),
+    resolver: zodResolver(schema),
     mode: 'onTouched',
     defaultValues: { serials: [], location: 'dry', enclosure: 'open', dimmer: 'none', nominalSupplyVolts: 277, purchaseDate: null } as unknown as InstallationInput,
   });
@@ -106,6 +110,12 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
               </FieldShell>
             )}
           />
+          <InputField
+            label="Lot (optional)"
+            hint="The manufacturing lot or date code printed on the units' labels, like AC2401."
+            error={err('lot')}
+            {...form.register('lot', { setValueAs: orNull })}
+          />
         </div>
       </Card>
       <Card>
@@ -121,7 +131,7 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
       <Card>
         <CardHeader title="Purchase" />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5">
-          <InputField label="Install date" type="date" error={err('installDate')} {...form.register('installDate')} />
+          <InputField label="Install date" type="date" max={latest} error={err('installDate')} {...form.register('installDate')} />
           <InputField label="Purchase date (optional)" type="date" error={err('purchaseDate')} {...form.register('purchaseDate', { setValueAs: orNull })} />
           <InputField label="Distributor (optional)" error={err('distributor')} {...form.register('distributor', { setValueAs: orNull })} />
           <InputField label="Invoice number (optional)" error={err('invoiceNumber')} {...form.register('invoiceNumber', { setValueAs: orNull })} />
