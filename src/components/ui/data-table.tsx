@@ -99,12 +99,13 @@ export function DataTable<T extends { id: string }>({ caption, columns, result, 
                 const active = current.key === c.sortKey;
                 const Icon = !active ? ArrowUpDown : current.direction === 'ascending' ? ArrowUp : ArrowDown;
                 return (
-                  <Th key={c.key} aria-sort={active ? current.direction : undefined} className={cn('py-0', headerClass)}>
+                  <Th key={c.key} aria-sort={active ? current.direction : undefined} className={headerClass}>
                     <button
                       type="button"
                       onClick={() => onSort(nextSort(sort!, c.sortKey!, c.firstSort))}
                       className={cn(
-                        '-mx-1 inline-flex min-h-11 items-center gap-1 rounded px-1 font-semibold tracking-wide uppercase hover:text-ink-900 focus-visible:ring-2 focus-visible:ring-brand-600 focus-visible:outline-none',
+                        // A 44 px target in a header row of the usual height: the negative margins take back the cell's padding.
+                        '-mx-1 -my-2.5 inline-flex min-h-11 items-center gap-1 rounded px-1 font-semibold tracking-wide uppercase hover:text-ink-900 focus-visible:ring-2 focus-visible:ring-brand-600 focus-visible:outline-none',
                         active ? 'text-ink-900' : 'text-ink-600',
                       )}
                     >
