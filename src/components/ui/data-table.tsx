@@ -5,7 +5,7 @@ import { ApiError } from '../../lib/api-client';
 import { cn } from '../../lib/cn';
 import { Card } from './card';
 import { EmptyState } from './empty-state';
-import { InputField, SelectField } from './field';
+import { InputField, optionsOf, SelectField } from './field';
 import { Spinner } from './spinner';
 import { Pagination, Table, Td, Th } from './table';
 
@@ -208,11 +208,7 @@ export function FilterSelect<V extends string | number>({
   return (
     <SelectField label={label} value={value} onChange={(e) => onChange(e.target.value)}>
       <option value="">{anyLabel}</option>
-      {values.map((v) => (
-        <option key={v} value={v}>
-          {labelOf(v)}
-        </option>
-      ))}
+      {optionsOf(values, labelOf)}
     </SelectField>
   );
 }

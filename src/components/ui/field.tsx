@@ -87,3 +87,12 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(funct
     </FieldShell>
   );
 });
+
+/** The <option>s of a select: one per value, worded by `labelOf`. */
+export function optionsOf<V extends string | number>(values: readonly V[], labelOf: (v: V) => string) {
+  return values.map((v) => (
+    <option key={v} value={v}>
+      {labelOf(v)}
+    </option>
+  ));
+}

@@ -20,7 +20,7 @@ import {
 } from '../../../../shared/schemas/catalogue';
 import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
-import { FieldShell, InputField, SelectField } from '../../../components/ui/field';
+import { FieldShell, InputField, optionsOf, SelectField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
 import { installationQueries } from '../api/installation-queries';
 import { productQueries } from '../api/product-queries';
@@ -141,32 +141,16 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
         <CardHeader title="Conditions as installed" description="Checked against the product's ratings as you choose." />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5 lg:grid-cols-3">
           <SelectField label="Location" error={err('location')} {...form.register('location')}>
-            {LOCATIONS.map((l) => (
-              <option key={l} value={l}>
-                {LOCATION_LABELS[l]}
-              </option>
-            ))}
+            {optionsOf(LOCATIONS, (l) => LOCATION_LABELS[l])}
           </SelectField>
           <SelectField label="Enclosure" error={err('enclosure')} {...form.register('enclosure')}>
-            {ENCLOSURES.map((x) => (
-              <option key={x} value={x}>
-                {ENCLOSURE_LABELS[x]}
-              </option>
-            ))}
+            {optionsOf(ENCLOSURES, (x) => ENCLOSURE_LABELS[x])}
           </SelectField>
           <SelectField label="Dimmer" error={err('dimmer')} {...form.register('dimmer')}>
-            {DIMMERS.map((d) => (
-              <option key={d} value={d}>
-                {DIMMER_LABELS[d]}
-              </option>
-            ))}
+            {optionsOf(DIMMERS, (d) => DIMMER_LABELS[d])}
           </SelectField>
           <SelectField label="Nominal supply (V)" error={err('nominalSupplyVolts')} {...form.register('nominalSupplyVolts', { setValueAs: Number })}>
-            {NOMINAL_SUPPLY_VOLTS.map((v) => (
-              <option key={v} value={v}>
-                {v} V
-              </option>
-            ))}
+            {optionsOf(NOMINAL_SUPPLY_VOLTS, (v) => `${v} V`)}
           </SelectField>
           <InputField label="Hours of use a day" unit="h" type="number" inputMode="decimal" step="any" error={err('hoursPerDay')} {...form.register('hoursPerDay', { setValueAs: numberOrUndefined })} />
           <InputField label="Ambient temperature" unit="°C" type="number" inputMode="decimal" step="any" error={err('ambientC')} {...form.register('ambientC', { setValueAs: numberOrUndefined })} />
