@@ -3,17 +3,11 @@ import type { AgeingTable, CrossTable, RankedCount } from '../analytics/failure-
 import type { KaplanMeierRow } from '../analytics/kaplan-meier';
 import type { CohortReserve, CurrencyReserve } from '../analytics/reserve';
 import type { ProbabilityPlot, WeibullFit } from '../analytics/weibull';
-import { isoDateSchema, PRODUCT_FAMILIES, uuidSchema, type ProductFamily } from './catalogue';
+import { isoDateSchema, lotSchema, PRODUCT_FAMILIES, uuidSchema, type ProductFamily } from './catalogue';
 
 // The reliability analytics and reserve routes: one strict schema per query, the answers' shapes beside them.
 
-/** A date code as printed on the label: the manufacturing lot. */
-export const lotSchema = z
-  .string({ error: 'A lot (date code) is text.' })
-  .trim()
-  .min(1, 'A lot (date code) cannot be empty.')
-  .max(32, 'A lot (date code) has at most 32 characters.')
-  .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'Use letters, digits and . _ / - in a lot (date code).');
+export { lotSchema };
 
 export const AGE_UNITS = ['months', 'hours'] as const;
 export const FIT_METHODS = ['mle', 'mrr'] as const;

@@ -368,7 +368,39 @@ const conditionFields = {
   ambientC: num('the ambient temperature', '°C', -50, 80),
 };
 
-const installationFields = {
+/** A date code as printed on the label: the manufacturing lot (the failure analysis groups by it). */
+export const lotSchema = z
+  .string({ error: 'A lot (date code) is text.' })
+  .trim()
+  .min(1, 'A lot (date code) cannot be empty.')
+  .max(32, 'A lot (date code) has at most 32 characters.')
+  .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'Use letters, digits and . _ / - in a lot (date code).');
+
+const optionalLot = z
+  .string({ error: 'A lot (date code) is text.' })
+  .trim()
+  .nullish()
+  .transform((v) => (v ? v : null))
+  .pipe(lotSchema.nullable());
+
+const DAY_MS = 86_400_000;
+
+/**
+ * The latest install date accepted at `now`: the next UTC calendar day. Local dates run from UTC-12 to UTC+14,
+ * never more than one day ahead of UTC, so "today" passes wherever the installer stands; later is the future.
+ */
+export function latestInstallDate(now: Date): string {
+  return new Date(now.getTime() + DAY_MS).toISOString().slice(0, 10);
+}
+
+export const FUTURE_INSTALL_DATE_MESSAGE = 'The install date is in the future. Enter the day the fixtures were installed.';
+
+const installDateField = (latest: string | undefined) =>
+  latest === undefined
+    ? isoDateSchema('the install date')
+    : isoDateSchema('the install date').refine((s) => s <= latest, FUTURE_INSTALL_DATE_MESSAGE);
+
+const installationFieldsUpTo = (latest: string | undefined) => ({
   siteName: text('the site name', 160),
   siteAddress: text('the street address', 200),
   siteCity: text('the city', 120),
@@ -376,12 +408,13 @@ const installationFields = {
   sitePostalCode: text('the postal code', 20),
   quantity: num('the quantity', 'units', 1, 100_000, { int: true }),
   serials: serialsSchema,
-  installDate: isoDateSchema('the install date'),
+  installDate: installDateField(latest),
   purchaseDate: isoDateSchema('the purchase date').nullish().transform((v) => v ?? null),
   distributor: optionalText('the distributor', 160),
   invoiceNumber: optionalText('the invoice number', 64),
+  lot: optionalLot,
   ...conditionFields,
-};
+});
 
 type InstallationCheck = { quantity?: number; serials?: string[] };
 function checkInstallation(v: InstallationCheck, ctx: z.RefinementCtx) {
@@ -394,20 +427,28 @@ function checkInstallation(v: InstallationCheck, ctx: z.RefinementCtx) {
   }
 }
 
-export const installationInputSchema = z
-  .strictObject({ productModelId: uuidSchema, ...installationFields })
-  .superRefine(checkInstallation);
+/**
+ * The installation payloads. Given the latest install date accepted (`latestInstallDate(clock.now())` on the
+ * server, which decides), an install date after it is refused; without one (the demo seed, the form's first
+ * check) any calendar date passes.
+ */
+export function installationSchemas(latest?: string) {
+  const fields = installationFieldsUpTo(latest);
+  const input = z.strictObject({ productModelId: uuidSchema, ...fields }).superRefine(checkInstallation);
+  const update = z
+    .strictObject(
+      Object.fromEntries(Object.entries(fields).map(([k, v]) => [k, v.optional()])) as {
+        [K in keyof typeof fields]: z.ZodOptional<(typeof fields)[K]>;
+      },
+    )
+    .refine((v) => Object.values(v).some((x) => x !== undefined), 'Nothing to change.')
+    .superRefine(checkInstallation);
+  return { input, update };
+}
+
+export const { input: installationInputSchema, update: updateInstallationSchema } = installationSchemas();
 export type InstallationInput = z.input<typeof installationInputSchema>;
 export type InstallationValues = z.output<typeof installationInputSchema>;
-
-export const updateInstallationSchema = z
-  .strictObject(
-    Object.fromEntries(Object.entries(installationFields).map(([k, v]) => [k, v.optional()])) as {
-      [K in keyof typeof installationFields]: z.ZodOptional<(typeof installationFields)[K]>;
-    },
-  )
-  .refine((v) => Object.values(v).some((x) => x !== undefined), 'Nothing to change.')
-  .superRefine(checkInstallation);
 export type UpdateInstallationInput = z.input<typeof updateInstallationSchema>;
 
 export const installationConditionsSchema = z.strictObject(conditionFields);
@@ -442,6 +483,7 @@ export type InstallationDto = {
   purchaseDate: string | null;
   distributor: string | null;
   invoiceNumber: string | null;
+  lot: string | null;
   location: RatedLocation;
   enclosure: Enclosure;
   dimmer: Dimmer;

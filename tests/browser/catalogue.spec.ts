@@ -48,16 +48,28 @@ test.describe('catalogue on a phone', () => {
     await page.getByRole('link', { name: 'Sites' }).last().click();
     await expect(page.getByRole('heading', { level: 1, name: 'Installations' })).toBeVisible();
     expect(await hasNoHorizontalScroll(page)).toBe(true);
+    // The list sorts from its column headers as from the select, and says which column sorts which way.
+    const installed = page.getByRole('columnheader', { name: 'Installed' });
+    await expect(installed).toHaveAttribute('aria-sort', 'descending');
+    await page.getByRole('button', { name: 'Units' }).click();
+    await expect(page.getByRole('columnheader', { name: 'Units' })).toHaveAttribute('aria-sort', 'descending');
+    await expect(page.getByLabel('Sort by')).toHaveValue('-quantity');
+    await expect(installed).not.toHaveAttribute('aria-sort');
     await page.getByRole('link', { name: 'Register an installation' }).click();
     await page.getByLabel('Find a model').fill(modelNumber);
     await page.getByLabel('Product model').selectOption({ label: `${modelNumber} · Arden compact high-bay 100 W (Aldercrest Lighting)` });
     await page.getByLabel('Quantity').fill('2');
     await page.getByLabel('Serial numbers or date codes').fill(`${modelNumber}-0001 ${modelNumber}-0002`);
+    await page.getByLabel('Lot (optional)').fill('ACE2405');
     await page.getByLabel('Site name').fill('Tidewater fish processing, wash-down hall');
     await page.getByLabel('Street address').fill('14 Cannery Row');
     await page.getByLabel('City').fill('Tidewater');
     await page.getByLabel('State or province').fill('WA');
     await page.getByLabel('Postal code').fill('98520');
+    // Not yet installed: the form refuses a date after today.
+    await page.getByLabel('Install date').fill('2099-05-06');
+    await page.getByRole('button', { name: 'Register the installation' }).click();
+    await expect(page.getByText('The install date is in the future.')).toBeVisible();
     await page.getByLabel('Install date').fill('2024-05-06');
     await page.getByLabel('Hours of use a day').fill('20');
     await page.getByLabel('Ambient temperature').fill('8');
@@ -74,6 +86,7 @@ test.describe('catalogue on a phone', () => {
     await expect(page.getByRole('heading', { level: 1, name: 'Tidewater fish processing, wash-down hall' })).toBeVisible();
     await expect(page.getByText('but this fixture is rated for damp locations only')).toBeVisible();
     await expect(page.getByText(`${modelNumber}-0001`)).toBeVisible();
+    await expect(page.getByText('ACE2405', { exact: true })).toBeVisible();
     await expect(page.getByText('Installation registered')).toBeVisible();
     expect(await hasNoHorizontalScroll(page)).toBe(true);
     expect(await seriousA11yViolations(page)).toEqual([]);

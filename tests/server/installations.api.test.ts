@@ -1,8 +1,10 @@
+import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { InstallationUnit } from '../../server/db/entities/installation-unit.entity';
 import { Installation } from '../../server/db/entities/installation.entity';
 import { ProductModel } from '../../server/db/entities/product-model.entity';
+import { clock } from '../../server/lib/clock';
 import { createOrganization, createUser, signIn } from '../support/factories';
 import { createPolicy, createProduct, installationPayload, productPayload } from '../support/catalogue-factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
@@ -269,5 +271,110 @@ describe('spreadsheet import', () => {
     const installer = await member('contractor', ['installer']);
     const t2 = await installer.agent.get('/api/installations/import-template');
     expect(t2.text.split('\r\n')[0]).toContain('model_number,site_name');
+  });
+});
+
+describe('the lot (date code)', () => {
+  it('is optional, trimmed, bounded and validated; it is shown, edited, cleared and audited', async () => {
+    const { product, installer } = await world();
+    const r = await installer.agent.post('/api/installations').send(installationPayload(product.id, { lot: ' ACH2502 ' }));
+    expect(r.status).toBe(201);
+    expect(r.body.installation.lot).toBe('ACH2502');
+    const id = r.body.installation.id;
+    expect((await t.ds.getRepository(Installation).findOneByOrFail({ id })).lot).toBe('ACH2502');
+    const created = await t.ds.getRepository(AuditEvent).findOneByOrFail({ entityType: 'Installation', entityId: id });
+    expect(created.after).toMatchObject({ lot: 'ACH2502' });
+    expect((await installer.agent.get(`/api/installations/${id}`)).body.installation.lot).toBe('ACH2502');
+    // Without a lot: null.
+    const none = await installer.agent.post('/api/installations').send(installationPayload(product.id));
+    expect(none.body.installation.lot).toBeNull();
+
+    // Too long or with other characters: a field error, and nothing changes.
+    for (const [lot, message] of [
+      ['A'.repeat(33), 'A lot (date code) has at most 32 characters.'],
+      ['lot 7', 'Use letters, digits and . _ / - in a lot (date code).'],
+    ]) {
+      const bad = await installer.agent.patch(`/api/installations/${id}`).send({ lot });
+      expect(bad.status).toBe(400);
+      expect(bad.body.error.details).toEqual([{ path: 'lot', message }]);
+    }
+    const refused = await installer.agent.post('/api/installations').send(installationPayload(product.id, { lot: 'B'.repeat(33) }));
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.details.map((d: { path: string }) => d.path)).toEqual(['lot']);
+    expect(await countInstallations(installer.org.id)).toBe(2);
+    expect((await t.ds.getRepository(Installation).findOneByOrFail({ id })).lot).toBe('ACH2502');
+
+    const edited = await installer.agent.patch(`/api/installations/${id}`).send({ lot: 'ACH2503' });
+    expect(edited.body.installation.lot).toBe('ACH2503');
+    const cleared = await installer.agent.patch(`/api/installations/${id}`).send({ lot: null });
+    expect(cleared.status).toBe(200);
+    expect(cleared.body.installation.lot).toBeNull();
+    const h = await installer.agent.get(`/api/installations/${id}/history`);
+    expect(h.body.items.slice(1).map((e: { before: unknown; after: unknown }) => [e.before, e.after])).toEqual([
+      [{ lot: 'ACH2502' }, { lot: 'ACH2503' }],
+      [{ lot: 'ACH2503' }, { lot: null }],
+    ]);
+  });
+
+  it('is a column of the import and its template; a bad lot is a row error on that column', async () => {
+    const { product, installer } = await world();
+    const template = await installer.agent.get('/api/installations/import-template');
+    const [example] = Papa.parse<Record<string, string>>(template.text, { header: true, skipEmptyLines: true }).data;
+    expect(example.lot).toBe('AC2401');
+    const header = 'model_number,site_name,site_address,site_city,site_region,site_postal_code,quantity,install_date,lot,location,enclosure,dimmer,nominal_supply_volts,hours_per_day,ambient_c';
+    const row = (site: string, lot: string) => `${product.modelNumber},${site},1 Road,Town,WA,98000,2,2024-04-01,${lot},dry,open,none,277,12,20`;
+    const csv = [header, row('With lot', 'VLT2411'), row('Without lot', ''), row('Long lot', 'X'.repeat(33))].join('\n');
+    const preview = await installer.agent.post('/api/installations/import?dryRun=true').send({ csv });
+    expect(preview.body).toMatchObject({ total: 3, valid: 2, invalid: 1 });
+    expect(preview.body.errors).toEqual([{ row: 4, column: 'lot', message: 'A lot (date code) has at most 32 characters.' }]);
+    const done = await installer.agent.post('/api/installations/import').send({ csv });
+    expect(done.body.imported).toBe(2);
+    const repo = t.ds.getRepository(Installation);
+    expect((await repo.findOneByOrFail({ contractorId: installer.org.id, siteName: 'With lot' })).lot).toBe('VLT2411');
+    expect((await repo.findOneByOrFail({ contractorId: installer.org.id, siteName: 'Without lot' })).lot).toBeNull();
+    expect(await repo.countBy({ contractorId: installer.org.id, siteName: 'Long lot' })).toBe(0);
+  });
+});
+
+describe('install dates in the future', () => {
+  const DAY = 86_400_000;
+  const utcDate = (ms: number) => new Date(ms).toISOString().slice(0, 10);
+  const future = { path: 'installDate', message: 'The install date is in the future. Enter the day the fixtures were installed.' };
+
+  it('are refused by the server clock, allowing today in any time zone; nothing is written', async () => {
+    const { product, installer } = await world();
+    const now = clock.nowMs();
+    // The furthest-ahead local date on Earth is UTC+14 (Pacific/Kiritimati) — from memory (IANA tz database).
+    const todayAtUtcPlus14 = utcDate(now + 14 * 3_600_000);
+    const ok = await installer.agent.post('/api/installations').send(installationPayload(product.id, { installDate: todayAtUtcPlus14, purchaseDate: null }));
+    expect(ok.status).toBe(201);
+    const tomorrowUtc = await installer.agent.post('/api/installations').send(installationPayload(product.id, { installDate: utcDate(now + DAY), purchaseDate: null }));
+    expect(tomorrowUtc.status).toBe(201);
+
+    const later = await installer.agent.post('/api/installations').send(installationPayload(product.id, { installDate: utcDate(now + 2 * DAY), purchaseDate: null }));
+    expect(later.status).toBe(400);
+    expect(later.body.error.details).toEqual([future]);
+    const edit = await installer.agent.patch(`/api/installations/${ok.body.installation.id}`).send({ installDate: utcDate(now + 30 * DAY) });
+    expect(edit.status).toBe(400);
+    expect(edit.body.error.details).toEqual([future]);
+    expect(await countInstallations(installer.org.id)).toBe(2);
+    expect((await t.ds.getRepository(Installation).findOneByOrFail({ id: ok.body.installation.id })).installDate).toBe(todayAtUtcPlus14);
+
+    // The server's clock decides: five days on, the same date is no longer in the future.
+    const inFiveDays = utcDate(now + 5 * DAY);
+    expect((await installer.agent.post('/api/installations').send(installationPayload(product.id, { installDate: inFiveDays, purchaseDate: null }))).status).toBe(400);
+    clock.advance(5 * DAY);
+    const again = await signIn(t.request(), installer.user.email); // the session has expired by then
+    expect((await again.post('/api/installations').send(installationPayload(product.id, { installDate: inFiveDays, purchaseDate: null }))).status).toBe(201);
+  });
+
+  it('are a row error in an import', async () => {
+    const { product, installer } = await world();
+    const header = 'model_number,site_name,site_address,site_city,site_region,site_postal_code,quantity,install_date,location,enclosure,dimmer,nominal_supply_volts,hours_per_day,ambient_c';
+    const row = (site: string, date: string) => `${product.modelNumber},${site},1 Road,Town,WA,98000,2,${date},dry,open,none,277,12,20`;
+    const csv = [header, row('Done', '2024-04-01'), row('Planned', utcDate(clock.nowMs() + 10 * DAY))].join('\n');
+    const r = await installer.agent.post('/api/installations/import').send({ csv });
+    expect(r.body).toMatchObject({ total: 2, valid: 1, invalid: 1, imported: 1 });
+    expect(r.body.errors).toEqual([{ row: 3, column: 'install_date', message: future.message }]);
   });
 });

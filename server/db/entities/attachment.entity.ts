@@ -1,6 +1,5 @@
 import {
   Column,
-  CreateDateColumn,
   DeleteDateColumn,
   Entity,
   Index,
@@ -9,6 +8,7 @@ import {
   PrimaryGeneratedColumn,
   type Relation,
 } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import {
   ATTACHMENT_KINDS,
   ATTACHMENT_PURPOSES,
@@ -88,7 +88,7 @@ export class Attachment {
   @Column({ type: 'datetime', precision: 3, name: 'captured_at', nullable: true })
   capturedAt: Date | null;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 
   @DeleteDateColumn({ type: 'datetime', precision: 3, name: 'deleted_at', nullable: true })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import type { RecordBenchTestPayload } from '../../../shared/claims/actions.schema';
 import type { Evaluation } from '../../../shared/engine';
 import { Claim } from './claim.entity';
@@ -42,6 +43,6 @@ export class BenchTest {
   @Column({ type: 'uuid', name: 'tested_by_id' })
   testedById: string;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'tested_at' })
+  @CreatedAtColumn('tested_at')
   testedAt: Date;
 }

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 
 // A spreadsheet of failed units that became drafts together, to be reviewed and filed together.
 @Entity({ name: 'claim_batches' })
@@ -19,6 +20,6 @@ export class ClaimBatch {
   @Column({ type: 'uuid', name: 'created_by_id', nullable: true })
   createdById: string | null;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 }

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import { Claim } from './claim.entity';
 
 export const CLAIM_DOCUMENT_KINDS = ['letter', 'packing_slip'] as const;
@@ -35,6 +36,6 @@ export class ClaimDocument {
   @Column({ type: 'int', unsigned: true, name: 'byte_size' })
   byteSize: number;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 }

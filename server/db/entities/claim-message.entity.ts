@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import { Claim } from './claim.entity';
 
 export const CLAIM_MESSAGE_KINDS = ['info_request', 'info_answer', 'note'] as const;
@@ -39,6 +40,6 @@ export class ClaimMessage {
   @Column({ type: 'datetime', precision: 3, name: 'answered_at', nullable: true })
   answeredAt: Date | null;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 }

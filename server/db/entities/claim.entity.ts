@@ -1,15 +1,14 @@
 import {
   Column,
-  CreateDateColumn,
   Entity,
   Index,
   JoinColumn,
   ManyToOne,
   PrimaryGeneratedColumn,
-  UpdateDateColumn,
   VersionColumn,
   type Relation,
 } from 'typeorm';
+import { CreatedAtColumn, UpdatedAtColumn } from './columns';
 import type { Evaluation, Verdict } from '../../../shared/engine';
 import { CLAIM_STAGES, type ClaimMeasurements, type ClaimObservations, type ClaimStage, type Symptom, type WaitingOn } from '../../../shared/schemas/claims';
 import { Installation } from './installation.entity';
@@ -144,10 +143,10 @@ export class Claim {
   @Column({ type: 'uuid', name: 'created_by_id', nullable: true })
   createdById: string | null;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 
-  @UpdateDateColumn({ type: 'datetime', precision: 3, name: 'updated_at' })
+  @UpdatedAtColumn()
   updatedAt: Date;
 
   @VersionColumn({ type: 'int', name: 'version' })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import type { DenialCode, Resolution } from '../../../shared/claims/actions.schema';
 import { Claim } from './claim.entity';
 
@@ -59,7 +60,7 @@ export class Decision {
   @Column({ type: 'uuid', name: 'decided_by_id' })
   decidedById: string;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'decided_at' })
+  @CreatedAtColumn('decided_at')
   decidedAt: Date;
 
   @Column({ type: 'datetime', precision: 3, name: 'superseded_at', nullable: true })

@@ -1,16 +1,15 @@
 import {
   Column,
-  CreateDateColumn,
   Entity,
   Index,
   JoinColumn,
   ManyToOne,
   OneToMany,
   PrimaryGeneratedColumn,
-  UpdateDateColumn,
   VersionColumn,
   type Relation,
 } from 'typeorm';
+import { CreatedAtColumn, UpdatedAtColumn } from './columns';
 import type { Dimmer, Enclosure, RatedLocation } from '../../../shared/schemas/catalogue';
 import { InstallationUnit } from './installation-unit.entity';
 import { Organization } from './organization.entity';
@@ -124,10 +123,10 @@ export class Installation {
   @Column({ type: 'uuid', name: 'created_by_id', nullable: true })
   createdById: string | null;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 
-  @UpdateDateColumn({ type: 'datetime', precision: 3, name: 'updated_at' })
+  @UpdatedAtColumn()
   updatedAt: Date;
 
   @VersionColumn({ type: 'int', name: 'version' })

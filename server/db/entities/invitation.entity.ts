@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import { User } from './user.entity';
 
 // A one-time sign-up link. Only the SHA-256 of the token is stored; the token itself travels in the e-mail.
@@ -27,6 +28,6 @@ export class Invitation {
   @Column({ type: 'uuid', name: 'created_by_id' })
   createdById: string;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 }

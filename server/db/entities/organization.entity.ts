@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import type { OrganizationKind } from '../../../shared/roles';
 
 @Entity({ name: 'organizations' })
@@ -13,6 +14,6 @@ export class Organization {
   @Column({ type: 'enum', enum: ['manufacturer', 'contractor'] })
   kind: OrganizationKind;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 }

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 
 export type OutboxAttachment = { filename: string; contentType: string; storageKey: string };
 
@@ -9,7 +10,7 @@ export class OutboxMessage {
   @PrimaryGeneratedColumn({ type: 'bigint', unsigned: true })
   id: string;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 
   @Column({ type: 'varchar', length: 64 })

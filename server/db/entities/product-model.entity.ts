@@ -1,15 +1,14 @@
 import {
   Column,
-  CreateDateColumn,
   Entity,
   Index,
   JoinColumn,
   ManyToOne,
   PrimaryGeneratedColumn,
-  UpdateDateColumn,
   VersionColumn,
   type Relation,
 } from 'typeorm';
+import { CreatedAtColumn, UpdatedAtColumn } from './columns';
 import type { Dimming, ProductFamily, RatedLocation } from '../../../shared/schemas/catalogue';
 import { Organization } from './organization.entity';
 
@@ -91,10 +90,10 @@ export class ProductModel {
   @Column({ type: 'boolean', name: 'active_cooling' })
   activeCooling: boolean;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 
-  @UpdateDateColumn({ type: 'datetime', precision: 3, name: 'updated_at' })
+  @UpdatedAtColumn()
   updatedAt: Date;
 
   @VersionColumn({ type: 'int', name: 'version' })

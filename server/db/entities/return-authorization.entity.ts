@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import type { Address } from '../../../shared/claims/actions.schema';
 import { Claim } from './claim.entity';
 
@@ -54,6 +55,6 @@ export class ReturnAuthorization {
   @Column({ type: 'uuid', name: 'requested_by_id' })
   requestedById: string;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 }

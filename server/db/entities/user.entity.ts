@@ -1,15 +1,14 @@
 import {
   Column,
-  CreateDateColumn,
   Entity,
   Index,
   JoinColumn,
   ManyToOne,
   PrimaryGeneratedColumn,
-  UpdateDateColumn,
   VersionColumn,
   type Relation,
 } from 'typeorm';
+import { CreatedAtColumn, UpdatedAtColumn } from './columns';
 import type { Role, UserStatus } from '../../../shared/roles';
 import { Organization } from './organization.entity';
 
@@ -45,10 +44,10 @@ export class User {
   @Column({ type: 'datetime', precision: 3, name: 'last_sign_in_at', nullable: true })
   lastSignInAt: Date | null;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 
-  @UpdateDateColumn({ type: 'datetime', precision: 3, name: 'updated_at' })
+  @UpdatedAtColumn()
   updatedAt: Date;
 
   @VersionColumn({ type: 'int', name: 'version' })

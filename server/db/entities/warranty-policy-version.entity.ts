@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import type { DenialReason, Exclusion } from '../../../shared/schemas/catalogue';
 import { WarrantyPolicy } from './warranty-policy.entity';
 
@@ -63,6 +64,6 @@ export class WarrantyPolicyVersion {
   @Column({ type: 'uuid', name: 'created_by_id', nullable: true })
   createdById: string | null;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 }

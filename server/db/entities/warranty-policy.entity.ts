@@ -1,16 +1,15 @@
 import {
   Column,
-  CreateDateColumn,
   Entity,
   Index,
   JoinColumn,
   ManyToOne,
   OneToMany,
   PrimaryGeneratedColumn,
-  UpdateDateColumn,
   VersionColumn,
   type Relation,
 } from 'typeorm';
+import { CreatedAtColumn, UpdatedAtColumn } from './columns';
 import { Organization } from './organization.entity';
 import { PolicyModel } from './policy-model.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
@@ -45,10 +44,10 @@ export class WarrantyPolicy {
   @OneToMany(() => PolicyModel, (pm) => pm.policy)
   models: Relation<PolicyModel[]>;
 
-  @CreateDateColumn({ type: 'datetime', precision: 3, name: 'created_at' })
+  @CreatedAtColumn()
   createdAt: Date;
 
-  @UpdateDateColumn({ type: 'datetime', precision: 3, name: 'updated_at' })
+  @UpdatedAtColumn()
   updatedAt: Date;
 
   @VersionColumn({ type: 'int', name: 'version' })

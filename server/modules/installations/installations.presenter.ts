@@ -1,40 +1,46 @@
 import { checkInstallationFit } from '../../../shared/catalogue/installation-fit';
 import type { InstallationDetailDto, InstallationDto, NOMINAL_SUPPLY_VOLTS } from '../../../shared/schemas/catalogue';
 import type { Installation } from '../../db/entities/installation.entity';
+import { orgRef, pick, stamps } from '../../lib/present';
 import { presentProduct } from '../products/products.presenter';
 
 type Loaded = Installation & { serialCount?: number };
+
+/** The site, the purchase and the conditions: what the answers show and the audit log records. */
+const SITE_FIELDS = [
+  'siteName',
+  'siteAddress',
+  'siteCity',
+  'siteRegion',
+  'sitePostalCode',
+  'quantity',
+  'installDate',
+  'purchaseDate',
+  'distributor',
+  'invoiceNumber',
+  'lot',
+  'location',
+  'enclosure',
+  'dimmer',
+  'hoursPerDay',
+  'ambientC',
+] as const satisfies readonly (keyof InstallationDto & keyof Installation)[];
+type SiteField = (typeof SITE_FIELDS)[number];
 
 export function presentInstallation(i: Loaded): InstallationDto {
   const v = i.policyVersion;
   return {
     id: i.id,
-    contractor: { id: i.contractorId, name: i.contractor?.name ?? '' },
-    manufacturer: { id: i.manufacturerId, name: i.manufacturer?.name ?? '' },
+    contractor: orgRef(i.contractorId, i.contractor),
+    manufacturer: orgRef(i.manufacturerId, i.manufacturer),
     product: { id: i.productModelId, modelNumber: i.productModel.modelNumber, name: i.productModel.name, family: i.productModel.family },
-    siteName: i.siteName,
-    siteAddress: i.siteAddress,
-    siteCity: i.siteCity,
-    siteRegion: i.siteRegion,
-    sitePostalCode: i.sitePostalCode,
-    quantity: i.quantity,
+    ...pick(i, SITE_FIELDS),
     serialCount: i.serialCount ?? i.units?.length ?? 0,
-    installDate: i.installDate,
-    purchaseDate: i.purchaseDate,
-    distributor: i.distributor,
-    invoiceNumber: i.invoiceNumber,
-    location: i.location,
-    enclosure: i.enclosure,
-    dimmer: i.dimmer,
     nominalSupplyVolts: i.nominalSupplyVolts as (typeof NOMINAL_SUPPLY_VOLTS)[number],
-    hoursPerDay: i.hoursPerDay,
-    ambientC: i.ambientC,
     policyVersion: v
       ? { id: v.id, policyId: v.policyId, policyName: v.policy?.name ?? '', versionNumber: v.versionNumber, effectiveFrom: v.effectiveFrom }
       : null,
-    createdAt: i.createdAt.toISOString(),
-    updatedAt: i.updatedAt.toISOString(),
-    version: i.version,
+    ...stamps(i),
   };
 }
 
@@ -56,45 +62,18 @@ export function presentInstallationDetail(i: Installation): InstallationDetailDt
   };
 }
 
-export function installationAuditView(i: {
+type AuditSource = Pick<Installation, SiteField> & {
   productModelId: string;
-  siteName: string;
-  siteAddress: string;
-  siteCity: string;
-  siteRegion: string;
-  sitePostalCode: string;
-  quantity: number;
-  installDate: string;
-  purchaseDate: string | null;
-  distributor: string | null;
-  invoiceNumber: string | null;
-  location: string;
-  enclosure: string;
-  dimmer: string;
   nominalSupplyVolts: number;
-  hoursPerDay: number;
-  ambientC: number;
   policyVersionId: string | null;
   serials: string[];
-}) {
+};
+
+export function installationAuditView(i: AuditSource) {
   return {
     productModelId: i.productModelId,
-    siteName: i.siteName,
-    siteAddress: i.siteAddress,
-    siteCity: i.siteCity,
-    siteRegion: i.siteRegion,
-    sitePostalCode: i.sitePostalCode,
-    quantity: i.quantity,
-    installDate: i.installDate,
-    purchaseDate: i.purchaseDate,
-    distributor: i.distributor,
-    invoiceNumber: i.invoiceNumber,
-    location: i.location,
-    enclosure: i.enclosure,
-    dimmer: i.dimmer,
+    ...pick(i, SITE_FIELDS),
     nominalSupplyVolts: i.nominalSupplyVolts,
-    hoursPerDay: i.hoursPerDay,
-    ambientC: i.ambientC,
     policyVersionId: i.policyVersionId,
     serials: [...i.serials].sort(),
   };

@@ -3,9 +3,7 @@ import { z } from 'zod';
 import {
   importQuerySchema,
   importRequestSchema,
-  installationInputSchema,
   installationListQuerySchema,
-  updateInstallationSchema,
 } from '../../../shared/schemas/catalogue';
 import type { AppContext } from '../../context';
 import { actorFromRequest } from '../../lib/audit';
@@ -16,7 +14,7 @@ import { pageOf } from '../../lib/pagination';
 import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
 import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { presentInstallation, presentInstallationDetail } from './installations.presenter';
-import { createInstallationsService, INSTALLATION_COLUMNS, scopeOf } from './installations.service';
+import { createInstallationsService, INSTALLATION_COLUMNS, installationSchemasNow, scopeOf } from './installations.service';
 
 const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
 
@@ -33,7 +31,7 @@ export function installationsRouter(ctx: AppContext) {
   });
 
   r.post('/', async (req, res) => {
-    const input = parseBody(installationInputSchema, req);
+    const input = parseBody(installationSchemasNow().input, req);
     const product = await service.findProduct(input.productModelId);
     if (!product) {
       throw new AppError(400, 'validation.failed', 'The request body has invalid fields.', [
@@ -67,7 +65,7 @@ export function installationsRouter(ctx: AppContext) {
 
   r.patch('/:id', async (req, res) => {
     const { id } = parseWith(idParam, req.params, 'address');
-    const input = parseBody(updateInstallationSchema, req);
+    const input = parseBody(installationSchemasNow().update, req);
     const inst = await service.findById(id);
     authorize(req, 'update', 'Installation', inst, 'installation');
     await service.update(inst, input, actorFromRequest(req));

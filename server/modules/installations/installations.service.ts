@@ -2,7 +2,8 @@ import crypto from 'node:crypto';
 import { Brackets, In, type EntityManager, type SelectQueryBuilder } from 'typeorm';
 import { coverageDate, versionInForce } from '../../../shared/catalogue/policy-version';
 import {
-  installationInputSchema,
+  installationSchemas,
+  latestInstallDate,
   type ImportRequest,
   type ImportResult,
   type ImportRowError,
@@ -19,6 +20,7 @@ import { ProductModel } from '../../db/entities/product-model.entity';
 import { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-version.entity';
 import { recordAudit, recordAuditMany, type Actor } from '../../lib/audit';
 import { coerceRow, issuesToRowErrors, MAX_LISTED_ERRORS, readRows, tooManyRows, type ColumnSpec } from '../../lib/csv-import';
+import { clock } from '../../lib/clock';
 import { AppError, conflict } from '../../lib/errors';
 import { changedFields } from '../../lib/history';
 import { likeContains, parseSort } from '../../lib/pagination';
@@ -40,6 +42,7 @@ export const INSTALLATION_COLUMNS: ColumnSpec[] = [
   { column: 'purchase_date', field: 'purchaseDate', kind: 'string', required: false, example: '2024-02-27' },
   { column: 'distributor', field: 'distributor', kind: 'string', required: false, example: 'Northgate Electrical Supply' },
   { column: 'invoice_number', field: 'invoiceNumber', kind: 'string', required: false, example: 'INV-20417' },
+  { column: 'lot', field: 'lot', kind: 'string', required: false, example: 'AC2401' },
   { column: 'location', field: 'location', kind: 'string', required: true, example: 'damp' },
   { column: 'enclosure', field: 'enclosure', kind: 'string', required: true, example: 'open' },
   { column: 'dimmer', field: 'dimmer', kind: 'string', required: true, example: 'none' },
@@ -47,6 +50,9 @@ export const INSTALLATION_COLUMNS: ColumnSpec[] = [
   { column: 'hours_per_day', field: 'hoursPerDay', kind: 'number', required: true, example: '16' },
   { column: 'ambient_c', field: 'ambientC', kind: 'number', required: true, example: '25' },
 ];
+
+/** The payload schemas as of the server's clock: an install date after today (anywhere) is refused. */
+export const installationSchemasNow = () => installationSchemas(latestInstallDate(clock.now()));
 
 type Scope = { kind: 'contractor' | 'manufacturer'; orgId: string };
 export const scopeOf = (u: SessionUser): Scope => ({ kind: u.organization.kind, orgId: u.organization.id });
@@ -231,7 +237,7 @@ export function createInstallationsService(ds: AppDataSource) {
       const patch = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)) as Partial<InstallationValues>;
       const { policyVersionId: _pv, ...editable } = current;
       void _pv;
-      const merged = installationInputSchema.safeParse({ ...editable, ...patch });
+      const merged = installationSchemasNow().input.safeParse({ ...editable, ...patch });
       if (!merged.success) {
         throw new AppError(
           400,
@@ -282,6 +288,7 @@ export function createInstallationsService(ds: AppDataSource) {
       const { rows, fileErrors } = readRows(input, INSTALLATION_COLUMNS);
       tooManyRows(rows.length, 20_000);
       const errors: ImportRowError[] = [...fileErrors];
+      const { input: rowSchema } = installationSchemasNow();
 
       const coerced = rows.map((raw) => ({ raw, ...coerceRow(raw, INSTALLATION_COLUMNS) }));
       // Resolve model numbers (optionally qualified by manufacturer name) in one query.
@@ -317,7 +324,7 @@ export function createInstallationsService(ds: AppDataSource) {
         const { manufacturer: _m, modelNumber: _n, ...rest } = c.values;
         void _m;
         void _n;
-        const parsed = installationInputSchema.safeParse({ ...rest, productModelId: product?.id ?? '00000000-0000-4000-8000-000000000000' });
+        const parsed = rowSchema.safeParse({ ...rest, productModelId: product?.id ?? '00000000-0000-4000-8000-000000000000' });
         if (!parsed.success) rowErrors.push(...issuesToRowErrors(c.raw.row, parsed.error, INSTALLATION_COLUMNS, new Set(c.errors.map((e) => e.column))));
         if (parsed.success && product) {
           const dupInFile: string[] = [];

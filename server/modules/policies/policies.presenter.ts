@@ -2,47 +2,38 @@ import type { PolicyDetailDto, PolicyDto, PolicyVersionDto } from '../../../shar
 import type { PolicyModel } from '../../db/entities/policy-model.entity';
 import type { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-version.entity';
 import type { WarrantyPolicy } from '../../db/entities/warranty-policy.entity';
+import { orgRef, pick, stamps } from '../../lib/present';
+
+/** The terms: what the answers show and the audit log records (the threshold apart: a decimal column). */
+const TERM_FIELDS = [
+  'versionNumber',
+  'effectiveFrom',
+  'termMonths',
+  'fullCoverageMonths',
+  'filingWindowDays',
+  'unitCredit',
+  'currency',
+  'labourAllowance',
+  'requiredPhotos',
+  'proofOfPurchaseRequired',
+  'exclusions',
+  'denialReasons',
+  'changeNote',
+] as const satisfies readonly (keyof PolicyVersionDto & keyof WarrantyPolicyVersion)[];
 
 export function presentVersion(v: WarrantyPolicyVersion): PolicyVersionDto {
   return {
     id: v.id,
     policyId: v.policyId,
-    versionNumber: v.versionNumber,
-    effectiveFrom: v.effectiveFrom,
-    termMonths: v.termMonths,
-    fullCoverageMonths: v.fullCoverageMonths,
-    filingWindowDays: v.filingWindowDays,
+    ...pick(v, TERM_FIELDS),
     darkLedFailurePercent: Number(v.darkLedFailurePercent),
-    unitCredit: v.unitCredit,
-    currency: v.currency,
-    labourAllowance: v.labourAllowance,
-    requiredPhotos: v.requiredPhotos,
-    proofOfPurchaseRequired: v.proofOfPurchaseRequired,
-    exclusions: v.exclusions,
-    denialReasons: v.denialReasons,
-    changeNote: v.changeNote,
     createdAt: v.createdAt.toISOString(),
   };
 }
 
 /** The terms as the audit log records them. */
 export function versionAuditView(v: Omit<PolicyVersionDto, 'id' | 'policyId' | 'createdAt'>) {
-  return {
-    versionNumber: v.versionNumber,
-    effectiveFrom: v.effectiveFrom,
-    termMonths: v.termMonths,
-    fullCoverageMonths: v.fullCoverageMonths,
-    filingWindowDays: v.filingWindowDays,
-    darkLedFailurePercent: v.darkLedFailurePercent,
-    unitCredit: v.unitCredit,
-    currency: v.currency,
-    labourAllowance: v.labourAllowance,
-    requiredPhotos: v.requiredPhotos,
-    proofOfPurchaseRequired: v.proofOfPurchaseRequired,
-    exclusions: v.exclusions,
-    denialReasons: v.denialReasons,
-    changeNote: v.changeNote,
-  };
+  return { ...pick(v, TERM_FIELDS), darkLedFailurePercent: v.darkLedFailurePercent };
 }
 
 type Loaded = WarrantyPolicy & { latest?: WarrantyPolicyVersion | null };
@@ -50,7 +41,7 @@ type Loaded = WarrantyPolicy & { latest?: WarrantyPolicyVersion | null };
 export function presentPolicy(p: Loaded, models: PolicyModel[]): PolicyDto {
   return {
     id: p.id,
-    manufacturer: { id: p.manufacturerId, name: p.manufacturer?.name ?? '' },
+    manufacturer: orgRef(p.manufacturerId, p.manufacturer),
     name: p.name,
     latestVersionNumber: p.latestVersionNumber,
     latestVersion: p.latest ? presentVersion(p.latest) : null,
@@ -58,9 +49,7 @@ export function presentPolicy(p: Loaded, models: PolicyModel[]): PolicyDto {
       .filter((m) => m.policyId === p.id)
       .map((m) => ({ id: m.productModelId, modelNumber: m.productModel.modelNumber, name: m.productModel.name }))
       .sort((a, b) => a.modelNumber.localeCompare(b.modelNumber)),
-    createdAt: p.createdAt.toISOString(),
-    updatedAt: p.updatedAt.toISOString(),
-    version: p.version,
+    ...stamps(p),
   };
 }
 

@@ -4,17 +4,26 @@ import { cn } from '../../lib/cn';
 const control =
   'block w-full rounded-lg border bg-white px-3 text-base text-ink-900 placeholder:text-ink-400 focus:border-brand-600 focus:outline-none focus:ring-2 focus:ring-brand-600/30 disabled:bg-ink-100 sm:text-sm';
 
-type FieldShellProps = { label: string; hint?: ReactNode; error?: string; unit?: string; children: (ids: { id: string; describedBy?: string }) => ReactNode; className?: string };
+type FieldShellProps = {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+  unit?: string;
+  children: (ids: { id: string; describedBy?: string }) => ReactNode;
+  className?: string;
+  /** For screen readers only, where the placeholder and the place say enough to the eye. */
+  hideLabel?: boolean;
+};
 
 /** Label, control, unit, hint and error, wired together for screen readers. */
-export function FieldShell({ label, hint, error, unit, children, className }: FieldShellProps) {
+export function FieldShell({ label, hint, error, unit, children, className, hideLabel = false }: FieldShellProps) {
   const id = useId();
   const hintId = hint ? `${id}-hint` : undefined;
   const errorId = error ? `${id}-error` : undefined;
   const describedBy = [hintId, errorId].filter(Boolean).join(' ') || undefined;
   return (
-    <div className={cn('space-y-1.5', className)}>
-      <label htmlFor={id} className="block text-sm font-medium text-ink-800">
+    <div className={cn(!hideLabel && 'space-y-1.5', className)}>
+      <label htmlFor={id} className={hideLabel ? 'sr-only' : 'block text-sm font-medium text-ink-800'}>
         {label}
         {unit ? <span className="ml-1 font-normal text-ink-600">({unit})</span> : null}
       </label>
@@ -33,14 +42,14 @@ export function FieldShell({ label, hint, error, unit, children, className }: Fi
   );
 }
 
-type InputFieldProps = InputHTMLAttributes<HTMLInputElement> & { label: string; hint?: ReactNode; error?: string; unit?: string };
+type InputFieldProps = InputHTMLAttributes<HTMLInputElement> & { label: string; hint?: ReactNode; error?: string; unit?: string; hideLabel?: boolean };
 
 export const InputField = forwardRef<HTMLInputElement, InputFieldProps>(function InputField(
-  { label, hint, error, unit, className, ...rest },
+  { label, hint, error, unit, className, hideLabel, ...rest },
   ref,
 ) {
   return (
-    <FieldShell label={label} hint={hint} error={error} unit={unit} className={className}>
+    <FieldShell label={label} hint={hint} error={error} unit={unit} className={className} hideLabel={hideLabel}>
       {({ id, describedBy }) => (
         <input
           ref={ref}
@@ -78,3 +87,12 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(funct
     </FieldShell>
   );
 });
+
+/** The <option>s of a select: one per value, worded by `labelOf`. */
+export function optionsOf<V extends string | number>(values: readonly V[], labelOf: (v: V) => string) {
+  return values.map((v) => (
+    <option key={v} value={v}>
+      {labelOf(v)}
+    </option>
+  ));
+}

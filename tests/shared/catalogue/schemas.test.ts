@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
   installationInputSchema,
+  installationSchemas,
+  latestInstallDate,
   policyTermsSchema,
   productInputSchema,
   updateInstallationSchema,
@@ -91,5 +93,29 @@ describe('installation schema', () => {
   it('needs something to change in a patch', () => {
     expect(updateInstallationSchema.safeParse({}).success).toBe(false);
     expect(updateInstallationSchema.safeParse({ hoursPerDay: 25 }).success).toBe(false);
+  });
+});
+
+describe('the latest install date', () => {
+  const id = '00000000-0000-4000-8000-000000000001';
+
+  it('is the next UTC day, so that today passes in every time zone (UTC-12 to UTC+14, from memory: IANA tz database)', () => {
+    expect(latestInstallDate(new Date('2026-12-02T00:00:00Z'))).toBe('2026-12-03');
+    expect(latestInstallDate(new Date('2026-12-02T23:59:59Z'))).toBe('2026-12-03');
+    // At 10:00 UTC it is already the 3rd at UTC+14 and still the 1st at UTC-12 (the 2nd minus 22 h).
+    expect(latestInstallDate(new Date('2026-12-02T10:00:00Z'))).toBe('2026-12-03');
+    // Month and year ends roll over as calendar dates do.
+    expect(latestInstallDate(new Date('2026-12-31T18:00:00Z'))).toBe('2027-01-01');
+    expect(latestInstallDate(new Date('2028-02-28T12:00:00Z'))).toBe('2028-02-29'); // 2028 is a leap year (Gregorian rule)
+  });
+
+  it('bounds the install date only when given, with a message on the field', () => {
+    const { input, update } = installationSchemas('2026-12-03');
+    expect(input.safeParse(installationPayload(id, { installDate: '2026-12-03' })).success).toBe(true);
+    expect(messages(input.safeParse(installationPayload(id, { installDate: '2026-12-04' })))).toEqual({
+      installDate: 'The install date is in the future. Enter the day the fixtures were installed.',
+    });
+    expect(messages(update.safeParse({ installDate: '2027-01-01' })).installDate).toMatch(/in the future/);
+    expect(installationInputSchema.safeParse(installationPayload(id, { installDate: '2099-01-01' })).success).toBe(true);
   });
 });

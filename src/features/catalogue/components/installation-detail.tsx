@@ -10,6 +10,7 @@ export function InstallationDetail({ installation: i }: { installation: Installa
     ['Contractor', i.contractor.name],
     ['Manufacturer', i.manufacturer.name],
     ['Quantity', `${i.quantity} units (${i.serialCount} serials on file)`],
+    ['Lot (date code)', i.lot ?? 'Not given'],
     ['Installed', i.installDate],
     ['Purchased', i.purchaseDate ?? 'Not given'],
     ['Distributor and invoice', [i.distributor, i.invoiceNumber].filter(Boolean).join(' · ') || 'Not given'],

@@ -9,7 +9,8 @@ import {
   ENCLOSURE_LABELS,
   ENCLOSURES,
   installationConditionsSchema,
-  installationInputSchema,
+  installationSchemas,
+  latestInstallDate,
   LOCATION_LABELS,
   LOCATIONS,
   NOMINAL_SUPPLY_VOLTS,
@@ -19,7 +20,7 @@ import {
 } from '../../../../shared/schemas/catalogue';
 import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
-import { FieldShell, InputField, SelectField } from '../../../components/ui/field';
+import { FieldShell, InputField, optionsOf, SelectField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
 import { installationQueries } from '../api/installation-queries';
 import { productQueries } from '../api/product-queries';
@@ -35,8 +36,11 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
   const qc = useQueryClient();
   const [productSearch, setProductSearch] = useState('');
   const products = useQuery(productQueries.list({ page: 1, pageSize: 100, q: productSearch || undefined }));
+  // The browser's clock only for early feedback: the server checks the install date against its own.
+  const [latest] = useState(() => latestInstallDate(new Date()));
+  const schema = useMemo(() => installationSchemas(latest).input, [latest]);
   const form = useForm<InstallationInput, unknown, InstallationValues>({
-    resolver: zodResolver(installationInputSchema),
+    resolver: zodResolver(schema),
     mode: 'onTouched',
     defaultValues: { serials: [], location: 'dry', enclosure: 'open', dimmer: 'none', nominalSupplyVolts: 277, purchaseDate: null } as unknown as InstallationInput,
   });
@@ -106,6 +110,12 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
               </FieldShell>
             )}
           />
+          <InputField
+            label="Lot (optional)"
+            hint="The manufacturing lot or date code printed on the units' labels, like AC2401."
+            error={err('lot')}
+            {...form.register('lot', { setValueAs: orNull })}
+          />
         </div>
       </Card>
       <Card>
@@ -121,7 +131,7 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
       <Card>
         <CardHeader title="Purchase" />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5">
-          <InputField label="Install date" type="date" error={err('installDate')} {...form.register('installDate')} />
+          <InputField label="Install date" type="date" max={latest} error={err('installDate')} {...form.register('installDate')} />
           <InputField label="Purchase date (optional)" type="date" error={err('purchaseDate')} {...form.register('purchaseDate', { setValueAs: orNull })} />
           <InputField label="Distributor (optional)" error={err('distributor')} {...form.register('distributor', { setValueAs: orNull })} />
           <InputField label="Invoice number (optional)" error={err('invoiceNumber')} {...form.register('invoiceNumber', { setValueAs: orNull })} />
@@ -131,32 +141,16 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
         <CardHeader title="Conditions as installed" description="Checked against the product's ratings as you choose." />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5 lg:grid-cols-3">
           <SelectField label="Location" error={err('location')} {...form.register('location')}>
-            {LOCATIONS.map((l) => (
-              <option key={l} value={l}>
-                {LOCATION_LABELS[l]}
-              </option>
-            ))}
+            {optionsOf(LOCATIONS, (l) => LOCATION_LABELS[l])}
           </SelectField>
           <SelectField label="Enclosure" error={err('enclosure')} {...form.register('enclosure')}>
-            {ENCLOSURES.map((x) => (
-              <option key={x} value={x}>
-                {ENCLOSURE_LABELS[x]}
-              </option>
-            ))}
+            {optionsOf(ENCLOSURES, (x) => ENCLOSURE_LABELS[x])}
           </SelectField>
           <SelectField label="Dimmer" error={err('dimmer')} {...form.register('dimmer')}>
-            {DIMMERS.map((d) => (
-              <option key={d} value={d}>
-                {DIMMER_LABELS[d]}
-              </option>
-            ))}
+            {optionsOf(DIMMERS, (d) => DIMMER_LABELS[d])}
           </SelectField>
           <SelectField label="Nominal supply (V)" error={err('nominalSupplyVolts')} {...form.register('nominalSupplyVolts', { setValueAs: Number })}>
-            {NOMINAL_SUPPLY_VOLTS.map((v) => (
-              <option key={v} value={v}>
-                {v} V
-              </option>
-            ))}
+            {optionsOf(NOMINAL_SUPPLY_VOLTS, (v) => `${v} V`)}
           </SelectField>
           <InputField label="Hours of use a day" unit="h" type="number" inputMode="decimal" step="any" error={err('hoursPerDay')} {...form.register('hoursPerDay', { setValueAs: numberOrUndefined })} />
           <InputField label="Ambient temperature" unit="°C" type="number" inputMode="decimal" step="any" error={err('ambientC')} {...form.register('ambientC', { setValueAs: numberOrUndefined })} />

@@ -15,7 +15,7 @@ import {
 } from '../../../../shared/schemas/catalogue';
 import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
-import { InputField, SelectField } from '../../../components/ui/field';
+import { InputField, optionsOf, SelectField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
 import { productQueries } from '../api/product-queries';
 import { createProduct, updateProduct } from '../api/save-product';
@@ -75,11 +75,7 @@ export function ProductForm({ product, onSaved, onCancel }: { product?: ProductD
           <InputField label="Model number" autoComplete="off" error={err('modelNumber')} {...form.register('modelNumber')} />
           <InputField label="Name" autoComplete="off" error={err('name')} {...form.register('name')} />
           <SelectField label="Family" error={err('family')} {...form.register('family')}>
-            {PRODUCT_FAMILIES.map((f) => (
-              <option key={f} value={f}>
-                {FAMILY_LABELS[f]}
-              </option>
-            ))}
+            {optionsOf(PRODUCT_FAMILIES, (f) => FAMILY_LABELS[f])}
           </SelectField>
         </div>
       </Card>
@@ -101,18 +97,10 @@ export function ProductForm({ product, onSaved, onCancel }: { product?: ProductD
         <CardHeader title="Application ratings" />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5 lg:grid-cols-3">
           <SelectField label="Location rating" error={err('location')} {...form.register('location')}>
-            {LOCATIONS.map((l) => (
-              <option key={l} value={l}>
-                {LOCATION_LABELS[l]}
-              </option>
-            ))}
+            {optionsOf(LOCATIONS, (l) => LOCATION_LABELS[l])}
           </SelectField>
           <SelectField label="Dimming" error={err('dimming')} {...form.register('dimming')}>
-            {DIMMINGS.map((d) => (
-              <option key={d} value={d}>
-                {DIMMING_LABELS[d]}
-              </option>
-            ))}
+            {optionsOf(DIMMINGS, (d) => DIMMING_LABELS[d])}
           </SelectField>
           {num('ambientMaxC', 'Rated ambient maximum', '°C')}
           {num('ratedLifeHours', 'Rated life', 'h', '1')}

@@ -2,7 +2,7 @@ import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { Paginated, UserDto } from '../../../../shared/schemas/users';
 import { api, toQuery } from '../../../lib/api-client';
 
-export type UserFilters = { page: number; q?: string; status?: string };
+export type UserFilters = { page: number; q?: string; status?: string; sort?: string };
 
 export const userQueries = {
   all: ['users'] as const,
