@@ -13,6 +13,8 @@ import { resetDatabase, startLocalDb } from './lib/mariadb';
 async function main() {
   const base = loadConfig();
   fs.rmSync(path.join(base.dataDir, 'e2e', 'mailbox'), { recursive: true, force: true });
+  // The database is emptied below, so the files of the last run (the demo's photos among them) belong to nothing.
+  fs.rmSync(path.join(base.dataDir, 'e2e', 'uploads'), { recursive: true, force: true });
   const smtp = await startFakeSmtp({ port: 0, dir: path.join(base.dataDir, 'e2e', 'mailbox') });
   const config = loadConfig({
     ...process.env,

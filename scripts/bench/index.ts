@@ -6,6 +6,7 @@
 //   pdf.bench.ts        letters and memos per second beside a bare pdfkit page
 //   import.bench.ts     CSV import rows per second beside raw INSERTs (a database of its own, DB_PORT + 5)
 //   bundle.ts           the client's gzipped JavaScript for sign-in and the homes
+//   seed.bench.ts       npm start's demo seed, with the claims' photos beside without (on the test database too)
 // BENCH_ONLY=api,pdf runs some parts only.
 import { spawn } from 'node:child_process';
 import path from 'node:path';
@@ -27,6 +28,7 @@ const PARTS: { name: string; file: string; parse?: (out: string) => Row[] }[] = 
   { name: 'pdf', file: 'pdf.bench.ts' },
   { name: 'import', file: 'import.bench.ts', parse: parseImport },
   { name: 'bundle', file: 'bundle.ts', parse: parseBundle },
+  { name: 'seed', file: 'seed.bench.ts' },
 ];
 
 const num = (s: string) => Number(s.replace(/,/g, ''));

@@ -1,5 +1,6 @@
 import type { Request, RequestHandler } from 'express';
-import type { z } from 'zod';
+import { z } from 'zod';
+import { idempotencyKeySchema } from '../../shared/schemas/credits';
 import { AppError } from '../lib/errors';
 
 // The strict schemas live in shared/ so that the forms use the very same rules.
@@ -22,6 +23,21 @@ export function parseBody<S extends z.ZodType>(schema: S, req: Request): z.infer
 
 export function parseQuery<S extends z.ZodType>(schema: S, req: Request): z.infer<S> {
   return parseWith(schema, req.query ?? {}, 'query');
+}
+
+/**
+ * The Idempotency-Key header (server/lib/idempotency.ts): required where a repeat would do harm twice (a credit
+ * memo), optional where the action is safe to repeat without it (starting a draft, filing). When sent it must be
+ * a valid key: a bad one is a 400, never ignored.
+ */
+export function idempotencyKeyOf(req: Request, opts: { required: true }): string;
+export function idempotencyKeyOf(req: Request, opts?: { required?: false }): string | undefined;
+export function idempotencyKeyOf(req: Request, opts: { required?: boolean } = {}): string | undefined {
+  const value = req.get('idempotency-key');
+  if (value === undefined && !opts.required) return undefined;
+  return parseWith(z.strictObject({ 'idempotency-key': idempotencyKeySchema }), { 'idempotency-key': value }, 'Idempotency-Key header')[
+    'idempotency-key'
+  ];
 }
 
 // File uploads (POST …/attachments) are the one place a multipart body is let through; the upload middleware

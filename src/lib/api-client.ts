@@ -51,3 +51,13 @@ export function toQuery(params: Record<string, string | number | undefined | nul
   const s = sp.toString();
   return s ? `?${s}` : '';
 }
+
+/**
+ * A fresh Idempotency-Key: made once per form start (or per action a user may repeat) and sent with every retry
+ * of that request, so a double tap or a resend after a dropped answer does the thing once. getRandomValues works
+ * where randomUUID does not (pages served over plain http on a LAN address).
+ */
+export function newIdempotencyKey(prefix: string) {
+  const bytes = crypto.getRandomValues(new Uint8Array(16));
+  return `${prefix}-${Array.from(bytes, (b) => b.toString(16).padStart(2, '0')).join('')}`;
+}

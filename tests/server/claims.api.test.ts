@@ -1,9 +1,11 @@
+import crypto from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { In } from 'typeorm';
 import { CLAIM_NUMBER_PATTERN, isValidClaimNumber } from '../../shared/claims/claim-number';
 import { ENGINE_VERSION } from '../../shared/engine';
 import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { Claim } from '../../server/db/entities/claim.entity';
+import { IdempotencyKey } from '../../server/db/entities/idempotency-key.entity';
 import { OutboxMessage } from '../../server/db/entities/outbox-message.entity';
 import { claimWorld, createDraft, daysAgo, goodClaimFields, member } from '../support/claim-factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
@@ -17,6 +19,125 @@ afterAll(() => closeTestApp(t));
 const claimRow = (id: string) => t.ds.getRepository(Claim).findOneByOrFail({ id });
 const auditActions = async (id: string) => (await t.ds.getRepository(AuditEvent).find({ where: { entityType: 'Claim', entityId: id }, order: { id: 'ASC' } })).map((a) => a.action);
 const outboxTo = (emails: string[]) => t.ds.getRepository(OutboxMessage).find({ where: { to: In(emails) } });
+
+const newKey = () => `form-${crypto.randomUUID()}`;
+const keysOf = (userId: string, key: string) => t.ds.getRepository(IdempotencyKey).findBy({ userId, key });
+const draftsOn = (installationId: string) => t.ds.getRepository(Claim).findBy({ installationId });
+
+describe('starting a draft with an Idempotency-Key (a double tap on “File a claim”)', () => {
+  it('two requests at once with one key make one draft; both answer it, the second replayed', async () => {
+    const w = await claimWorld(t);
+    const key = newKey();
+    const send = () => w.installer.agent.post('/api/claims').set('Idempotency-Key', key).send({ installationId: w.installation.id });
+    const [a, b] = await Promise.all([send(), send()]);
+    expect([a.status, b.status]).toEqual([201, 201]);
+    expect(a.body.claim.id).toBe(b.body.claim.id);
+    expect([a.headers['idempotent-replayed'], b.headers['idempotent-replayed']].sort()).toEqual(['true', undefined]);
+    expect(await draftsOn(w.installation.id)).toHaveLength(1);
+    expect(await auditActions(a.body.claim.id)).toEqual(['claim.created']);
+    const [row] = await keysOf(w.installer.user.id, key);
+    expect(row).toMatchObject({ route: 'POST /claims', status: 'done', responseStatus: 201, responseBody: { claimId: a.body.claim.id } });
+    // A later retry (the answer lost on a bad connection) still answers the same draft, as it is now.
+    await w.installer.agent.patch(`/api/claims/${a.body.claim.id}`).send({ version: 1, narrative: 'Typed on the lift before the retry.' });
+    const later = await send();
+    expect(later.status).toBe(201);
+    expect(later.body.claim).toMatchObject({ id: a.body.claim.id, version: 2, narrative: 'Typed on the lift before the retry.' });
+    expect(await draftsOn(w.installation.id)).toHaveLength(1);
+  });
+
+  it('the same key with another body is a 422 with a clear message, and writes nothing', async () => {
+    const w = await claimWorld(t);
+    const key = newKey();
+    const first = await w.installer.agent.post('/api/claims').set('Idempotency-Key', key).send({ installationId: w.installation.id });
+    expect(first.status).toBe(201);
+    const audits = () => t.ds.getRepository(AuditEvent).countBy({ actorUserId: w.installer.user.id });
+    const before = await audits();
+    const other = await w.installer.agent
+      .post('/api/claims')
+      .set('Idempotency-Key', key)
+      .send({ installationId: w.installation.id, narrative: 'A different claim under the same key.' });
+    expect(other.status).toBe(422);
+    expect(other.body.error).toMatchObject({
+      code: 'idempotency.key_reused',
+      message: 'This Idempotency-Key was already used for a different request. Use a new key for a new request.',
+    });
+    expect(await draftsOn(w.installation.id)).toHaveLength(1);
+    expect((await claimRow(first.body.claim.id)).narrative).toBe('');
+    expect(await audits()).toBe(before);
+    expect(await keysOf(w.installer.user.id, key)).toHaveLength(1);
+  });
+
+  it('a key is the user’s own: another user sending it starts a draft of their own, never sees the first', async () => {
+    const w = await claimWorld(t);
+    const colleague = await member(t, w.conX, ['installer']);
+    const key = newKey();
+    const mine = await w.installer.agent.post('/api/claims').set('Idempotency-Key', key).send({ installationId: w.installation.id });
+    const theirs = await colleague.agent.post('/api/claims').set('Idempotency-Key', key).send({ installationId: w.installation.id });
+    expect([mine.status, theirs.status]).toEqual([201, 201]);
+    expect(theirs.body.claim.id).not.toBe(mine.body.claim.id);
+    expect(theirs.headers['idempotent-replayed']).toBeUndefined();
+    expect(await draftsOn(w.installation.id)).toHaveLength(2);
+    // Another contractor's installer with the key: the installation is not theirs, a 404 like a missing one.
+    const stranger = await w.otherInstaller.agent.post('/api/claims').set('Idempotency-Key', key).send({ installationId: w.installation.id });
+    expect(stranger.status).toBe(404);
+    expect(await keysOf(w.otherInstaller.user.id, key)).toHaveLength(0);
+  });
+
+  it('a malformed key is a 400 naming the header, and nothing is written; without a key each request starts a draft', async () => {
+    const w = await claimWorld(t);
+    const bad = await w.installer.agent.post('/api/claims').set('Idempotency-Key', 'short').send({ installationId: w.installation.id });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.details).toEqual([{ path: 'idempotency-key', message: 'The Idempotency-Key header must be 8 to 255 printable characters.' }]);
+    expect(await draftsOn(w.installation.id)).toHaveLength(0);
+    await createDraft(w.installer.agent, w.installation.id);
+    await createDraft(w.installer.agent, w.installation.id);
+    expect(await draftsOn(w.installation.id)).toHaveLength(2);
+  });
+
+  it('a refused request keeps no key: after the refusal the same key can still start the draft', async () => {
+    const w = await claimWorld(t);
+    const key = newKey();
+    const refused = await w.installer.agent.post('/api/claims').set('Idempotency-Key', key).send({ installationId: w.installation.id, units: 0 });
+    expect(refused.status).toBe(400);
+    expect(await keysOf(w.installer.user.id, key)).toHaveLength(0);
+    const ok = await w.installer.agent.post('/api/claims').set('Idempotency-Key', key).send({ installationId: w.installation.id });
+    expect(ok.status).toBe(201);
+  });
+});
+
+describe('filing with an Idempotency-Key', () => {
+  it('keeps the key with the answer: the same key replays it, another body under it is a 422 and files nothing twice', async () => {
+    const w = await claimWorld(t);
+    const draft = await createDraft(w.installer.agent, w.installation.id, goodClaimFields(w.installation.serials[0]));
+    const key = newKey();
+    const file = (body: object) => w.installer.agent.post(`/api/claims/${draft.id}/file`).set('Idempotency-Key', key).send(body);
+    const [a, b] = await Promise.all([file({ version: draft.version }), file({ version: draft.version })]);
+    expect([a.status, b.status]).toEqual([200, 200]);
+    expect([a.body.replayed, b.body.replayed].sort()).toEqual([false, true]);
+    expect(a.body.claim.number).toBe(b.body.claim.number);
+    const [row] = await keysOf(w.installer.user.id, key);
+    expect(row).toMatchObject({ route: 'POST /claims/:id/file', status: 'done', responseStatus: 200, responseBody: { claimId: draft.id, replayed: false } });
+    const again = await file({ version: draft.version });
+    expect([again.status, again.headers['idempotent-replayed'], again.body.replayed]).toEqual([200, 'true', true]);
+    const other = await file({});
+    expect(other.status).toBe(422);
+    expect(other.body.error.code).toBe('idempotency.key_reused');
+    expect((await auditActions(draft.id)).filter((x) => x === 'claim.filed')).toHaveLength(1);
+    expect(await outboxTo([w.installer.user.email])).toHaveLength(1);
+  });
+
+  it('a refused filing keeps no key, so the same key files once the draft is complete', async () => {
+    const w = await claimWorld(t);
+    const draft = await createDraft(w.installer.agent, w.installation.id);
+    const key = newKey();
+    const refused = await w.installer.agent.post(`/api/claims/${draft.id}/file`).set('Idempotency-Key', key).send({});
+    expect(refused.status).toBe(422);
+    expect(await keysOf(w.installer.user.id, key)).toHaveLength(0);
+    await w.installer.agent.patch(`/api/claims/${draft.id}`).send({ version: draft.version, ...goodClaimFields(w.installation.serials[0]) });
+    const filed = await w.installer.agent.post(`/api/claims/${draft.id}/file`).set('Idempotency-Key', key).send({});
+    expect([filed.status, filed.body.replayed, filed.body.claim.stage]).toEqual([200, false, 'filed']);
+  });
+});
 
 describe('drafts', () => {
   it('an installer starts a draft from an installation; it carries the installation, product and policy version in force', async () => {
@@ -196,7 +317,7 @@ describe('filing', () => {
     const draft = await createDraft(w.installer.agent, w.installation.id, goodClaimFields(w.installation.serials[0]));
     const [a, b] = await Promise.all([
       w.installer.agent.post(`/api/claims/${draft.id}/file`).send({}),
-      w.installer.agent.post(`/api/claims/${draft.id}/file`).set('Idempotency-Key', 'tap-2').send({}),
+      w.installer.agent.post(`/api/claims/${draft.id}/file`).set('Idempotency-Key', 'double-tap-2').send({}),
     ]);
     expect([a.status, b.status]).toEqual([200, 200]);
     expect([a.body.replayed, b.body.replayed].sort()).toEqual([false, true]);

@@ -1,10 +1,12 @@
+import crypto from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { In } from 'typeorm';
 import { isValidClaimNumber } from '../../shared/claims/claim-number';
 import { CLAIM_STAGES } from '../../shared/schemas/claims';
 import { ENGINE_VERSION } from '../../shared/engine';
 import { seedDemo } from '../../server/db/seed/demo';
-import { createStorage } from '../../server/lib/storage';
+import { createStorage, type Storage } from '../../server/lib/storage';
+import { Attachment } from '../../server/db/entities/attachment.entity';
 import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { Claim } from '../../server/db/entities/claim.entity';
 import { Organization } from '../../server/db/entities/organization.entity';
@@ -22,9 +24,11 @@ import { closeTestApp, createTestApp, type TestContext } from '../support/test-a
 let t: TestContext;
 let claims: Claim[];
 let names: Map<string, string>;
+let storage: Storage;
 beforeAll(async () => {
   t = await createTestApp();
-  await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage: createStorage(t.config), config: t.config } });
+  storage = createStorage(t.config);
+  await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage, config: t.config } });
   const orgs = await t.ds.getRepository(Organization).findBy({ name: In(['Aldercrest Lighting', 'Veltra Luminaires', 'Harborview Electric', 'Copperline Electrical']) });
   names = new Map(orgs.map((o) => [o.id, o.name]));
   claims = await t.ds.getRepository(Claim).findBy({ contractorId: In(orgs.map((o) => o.id)) });
@@ -112,5 +116,106 @@ describe('the demo claims (API.md demo data)', () => {
       expect(res.status).toBe(200);
       expect(res.headers['content-type']).toContain('application/pdf');
     }
+  });
+});
+
+describe('the demo claims’ photos and invoices (issue 5, demo scenario)', () => {
+  const INSTALLER: Record<string, string> = { 'Harborview Electric': 'ines@harborview.test', 'Copperline Electrical': 'omar@copperline.test' };
+  const REVIEWER: Record<string, string> = { 'Aldercrest Lighting': 'rhea@aldercrest.test', 'Veltra Luminaires': 'theo@veltra.test' };
+  const other = (m: Record<string, string>, name: string) => Object.entries(m).find(([k]) => k !== name)![1];
+  const filesOf = async (ids: string[]) => {
+    const rows = await t.ds.getRepository(Attachment).findBy({ ownerType: 'claim', ownerId: In(ids) });
+    const by = new Map<string, Attachment[]>();
+    for (const a of rows) by.set(a.ownerId!, [...(by.get(a.ownerId!) ?? []), a]);
+    return by;
+  };
+
+  it('every filed demo claim has its nameplate, failure and site photos, most an invoice, as its engine counted them', async () => {
+    const filed = (await claimsDemo()).filter((c) => c.stage !== 'draft');
+    const files = await filesOf(filed.map((c) => c.id));
+    let withInvoice = 0;
+    for (const c of filed) {
+      const list = files.get(c.id) ?? [];
+      const photos = list.filter((a) => a.kind === 'photo');
+      expect(new Set(photos.map((a) => a.purpose))).toEqual(new Set(['nameplate', 'failure', 'site']));
+      for (const p of photos) expect([p.contentType, p.width, p.height, p.thumbnailKey !== null]).toEqual(['image/jpeg', 800, 600, true]);
+      const invoices = list.filter((a) => a.purpose === 'proof_of_purchase');
+      for (const d of invoices) expect([d.kind, d.contentType, d.thumbnailKey]).toEqual(['document', 'application/pdf', null]);
+      if (invoices.length) withInvoice++;
+      // The evaluation stored at filing counted exactly these files.
+      for (const f of c.evaluation!.findings) {
+        const v = f.values as Record<string, unknown>;
+        if (typeof v.photos === 'number') expect(v.photos).toBe(photos.length);
+        if (typeof v.proofOfPurchase === 'boolean') expect(v.proofOfPurchase).toBe(invoices.length > 0);
+      }
+      // Uploaded by the claim's installer, before it was filed.
+      for (const a of list) {
+        expect(a.uploadedById).toBe(c.createdById);
+        expect(a.organizationId).toBe(c.contractorId);
+        expect(a.createdAt.getTime()).toBeLessThan(c.filedAt!.getTime());
+      }
+    }
+    expect(withInvoice).toBeGreaterThan(filed.length / 2);
+    expect(withInvoice).toBeLessThan(filed.length);
+    // The reliability history's claims still in review carry theirs too.
+    const open = claims.filter((c) => ['filed', 'in_review', 'needs_info'].includes(c.stage) && !filed.some((f) => f.id === c.id));
+    expect(open.length).toBeGreaterThan(0);
+    const openFiles = await filesOf(open.map((c) => c.id));
+    for (const c of open) expect((openFiles.get(c.id) ?? []).map((a) => a.purpose).sort()).toEqual(['failure', 'nameplate', 'proof_of_purchase']);
+  });
+
+  it('each claim has its own rows and stored objects (original and thumbnail), each with its audit row', async () => {
+    const all = await t.ds.getRepository(Attachment).findBy({ ownerType: 'claim', ownerId: In(claims.map((c) => c.id)) });
+    expect(all.length).toBeGreaterThan(150);
+    const keys = all.flatMap((a) => [a.storageKey, a.thumbnailKey].filter((k): k is string => !!k));
+    expect(new Set(keys).size).toBe(keys.length);
+    for (const key of keys) expect(await storage.exists(key), key).toBe(true);
+    // The bytes are the re-encoded ones the row describes.
+    const sample = all.filter((_, i) => i % 37 === 0);
+    for (const a of sample) {
+      const body = await storage.getBuffer(a.storageKey);
+      expect(body.length).toBe(a.byteSize);
+      expect(crypto.createHash('sha256').update(body).digest('hex')).toBe(a.sha256);
+    }
+    const audited = await t.ds.getRepository(AuditEvent).findBy({ entityType: 'Attachment', action: 'attachment.added', entityId: In(all.map((a) => a.id)) });
+    expect(audited).toHaveLength(all.length);
+  });
+
+  it('a demo photo and invoice download for the claim’s installer and reviewer, and are a 404 for the other contractor and manufacturer', async () => {
+    const c = (await claimsDemo()).find((x) => x.stage === 'in_review' && names.get(x.manufacturerId) === 'Veltra Luminaires')
+      ?? (await claimsDemo()).find((x) => x.stage === 'in_review')!;
+    const list = (await filesOf([c.id])).get(c.id)!;
+    const photo = list.find((a) => a.purpose === 'failure')!;
+    const contractor = names.get(c.contractorId)!;
+    const manufacturer = names.get(c.manufacturerId)!;
+    for (const email of [INSTALLER[contractor], REVIEWER[manufacturer]]) {
+      const agent = await signIn(t.request(), email, DEMO_PASSWORD);
+      const detail = await agent.get(`/api/claims/${c.id}`);
+      expect(detail.status).toBe(200);
+      expect(detail.body.claim.attachments.map((a: { id: string }) => a.id).sort()).toEqual(list.map((a) => a.id).sort());
+      const res = await agent.get(`/api/claims/${c.id}/attachments/${photo.id}/content`).buffer(true);
+      expect([res.status, res.headers['content-type'], res.headers['x-content-type-options']]).toEqual([200, 'image/jpeg', 'nosniff']);
+      expect(res.headers['content-disposition']).toMatch(/^attachment;/);
+      expect(Buffer.compare(res.body as Buffer, await storage.getBuffer(photo.storageKey))).toBe(0);
+      const thumb = await agent.get(`/api/claims/${c.id}/attachments/${photo.id}/thumbnail`).buffer(true);
+      expect([thumb.status, thumb.headers['content-type']]).toEqual([200, 'image/webp']);
+      const invoice = list.find((a) => a.purpose === 'proof_of_purchase');
+      if (invoice) {
+        const pdf = await agent.get(`/api/claims/${c.id}/attachments/${invoice.id}/content`).buffer(true);
+        expect([pdf.status, pdf.headers['content-type']]).toEqual([200, 'application/pdf']);
+      }
+    }
+    for (const email of [other(INSTALLER, contractor), other(REVIEWER, manufacturer)]) {
+      const agent = await signIn(t.request(), email, DEMO_PASSWORD);
+      expect((await agent.get(`/api/claims/${c.id}/attachments/${photo.id}/content`)).status).toBe(404);
+      expect((await agent.get(`/api/claims/${c.id}/attachments`)).status).toBe(404);
+    }
+  });
+
+  it('a demo draft has its nameplate photo so far', async () => {
+    const drafts = claims.filter((c) => c.stage === 'draft');
+    expect(drafts.length).toBeGreaterThan(0);
+    const files = await filesOf(drafts.map((c) => c.id));
+    for (const d of drafts) expect((files.get(d.id) ?? []).map((a) => a.purpose)).toEqual(['nameplate']);
   });
 });

@@ -1,6 +1,7 @@
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
-import { demoPhotosFor, drawLedBoard } from '../../server/db/seed/demo-photos';
+import { PDFParse } from 'pdf-parse';
+import { demoPhotosFor, drawInvoice, drawLedBoard, drawNameplate } from '../../server/db/seed/demo-photos';
 import { inspectUpload } from '../../server/lib/uploads/inspect';
 
 describe('demo photos', () => {
@@ -39,5 +40,32 @@ describe('demo photos', () => {
     });
     const mean = async (buf: Buffer) => (await sharp(buf).stats()).channels[0].mean;
     expect(await mean(dark)).toBeLessThan(await mean(a));
+  });
+
+  it('draws a model’s nameplate without a serial row when none is given', async () => {
+    const body = await drawNameplate({ manufacturer: 'Veltra Luminaires', model: 'VL-FL100' });
+    await expect(inspectUpload(body, 'nameplate.jpg')).resolves.toMatchObject({ kind: 'photo', width: 800, height: 600 });
+  });
+
+  it('draws a distributor invoice as a passive one-page PDF the upload check keeps as sent, the same bytes each time', async () => {
+    const info = {
+      distributor: 'Cascade Lamp & Wire',
+      invoiceNumber: 'INV-H2024-1017',
+      date: '2024-03-04',
+      billTo: 'Harborview Electric',
+      shipTo: 'Dockside cold store, 18 Wharf Road, Port Elliot WA 98412',
+      model: 'AC-HB150-D',
+      description: 'Arden round high-bay 150 W',
+      quantity: 12,
+      unitPrice: '148.00',
+    };
+    const pdf = await drawInvoice(info);
+    expect((await drawInvoice(info)).equals(pdf)).toBe(true);
+    const inspected = await inspectUpload(pdf, 'invoice.pdf');
+    expect([inspected.kind, inspected.contentType, inspected.body.equals(pdf)]).toEqual(['document', 'application/pdf', true]);
+    const text = (await new PDFParse({ data: new Uint8Array(pdf) }).getText()).text;
+    expect(text).toContain('INV-H2024-1017');
+    // 12 x 148.00 = 1,776.00; demo prices and a demo tax rate, invented: the arithmetic is what is checked.
+    expect(text).toContain('1,776.00');
   });
 });

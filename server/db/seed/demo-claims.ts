@@ -13,12 +13,14 @@ import type { Organization } from '../entities/organization.entity';
 import type { User } from '../entities/user.entity';
 import { WarrantyPolicyVersion } from '../entities/warranty-policy-version.entity';
 import type { DemoCatalogue } from './demo-catalogue';
+import type { EvidencePlan } from './demo-evidence';
 
 // The demo's claims: both contractors against both manufacturers, at every stage the stage machine has, with
 // readings a meter would show for each model's LED topology. Here the stages are set, each with the audit rows of
 // the moves that lead to it; demo-workflow adds each stage's own rows (decisions and letters, questions, returns)
 // and demo-credits credits the oldest approved claims through the credits service, so a `credited` slot below is
 // seeded `approved` and gets its memo, its ledger entry and its one `claim.credited` row from there. Fixed seed.
+// Returns the claims and, per claim, the evidence its evaluation counted, which demo-evidence then attaches.
 
 function prng(seed: number) {
   let s = seed >>> 0;
@@ -87,6 +89,7 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
   const today = clock.now().toISOString().slice(0, 10);
   const claims: Claim[] = [];
   const audits: { actor: Actor; action: string; entityId: string; after: Record<string, unknown> }[] = [];
+  const evidence = new Map<string, EvidencePlan>();
 
   // Two passes over the installations: the demo needs at least 60 claims, there are 68 sites.
   for (const inst of catalogue.installations) {
@@ -168,8 +171,12 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
     audits.push({ actor: cActor, action: 'claim.created', entityId: claim.id, after: { stage: 'draft', installationId: inst.id, source: 'demo' } });
     if (stage !== 'draft' && v) {
       const ctx = engineContextFrom(p, v, inst);
-      const r = safeEvaluateClaim(engineInputFor(ctx, fields, { photos: 2 + Math.floor(rand() * 3), proofOfPurchase: rand() < 0.9 }, filedOn));
+      // The evidence the engine counts is the evidence demo-evidence attaches: nameplate, failure and site photos
+      // (and on some a second site view), and the invoice on most.
+      const plan: EvidencePlan = { photos: 3 + Math.floor(rand() * 2), proofOfPurchase: rand() < 0.9 };
+      const r = safeEvaluateClaim(engineInputFor(ctx, fields, plan, filedOn));
       if (!r.ok) continue;
+      evidence.set(claim.id, plan);
       const e = r.evaluation;
       Object.assign(claim, {
         number: newClaimNumber(filedAt, (n) => Math.floor(rand() * n)),
@@ -198,10 +205,12 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
         from = to;
       }
     }
+    // A draft has its nameplate photo so far.
+    if (stage === 'draft') evidence.set(claim.id, { photos: 1, proofOfPurchase: false });
     claims.push(claim);
   }
   await m.save(claims, { chunk: 50 });
   for (const a of audits) await recordAuditMany(m, a.actor, [{ action: a.action, entityType: 'Claim', entityId: a.entityId, after: a.after }]);
   void orgs;
-  return claims;
+  return { claims, evidence };
 }

@@ -1,8 +1,10 @@
+import PDFDocument from 'pdfkit';
 import sharp from 'sharp';
 import type { AttachmentPurpose } from '../../../shared/schemas/attachments';
 
 // Drawn photos for the demo claims: a fixture's nameplate, its LED board with dark segments, and the site. All
-// fictional, drawn from SVG and encoded as small JPEGs (800 x 600), so the demo never ships real photographs.
+// fictional, drawn from SVG and encoded as small JPEGs (800 x 600), so the demo never ships real photographs;
+// and the distributor's invoice a contractor keeps as proof of purchase, a one-page PDF.
 
 const WIDTH = 800;
 const HEIGHT = 600;
@@ -22,17 +24,19 @@ function seeded(seed: string) {
   };
 }
 
+// Plain libjpeg, not mozjpeg: five times faster here, and the upload path encodes every photo again anyway.
 const toJpeg = (svg: string) =>
   sharp(Buffer.from(svg))
     .resize(WIDTH, HEIGHT)
     .flatten({ background: '#808080' })
-    .jpeg({ quality: 78, mozjpeg: true })
+    .jpeg({ quality: 80 })
     .toBuffer();
 
 export type NameplateInfo = {
   manufacturer: string;
   model: string;
-  serial: string;
+  /** Left off for a model's nameplate shared by many units (the serial then sits on its own sticker). */
+  serial?: string;
   /** e.g. "120-277 V AC 50/60 Hz 1.3 A" */
   input?: string;
   power?: string;
@@ -43,7 +47,7 @@ export type NameplateInfo = {
 export function drawNameplate(info: NameplateInfo): Promise<Buffer> {
   const rows: [string, string][] = [
     ['MODEL', info.model],
-    ['SERIAL', info.serial],
+    ...(info.serial ? [['SERIAL', info.serial] as [string, string]] : []),
     ['INPUT', info.input ?? '120-277 V AC 50/60 Hz'],
     ['POWER', info.power ?? '150 W'],
     ['LOCATION', info.location ?? 'Suitable for damp locations'],
@@ -195,4 +199,71 @@ export async function demoPhotosFor(claim: {
       body: await drawSite({ label: claim.site, seed: claim.serial }),
     },
   ];
+}
+
+export type InvoiceInfo = {
+  distributor: string;
+  invoiceNumber: string;
+  /** YYYY-MM-DD; also the PDF's own dates, so the same invoice always has the same bytes. */
+  date: string;
+  billTo: string;
+  shipTo: string;
+  model: string;
+  description: string;
+  quantity: number;
+  /** Decimal string, e.g. "148.00". */
+  unitPrice: string;
+};
+
+const cents = (s: string) => Math.round(Number(s) * 100);
+const money = (c: number) => `${(c / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
+
+/**
+ * A distributor's invoice for the fixtures, as a contractor would scan or download it: one page in the PDF
+ * standard fonts (nothing embedded, nothing active), deterministic.
+ */
+export function drawInvoice(info: InvoiceInfo): Promise<Buffer> {
+  const date = new Date(`${info.date}T12:00:00Z`);
+  const doc = new PDFDocument({
+    size: 'LETTER',
+    margin: 56,
+    info: { Title: `Invoice ${info.invoiceNumber}`, Author: info.distributor, CreationDate: date, ModDate: date },
+  });
+  const parts: Buffer[] = [];
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('data', (c: Buffer) => parts.push(c));
+    doc.on('end', () => resolve(Buffer.concat(parts)));
+    doc.on('error', reject);
+  });
+  const net = cents(info.unitPrice) * info.quantity;
+  const tax = Math.round(net * 0.065);
+  doc.font('Helvetica-Bold').fontSize(20).fillColor('#1d3557').text(info.distributor);
+  doc.font('Helvetica').fontSize(9).fillColor('#555').text('Electrical and lighting supply. Fictional: Lumenproof demo data.');
+  doc.moveDown(1.5);
+  doc.font('Helvetica-Bold').fontSize(14).fillColor('#111').text(`INVOICE ${info.invoiceNumber}`);
+  doc.font('Helvetica').fontSize(10).text(`Date: ${info.date}    Terms: net 30`);
+  doc.moveDown();
+  doc.font('Helvetica-Bold').text('Bill to', { continued: false }).font('Helvetica').text(info.billTo);
+  doc.moveDown(0.5);
+  doc.font('Helvetica-Bold').text('Ship to').font('Helvetica').text(info.shipTo);
+  doc.moveDown(1.5);
+  const y = doc.y;
+  const cols = [56, 150, 380, 440, 500];
+  doc.font('Helvetica-Bold');
+  ['Item', 'Description', 'Qty', 'Unit', 'Amount'].forEach((h, i) => doc.text(h, cols[i], y, { lineBreak: false }));
+  doc.moveTo(56, y + 14).lineTo(556, y + 14).strokeColor('#999').stroke();
+  doc.font('Helvetica');
+  const row = y + 22;
+  [info.model, info.description, String(info.quantity), money(cents(info.unitPrice)), money(net)].forEach((v, i) =>
+    doc.text(v, cols[i], row, { width: i === 1 ? 220 : 60, lineBreak: i === 1 }),
+  );
+  let ty = row + 44;
+  for (const [label, value] of [['Subtotal', net], ['Sales tax 6.5 %', tax], ['Total USD', net + tax]] as const) {
+    doc.font(label.startsWith('Total') ? 'Helvetica-Bold' : 'Helvetica').text(label, 380, ty, { lineBreak: false });
+    doc.text(money(value), 500, ty, { lineBreak: false });
+    ty += 16;
+  }
+  doc.font('Helvetica').fontSize(8).fillColor('#777').text('Keep this invoice: the manufacturer may ask for it with a warranty claim.', 56, ty + 30);
+  doc.end();
+  return done;
 }

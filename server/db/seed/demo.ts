@@ -1,4 +1,8 @@
+import { In, Not } from 'typeorm';
+import type { ClaimStage } from '../../../shared/schemas/claims';
 import type { AppDataSource } from '../data-source';
+import { clock } from '../../lib/clock';
+import { Claim } from '../entities/claim.entity';
 import { hashPassword } from '../../auth/passwords';
 import { Organization } from '../entities/organization.entity';
 import { User } from '../entities/user.entity';
@@ -11,16 +15,20 @@ import type { Storage } from '../../lib/storage';
 import { seedDemoClaims } from './demo-claims';
 import { seedDemoReliability } from './demo-reliability';
 import { seedDemoWorkflow } from './demo-workflow';
+import { seedDemoEvidence } from './demo-evidence';
+
+const RELIABILITY_WITH_EVIDENCE: ClaimStage[] = ['filed', 'in_review', 'needs_info'];
 
 /**
  * Loads the fictional demo scenario into an empty database. Returns false when there was data already.
  * With `credits` (the storage for the PDFs and the config), the workflow's rows and files are loaded too: the
  * decided claims' decisions and determination letters, questions, returns with packing slips, bench tests, and
- * the credits scenario (the oldest approved claims credited through the real service, a reversal).
+ * the credits scenario (the oldest approved claims credited through the real service, a reversal), and the
+ * claims' photos and invoices (demo-evidence; `photos: false` leaves them out, for the seed benchmark's baseline).
  */
 export async function seedDemo(
   ds: AppDataSource,
-  opts: { onlyIfEmpty?: boolean; credits?: { storage: Storage; config: AppConfig } } = {},
+  opts: { onlyIfEmpty?: boolean; credits?: { storage: Storage; config: AppConfig }; photos?: boolean } = {},
 ): Promise<boolean> {
   const orgs = ds.getRepository(Organization);
   if (opts.onlyIfEmpty !== false && (await orgs.count()) > 0) return false;
@@ -58,9 +66,19 @@ export async function seedDemo(
       );
     }
     const catalogue = await seedDemoCatalogue(m, orgs, users);
-    const claims = await seedDemoClaims(m, orgs, users, catalogue);
+    const { claims, evidence } = await seedDemoClaims(m, orgs, users, catalogue);
     if (opts.credits) await seedDemoWorkflow(m, opts.credits.storage, claims, users);
     await seedDemoReliability(m, orgs, users, [...catalogue.products.values()]);
+    if (opts.credits && opts.photos !== false) {
+      // The reliability history's claims still in the reviewers' hands were judged with two photos and the
+      // invoice (demo-reliability): they carry them too.
+      const open = await m.find(Claim, {
+        select: { id: true },
+        where: { stage: In(RELIABILITY_WITH_EVIDENCE), id: Not(In(claims.map((c) => c.id))) },
+      });
+      for (const c of open) evidence.set(c.id, { photos: 2, proofOfPurchase: true });
+      await seedDemoEvidence(m, opts.credits.storage, evidence, clock.now());
+    }
   });
   if (opts.credits) await seedDemoCredits(ds, opts.credits.storage, opts.credits.config);
   return true;

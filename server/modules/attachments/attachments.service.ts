@@ -8,8 +8,8 @@ import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
 import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict, notFound } from '../../lib/errors';
-import { StorageObjectMissing } from '../../lib/storage';
-import { inspectUpload } from '../../lib/uploads/inspect';
+import { StorageObjectMissing, type Storage } from '../../lib/storage';
+import { inspectUpload, type InspectedUpload } from '../../lib/uploads/inspect';
 import { contentDisposition } from '../../lib/uploads/names';
 
 // Attachments for any owner (a claim, or whatever else takes files). These functions never decide who may see
@@ -58,6 +58,89 @@ function auditView(a: Attachment) {
   };
 }
 
+/** Where an inspected file's bytes were put: its own random keys, never a name the sender chose. */
+export type StoredKeys = { storageKey: string; thumbnailKey: string | null };
+
+/**
+ * Puts an inspected file (and its thumbnail) in storage under fresh random keys. A failed put removes what this
+ * call had already stored, so it leaves nothing behind or everything.
+ */
+export async function storeInspected(
+  storage: Storage,
+  inspected: InspectedUpload,
+  onOrphan: OrphanLogger = () => {},
+): Promise<StoredKeys> {
+  const name = crypto.randomUUID();
+  const keys: StoredKeys = {
+    storageKey: `attachments/${name}`,
+    thumbnailKey: inspected.thumbnail ? `attachments/${name}-thumb` : null,
+  };
+  const stored: string[] = [];
+  try {
+    await storage.put(keys.storageKey, inspected.body, inspected.contentType);
+    stored.push(keys.storageKey);
+    if (keys.thumbnailKey && inspected.thumbnail) {
+      await storage.put(keys.thumbnailKey, inspected.thumbnail.body, inspected.thumbnail.contentType);
+      stored.push(keys.thumbnailKey);
+    }
+    return keys;
+  } catch (err) {
+    await deleteStored(storage, stored, onOrphan);
+    throw err;
+  }
+}
+
+type OrphanLogger = (err: unknown, key: string) => void;
+
+/** Deletes stored objects whose row was never written; a failure is logged, never thrown over the cause. */
+export async function deleteStored(storage: Storage, keys: StoredKeys | string[], onOrphan: OrphanLogger) {
+  const list = Array.isArray(keys) ? keys : [keys.storageKey, keys.thumbnailKey].filter((k): k is string => !!k);
+  for (const key of list) await storage.delete(key).catch((err) => onOrphan(err, key));
+}
+
+/** The row of a stored file, not yet saved: the caller saves it in its own transaction (see saveAttachment). */
+export function newAttachmentRow(
+  m: EntityManager,
+  input: {
+    owner: AttachmentOwner;
+    uploader: Uploader;
+    purpose: AttachmentPurpose;
+    inspected: InspectedUpload;
+    stored: StoredKeys;
+    createdAt?: Date;
+  },
+): Attachment {
+  const { owner, uploader, inspected } = input;
+  checkOwner(owner);
+  return m.create(Attachment, {
+    ownerType: owner.type,
+    ownerId: owner.id,
+    organizationId: uploader.organizationId,
+    uploadedById: uploader.id,
+    kind: inspected.kind,
+    purpose: input.purpose,
+    contentType: inspected.contentType,
+    byteSize: inspected.body.length,
+    sha256: inspected.sha256,
+    storageKey: input.stored.storageKey,
+    thumbnailKey: input.stored.thumbnailKey,
+    originalName: inspected.displayName,
+    width: inspected.width,
+    height: inspected.height,
+    capturedAt: inspected.capturedAt,
+    ...(input.createdAt ? { createdAt: input.createdAt } : {}),
+    deletedAt: null,
+  });
+}
+
+/** The audit event of a saved row. */
+export const attachmentAddedEvent = (row: Attachment) => ({
+  action: 'attachment.added',
+  entityType: 'Attachment',
+  entityId: row.id,
+  after: auditView(row),
+});
+
 /**
  * Takes one uploaded file for an owner: inspects it (refusing what is not an accepted, safe file), stores it and
  * its thumbnail under random keys, and writes the row, all or nothing. A refusal, a full owner or a failed
@@ -80,59 +163,21 @@ export async function saveAttachment(
     throw limitReached();
 
   const inspected = await inspectUpload(file.buffer, file.originalname);
-  const name = crypto.randomUUID();
-  const storageKey = `attachments/${name}`;
-  const thumbnailKey = inspected.thumbnail ? `attachments/${name}-thumb` : null;
-  const stored: string[] = [];
-  const cleanUp = async () => {
-    for (const key of stored) {
-      await ctx.storage
-        .delete(key)
-        .catch((err) => ctx.logger.error({ err, key }, 'could not delete an orphaned upload'));
-    }
-  };
-
+  const onOrphan: OrphanLogger = (err, key) => ctx.logger.error({ err, key }, 'could not delete an orphaned upload');
+  const stored = await storeInspected(ctx.storage, inspected, onOrphan);
   try {
-    await ctx.storage.put(storageKey, inspected.body, inspected.contentType);
-    stored.push(storageKey);
-    if (thumbnailKey && inspected.thumbnail) {
-      await ctx.storage.put(thumbnailKey, inspected.thumbnail.body, inspected.thumbnail.contentType);
-      stored.push(thumbnailKey);
-    }
     await crashPoint('attachment.save.after_store');
     return await withOwnerLock(ctx, owner, uploader.id, async (m) => {
       if ((await countAttachments(m, owner, uploader.id)) >= MAX_ATTACHMENTS_PER_OWNER) throw limitReached();
-      const row = m.create(Attachment, {
-        ownerType: owner.type,
-        ownerId: owner.id,
-        organizationId: uploader.organizationId,
-        uploadedById: uploader.id,
-        kind: inspected.kind,
-        purpose,
-        contentType: inspected.contentType,
-        byteSize: inspected.body.length,
-        sha256: inspected.sha256,
-        storageKey,
-        thumbnailKey,
-        originalName: inspected.displayName,
-        width: inspected.width,
-        height: inspected.height,
-        capturedAt: inspected.capturedAt,
-        deletedAt: null,
-      });
+      const row = newAttachmentRow(m, { owner, uploader, purpose, inspected, stored });
       await m.save(row);
       await crashPoint('attachment.save.after_row', m);
-      await recordAudit(m, input.actor ?? { userId: uploader.id, organizationId: uploader.organizationId }, {
-        action: 'attachment.added',
-        entityType: 'Attachment',
-        entityId: row.id,
-        after: auditView(row),
-      });
+      await recordAudit(m, input.actor ?? { userId: uploader.id, organizationId: uploader.organizationId }, attachmentAddedEvent(row));
       await crashPoint('attachment.save.before_commit', m);
       return row;
     });
   } catch (err) {
-    await cleanUp();
+    await deleteStored(ctx.storage, stored, onOrphan);
     throw err;
   }
 }

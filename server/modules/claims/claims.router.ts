@@ -16,10 +16,12 @@ import { Installation } from '../../db/entities/installation.entity';
 import { User } from '../../db/entities/user.entity';
 import { actorFromRequest } from '../../lib/audit';
 import { templateCsv } from '../../lib/csv-import';
+import { AppError } from '../../lib/errors';
 import { loadHistory } from '../../lib/history';
+import { REPLAY_HEADER } from '../../lib/idempotency';
 import { pageOf } from '../../lib/pagination';
 import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
-import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
+import { idempotencyKeyOf, parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { presentAttachment } from '../attachments/attachments.presenter';
 import { attachmentsRouter } from '../attachments/attachments.router';
 import { listAttachments } from '../attachments/attachments.service';
@@ -99,13 +101,24 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     res.json(pageOf(items.map(presentClaimListItem), total, q));
   });
 
+  // Idempotency-Key (optional, the client sends one per form start): the same key answers the same draft, as
+  // it is now, with Idempotent-Replayed: true; another body under the key is a 422 and writes nothing.
   r.post('/', async (req, res) => {
-    const { installationId, ...fields } = parseBody(createClaimSchema, req);
+    const key = idempotencyKeyOf(req);
+    const input = parseBody(createClaimSchema, req);
+    const { installationId, ...fields } = input;
     const inst = await ctx.ds.getRepository(Installation).findOne({ where: { id: installationId } });
     authorize(req, 'read', 'Installation', inst, 'installation');
     authorize(req, 'create', 'Claim', { contractorId: inst.contractorId, manufacturerId: inst.manufacturerId }, 'claim');
-    const id = await service.create(inst, fields, actorFromRequest(req));
-    res.status(201).json({ claim: await claimDetail(ctx, req, (await service.findById(id))!) });
+    const actor = actorFromRequest(req);
+    const made = key
+      ? await service.createOnce(inst, fields, actor, { key, userId: req.user!.id, body: input })
+      : { id: await service.create(inst, fields, actor), status: 201, replayed: false };
+    const claim = await service.findById(made.id);
+    // The draft was deleted since: the key's answer no longer exists.
+    if (!claim) throw new AppError(404, 'not_found', 'The draft started with this Idempotency-Key has since been deleted.');
+    if (made.replayed) res.setHeader(REPLAY_HEADER, 'true');
+    res.status(made.status).json({ claim: await claimDetail(ctx, req, claim) });
   });
 
   // Photos and documents: readable by whoever may read the claim (anyone else gets 404); added while a draft or
@@ -133,10 +146,13 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     res.json({ claim: await claimDetail(ctx, req, (await service.findById(claim.id))!) });
   });
 
+  // Idempotency-Key (optional): kept with the answer; the same key replays it, another body under it is a 422.
   r.post('/:id/file', async (req, res) => {
+    const key = idempotencyKeyOf(req);
     const input = parseBody(fileClaimSchema, req);
     const claim = await load(req, 'file');
-    const result = await service.file(claim.id, req.user!, actorFromRequest(req), input);
+    const result = await service.file(claim.id, req.user!, actorFromRequest(req), input, key ? { key } : undefined);
+    if (result.replayed) res.setHeader(REPLAY_HEADER, 'true');
     res.status(200).json({ claim: await claimDetail(ctx, req, (await service.findById(claim.id))!), replayed: result.replayed });
   });
 

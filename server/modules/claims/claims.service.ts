@@ -25,9 +25,14 @@ import { clock } from '../../lib/clock';
 import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict } from '../../lib/errors';
 import { changedFields } from '../../lib/history';
+import { runIdempotent } from '../../lib/idempotency';
 import { enqueueEmail } from '../../lib/outbox';
 import { likeContains, parseSort } from '../../lib/pagination';
 import { claimFieldsOf, engineInputOfClaim } from './engine-input';
+
+/** Idempotency-Key routes (server/lib/idempotency.ts): starting a draft and filing one. */
+export const CREATE_ROUTE = 'POST /claims';
+export const FILE_ROUTE = 'POST /claims/:id/file';
 
 const SORTS = {
   filedAt: 'c.filed_at',
@@ -132,6 +137,95 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
       );
     }
     return result.evaluation;
+  }
+
+  /** Filing's work, inside the caller's transaction (see file below). */
+  async function fileIn(m: EntityManager, claimId: string, user: SessionUser, actor: Actor, when: { version?: number }): Promise<{ id: string; replayed: boolean }> {
+    // The row lock makes a second, simultaneous request wait here and then see the claim filed.
+    const locked = await loadWith(m, claimId, true);
+    if (!locked) throw new AppError(404, 'not_found', 'That claim does not exist or is not shared with you.');
+    const move = canPerform(locked, toAbilityUser(user), 'file');
+    if (!move.ok) {
+      // Already filed (and anywhere past it): the same claim again, so a retry or a double tap files once.
+      if (move.code === 'claim.invalid_transition' && locked.stage !== 'withdrawn') return { id: claimId, replayed: true };
+      refuse(move);
+    }
+    if (when.version !== undefined && when.version !== locked.version) {
+      throw conflict('claim.changed', 'This draft was changed elsewhere since you opened it. Reload, check it and file again.');
+    }
+    const c = (await findById(claimId, m))!;
+    const stored = claimFieldsSchema.safeParse(claimFieldsOf(c));
+    const issues = stored.success
+      ? currentFilingIssues(c)
+      : stored.error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
+    if (issues.length) {
+      throw new AppError(422, 'claim.incomplete', 'The claim is not ready to file: fill in the fields listed.', issues);
+    }
+    const now = clock.now();
+    const evaluation: Evaluation = await evaluate(m, c, now.toISOString().slice(0, 10));
+    await crashPoint('claim.file.after_evaluation', m);
+    let number = '';
+    for (let attempt = 0; ; attempt++) {
+      number = newClaimNumber(now);
+      try {
+        await m
+          .createQueryBuilder()
+          .update(Claim)
+          .set({
+            number,
+            stage: 'filed',
+            stageChangedAt: now,
+            waitingOn: 'manufacturer',
+            units: c.units ?? c.serials.length,
+            evaluation,
+            engineVersion: evaluation.engineVersion,
+            evaluatedAt: now,
+            verdict: evaluation.verdict,
+            expectedCredit: evaluation.computed.credit,
+            currency: evaluation.computed.currency,
+            filedAt: now,
+            filedById: user.id,
+            version: () => 'version + 1',
+          })
+          .where("id = :id AND stage = 'draft'", { id: claimId })
+          .execute();
+        break;
+      } catch (err) {
+        // A number already taken (about one in 20 million a month): draw again. InnoDB undoes only the statement.
+        if (attempt < 5 && isDuplicate(err, 'uq_claims_number')) continue;
+        throw err;
+      }
+    }
+    await crashPoint('claim.file.after_update', m);
+    await recordAudit(m, actor, {
+      action: 'claim.filed',
+      entityType: 'Claim',
+      entityId: claimId,
+      before: { stage: 'draft' },
+      after: { stage: 'filed', number, verdict: evaluation.verdict, engineVersion: evaluation.engineVersion, expectedCredit: evaluation.computed.credit },
+    });
+    await crashPoint('claim.file.after_audit', m);
+    const view = {
+      number,
+      site: c.installation.siteName,
+      city: c.installation.siteCity,
+      contractor: c.contractor.name,
+      manufacturer: c.manufacturer.name,
+      model: `${c.productModel.modelNumber} ${c.productModel.name}`,
+      units: c.units ?? c.serials.length,
+      serials: c.serials.join(', ') || 'not given',
+      failedOn: c.failedOn,
+      verdictText: { covered: 'likely covered', review: 'needs a reviewer', excluded: 'likely excluded' }[evaluation.verdict],
+      credit: `${evaluation.computed.credit} ${evaluation.computed.currency}`,
+      link: opts.publicUrl(`/claims/${claimId}`),
+      filerName: user.name,
+    };
+    let reviewers = await recipientsOf(m, c.manufacturerId, 'reviewer');
+    if (!reviewers.length) reviewers = await recipientsOf(m, c.manufacturerId, 'administrator');
+    if (reviewers.length) await enqueueEmail(m, { to: reviewers.map((r) => r.email), template: 'claim-filed-manufacturer', view });
+    await enqueueEmail(m, { to: [user.email], template: 'claim-filed-confirmation', view: { ...view, name: user.name } });
+    await crashPoint('claim.file.before_commit', m);
+    return { id: claimId, replayed: false };
   }
 
   return {
@@ -239,6 +333,20 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
       });
     },
 
+    /**
+     * Starts a draft once per Idempotency-Key (a double tap on "File a claim" sends one key twice): the first
+     * request makes the draft and keeps its id under the key; the same key again answers that draft (replayed);
+     * the same key with another body is refused (422) and writes nothing. Keys are per user.
+     */
+    async createOnce(installation: Installation, fields: ClaimFields, actor: Actor, idem: { key: string; userId: string; body: unknown }) {
+      const answer = await runIdempotent(
+        ds,
+        { key: idem.key, userId: idem.userId, route: CREATE_ROUTE, method: 'POST', path: '/api/claims', body: idem.body },
+        async (m) => ({ status: 201, body: { claimId: await this.create(installation, fields, actor, { m }) } }),
+      );
+      return { id: (answer.body as { claimId: string }).claimId, status: answer.status, replayed: answer.replayed };
+    },
+
     /** Draft autosave, conditional on the version the client last saw. */
     async update(target: LoadedClaim, input: UpdateClaimInput & ClaimFields, actor: Actor) {
       if (target.stage !== 'draft') {
@@ -280,96 +388,19 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
     /**
      * Files a draft: validates it whole, evaluates it with the engine (the result stored with its version), gives
      * it a number, moves it to filed, audits and queues the e-mails, all in one transaction. Filing a claim that
-     * is already filed answers it as it is (replayed), so a double tap or a retry makes one claim.
+     * is already filed answers it as it is (replayed), so a double tap or a retry makes one claim. With an
+     * Idempotency-Key the answer is also kept under the key (see server/lib/idempotency.ts): the same key
+     * replays it, the same key with another body is refused.
      */
-    async file(claimId: string, user: SessionUser, actor: Actor, when: { version?: number } = {}) {
-      return ds.transaction(async (m) => {
-        // The row lock makes a second, simultaneous request wait here and then see the claim filed.
-        const locked = await loadWith(m, claimId, true);
-        if (!locked) throw new AppError(404, 'not_found', 'That claim does not exist or is not shared with you.');
-        const move = canPerform(locked, toAbilityUser(user), 'file');
-        if (!move.ok) {
-          // Already filed (and anywhere past it): the same claim again, so a retry or a double tap files once.
-          if (move.code === 'claim.invalid_transition' && locked.stage !== 'withdrawn') return { id: claimId, replayed: true };
-          refuse(move);
-        }
-        if (when.version !== undefined && when.version !== locked.version) {
-          throw conflict('claim.changed', 'This draft was changed elsewhere since you opened it. Reload, check it and file again.');
-        }
-        const c = (await findById(claimId, m))!;
-        const stored = claimFieldsSchema.safeParse(claimFieldsOf(c));
-        const issues = stored.success
-          ? currentFilingIssues(c)
-          : stored.error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
-        if (issues.length) {
-          throw new AppError(422, 'claim.incomplete', 'The claim is not ready to file: fill in the fields listed.', issues);
-        }
-        const now = clock.now();
-        const evaluation: Evaluation = await evaluate(m, c, now.toISOString().slice(0, 10));
-        await crashPoint('claim.file.after_evaluation', m);
-        let number = '';
-        for (let attempt = 0; ; attempt++) {
-          number = newClaimNumber(now);
-          try {
-            await m
-              .createQueryBuilder()
-              .update(Claim)
-              .set({
-                number,
-                stage: 'filed',
-                stageChangedAt: now,
-                waitingOn: 'manufacturer',
-                units: c.units ?? c.serials.length,
-                evaluation,
-                engineVersion: evaluation.engineVersion,
-                evaluatedAt: now,
-                verdict: evaluation.verdict,
-                expectedCredit: evaluation.computed.credit,
-                currency: evaluation.computed.currency,
-                filedAt: now,
-                filedById: user.id,
-                version: () => 'version + 1',
-              })
-              .where("id = :id AND stage = 'draft'", { id: claimId })
-              .execute();
-            break;
-          } catch (err) {
-            // A number already taken (about one in 20 million a month): draw again. InnoDB undoes only the statement.
-            if (attempt < 5 && isDuplicate(err, 'uq_claims_number')) continue;
-            throw err;
-          }
-        }
-        await crashPoint('claim.file.after_update', m);
-        await recordAudit(m, actor, {
-          action: 'claim.filed',
-          entityType: 'Claim',
-          entityId: claimId,
-          before: { stage: 'draft' },
-          after: { stage: 'filed', number, verdict: evaluation.verdict, engineVersion: evaluation.engineVersion, expectedCredit: evaluation.computed.credit },
-        });
-        await crashPoint('claim.file.after_audit', m);
-        const view = {
-          number,
-          site: c.installation.siteName,
-          city: c.installation.siteCity,
-          contractor: c.contractor.name,
-          manufacturer: c.manufacturer.name,
-          model: `${c.productModel.modelNumber} ${c.productModel.name}`,
-          units: c.units ?? c.serials.length,
-          serials: c.serials.join(', ') || 'not given',
-          failedOn: c.failedOn,
-          verdictText: { covered: 'likely covered', review: 'needs a reviewer', excluded: 'likely excluded' }[evaluation.verdict],
-          credit: `${evaluation.computed.credit} ${evaluation.computed.currency}`,
-          link: opts.publicUrl(`/claims/${claimId}`),
-          filerName: user.name,
-        };
-        let reviewers = await recipientsOf(m, c.manufacturerId, 'reviewer');
-        if (!reviewers.length) reviewers = await recipientsOf(m, c.manufacturerId, 'administrator');
-        if (reviewers.length) await enqueueEmail(m, { to: reviewers.map((r) => r.email), template: 'claim-filed-manufacturer', view });
-        await enqueueEmail(m, { to: [user.email], template: 'claim-filed-confirmation', view: { ...view, name: user.name } });
-        await crashPoint('claim.file.before_commit', m);
-        return { id: claimId, replayed: false };
+    async file(claimId: string, user: SessionUser, actor: Actor, when: { version?: number } = {}, idem?: { key: string }) {
+      if (!idem) return ds.transaction((m) => fileIn(m, claimId, user, actor, when));
+      const path = `/api/claims/${claimId}/file`;
+      const answer = await runIdempotent(ds, { key: idem.key, userId: user.id, route: FILE_ROUTE, method: 'POST', path, body: when }, async (m) => {
+        const r = await fileIn(m, claimId, user, actor, when);
+        return { status: 200, body: { claimId: r.id, replayed: r.replayed } };
       });
+      const stored = answer.body as { claimId: string; replayed: boolean };
+      return { id: stored.claimId, replayed: answer.replayed || stored.replayed };
     },
 
     async withdraw(target: LoadedClaim, reason: string | undefined, user: SessionUser, actor: Actor) {

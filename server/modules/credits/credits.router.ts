@@ -1,10 +1,9 @@
-import { Router, type Request } from 'express';
+import { Router } from 'express';
 import { z } from 'zod';
 import {
   creditExportQuerySchema,
   creditListQuerySchema,
   creditQueueQuerySchema,
-  idempotencyKeySchema,
   issueCreditSchema,
   voidCreditSchema,
   warrantyCostQuerySchema,
@@ -16,20 +15,12 @@ import { REPLAY_HEADER } from '../../lib/idempotency';
 import { pageOf } from '../../lib/pagination';
 import { createStorage, type Storage } from '../../lib/storage';
 import { authorize, authorizeType, requireUser, toAbilityUser } from '../../middleware/auth';
-import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
+import { idempotencyKeyOf, parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { presentMemo } from './credits.presenter';
 import { createCreditsReports } from './credits.reports';
 import { createCreditsService } from './credits.service';
 
 const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
-
-function idempotencyKey(req: Request) {
-  return parseWith(
-    z.strictObject({ 'idempotency-key': idempotencyKeySchema }),
-    { 'idempotency-key': req.get('idempotency-key') },
-    'Idempotency-Key header',
-  );
-}
 
 function services(ctx: AppContext, storage?: Storage) {
   const store = storage ?? createStorage(ctx.config);
@@ -47,7 +38,7 @@ export function claimCreditsRouter(ctx: AppContext, storage?: Storage) {
 
   r.post('/:id/credits', requireUser, async (req, res) => {
     const { id } = parseWith(idParam, req.params, 'address');
-    const key = idempotencyKey(req)['idempotency-key'];
+    const key = idempotencyKeyOf(req, { required: true });
     const input = parseBody(issueCreditSchema, req);
     const claim = await ctx.ds.getRepository(Claim).findOne({ where: { id } });
     authorize(req, 'credit', 'Claim', claim, 'claim');

@@ -1,17 +1,23 @@
 import type { ClaimBatchResult, ClaimDetailDto, ClaimFieldsInput } from '../../../../shared/schemas/claims';
 import { api } from '../../../lib/api-client';
 
-export const createClaim = (installationId: string, fields: ClaimFieldsInput = {}) =>
-  api<{ claim: ClaimDetailDto }>('/claims', { method: 'POST', json: { installationId, ...fields } });
+/** Starts a draft; the same idempotencyKey again (a double tap, a retry) answers the same draft. */
+export const createClaim = (installationId: string, idempotencyKey: string, fields: ClaimFieldsInput = {}) =>
+  api<{ claim: ClaimDetailDto }>('/claims', {
+    method: 'POST',
+    json: { installationId, ...fields },
+    headers: { 'Idempotency-Key': idempotencyKey },
+  });
 
 export const updateClaim = (id: string, version: number, fields: ClaimFieldsInput) =>
   api<{ claim: ClaimDetailDto }>(`/claims/${encodeURIComponent(id)}`, { method: 'PATCH', json: { version, ...fields } });
 
-export const fileClaim = (id: string, version?: number) =>
+/** Files a draft; keep one idempotencyKey for the retries of one filing (the server replays its answer). */
+export const fileClaim = (id: string, idempotencyKey: string, version?: number) =>
   api<{ claim: ClaimDetailDto; replayed: boolean }>(`/claims/${encodeURIComponent(id)}/file`, {
     method: 'POST',
     json: version === undefined ? {} : { version },
-    headers: { 'Idempotency-Key': `file-${id}` },
+    headers: { 'Idempotency-Key': idempotencyKey },
   });
 
 export const withdrawClaim = (id: string, reason?: string) =>

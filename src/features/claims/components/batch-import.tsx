@@ -1,12 +1,13 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { Download, FileSpreadsheet } from 'lucide-react';
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { ClaimBatchResult } from '../../../../shared/schemas/claims';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { PageHeader } from '../../../components/ui/page-header';
 import { Table, Td, Th } from '../../../components/ui/table';
+import { newIdempotencyKey } from '../../../lib/api-client';
 import { fileClaim, importClaimBatch } from '../api/claim-mutations';
 import { claimQueries } from '../api/claim-queries';
 
@@ -22,13 +23,17 @@ export function BatchImport() {
     mutationFn: (dryRun: boolean) => importClaimBatch(file!.text, file!.name, dryRun),
     onSuccess: (r) => setResult(r),
   });
+  // A key per claim, kept for a second "file all" after failures: the ones already filed replay.
+  const fileKeys = useRef(new Map<string, string>());
   const fileAll = async () => {
     const ids = (result?.rows ?? []).map((r) => r.claimId).filter((x): x is string => !!x);
     const failed: { id: string; message: string }[] = [];
     setProgress({ done: 0, total: ids.length, failed });
     for (const [i, id] of ids.entries()) {
       try {
-        await fileClaim(id);
+        let key = fileKeys.current.get(id);
+        if (!key) fileKeys.current.set(id, (key = newIdempotencyKey('file')));
+        await fileClaim(id, key);
       } catch (err) {
         failed.push({ id, message: (err as Error).message });
       }

@@ -17,7 +17,7 @@ import type { AttachmentDto } from '../../../../shared/schemas/attachments';
 import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { InputField } from '../../../components/ui/field';
-import { ApiError } from '../../../lib/api-client';
+import { ApiError, newIdempotencyKey } from '../../../lib/api-client';
 import { cn } from '../../../lib/cn';
 import { fileClaim } from '../api/claim-mutations';
 import { claimQueries } from '../api/claim-queries';
@@ -154,11 +154,13 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
     return [...checked.issues, ...own];
   }, [checked, inst, claim.engineContext]);
 
+  // One key for this form's filing: its retries replay the server's answer rather than file again.
+  const [fileKey] = useState(() => newIdempotencyKey('file'));
   const file = useMutation({
     mutationFn: async () => {
       const ok = await sync.flush();
       if (!ok) throw new ApiError(0, 'network.offline', 'The draft could not be saved, so it was not filed. Check the connection and try again.');
-      return fileClaim(claim.id, sync.version.current);
+      return fileClaim(claim.id, fileKey, sync.version.current);
     },
     onSuccess: async (r) => {
       qc.setQueryData(claimQueries.detail(claim.id).queryKey, { claim: r.claim });

@@ -6,6 +6,7 @@ import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { InputField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
+import { newIdempotencyKey } from '../../../lib/api-client';
 import { createClaim } from '../api/claim-mutations';
 import { claimQueries } from '../api/claim-queries';
 
@@ -13,8 +14,11 @@ import { claimQueries } from '../api/claim-queries';
 export function StartClaimButton({ installationId, label = 'File a claim' }: { installationId: string; label?: string }) {
   const navigate = useNavigate();
   const qc = useQueryClient();
+  // One key per form start: a second tap before the first answer (or a retry after a lost one) sends the same
+  // key, and the server answers the same draft instead of making another.
+  const [idempotencyKey] = useState(() => newIdempotencyKey('draft'));
   const start = useMutation({
-    mutationFn: () => createClaim(installationId),
+    mutationFn: () => createClaim(installationId, idempotencyKey),
     onSuccess: async (r) => {
       qc.setQueryData(claimQueries.detail(r.claim.id).queryKey, { claim: r.claim });
       await qc.invalidateQueries({ queryKey: ['claims', 'list'] });
@@ -23,7 +27,7 @@ export function StartClaimButton({ installationId, label = 'File a claim' }: { i
   });
   return (
     <>
-      <Button size="md" loading={start.isPending} onClick={() => start.mutate()} icon={<FilePlus2 className="size-4" aria-hidden />}>
+      <Button size="md" loading={start.isPending} onClick={() => !start.isPending && start.mutate()} icon={<FilePlus2 className="size-4" aria-hidden />}>
         {label}
       </Button>
       {start.error ? <p role="alert" className="text-sm text-bad-700">{start.error.message}</p> : null}
