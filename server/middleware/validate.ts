@@ -24,9 +24,9 @@ export function parseQuery<S extends z.ZodType>(schema: S, req: Request): z.infe
   return parseWith(schema, req.query ?? {}, 'query');
 }
 
-// File uploads (POST …/attachments) are the one place a multipart body is let through; the upload middleware
-// parses it there, after the route has authorised the request.
-const MULTIPART_ROUTE = /\/attachments\/?$/;
+// File uploads (POST …/attachments, and a claim's …/conversation/uploads) are the one place a multipart body is
+// let through; the upload middleware parses it there, after the route has authorised the request.
+const MULTIPART_ROUTE = /\/(?:attachments|conversation\/uploads)\/?$/;
 
 /** JSON bodies only on JSON routes: a body of any other type is a 415. */
 export const requireJsonBody: RequestHandler = (req, _res, next) => {

@@ -83,8 +83,8 @@ export function Thread({ wf }: { wf: ClaimWorkflowDto }) {
                 {m.attachments.map((a) => (
                   <li key={a.id}>
                     {a.kind === 'photo' ? (
-                      <a href={a.url} target="_blank" rel="noreferrer">
-                        <img src={a.url} alt={`Photo sent with the answer: ${a.name}`} className="h-24 rounded border border-ink-200 object-cover" />
+                      <a href={a.url} download={a.name}>
+                        <img src={a.thumbnailUrl ?? a.url} alt={`Photo sent with the answer: ${a.name}`} className="h-24 rounded border border-ink-200 object-cover" />
                       </a>
                     ) : (
                       <a className="text-brand-700 underline" href={a.url}>
@@ -168,13 +168,18 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
   const [files, setFiles] = useState<File[]>([]);
   const [uploading, setUploading] = useState(false);
   const [ship, setShip] = useState({ carrier: '', trackingNumber: '', shippedOn: new Date().toISOString().slice(0, 10) });
+  const [uploadError, setUploadError] = useState<ApiError | null>(null);
   async function answer(e: FormEvent) {
     e.preventDefault();
     setUploading(true);
+    setUploadError(null);
     try {
       const ids = [];
-      for (const f of files) ids.push((await uploadConversationFile(wf.claim.id, f)).file.id);
+      for (const f of files) ids.push((await uploadConversationFile(wf.claim.id, f)).attachment.id);
       move.run('answer_info', { message, ...(ids.length ? { attachmentIds: ids } : {}) });
+    } catch (err) {
+      // A refused file (not a photo or PDF, too large, …) stops the answer: nothing is sent without it.
+      setUploadError(err instanceof ApiError ? err : new ApiError(0, 'unknown', 'The file could not be uploaded.'));
     } finally {
       setUploading(false);
     }
@@ -185,6 +190,7 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
         <CardHeader title="Where the claim stands" description={`${STAGE_LABELS[wf.claim.stage]}${wf.claim.waitingOn === 'contractor' ? ' — waiting on you' : ''}`} />
         <div className="space-y-4 px-4 py-4 sm:px-5">
           <ErrorText error={move.error} />
+          <ErrorText error={uploadError} />
           {wf.actions.includes('answer_info') && wf.openRequest ? (
             <form className="space-y-3" onSubmit={answer}>
               <p className="text-sm">
