@@ -9,9 +9,10 @@ import mysql from 'mysql2/promise';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config/env';
 import { createLogger } from '../../server/lib/logger';
-import { BENCH_PASSWORD, benchEmail, generate } from './generate-claims';
+import { benchEmail, generate } from './generate-claims';
 import { openBenchDb, report } from './lib/bench-db';
 import { median } from './lib/load';
+import { signInBench } from './lib/sign-in';
 
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 100);
 const WARM_UP = 10;
@@ -61,16 +62,6 @@ function cases(): Case[] {
   ];
 }
 
-async function signIn(base: string, email: string) {
-  const r = await fetch(`${base}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email, password: BENCH_PASSWORD }),
-  });
-  if (r.status !== 200) throw new Error(`sign-in of ${email}: ${r.status} ${await r.text()}`);
-  return r.headers.get('set-cookie')!.split(';')[0];
-}
-
 async function main() {
   const bench = await openBenchDb({ reset: false });
   const conn = await mysql.createConnection({ uri: bench.url, dateStrings: false });
@@ -99,7 +90,7 @@ async function main() {
       [mfr.id],
     )) as { total: string }[];
     console.log(`${Number(n).toLocaleString()} claims, ${Number(total).toLocaleString()} of them on this reviewer's desk`);
-    const cookie = await signIn(base, benchEmail('m', 0, 'reviewer'));
+    const cookie = await signInBench(base, benchEmail('m', 0, 'reviewer'));
 
     // What any signed-in request costs here (session from MariaDB, user, abilities): the floor under the queue.
     const meMs: number[] = [];
