@@ -98,6 +98,14 @@ describe('the review queue', () => {
     await waitFor(() => expect(lastQuery().get('q')).toBe('Depot'));
     // Every filter applies together, and a change goes back to the first page.
     expect(Object.fromEntries(lastQuery())).toMatchObject({ verdict: 'excluded', stage: 'needs_info', assignee: 'me', page: '1' });
+    // Age since filing and amount: sent once they read as numbers; until then the field says what it needs.
+    await user.type(screen.getByLabelText('Filed at least (days ago)'), '30');
+    await waitFor(() => expect(lastQuery().get('minAgeDays')).toBe('30'));
+    await user.type(screen.getByLabelText('Amount at least'), '75.5x');
+    expect(screen.getByText('An amount like 96.00.')).toBeInTheDocument();
+    await waitFor(() => expect(lastQuery().get('minAmount')).toBe('75.5'));
+    await user.clear(screen.getByLabelText('Amount at least'));
+    await waitFor(() => expect(lastQuery().has('minAmount')).toBe(false));
     // "Every stage" and "Any" leave the filter out rather than sending an empty value.
     await user.selectOptions(screen.getByLabelText('Engine verdict'), '');
     await user.selectOptions(screen.getByLabelText('Stage'), '');
