@@ -80,6 +80,8 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
     await reviewer.getByRole('form', { name: 'Take into review' }).getByRole('button', { name: 'Take into review' }).click();
     await expect(moves.getByRole('button', { name: 'Ask the installer' })).toBeVisible();
   }
+  // Taking it into review made it this reviewer's.
+  await expect(reviewer.getByRole('group', { name: 'Assignment' })).toContainText('Assigned to you');
 
   // 1. The reviewer asks.
   await moves.getByRole('button', { name: 'Ask the installer' }).click();

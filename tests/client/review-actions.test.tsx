@@ -6,7 +6,7 @@ import { availableActions, type Stage } from '../../shared/claims/stages';
 import type { ClaimWorkflowDto } from '../../shared/claims/workflow';
 import { evaluateClaim } from '../../shared/engine';
 import type { Evaluation, Verdict } from '../../shared/engine/schema';
-import { ReviewActions } from '../../src/features/review/components/claim-workflow';
+import { Assignment, ReviewActions } from '../../src/features/review/components/claim-workflow';
 import { makeInput } from '../shared/engine/factory';
 
 // The reviewer's moves on the review screen: the buttons are the stage machine's (shared/claims/stages.ts, as the
@@ -169,5 +169,43 @@ describe('the review screen’s moves', () => {
     expect(screen.queryByRole('note')).not.toBeInTheDocument();
     await user.selectOptions(screen.getByRole('combobox', { name: 'Resolution' }), 'repair_allowance');
     expect(screen.getByRole('note')).toHaveTextContent('can void the fixture’s listing and its warranty');
+  });
+});
+
+describe('taking a claim', () => {
+  function renderAssignment(assignee: { id: string; name: string } | null) {
+    const wf = workflow('in_review', evaluation('review'));
+    wf.claim.assignee = assignee;
+    const client = new QueryClient({ defaultOptions: { mutations: { retry: false } } });
+    return render(
+      <QueryClientProvider client={client}>
+        <Assignment wf={wf} meId="u1" />
+      </QueryClientProvider>,
+    );
+  }
+  const group = () => within(screen.getByRole('group', { name: 'Assignment' }));
+
+  it('a claim nobody has can be taken; it sends the claim’s version', async () => {
+    const user = userEvent.setup();
+    renderAssignment(null);
+    expect(group().getByText('Not assigned to anyone yet')).toBeInTheDocument();
+    expect(group().queryByRole('button', { name: 'Give back to the queue' })).not.toBeInTheDocument();
+    await user.click(group().getByRole('button', { name: 'Assign to me' }));
+    expect(sent[0].url).toBe(`/api/claims/${CLAIM_ID}/assign`);
+    expect(JSON.parse(String(sent[0].init.body))).toEqual({ assigneeId: 'u1' });
+    expect((sent[0].init.headers as Record<string, string>)['If-Match']).toBe('"3"');
+  });
+
+  it('one’s own claim can be given back; a colleague’s can be taken over', async () => {
+    const user = userEvent.setup();
+    const { unmount } = renderAssignment({ id: 'u1', name: 'Rowan' });
+    expect(group().getByText('Assigned to you')).toBeInTheDocument();
+    expect(group().queryByRole('button', { name: 'Assign to me' })).not.toBeInTheDocument();
+    await user.click(group().getByRole('button', { name: 'Give back to the queue' }));
+    expect(JSON.parse(String(sent[0].init.body))).toEqual({ assigneeId: null });
+    unmount();
+    renderAssignment({ id: 'u9', name: 'Sasha' });
+    expect(group().getByText('Assigned to Sasha')).toBeInTheDocument();
+    expect(group().getByRole('button', { name: 'Assign to me' })).toBeInTheDocument();
   });
 });

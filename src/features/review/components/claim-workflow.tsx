@@ -9,7 +9,7 @@ import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { InputField, SelectField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
-import { performClaimAction } from '../api/perform-claim-action';
+import { assignClaim, performClaimAction } from '../api/perform-claim-action';
 import { uploadConversationFile } from '../api/upload-conversation-file';
 
 // The workflow around one claim, for both sides: the thread, returns, the decision and its letter, and the
@@ -225,6 +225,40 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
       <DecisionCard wf={wf} />
       <Returns wf={wf} />
       <Thread wf={wf} />
+    </div>
+  );
+}
+
+/** Who on the manufacturer's team has the claim: take it, or give it back to the queue (not a stage move). */
+export function Assignment({ wf, meId }: { wf: ClaimWorkflowDto; meId: string }) {
+  const qc = useQueryClient();
+  const [error, setError] = useState<ApiError | null>(null);
+  const m = useMutation({
+    mutationFn: (assigneeId: string | null) => assignClaim(wf.claim.id, assigneeId, wf.claim.version),
+    onSuccess: () => {
+      setError(null);
+      return qc.invalidateQueries({ queryKey: ['claims'] });
+    },
+    onError: (e) => setError(e instanceof ApiError ? e : new ApiError(0, 'unknown', 'Something went wrong.')),
+  });
+  if (['draft', 'closed', 'withdrawn'].includes(wf.claim.stage)) return null;
+  const who = wf.claim.assignee;
+  return (
+    <div className="space-y-2" role="group" aria-label="Assignment">
+      <p className="text-sm text-ink-700">{who ? (who.id === meId ? 'Assigned to you' : `Assigned to ${who.name}`) : 'Not assigned to anyone yet'}</p>
+      <div className="flex flex-wrap gap-2">
+        {who?.id !== meId ? (
+          <Button variant="secondary" loading={m.isPending} onClick={() => m.mutate(meId)}>
+            Assign to me
+          </Button>
+        ) : null}
+        {who ? (
+          <Button variant="secondary" loading={m.isPending} onClick={() => m.mutate(null)}>
+            Give back to the queue
+          </Button>
+        ) : null}
+      </div>
+      <ErrorText error={error} />
     </div>
   );
 }
