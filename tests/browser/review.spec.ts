@@ -141,3 +141,29 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
   await reviewerCtx.close();
   await installerCtx.close();
 });
+
+test.describe('the review desk on a phone', () => {
+  test.use({ viewport: PHONE, isMobile: true, hasTouch: true });
+
+  test('the queue fits 360 px, passes axe, filters by verdict, and opens a claim from the keyboard', async ({ page }) => {
+    await signInAs(page, 'rhea@aldercrest.test');
+    await page.goto('/review');
+    await expect(page.getByRole('heading', { level: 1, name: 'Review desk' })).toBeVisible();
+    const list = page.getByRole('list', { name: 'Claims' });
+    await expect(list.getByRole('link').first()).toBeVisible();
+    expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+    expect(await seriousA11yViolations(page)).toEqual([]);
+
+    await page.getByLabel('Engine verdict').selectOption('review');
+    await expect(list.getByRole('link').first()).toContainText('Needs a person');
+    await expect(list.getByText(/Likely (covered|excluded)/)).toHaveCount(0);
+    const second = list.getByRole('link').nth(1);
+    const target = await second.getAttribute('href');
+    await list.getByRole('link').first().focus();
+    await page.keyboard.press('j');
+    await expect(second).toBeFocused();
+    await page.keyboard.press('Enter');
+    await expect(page).toHaveURL(new RegExp(`${target}$`));
+    await expect(page.getByRole('heading', { level: 1, name: /^Claim LP-/ })).toBeVisible();
+  });
+});

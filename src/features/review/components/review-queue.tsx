@@ -147,7 +147,7 @@ export function ReviewQueue() {
                   <span className="font-mono text-sm font-semibold text-ink-900">{c.number}</span>
                   <span className="text-sm text-ink-700">
                     {c.contractor.name} · {c.product.modelNumber} · {c.siteName}
-                    <span className="block text-xs text-ink-500">
+                    <span className="block text-xs text-ink-600">
                       {STAGE_LABELS[c.stage]} for {c.daysInStage} {c.daysInStage === 1 ? 'day' : 'days'}
                       {c.waitingOn ? `, waiting ${WAITING_LABEL[c.waitingOn]}` : ''}
                       {c.daysSinceFiling !== null ? ` · filed ${c.daysSinceFiling} days ago` : ''}
