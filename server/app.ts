@@ -111,8 +111,6 @@ export function createApp(opts: CreateAppOptions): App {
   // Spreadsheet imports carry a whole file (10,000 rows is about 2 MB); every other body stays small.
   api.use(['/products/import', '/installations/import'], express.json({ limit: '20mb', strict: true }));
   api.use('/claims/batches', express.json({ limit: '6mb', strict: true }));
-  // A conversation file travels as base64 JSON (at most 15 MB of file).
-  api.use('/claims/:id/conversation/files', express.json({ limit: '21mb', strict: true }));
   api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
   api.use(sessionMiddleware(config, sessionStore));

@@ -6,10 +6,11 @@
 // Bounded: BENCH_LOAD_SECONDS (10) per load run, BENCH_ROUNDS (100) per median. Asserts nothing.
 import os from 'node:os';
 import mysql from 'mysql2/promise';
-import { BENCH_PASSWORD, benchEmail, generate } from './generate-claims';
+import { benchEmail, generate } from './generate-claims';
 import { hasTable, openBenchDb, report } from './lib/bench-db';
 import { median, runLoad } from './lib/load';
 import { startServerProcess } from './lib/server-process';
+import { signInBench } from './lib/sign-in';
 
 const SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 10);
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 100);
@@ -26,16 +27,6 @@ type Target = {
   ids: string[];
 };
 
-async function signIn(base: string, email: string) {
-  const r = await fetch(`${base}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email, password: BENCH_PASSWORD }),
-  });
-  if (r.status !== 200) throw new Error(`sign-in of ${email}: ${r.status} ${await r.text()}`);
-  return r.headers.get('set-cookie')!.split(';')[0];
-}
-
 async function main() {
   const bench = await openBenchDb({ reset: false });
   const conn = await mysql.createConnection({ uri: bench.url, dateStrings: false });
@@ -51,7 +42,7 @@ async function main() {
     const [mfr] = (await bench.ds.query("SELECT id FROM organizations WHERE name = 'Bench Lighting 0'")) as {
       id: string;
     }[];
-    const cookie = await signIn(base, benchEmail('m', 0, 'reviewer'));
+    const cookie = await signInBench(base, benchEmail('m', 0, 'reviewer'));
     const targets: Target[] = [];
     if (
       (await hasTable(bench.ds, 'claims')) &&
@@ -108,7 +99,7 @@ async function main() {
     const workers = Number(process.env.BENCH_WORKERS ?? os.availableParallelism());
     if (workers > 1) {
       server = await startServerProcess(bench.url, { workers });
-      await loadRuns(server.base, await signIn(server.base, benchEmail('m', 0, 'reviewer')), targets, workers);
+      await loadRuns(server.base, await signInBench(server.base, benchEmail('m', 0, 'reviewer')), targets, workers);
     }
   } finally {
     await server.stop();

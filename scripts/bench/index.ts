@@ -2,6 +2,7 @@
 // also prints its own lines as it goes. Never part of npm test; asserts nothing; loopback only, bounded in time.
 //   generate-claims.ts  the bench database (profile "bench", DB_PORT + 4): 100,000 claims (BENCH_CLAIMS)
 //   api.bench.ts        the list through the API beside raw mysql2; 16-connection load on the list and a page
+//   queue.bench.ts      the reviewer's queue (filters, sort, search) through the API beside raw mysql2
 //   engine.bench.ts     evaluations per second beside schema validation alone
 //   pdf.bench.ts        letters and memos per second beside a bare pdfkit page
 //   import.bench.ts     CSV import rows per second beside raw INSERTs (a database of its own, DB_PORT + 5)
@@ -24,6 +25,7 @@ type Row = {
 const PARTS: { name: string; file: string; parse?: (out: string) => Row[] }[] = [
   { name: 'generate', file: 'generate-claims.ts' },
   { name: 'api', file: 'api.bench.ts' },
+  { name: 'queue', file: 'queue.bench.ts' },
   { name: 'engine', file: 'engine.bench.ts', parse: parseEngine },
   { name: 'pdf', file: 'pdf.bench.ts' },
   { name: 'import', file: 'import.bench.ts', parse: parseImport },

@@ -108,7 +108,10 @@ export async function startLocalDb(opts: {
   const pidFile = path.join(base, 'mariadbd.pid');
   const logFile = path.join(base, 'mariadbd.log');
   const pwFile = path.join(base, 'app-password');
-  fs.mkdirSync(base, { recursive: true });
+  // Temporary tables of big sorts go here, not to the shared /tmp, where another program's clean-up can delete
+  // them mid-query (seen as "Error on delete of '/tmp/#sql-temptable…'").
+  const tmpdir = path.join(base, 'tmp');
+  fs.mkdirSync(tmpdir, { recursive: true });
 
   if (!fs.existsSync(path.join(datadir, 'mysql'))) {
     log(`Initialising a private MariaDB data directory in ${datadir}`);
@@ -140,6 +143,7 @@ export async function startLocalDb(opts: {
       '--bind-address=127.0.0.1',
       `--pid-file=${pidFile}`,
       `--log-error=${logFile}`,
+      `--tmpdir=${tmpdir}`,
       '--skip-name-resolve',
       '--character-set-server=utf8mb4',
       '--collation-server=utf8mb4_unicode_ci',

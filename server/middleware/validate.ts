@@ -40,9 +40,9 @@ export function idempotencyKeyOf(req: Request, opts: { required?: boolean } = {}
   ];
 }
 
-// File uploads (POST …/attachments) are the one place a multipart body is let through; the upload middleware
-// parses it there, after the route has authorised the request.
-const MULTIPART_ROUTE = /\/attachments\/?$/;
+// File uploads (POST …/attachments, and a claim's …/conversation/uploads) are the one place a multipart body is
+// let through; the upload middleware parses it there, after the route has authorised the request.
+const MULTIPART_ROUTE = /\/(?:attachments|conversation\/uploads)\/?$/;
 
 /** JSON bodies only on JSON routes: a body of any other type is a 415. */
 export const requireJsonBody: RequestHandler = (req, _res, next) => {

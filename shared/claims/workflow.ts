@@ -143,7 +143,7 @@ export type ClaimMessageDto = {
   dueOn: string | null;
   answeredAt: string | null;
   createdAt: string;
-  attachments: { id: string; name: string; contentType: string; kind: string; url: string }[];
+  attachments: { id: string; name: string; contentType: string; kind: string; url: string; thumbnailUrl: string | null }[];
 };
 
 export type ClaimDocumentDto = {
@@ -222,14 +222,7 @@ export type ClaimWorkflowDto = {
   history: HistoryEventDto[];
 };
 
-/** A file for the conversation, sent as JSON (base64) until the shared multipart uploads route lands. */
-export const conversationFileSchema = z.strictObject({
-  name: z.string().trim().min(1, 'Give the file a name.').max(160),
-  purpose: z.enum(['nameplate', 'failure', 'site', 'proof_of_purchase', 'other']).default('other'),
-  dataBase64: z
-    .string({ error: 'Send the file as base64.' })
-    .min(4, 'The file is empty.')
-    .max(21_000_000, 'Each file can be at most 15 MB.')
-    .regex(/^[A-Za-z0-9+/]+={0,2}$/, 'Send the file as base64.'),
-});
-export type ConversationFileInput = z.infer<typeof conversationFileSchema>;
+// The conversation's files are attachments (uploaded as multipart through the attachments module). Owner types:
+// an upload waiting for the next answer is held against the claim; an answer takes it (owner: the message).
+export const CONVERSATION_DRAFT = 'claim_message_draft';
+export const CONVERSATION_SENT = 'claim_message';

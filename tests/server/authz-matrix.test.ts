@@ -74,6 +74,9 @@ type World = {
   letterDocId: string;
   answeredId: string;
   answerFileId: string;
+  /** A claim waiting on the installer, with one uploaded file not yet sent. */
+  pendingId: string;
+  pendingFileId: string;
   /** A credit memo issued for an approved claim. */
   memoId: string;
 };
@@ -185,7 +188,14 @@ async function claimAt(w: World, stage: Stage): Promise<string> {
 }
 const creditOf = async (id: string) =>
   (await t.ds.getRepository(Claim).findOneBy({ id }))?.expectedCredit ?? '96.00';
-const PNG_BASE64 = async () => (await pngImage(32, 24)).toString('base64');
+async function newConversationUpload(w: World, claimId: string) {
+  const r = await w.agent
+    .post(`/api/claims/${claimId}/conversation/uploads`)
+    .field('purpose', 'nameplate')
+    .attach('file', await pngImage(32, 24), 'nameplate.png');
+  if (r.status !== 201) throw new Error(`conversation file fixture: ${r.status} ${JSON.stringify(r.body)}`);
+  return r.body.attachment.id as string;
+}
 
 const approvedClaim = async (w: World) =>
   (await createApprovedClaim(t.ds, { manufacturer: w.m, contractor: w.c, amount: '73.41' })).id;
@@ -532,12 +542,44 @@ const ROUTES: Record<string, Entry> = {
     ...CLAIM_READ,
     target: (w) => ({ id: w.approvedId, docId: w.letterDocId }),
   },
-  'POST /api/claims/:id/conversation/files': {
-    ok: members(CONTRACTORS, 201),
-    target: async (w) => ({ id: await claimAt(w, 'needs_info') }),
-    body: async () => ({ name: 'nameplate.png', purpose: 'nameplate', dataBase64: await PNG_BASE64() }),
+  // The next answer's files: the contractor's own until sent (the manufacturer sees no such collection: 404);
+  // added only while the question is open.
+  'POST /api/claims/:id/conversation/uploads': {
+    upload: photoUpload,
+    denied: members(MANUFACTURERS, 404),
+    variants: {
+      needs_info: { ok: members(CONTRACTORS, 201), target: async (w) => ({ id: await claimAt(w, 'needs_info') }) },
+      in_review: { ok: {}, target: async (w) => ({ id: await claimAt(w, 'in_review') }) },
+    },
+  },
+  'GET /api/claims/:id/conversation/uploads': {
+    ok: members(CONTRACTORS, 200),
+    denied: members(MANUFACTURERS, 404),
+    target: (w) => ({ id: w.pendingId }),
+  },
+  ...Object.fromEntries(
+    ['', '/content', '/thumbnail'].map((suffix) => [
+      `GET /api/claims/:id/conversation/uploads/:attachmentId${suffix}`,
+      {
+        ok: members(CONTRACTORS, 200),
+        denied: members(MANUFACTURERS, 404),
+        target: (w: World) => ({ id: w.pendingId, attachmentId: w.pendingFileId }),
+      } satisfies Entry,
+    ]),
+  ),
+  'DELETE /api/claims/:id/conversation/uploads/:attachmentId': {
+    ok: members(CONTRACTORS, 204),
+    denied: members(MANUFACTURERS, 404),
+    target: async (w) => {
+      const id = await claimAt(w, 'needs_info');
+      return { id, attachmentId: await newConversationUpload(w, id) };
+    },
   },
   'GET /api/claims/:id/conversation/files/:fileId': {
+    ...CLAIM_READ,
+    target: (w) => ({ id: w.answeredId, fileId: w.answerFileId }),
+  },
+  'GET /api/claims/:id/conversation/files/:fileId/thumbnail': {
     ...CLAIM_READ,
     target: (w) => ({ id: w.answeredId, fileId: w.answerFileId }),
   },
@@ -654,6 +696,8 @@ async function buildWorld(): Promise<World> {
     letterDocId: '',
     answeredId: '',
     answerFileId: '',
+    pendingId: '',
+    pendingFileId: '',
     memoId: '',
   };
   w.draftId = await newDraft(w);
@@ -672,12 +716,9 @@ async function buildWorld(): Promise<World> {
     throw new Error(`approval fixture: ${approved.status} ${JSON.stringify(approved.body)}`);
   w.letterDocId = String(approved.body.workflow.decision.letter.url).match(/documents\/([0-9a-f-]{36})/)![1];
   w.answeredId = await claimAt(w, 'needs_info');
-  const up = await agent
-    .post(`/api/claims/${w.answeredId}/conversation/files`)
-    .send({ name: 'nameplate.png', purpose: 'nameplate', dataBase64: await PNG_BASE64() });
-  if (up.status !== 201)
-    throw new Error(`conversation file fixture: ${up.status} ${JSON.stringify(up.body)}`);
-  w.answerFileId = up.body.file.id;
+  w.answerFileId = await newConversationUpload(w, w.answeredId);
+  w.pendingId = await claimAt(w, 'needs_info');
+  w.pendingFileId = await newConversationUpload(w, w.pendingId);
   w.memoId = await newMemo(w);
   const answered = await agent
     .post(`/api/claims/${w.answeredId}/actions/answer_info`)

@@ -1,3 +1,6 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import {
   BarcodeFormat,
   BinaryBitmap,
@@ -26,6 +29,7 @@ import { createLogger } from '../../server/lib/logger';
 import { createOrganization, createUser, signIn } from '../support/factories';
 import { createClaimAt, createReviewWorld, outboxCount, snapshotClaim, type ReviewWorld } from '../support/review-factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
+import { HTML_PAGE, MiB, pdfWithJavaScript, pixelFloodPng, pngImage, SVG_WITH_SCRIPT } from '../support/upload-fixtures';
 
 let t: TestContext;
 let w: ReviewWorld;
@@ -40,8 +44,12 @@ let asReviewer: supertest.Agent;
 let asReviewer2: supertest.Agent;
 let asForeign: supertest.Agent;
 
+let storageDir: string;
+
 beforeAll(async () => {
-  t = await createTestApp();
+  // Its own storage folder, so that "nothing stored" is this file's to count.
+  storageDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lumenproof-review-files-'));
+  t = await createTestApp({ STORAGE_DIR: storageDir });
   contractor = await createOrganization(t.ds, 'contractor');
   manufacturer = await createOrganization(t.ds, 'manufacturer');
   w = await createReviewWorld(t.ds, contractor, manufacturer);
@@ -56,7 +64,10 @@ beforeAll(async () => {
   asForeign = await signIn(t.request(), foreign.email);
 }, 120_000);
 
-afterAll(() => closeTestApp(t));
+afterAll(async () => {
+  await closeTestApp(t);
+  fs.rmSync(storageDir, { recursive: true, force: true });
+});
 
 async function textOf(pdf: Buffer): Promise<string> {
   const parser = new PDFParse({ data: new Uint8Array(pdf) });
@@ -227,11 +238,18 @@ describe('asking the installer', () => {
     expect(asked.status).toBe(200);
     expect(asked.body.workflow.openRequest.dueOn).toMatch(/^\d{4}-\d{2}-\d{2}$/);
     const png = await sharp({ create: { width: 40, height: 30, channels: 3, background: '#c0ffee' } }).png().toBuffer();
-    const up = await asInstaller.post(`/api/claims/${claim.id}/conversation/files`).send({ name: 'nameplate.png', purpose: 'nameplate', dataBase64: png.toString('base64') });
+    const uploads = `/api/claims/${claim.id}/conversation/uploads`;
+    const up = await asInstaller.post(uploads).field('purpose', 'nameplate').attach('file', png, 'nameplate.png');
     expect(up.status).toBe(201);
-    // Another organisation can neither upload to nor read this claim.
-    expect((await asForeign.post(`/api/claims/${claim.id}/conversation/files`).send({ name: 'x.png', dataBase64: png.toString('base64') })).status).toBe(404);
-    const answered = await asInstaller.post(`/api/claims/${claim.id}/actions/answer_info`).send({ message: 'Here it is.', attachmentIds: [up.body.file.id] });
+    expect(up.body.attachment).toMatchObject({ kind: 'photo', purpose: 'nameplate', contentType: 'image/png', name: 'nameplate.png' });
+    // The unsent file is the installer's own: the reviewer sees no such collection, another organisation no claim.
+    expect((await asInstaller.get(uploads)).body.items.map((a: { id: string }) => a.id)).toEqual([up.body.attachment.id]);
+    expect((await asReviewer.get(uploads)).status).toBe(404);
+    expect((await asReviewer.post(uploads).attach('file', png, 'x.png')).status).toBe(404);
+    expect((await asForeign.post(uploads).attach('file', png, 'x.png')).status).toBe(404);
+    // The old base64-in-JSON upload is gone.
+    expect((await asInstaller.post(`/api/claims/${claim.id}/conversation/files`).send({ name: 'x.png', dataBase64: png.toString('base64') })).status).toBe(404);
+    const answered = await asInstaller.post(`/api/claims/${claim.id}/actions/answer_info`).send({ message: 'Here it is.', attachmentIds: [up.body.attachment.id] });
     expect(answered.status).toBe(200);
     expect(answered.body.claim.stage).toBe('in_review');
     const wf = (await asReviewer.get(`/api/claims/${claim.id}/workflow`)).body;
@@ -240,9 +258,71 @@ describe('asking the installer', () => {
     const file = await download(asReviewer, answer.attachments[0].url);
     expect(file.status).toBe(200);
     expect(file.headers['content-type']).toBe('image/png');
+    expect(file.headers['content-disposition']).toMatch(/^attachment/);
+    expect((await download(asReviewer, answer.attachments[0].thumbnailUrl)).headers['content-type']).toBe('image/webp');
+    expect((await asForeign.get(answer.attachments[0].url)).status).toBe(404);
     expect(wf.messages[0].answeredAt).toBeTruthy();
-    const att = await t.ds.getRepository(Attachment).findOneByOrFail({ id: up.body.file.id });
+    const att = await t.ds.getRepository(Attachment).findOneByOrFail({ id: up.body.attachment.id });
     expect(att.ownerType).toBe('claim_message');
+    expect(att.ownerId).toBe(answer.id);
+    // Sent, it has left the pending uploads; once back in review, no more uploads.
+    expect((await asInstaller.get(uploads)).body.items).toEqual([]);
+    expect((await asInstaller.post(uploads).attach('file', png, 'late.png')).status).toBe(403);
+  });
+
+  it('a hostile file on an answer is refused and nothing is written: no row, no stored object, no audit, no move', async () => {
+    const claim = await createClaimAt(t.ds, w, 'needs_info', { filedById: installer.id, assigneeId: reviewer.id });
+    const uploads = `/api/claims/${claim.id}/conversation/uploads`;
+    const attachments = () => t.ds.getRepository(Attachment).count({ where: { ownerType: 'claim_message_draft', ownerId: claim.id } });
+    const storedObjects = () => fs.readdirSync(storageDir, { recursive: true }).length;
+    const audit = () => t.ds.getRepository(AuditEvent).count({ where: { actorUserId: installer.id } });
+    const before = { claim: await snapshotClaim(t.ds, claim.id), audit: await audit(), objects: storedObjects() };
+    const refusals: [Buffer, string, number, string][] = [
+      // An HTML page named like a photo: the bytes decide, not the name.
+      [HTML_PAGE, 'nameplate.jpg', 415, 'attachment.unsupported_type'],
+      // An SVG with a script: not an accepted type.
+      [SVG_WITH_SCRIPT, 'label.svg', 415, 'attachment.unsupported_type'],
+      // A PDF that runs JavaScript when opened.
+      [pdfWithJavaScript(), 'invoice.pdf', 422, 'attachment.pdf_active_content'],
+      // A decompression bomb: 900 megapixels in about 100 KB.
+      [pixelFloodPng(), 'strings.png', 422, 'attachment.too_many_pixels'],
+    ];
+    for (const [bytes, name, status, code] of refusals) {
+      const r = await asInstaller.post(uploads).attach('file', bytes, name);
+      expect({ name, status: r.status, code: r.body.error?.code }).toEqual({ name, status, code });
+    }
+    // Base64 in JSON is no longer a way in.
+    expect((await asInstaller.post(uploads).send({ name: 'x.png', dataBase64: HTML_PAGE.toString('base64') })).status).toBe(415);
+    // One file per request, and no more than 15 MB.
+    const two = await asInstaller.post(uploads).attach('file', await pngImage(40, 30), 'a.png').attach('file', await pngImage(40, 30), 'b.png');
+    expect(two.status).toBe(413);
+    const huge = await asInstaller.post(uploads).attach('file', Buffer.alloc(16 * MiB, 0xff), 'huge.jpg');
+    expect(huge.status).toBe(413);
+    expect(await attachments()).toBe(0);
+    expect(storedObjects()).toBe(before.objects);
+    expect(await audit()).toBe(before.audit);
+    expect(await snapshotClaim(t.ds, claim.id)).toEqual(before.claim);
+  });
+
+  it('an answer takes only the sender’s own pending files of this claim, and at most 20 wait at once', async () => {
+    const claim = await createClaimAt(t.ds, w, 'needs_info', { filedById: installer.id, assigneeId: reviewer.id });
+    const other = await createClaimAt(t.ds, w, 'needs_info', { filedById: installer.id, assigneeId: reviewer.id });
+    const png = await pngImage(40, 30);
+    const elsewhere = await asInstaller.post(`/api/claims/${other.id}/conversation/uploads`).attach('file', png, 'other.png');
+    expect(elsewhere.status).toBe(201);
+    const before = await snapshotClaim(t.ds, claim.id);
+    const wrong = await asInstaller.post(`/api/claims/${claim.id}/actions/answer_info`).send({ message: 'See the file.', attachmentIds: [elsewhere.body.attachment.id] });
+    expect(wrong.status).toBe(400);
+    expect(await snapshotClaim(t.ds, claim.id)).toEqual(before);
+    const uploads = `/api/claims/${claim.id}/conversation/uploads`;
+    for (let i = 0; i < 20; i++) expect((await asInstaller.post(uploads).attach('file', png, `p${i}.png`)).status).toBe(201);
+    const full = await asInstaller.post(uploads).attach('file', png, 'p20.png');
+    expect(full.status).toBe(409);
+    expect(full.body.error.code).toBe('attachment.limit_reached');
+    // A pending file can be taken back before the answer goes.
+    const [first] = (await asInstaller.get(uploads)).body.items;
+    expect((await asInstaller.delete(`${uploads}/${first.id}`)).status).toBe(204);
+    expect((await asInstaller.get(uploads)).body.items).toHaveLength(19);
   });
 });
 

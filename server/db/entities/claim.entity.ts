@@ -35,6 +35,8 @@ import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 @Index('ix_claims_mfr_contractor', ['manufacturerId', 'contractorId', 'stageChangedAt'])
 @Index('ix_claims_mfr_credit', ['manufacturerId', 'expectedCredit'])
 @Index('ix_claims_mfr_number', ['manufacturerId', 'number'])
+// The queue's count: open stages and a verdict, from the index alone.
+@Index('ix_claims_mfr_stage_verdict', ['manufacturerId', 'stage', 'verdict'])
 export class Claim {
   @PrimaryGeneratedColumn('uuid')
   id: string;

@@ -10,6 +10,7 @@ import { Credits1796167459216 } from './1796167459216-Credits';
 import { CreditsGuards1796167460216 } from './1796167460216-CreditsGuards';
 import { InstallationLot1796167600000 } from './1796167600000-InstallationLot';
 import { ReviewQueueIndexes1796168302753 } from './1796168302753-ReviewQueueIndexes';
+import { ReviewQueueCountIndex1796178256332 } from './1796178256332-ReviewQueueCountIndex';
 import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexes';
 
 export const migrations = [
@@ -24,5 +25,6 @@ export const migrations = [
   CreditsGuards1796167460216,
   InstallationLot1796167600000,
   ReviewQueueIndexes1796168302753,
+  ReviewQueueCountIndex1796178256332,
   StorageKeyIndexes1796179613559,
 ];

@@ -1,21 +1,22 @@
-import crypto from 'node:crypto';
+import { pipeline } from 'node:stream/promises';
+import { subject } from '@casl/ability';
 import { Router, type Request } from 'express';
 import { z } from 'zod';
 import { isActionName } from '../../../shared/claims/stages';
-import { assignClaimSchema, conversationFileSchema } from '../../../shared/claims/workflow';
+import { assignClaimSchema, CONVERSATION_DRAFT, CONVERSATION_SENT } from '../../../shared/claims/workflow';
 import type { AppContext } from '../../context';
-import { Attachment } from '../../db/entities/attachment.entity';
 import { ClaimDocument } from '../../db/entities/claim-document.entity';
 import { ClaimMessage } from '../../db/entities/claim-message.entity';
 import { Claim } from '../../db/entities/claim.entity';
-import { actorFromRequest, recordAudit } from '../../lib/audit';
+import { actorFromRequest } from '../../lib/audit';
 import { AppError, notFound } from '../../lib/errors';
 import { sha256Hex } from '../../lib/pdf/hash';
 import type { Storage } from '../../lib/storage';
-import { inspectUpload } from '../../lib/uploads/inspect';
 import { contentDisposition } from '../../lib/uploads/names';
 import { authorize, requireUser } from '../../middleware/auth';
 import { parseBody, parseWith } from '../../middleware/validate';
+import { attachmentsRouter } from '../attachments/attachments.router';
+import { openAttachment } from '../attachments/attachments.service';
 import { createClaimActionsService } from './claim-actions.service';
 import { loadWorkflow } from './claim-workflow.presenter';
 
@@ -24,12 +25,16 @@ import { loadWorkflow } from './claim-workflow.presenter';
 //   POST /:id/assign               take a claim, hand it to another reviewer, or give it back
 //   GET  /:id/workflow             thread, returns, bench tests, decision, documents, history, actions available
 //   GET  /:id/documents/:docId     a generated PDF, the stored bytes
-//   POST /:id/conversation/files   a file for the next answer; GET …/files/:fileId to read one
+//   /:id/conversation/uploads      the next answer's files, multipart (the attachments module's routes)
+//   GET  /:id/conversation/files/:fileId[/thumbnail]   a file sent with an answer
 
 const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
 const actionParams = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }), action: z.string().max(40) });
 const docParams = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }), docId: z.uuid({ error: 'Not a valid id.' }) });
 const fileParams = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }), fileId: z.uuid({ error: 'Not a valid id.' }) });
+
+const asClaim = (c: Claim) =>
+  subject('Claim', { contractorId: c.contractorId, manufacturerId: c.manufacturerId, stage: c.stage } as Record<string, unknown>);
 
 /** `If-Match: "7"` or `7`: the claim's version the user last saw. */
 function expectedVersion(req: Request): number | undefined {
@@ -99,68 +104,37 @@ export function claimActionsRouter(ctx: AppContext & { storage: Storage }) {
     res.end(bytes);
   });
 
-  r.post('/:id/conversation/files', async (req, res) => {
-    const { id } = parseWith(idParam, req.params, 'address');
-    const input = parseBody(conversationFileSchema, req);
-    const claim = await loadReadable(req, id);
-    // Files travel with an answer: whoever may answer the open question may upload for it.
-    authorize(req, 'update', 'Claim', claim, 'claim');
-    const inspected = await inspectUpload(Buffer.from(input.dataBase64, 'base64'), input.name);
-    const fileId = crypto.randomUUID();
-    const storageKey = `claims/${claim.id}/conversation/${fileId}`;
-    await ctx.storage.put(storageKey, inspected.body, inspected.contentType);
-    const user = req.user!;
-    await ctx.ds.transaction(async (m) => {
-      await m.insert(Attachment, {
-        id: fileId,
-        // Held against the claim until an answer takes it (then owner_type becomes claim_message).
-        ownerType: 'claim_message_draft',
-        ownerId: claim.id,
-        organizationId: user.organizationId,
-        uploadedById: user.id,
-        kind: inspected.kind,
-        purpose: input.purpose,
-        contentType: inspected.contentType,
-        byteSize: inspected.body.length,
-        sha256: inspected.sha256,
-        storageKey,
-        thumbnailKey: null,
-        originalName: inspected.displayName,
-        width: inspected.width,
-        height: inspected.height,
-        capturedAt: inspected.capturedAt,
-      });
-      await recordAudit(m, actorFromRequest(req), {
-        action: 'claim.conversation_file_uploaded',
-        entityType: 'Claim',
-        entityId: claim.id,
-        after: { fileId, name: inspected.displayName, contentType: inspected.contentType, sha256: inspected.sha256 },
-      });
-    });
-    res.status(201).json({
-      file: { id: fileId, name: inspected.displayName, contentType: inspected.contentType, kind: inspected.kind, byteSize: inspected.body.length },
-    });
-  });
+  // Files for the next answer: the attachments module's multipart routes (magic bytes, re-encoding, size and
+  // count limits, hostile files refused, nothing kept of a refusal), held against the claim until an answer takes
+  // them. Unsent files are the contractor's alone: whoever may not change the claim sees no such collection (404).
+  r.use(
+    '/:id/conversation/uploads',
+    attachmentsRouter<Claim>(ctx, {
+      ownerType: CONVERSATION_DRAFT,
+      ownerLabel: 'claim',
+      loadOwner: (_req, id) => claims.findOneBy({ id }),
+      canRead: (req, c) => req.ability.can('read', asClaim(c)) && req.ability.can('update', asClaim(c)),
+      // Only while the question is open: the files travel with the answer to it.
+      canWrite: (_req, c) => c.stage === 'needs_info',
+    }),
+  );
 
-  r.get('/:id/conversation/files/:fileId', async (req, res) => {
-    const { id, fileId } = parseWith(fileParams, req.params, 'address');
-    const claim = await loadReadable(req, id);
-    const file = await ctx.ds.getRepository(Attachment).findOneBy({ id: fileId });
-    let belongs = false;
-    if (file?.ownerType === 'claim_message' && file.ownerId) {
-      belongs = await ctx.ds.getRepository(ClaimMessage).exists({ where: { id: file.ownerId, claimId: claim.id } });
-    } else if (file?.ownerType === 'claim_message_draft') {
-      // An upload not yet sent is its uploader's organisation's alone.
-      belongs = file.ownerId === claim.id && file.organizationId === req.user!.organizationId;
-    }
-    if (!file || !belongs) throw notFound('file');
-    const bytes = await ctx.storage.getBuffer(file.storageKey);
-    res.setHeader('Content-Type', file.contentType);
-    res.setHeader('Content-Disposition', contentDisposition(file.originalName, file.kind === 'photo' ? 'inline' : 'attachment'));
-    res.setHeader('X-Content-Type-Options', 'nosniff');
-    res.setHeader('Content-Length', String(bytes.length));
-    res.end(bytes);
-  });
+  // A file sent with an answer: whoever may read the claim may read it.
+  for (const variant of ['original', 'thumbnail'] as const) {
+    r.get(`/:id/conversation/files/:fileId${variant === 'thumbnail' ? '/thumbnail' : ''}`, async (req, res) => {
+      const { id, fileId } = parseWith(fileParams, req.params, 'address');
+      const claim = await loadReadable(req, id);
+      const opened = await openAttachment(ctx, {
+        id: fileId,
+        ownerType: CONVERSATION_SENT,
+        variant,
+        canSee: async (owner) =>
+          !!owner.id && ctx.ds.getRepository(ClaimMessage).exists({ where: { id: owner.id, claimId: claim.id } }),
+      });
+      res.status(200).set(opened.headers);
+      await pipeline(opened.body, res);
+    });
+  }
 
   return r;
 }

@@ -10,6 +10,8 @@ import type { Role } from '../../../shared/roles';
 import { engineContextFrom, engineInputFor } from '../../../shared/claims/engine-input';
 import {
   addDays,
+  CONVERSATION_DRAFT,
+  CONVERSATION_SENT,
   INFO_RESPONSE_DAYS,
   newReturnNumber,
   RETURN_SHIP_DAYS,
@@ -310,14 +312,14 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
           if (ids.length) {
             // Only the sender's own files, uploaded for this claim's thread and not yet sent with an answer.
             const files = await m.find(Attachment, {
-              where: { id: In(ids), ownerType: 'claim_message_draft', ownerId: claim.id, organizationId: user.organizationId },
+              where: { id: In(ids), ownerType: CONVERSATION_DRAFT, ownerId: claim.id, organizationId: user.organizationId },
             });
             if (files.length !== ids.length) {
               throw new AppError(400, 'validation.failed', 'The request body has invalid fields.', [
                 { path: 'attachmentIds', message: 'Attach only files you uploaded to this claim’s conversation.' },
               ]);
             }
-            await m.update(Attachment, { id: In(ids) }, { ownerType: 'claim_message', ownerId: msg.id });
+            await m.update(Attachment, { id: In(ids) }, { ownerType: CONVERSATION_SENT, ownerId: msg.id });
           }
           after = { messageId: msg.id, attachments: ids.length, answers: open?.id ?? null };
           await notify(m, claim, parties, 'manufacturer', await reviewers(m, claim), {

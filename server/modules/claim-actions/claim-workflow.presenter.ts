@@ -8,6 +8,7 @@ import type {
   DecisionDto,
   ReturnAuthorizationDto,
 } from '../../../shared/claims/workflow';
+import { CONVERSATION_SENT } from '../../../shared/claims/workflow';
 import type { SessionUser } from '../../auth/passport';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { BenchTest } from '../../db/entities/bench-test.entity';
@@ -58,7 +59,7 @@ export async function loadWorkflow(ds: AppDataSource, claim: Claim, viewer: Sess
   const [users, orgs, files] = await Promise.all([
     userIds.size ? m.find(User, { where: { id: In([...userIds]) }, select: { id: true, name: true, organizationId: true } }) : [],
     m.find(Organization, { where: { id: In([claim.contractorId, claim.manufacturerId]) } }),
-    messageIds.length ? m.find(Attachment, { where: { ownerType: 'claim_message', ownerId: In(messageIds) }, order: { createdAt: 'ASC' } }) : [],
+    messageIds.length ? m.find(Attachment, { where: { ownerType: CONVERSATION_SENT, ownerId: In(messageIds) }, order: { createdAt: 'ASC' } }) : [],
   ]);
   const userById = new Map(users.map((u) => [u.id, u]));
   const orgById = new Map(orgs.map((o) => [o.id, o]));
@@ -93,6 +94,7 @@ export async function loadWorkflow(ds: AppDataSource, claim: Claim, viewer: Sess
         contentType: f.contentType,
         kind: f.kind,
         url: `/api/claims/${claim.id}/conversation/files/${f.id}`,
+        thumbnailUrl: f.thumbnailKey ? `/api/claims/${claim.id}/conversation/files/${f.id}/thumbnail` : null,
       })),
   }));
   const returnDtos: ReturnAuthorizationDto[] = returns.map((r) => ({

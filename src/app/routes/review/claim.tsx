@@ -7,7 +7,8 @@ import { PageHeader } from '../../../components/ui/page-header';
 import { Spinner } from '../../../components/ui/spinner';
 import { EvaluationPanel } from '../../../features/evaluation/components/evaluation-panel';
 import { reviewQueries } from '../../../features/review/api/review-queries';
-import { DecisionCard, Returns, ReviewActions, Thread } from '../../../features/review/components/claim-workflow';
+import { Assignment, DecisionCard, Returns, ReviewActions, Thread } from '../../../features/review/components/claim-workflow';
+import { useSession } from '../../../lib/ability';
 
 /** The review screen: the evidence on the left, the engine's findings and the moves on the right (one column on a phone). */
 export function ReviewClaimRoute() {
@@ -15,6 +16,7 @@ export function ReviewClaimRoute() {
   const claim = useQuery(reviewQueries.detail(id));
   const wf = useQuery(reviewQueries.workflow(id));
   const [zoom, setZoom] = useState<string | null>(null);
+  const me = useSession().user.id;
   if (claim.isPending || wf.isPending) return <Spinner label="Loading the claim" />;
   if (claim.isError || wf.isError) return <p className="text-bad-700">This claim does not exist or is not shared with you.</p>;
   const c = claim.data;
@@ -81,6 +83,12 @@ export function ReviewClaimRoute() {
           <Returns wf={w} />
         </div>
         <div className="space-y-4">
+          <Card>
+            <CardHeader title="Who has it" />
+            <div className="px-4 py-4 sm:px-5">
+              <Assignment wf={w} meId={me} />
+            </div>
+          </Card>
           <ReviewActions wf={w} evaluation={latestBench?.evaluation ?? c.evaluation} units={c.units} />
           <DecisionCard wf={w} />
           {latestBench ? (

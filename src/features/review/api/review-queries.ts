@@ -12,6 +12,7 @@ export type QueueFilters = {
   q?: string;
   sort?: string;
   minAgeDays?: number;
+  minAmount?: string;
   page?: number;
 };
 

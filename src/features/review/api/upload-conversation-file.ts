@@ -1,16 +1,13 @@
+import type { AttachmentDto } from '../../../../shared/schemas/attachments';
 import { api } from '../../../lib/api-client';
 
-async function toBase64(file: File): Promise<string> {
-  const bytes = new Uint8Array(await file.arrayBuffer());
-  let binary = '';
-  for (let i = 0; i < bytes.length; i += 0x8000) binary += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
-  return btoa(binary);
-}
-
-/** A file for the next answer in the claim's conversation. */
-export async function uploadConversationFile(claimId: string, file: File) {
-  return api<{ file: { id: string; name: string; contentType: string } }>(`/claims/${claimId}/conversation/files`, {
+/** A file for the next answer in the claim's conversation: multipart, one file a request, like claim files. */
+export function uploadConversationFile(claimId: string, file: File) {
+  const form = new FormData();
+  form.append('purpose', 'other');
+  form.append('file', file, file.name);
+  return api<{ attachment: AttachmentDto }>(`/claims/${encodeURIComponent(claimId)}/conversation/uploads`, {
     method: 'POST',
-    json: { name: file.name, purpose: 'other', dataBase64: await toBase64(file) },
+    body: form,
   });
 }

@@ -9,7 +9,7 @@ import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { InputField, SelectField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
-import { performClaimAction } from '../api/perform-claim-action';
+import { assignClaim, performClaimAction } from '../api/perform-claim-action';
 import { uploadConversationFile } from '../api/upload-conversation-file';
 
 // The workflow around one claim, for both sides: the thread, returns, the decision and its letter, and the
@@ -21,7 +21,7 @@ const REPAIR_CAUTION =
 function DocLink({ doc, label }: { doc: ClaimDocumentDto; label: string }) {
   return (
     <a className="font-medium text-brand-700 underline" href={doc.url} download>
-      {label} <span className="text-xs text-ink-500">(PDF, {Math.ceil(doc.byteSize / 1024)} KB, SHA-256 {doc.sha256.slice(0, 12)}…)</span>
+      {label} <span className="text-xs text-ink-600">(PDF, {Math.ceil(doc.byteSize / 1024)} KB, SHA-256 {doc.sha256.slice(0, 12)}…)</span>
     </a>
   );
 }
@@ -83,8 +83,8 @@ export function Thread({ wf }: { wf: ClaimWorkflowDto }) {
                 {m.attachments.map((a) => (
                   <li key={a.id}>
                     {a.kind === 'photo' ? (
-                      <a href={a.url} target="_blank" rel="noreferrer">
-                        <img src={a.url} alt={`Photo sent with the answer: ${a.name}`} className="h-24 rounded border border-ink-200 object-cover" />
+                      <a href={a.url} download={a.name}>
+                        <img src={a.thumbnailUrl ?? a.url} alt={`Photo sent with the answer: ${a.name}`} className="h-24 rounded border border-ink-200 object-cover" />
                       </a>
                     ) : (
                       <a className="text-brand-700 underline" href={a.url}>
@@ -168,13 +168,18 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
   const [files, setFiles] = useState<File[]>([]);
   const [uploading, setUploading] = useState(false);
   const [ship, setShip] = useState({ carrier: '', trackingNumber: '', shippedOn: new Date().toISOString().slice(0, 10) });
+  const [uploadError, setUploadError] = useState<ApiError | null>(null);
   async function answer(e: FormEvent) {
     e.preventDefault();
     setUploading(true);
+    setUploadError(null);
     try {
       const ids = [];
-      for (const f of files) ids.push((await uploadConversationFile(wf.claim.id, f)).file.id);
+      for (const f of files) ids.push((await uploadConversationFile(wf.claim.id, f)).attachment.id);
       move.run('answer_info', { message, ...(ids.length ? { attachmentIds: ids } : {}) });
+    } catch (err) {
+      // A refused file (not a photo or PDF, too large, …) stops the answer: nothing is sent without it.
+      setUploadError(err instanceof ApiError ? err : new ApiError(0, 'unknown', 'The file could not be uploaded.'));
     } finally {
       setUploading(false);
     }
@@ -185,6 +190,7 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
         <CardHeader title="Where the claim stands" description={`${STAGE_LABELS[wf.claim.stage]}${wf.claim.waitingOn === 'contractor' ? ' — waiting on you' : ''}`} />
         <div className="space-y-4 px-4 py-4 sm:px-5">
           <ErrorText error={move.error} />
+          <ErrorText error={uploadError} />
           {wf.actions.includes('answer_info') && wf.openRequest ? (
             <form className="space-y-3" onSubmit={answer}>
               <p className="text-sm">
@@ -219,6 +225,40 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
       <DecisionCard wf={wf} />
       <Returns wf={wf} />
       <Thread wf={wf} />
+    </div>
+  );
+}
+
+/** Who on the manufacturer's team has the claim: take it, or give it back to the queue (not a stage move). */
+export function Assignment({ wf, meId }: { wf: ClaimWorkflowDto; meId: string }) {
+  const qc = useQueryClient();
+  const [error, setError] = useState<ApiError | null>(null);
+  const m = useMutation({
+    mutationFn: (assigneeId: string | null) => assignClaim(wf.claim.id, assigneeId, wf.claim.version),
+    onSuccess: () => {
+      setError(null);
+      return qc.invalidateQueries({ queryKey: ['claims'] });
+    },
+    onError: (e) => setError(e instanceof ApiError ? e : new ApiError(0, 'unknown', 'Something went wrong.')),
+  });
+  if (['draft', 'closed', 'withdrawn'].includes(wf.claim.stage)) return null;
+  const who = wf.claim.assignee;
+  return (
+    <div className="space-y-2" role="group" aria-label="Assignment">
+      <p className="text-sm text-ink-700">{who ? (who.id === meId ? 'Assigned to you' : `Assigned to ${who.name}`) : 'Not assigned to anyone yet'}</p>
+      <div className="flex flex-wrap gap-2">
+        {who?.id !== meId ? (
+          <Button variant="secondary" loading={m.isPending} onClick={() => m.mutate(meId)}>
+            Assign to me
+          </Button>
+        ) : null}
+        {who ? (
+          <Button variant="secondary" loading={m.isPending} onClick={() => m.mutate(null)}>
+            Give back to the queue
+          </Button>
+        ) : null}
+      </div>
+      <ErrorText error={error} />
     </div>
   );
 }

@@ -21,6 +21,29 @@ const VERDICT: Record<string, { label: string; tone: Tone }> = {
 
 export const WAITING_LABEL = { manufacturer: 'on us', contractor: 'on the installer' } as const;
 
+const DAYS = /^(?:\d{1,3}|[0-2]\d{3}|3[0-5]\d{2}|36[0-4]\d|3650)$/;
+const MONEY = /^\d{1,10}(\.\d{1,2})?$/;
+
+/** A typed filter: applied once the text matches (undefined when cleared); until then it says what it needs. */
+function TypedFilter({ label, inputMode, pattern, hint, onValue }: { label: string; inputMode: 'numeric' | 'decimal'; pattern: RegExp; hint: string; onValue: (v: string | undefined) => void }) {
+  const [text, setText] = useState('');
+  const ok = text.trim() === '' || pattern.test(text.trim());
+  return (
+    <InputField
+      label={label}
+      inputMode={inputMode}
+      value={text}
+      error={ok ? undefined : hint}
+      onChange={(e) => {
+        const v = e.target.value;
+        setText(v);
+        if (v.trim() === '') onValue(undefined);
+        else if (pattern.test(v.trim())) onValue(v.trim());
+      }}
+    />
+  );
+}
+
 /** The reviewer's queue: filters, a keyboard-driven list (j/k or arrows, Enter opens), ageing in plain words. */
 export function ReviewQueue() {
   const [filters, setFilters] = useState<QueueFilters>({ stage: 'filed,in_review,unit_received,return_requested,needs_info', sort: 'stageChangedAt' });
@@ -57,7 +80,7 @@ export function ReviewQueue() {
   return (
     <Card>
       <CardHeader title="Claims on your desk" description="j / k or the arrow keys move, Enter opens. Oldest in its stage first." />
-      <div className="grid gap-3 border-b border-ink-200 px-4 py-3 sm:grid-cols-2 sm:px-5 lg:grid-cols-5">
+      <div className="grid gap-3 border-b border-ink-200 px-4 py-3 sm:grid-cols-2 sm:px-5 lg:grid-cols-4">
         <InputField label="Search" placeholder="Claim number, site, contractor, model, serial" value={filters.q ?? ''} onChange={(e) => set({ q: e.target.value })} />
         <SelectField label="Stage" value={filters.stage ?? ''} onChange={(e) => set({ stage: e.target.value || undefined })}>
           <option value="filed,in_review,unit_received,return_requested,needs_info">All open</option>
@@ -80,6 +103,8 @@ export function ReviewQueue() {
           <option value="me">Me</option>
           <option value="none">Nobody yet</option>
         </SelectField>
+        <TypedFilter label="Filed at least (days ago)" inputMode="numeric" pattern={DAYS} hint="Whole days, 0 to 3650." onValue={(v) => set({ minAgeDays: v === undefined ? undefined : Number(v) })} />
+        <TypedFilter label="Amount at least" inputMode="decimal" pattern={MONEY} hint="An amount like 96.00." onValue={(v) => set({ minAmount: v })} />
         <SelectField label="Sort" value={filters.sort ?? 'stageChangedAt'} onChange={(e) => set({ sort: e.target.value })}>
           <option value="stageChangedAt">Waiting longest</option>
           <option value="-filedAt">Newest filed</option>
@@ -122,7 +147,7 @@ export function ReviewQueue() {
                   <span className="font-mono text-sm font-semibold text-ink-900">{c.number}</span>
                   <span className="text-sm text-ink-700">
                     {c.contractor.name} · {c.product.modelNumber} · {c.siteName}
-                    <span className="block text-xs text-ink-500">
+                    <span className="block text-xs text-ink-600">
                       {STAGE_LABELS[c.stage]} for {c.daysInStage} {c.daysInStage === 1 ? 'day' : 'days'}
                       {c.waitingOn ? `, waiting ${WAITING_LABEL[c.waitingOn]}` : ''}
                       {c.daysSinceFiling !== null ? ` · filed ${c.daysSinceFiling} days ago` : ''}

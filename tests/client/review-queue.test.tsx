@@ -1,0 +1,166 @@
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { cleanup, render, screen, waitFor } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { MemoryRouter, Route, Routes, useParams } from 'react-router-dom';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import type { QueueItemDto } from '../../shared/claims/workflow';
+import { ReviewQueue } from '../../src/features/review/components/review-queue';
+
+// The reviewer's queue screen in jsdom. fetch answers with canned pages and records what the screen asked for:
+// the filters live in the query string, the server does the filtering (tested in tests/server).
+
+afterEach(cleanup);
+
+const item = (n: number, extra: Partial<QueueItemDto> = {}): QueueItemDto => ({
+  id: `00000000-0000-4000-8000-00000000000${n}`,
+  number: `LP-2511-AB${n}-CDEF`,
+  stage: 'in_review',
+  waitingOn: 'manufacturer',
+  contractor: { id: 'c1', name: 'Tidewater Electric' },
+  product: { id: 'p1', modelNumber: 'TW-HB150', name: 'High-bay 150 W' },
+  siteName: `Depot ${n}`,
+  units: 1,
+  filedAt: '2026-11-01T09:00:00.000Z',
+  stageChangedAt: '2026-11-02T09:00:00.000Z',
+  daysInStage: n,
+  daysSinceFiling: n + 1,
+  verdict: 'review',
+  expectedCredit: '96.00',
+  currency: 'USD',
+  assignee: null,
+  version: 3,
+  ...extra,
+});
+
+let answer: (url: URL) => Response;
+const asked: URL[] = [];
+const page = (items: QueueItemDto[]) =>
+  new Response(JSON.stringify({ items, total: items.length, page: 1, pageSize: 25 }), {
+    status: 200,
+    headers: { 'Content-Type': 'application/json' },
+  });
+
+beforeEach(() => {
+  asked.length = 0;
+  answer = () => page([item(1), item(2), item(3)]);
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async (input: string) => {
+      const url = new URL(input, 'http://lumenproof.test');
+      asked.push(url);
+      return answer(url);
+    }),
+  );
+});
+afterEach(() => vi.unstubAllGlobals());
+
+function Opened() {
+  return <p>Opened claim {useParams().id}</p>;
+}
+
+function renderQueue() {
+  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+  return render(
+    <QueryClientProvider client={client}>
+      <MemoryRouter initialEntries={['/review']}>
+        <Routes>
+          <Route path="/review" element={<ReviewQueue />} />
+          <Route path="/review/:id" element={<Opened />} />
+        </Routes>
+      </MemoryRouter>
+    </QueryClientProvider>,
+  );
+}
+
+const lastQuery = () => asked.at(-1)!.searchParams;
+
+describe('the review queue', () => {
+  it('asks for the open stages, oldest in its stage first; each filter changes the query', async () => {
+    const user = userEvent.setup();
+    renderQueue();
+    await screen.findByRole('list', { name: 'Claims' });
+    expect(asked[0].pathname).toBe('/api/review/queue');
+    expect(Object.fromEntries(lastQuery())).toEqual({
+      pageSize: '25',
+      stage: 'filed,in_review,unit_received,return_requested,needs_info',
+      sort: 'stageChangedAt',
+    });
+
+    await user.selectOptions(screen.getByLabelText('Engine verdict'), 'excluded');
+    await waitFor(() => expect(lastQuery().get('verdict')).toBe('excluded'));
+    await user.selectOptions(screen.getByLabelText('Stage'), 'needs_info');
+    await waitFor(() => expect(lastQuery().get('stage')).toBe('needs_info'));
+    await user.selectOptions(screen.getByLabelText('Assigned'), 'me');
+    await waitFor(() => expect(lastQuery().get('assignee')).toBe('me'));
+    await user.selectOptions(screen.getByLabelText('Sort'), '-amount');
+    await waitFor(() => expect(lastQuery().get('sort')).toBe('-amount'));
+    await user.type(screen.getByLabelText('Search'), 'Depot');
+    await waitFor(() => expect(lastQuery().get('q')).toBe('Depot'));
+    // Every filter applies together, and a change goes back to the first page.
+    expect(Object.fromEntries(lastQuery())).toMatchObject({ verdict: 'excluded', stage: 'needs_info', assignee: 'me', page: '1' });
+    // Age since filing and amount: sent once they read as numbers; until then the field says what it needs.
+    await user.type(screen.getByLabelText('Filed at least (days ago)'), '30');
+    await waitFor(() => expect(lastQuery().get('minAgeDays')).toBe('30'));
+    await user.type(screen.getByLabelText('Amount at least'), '75.5x');
+    expect(screen.getByText('An amount like 96.00.')).toBeInTheDocument();
+    await waitFor(() => expect(lastQuery().get('minAmount')).toBe('75.5'));
+    await user.clear(screen.getByLabelText('Amount at least'));
+    await waitFor(() => expect(lastQuery().has('minAmount')).toBe(false));
+    // "Every stage" and "Any" leave the filter out rather than sending an empty value.
+    await user.selectOptions(screen.getByLabelText('Engine verdict'), '');
+    await user.selectOptions(screen.getByLabelText('Stage'), '');
+    await waitFor(() => expect(lastQuery().has('verdict')).toBe(false));
+    expect(lastQuery().has('stage')).toBe(false);
+  });
+
+  it('moves with j / k and the arrow keys, says where it is, and opens the claim with Enter', async () => {
+    const user = userEvent.setup();
+    renderQueue();
+    const rows = await screen.findAllByRole('link');
+    expect(rows).toHaveLength(3);
+    // One tab stop for the whole list (roving tabindex): the first row.
+    expect(rows.map((r) => r.getAttribute('tabindex'))).toEqual(['0', '-1', '-1']);
+    rows[0].focus();
+    await user.keyboard('j');
+    expect(rows[1]).toHaveFocus();
+    expect(rows[1]).toHaveAttribute('aria-current', 'true');
+    await user.keyboard('{ArrowDown}');
+    expect(rows[2]).toHaveFocus();
+    // At the end it stays put.
+    await user.keyboard('j');
+    expect(rows[2]).toHaveFocus();
+    await user.keyboard('k');
+    expect(rows[1]).toHaveFocus();
+    await user.keyboard('{ArrowUp}{ArrowUp}');
+    expect(rows[0]).toHaveFocus();
+    await user.keyboard('j');
+    expect(screen.getByText(/^2 of 3: claim LP-2511-AB2-CDEF, In review, 2 days$/)).toBeInTheDocument();
+    await user.keyboard('{Enter}');
+    expect(await screen.findByText(`Opened claim ${item(2).id}`)).toBeInTheDocument();
+  });
+
+  it('shows ageing in words: days in the stage, waiting on whom, since filing, and who has it', async () => {
+    answer = () => page([item(1, { waitingOn: 'contractor', stage: 'needs_info', daysInStage: 1, assignee: { id: 'r1', name: 'Rowan' } })]);
+    renderQueue();
+    const row = await screen.findByRole('link');
+    expect(row).toHaveTextContent('Waiting on installer for 1 day, waiting on the installer · filed 2 days ago · Rowan');
+    expect(row).toHaveTextContent('Needs a person');
+  });
+
+  it('says so when nothing matches', async () => {
+    answer = () => page([]);
+    renderQueue();
+    expect(await screen.findByText('Nothing matches')).toBeInTheDocument();
+    expect(screen.queryByRole('list', { name: 'Claims' })).not.toBeInTheDocument();
+  });
+
+  it('says so when the queue cannot be loaded', async () => {
+    answer = () =>
+      new Response(JSON.stringify({ error: { code: 'internal', message: 'Something went wrong on our side.' } }), {
+        status: 500,
+        headers: { 'Content-Type': 'application/json' },
+      });
+    renderQueue();
+    expect(await screen.findByText('The queue could not be loaded. Try again in a moment.')).toBeInTheDocument();
+  });
+});
