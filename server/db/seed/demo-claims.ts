@@ -37,6 +37,8 @@ const STAGE_ROTATION: ClaimStage[] = [
 ];
 
 /** The moves from filed to each stage (stage machine action names). */
+const maxIso = (a: string, b: string) => (a > b ? a : b);
+
 const PATHS: Record<ClaimStage, ClaimActionName[]> = {
   draft: [],
   filed: ['file'],
@@ -103,7 +105,13 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
     if (!v && stage !== 'draft') continue; // nothing to claim against
 
     const ageDays = Math.max(30, Math.floor((Date.parse(today) - Date.parse(inst.installDate)) / 86_400_000) - 20);
-    const failedOn = addDays(inst.installDate, Math.floor(30 + rand() * (ageDays - 30)));
+    // A claim still waiting on someone failed in the last couple of months (a reviewer's desk holds weeks, not
+    // years); a decided one may be from any time in the fixture's life.
+    const when = rand();
+    const waiting = ['filed', 'in_review', 'needs_info', 'return_requested', 'unit_received'].includes(stage);
+    const failedOn = waiting
+      ? maxIso(addDays(inst.installDate, 30), addDays(today, -(25 + Math.floor(when * 45))))
+      : addDays(inst.installDate, Math.floor(30 + when * (ageDays - 30)));
     const filedOn = addDays(failedOn, 2 + Math.floor(rand() * 12));
     const units = serials.length ? 1 + Math.floor(rand() * Math.min(3, serials.length)) : 1 + Math.floor(rand() * 2);
     const mode = Math.floor(rand() * 6);
