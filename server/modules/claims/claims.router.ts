@@ -40,10 +40,17 @@ export const claimEvidence: EvidenceCounter = async (m, claimId) => {
 };
 
 export async function claimDetail(ctx: AppContext, req: Request, c: LoadedClaim) {
-  const createdBy = c.createdById ? await ctx.ds.getRepository(User).findOne({ where: { id: c.createdById }, select: { id: true, name: true, organizationId: true } }) : null;
+  // Three independent reads, side by side.
+  const [createdBy, history, attachments] = await Promise.all([
+    c.createdById
+      ? ctx.ds.getRepository(User).findOne({ where: { id: c.createdById }, select: { id: true, name: true, organizationId: true } })
+      : null,
+    loadHistory(ctx.ds, 'Claim', c.id, req.user!.organizationId),
+    listAttachments(ctx, { type: 'claim', id: c.id }),
+  ]);
   return presentClaimDetail(c, {
-    history: await loadHistory(ctx.ds, 'Claim', c.id, req.user!.organizationId),
-    attachments: (await listAttachments(ctx, { type: 'claim', id: c.id })).map((a) => presentAttachment(a, `/api/claims/${c.id}/attachments`)),
+    history,
+    attachments: attachments.map((a) => presentAttachment(a, `/api/claims/${c.id}/attachments`)),
     filingIssues: c.stage === 'draft' ? currentFilingIssues(c) : [],
     createdBy: createdBy ? { id: createdBy.id, name: createdBy.organizationId === req.user!.organizationId ? createdBy.name : '' } : null,
   });
