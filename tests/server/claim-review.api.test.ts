@@ -391,6 +391,11 @@ describe('the reviewer’s queue', () => {
     expect(mine.every((i: { verdict: string }) => i.verdict === 'excluded')).toBe(true);
     const found = (await asReviewer.get(`/api/review/queue?q=${encodeURIComponent(a.number!.slice(0, 12))}`)).body.items;
     expect(found.map((i: { id: string }) => i.id)).toContain(a.id);
+    // A whole number as read over the phone (any case, spaces for dashes) is exactly that claim, counted alone.
+    const spoken = a.number!.toLowerCase().replace(/-/g, ' ');
+    const one = (await asReviewer.get(`/api/review/queue?q=${encodeURIComponent(spoken)}`)).body;
+    expect(one.items.map((i: { id: string }) => i.id)).toEqual([a.id]);
+    expect(one.total).toBe(1);
     const old = (await asReviewer.get('/api/review/queue?minAgeDays=10&pageSize=200')).body.items;
     expect(old.map((i: { id: string }) => i.id)).toContain(a.id);
     expect(old.map((i: { id: string }) => i.id)).not.toContain(b.id);

@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import { queueQuerySchema, type QueueItemDto, type QueueQuery, type QueueSummaryDto } from '../../../shared/claims/workflow';
 import type { ClaimStage } from '../../../shared/schemas/claims';
+import { normalizeClaimNumber } from '../../../shared/claims/claim-number';
 import type { AppContext } from '../../context';
 import { Claim } from '../../db/entities/claim.entity';
 import { clock } from '../../lib/clock';
@@ -65,13 +66,18 @@ function where(q: QueueQuery, manufacturerId: string, userId: string) {
   if (q.assignee === 'me') add('c.assigned_reviewer_id = ?', userId);
   else if (q.assignee === 'none') add('c.assigned_reviewer_id IS NULL');
   else if (q.assignee) add('c.assigned_reviewer_id = ?', q.assignee);
-  if (q.q) {
+  const exact = q.q ? normalizeClaimNumber(q.q) : null;
+  if (exact) {
+    // A whole claim number (any case or spacing) is that claim: one look-up on (manufacturer, number).
+    add('c.number = ?', exact);
+  } else if (q.q) {
     // A claim number by prefix (as typed, upper-cased); otherwise the site, the contractor, the model or a serial.
     const like = likeContains(q.q);
     clauses.push("(c.number LIKE ? OR i.site_name LIKE ? OR o.name LIKE ? OR p.model_number LIKE ? OR JSON_SEARCH(c.serials, 'one', ?) IS NOT NULL)");
     params.push(`${q.q.toUpperCase().replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`, like, like, like, q.q);
   }
-  return { sql: clauses.join(' AND '), params };
+  // The count needs the joined tables only for a free-text search.
+  return { sql: clauses.join(' AND '), params, countJoins: Boolean(q.q && !exact) };
 }
 
 export function reviewRouter(ctx: AppContext) {
@@ -82,7 +88,7 @@ export function reviewRouter(ctx: AppContext) {
     authorizeType(req, 'review', 'Claim');
     const q = parseQuery(queueQuerySchema, req);
     const user = req.user!;
-    const { sql, params } = where(q, user.organizationId, user.id);
+    const { sql, params, countJoins } = where(q, user.organizationId, user.id);
     const sort = parseSort(q.sort, SORTS)!;
     const from =
       'FROM claims c JOIN organizations o ON o.id = c.contractor_id JOIN product_models p ON p.id = c.product_model_id ' +
@@ -99,7 +105,7 @@ export function reviewRouter(ctx: AppContext) {
           `ORDER BY ${sort.column} ${sort.direction}, c.id ${sort.direction} LIMIT ? OFFSET ?`,
         [...params, q.pageSize, (q.page - 1) * q.pageSize],
       ) as Promise<Row[]>,
-      ctx.ds.query(`SELECT STRAIGHT_JOIN COUNT(*) AS n ${q.q ? from : 'FROM claims c'} WHERE ${sql}`, params) as Promise<{ n: number | string }[]>,
+      ctx.ds.query(`SELECT STRAIGHT_JOIN COUNT(*) AS n ${countJoins ? from : 'FROM claims c'} WHERE ${sql}`, params) as Promise<{ n: number | string }[]>,
     ]);
     const now = clock.now();
     const days = (d: Date) => Math.max(0, Math.floor((now.getTime() - new Date(d).getTime()) / 86_400_000));
