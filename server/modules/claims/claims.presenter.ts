@@ -1,11 +1,10 @@
 import type { AttachmentDto } from '../../../shared/schemas/attachments';
 import type { ClaimDetailDto, ClaimListItemDto, FilingIssue } from '../../../shared/schemas/claims';
 import type { HistoryEventDto } from '../../../shared/schemas/catalogue';
-import type { Claim } from '../../db/entities/claim.entity';
-import type { LoadedClaim } from './claims.service';
+import type { ClaimListRow, LoadedClaim } from './claims.service';
 import { engineContextOf } from './engine-input';
 
-export function presentClaimListItem(c: Claim): ClaimListItemDto {
+export function presentClaimListItem(c: ClaimListRow): ClaimListItemDto {
   return {
     id: c.id,
     number: c.number,

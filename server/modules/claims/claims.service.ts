@@ -19,6 +19,7 @@ import type { AppDataSource } from '../../db/data-source';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { Claim } from '../../db/entities/claim.entity';
 import type { Installation } from '../../db/entities/installation.entity';
+import type { ProductModel } from '../../db/entities/product-model.entity';
 import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
@@ -44,6 +45,46 @@ const SORTS = {
 
 function refuse(r: Refusal): never {
   throw new AppError(REFUSAL_STATUS[r.code], r.code, r.message, r.details);
+}
+
+/** A claims-list row as the page query returns it (TypeORM's raw aliases: table alias, underscore, column). */
+type RawListRow = {
+  c_id: string; c_number: string | null; c_stage: Claim['stage']; c_waiting_on: Claim['waitingOn'];
+  c_contractor_id: string; c_manufacturer_id: string; c_installation_id: string; c_product_model_id: string;
+  c_serials: string[] | string; c_units: number | null; c_failed_on: Date | string | null; c_filed_at: Date | null;
+  c_stage_changed_at: Date; c_verdict: Claim['verdict']; c_engine_version: string | null; c_expected_credit: string | null;
+  c_currency: string | null; c_created_at: Date; c_updated_at: Date; c_version: number;
+  co_name: string; mo_name: string; p_model_number: string; p_name: string; p_family: ProductModel['family'];
+  i_site_name: string; i_site_city: string;
+};
+
+export type ClaimListRow = Pick<
+  Claim,
+  | 'id' | 'number' | 'stage' | 'waitingOn' | 'contractorId' | 'manufacturerId' | 'installationId' | 'productModelId' | 'serials'
+  | 'units' | 'failedOn' | 'filedAt' | 'stageChangedAt' | 'verdict' | 'engineVersion' | 'expectedCredit' | 'currency'
+  | 'createdAt' | 'updatedAt' | 'version'
+> & {
+  contractor: { name: string };
+  manufacturer: { name: string };
+  productModel: { modelNumber: string; name: string; family: ProductModel['family'] };
+  installation: { siteName: string; siteCity: string };
+};
+
+// A DATE column arrives as a Date at UTC midnight (timezone 'Z'), as the entity's string would read it.
+const dateOnly = (v: Date | string | null) => (v === null ? null : typeof v === 'string' ? v.slice(0, 10) : v.toISOString().slice(0, 10));
+
+function listRowOf(r: RawListRow): ClaimListRow {
+  return {
+    id: r.c_id, number: r.c_number, stage: r.c_stage, waitingOn: r.c_waiting_on, contractorId: r.c_contractor_id,
+    manufacturerId: r.c_manufacturer_id, installationId: r.c_installation_id, productModelId: r.c_product_model_id,
+    serials: typeof r.c_serials === 'string' ? (JSON.parse(r.c_serials) as string[]) : r.c_serials, units: r.c_units,
+    failedOn: dateOnly(r.c_failed_on), filedAt: r.c_filed_at, stageChangedAt: r.c_stage_changed_at, verdict: r.c_verdict,
+    engineVersion: r.c_engine_version, expectedCredit: r.c_expected_credit, currency: r.c_currency, createdAt: r.c_created_at,
+    updatedAt: r.c_updated_at, version: r.c_version,
+    contractor: { name: r.co_name }, manufacturer: { name: r.mo_name },
+    productModel: { modelNumber: r.p_model_number, name: r.p_name, family: r.p_family },
+    installation: { siteName: r.i_site_name, siteCity: r.i_site_city },
+  };
 }
 
 export type LoadedClaim = Claim & {
@@ -285,8 +326,9 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
           );
         }
       }
-      const [items, count] = await Promise.all([qb.getMany(), counter.getRawOne<{ n: string | number }>()]);
-      return { items, total: Number(count?.n ?? 0) };
+      // Raw rows mapped by hand: TypeORM's entity hydration was a third of the list's time in Node.
+      const [rows, count] = await Promise.all([qb.getRawMany<RawListRow>(), counter.getRawOne<{ n: string | number }>()]);
+      return { items: rows.map(listRowOf), total: Number(count?.n ?? 0) };
     },
 
     async create(installation: Installation, fields: ClaimFields, actor: Actor, extra: { batchId?: string; m?: EntityManager } = {}) {
