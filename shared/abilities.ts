@@ -87,6 +87,9 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     // Failure analysis is the reviewers' (and their administrator's); the reserve is the accountants'. Both read
     // only their own manufacturer's record: the server scopes every query to manufacturerId.
     if (has('reviewer') || has('administrator')) can('read', 'Analytics', { manufacturerId: orgId });
+    // The names of the contractors who file with them (the queue's picker); the server lists only those with
+    // claims on this manufacturer.
+    if (has('reviewer') || has('administrator')) can('read', 'Organization', { kind: 'contractor' });
     if (has('accountant') || has('administrator')) can(['read', 'export'], 'Reserve', { manufacturerId: orgId });
     if (has('accountant')) {
       can('credit', 'Claim', { manufacturerId: orgId });

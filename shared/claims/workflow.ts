@@ -99,6 +99,21 @@ export const queueQuerySchema = listQuerySchema.extend({
 });
 export type QueueQuery = z.infer<typeof queueQuerySchema>;
 
+/** GET /api/review/contractors: the contractors with claims on this manufacturer, for the queue's picker. */
+export const reviewContractorsQuerySchema = z.strictObject({
+  q: z.string().trim().max(120).optional(),
+});
+export type ReviewContractorsQuery = z.infer<typeof reviewContractorsQuerySchema>;
+
+/** GET /api/review/reviewers: takes no filters; any parameter is refused rather than ignored. */
+export const reviewReviewersQuerySchema = z.strictObject({});
+
+/** A name in one of the desk's pickers: a contractor, or a reviewer of the same manufacturer. */
+export type DeskOptionDto = { id: string; name: string };
+
+/** The most names a picker answer carries; the contractors' one says when there were more. */
+export const DESK_OPTIONS_LIMIT = 500;
+
 export const assignClaimSchema = z.strictObject({
   /** The reviewer to own the claim; null gives it back to the queue. */
   assigneeId: uuid.nullable(),

@@ -42,7 +42,7 @@ function workflow(stage: Stage, ev: Evaluation): ClaimWorkflowDto {
 }
 
 let sent: { url: string; init: RequestInit }[];
-let reply: () => Response;
+let reply: (url: string) => Response;
 beforeEach(() => {
   sent = [];
   reply = () => new Response(JSON.stringify({ claim: { id: CLAIM_ID, stage: 'approved', version: 4 } }), { status: 200, headers: { 'Content-Type': 'application/json' } });
@@ -50,7 +50,7 @@ beforeEach(() => {
     'fetch',
     vi.fn(async (url: string, init: RequestInit) => {
       sent.push({ url, init });
-      return reply();
+      return reply(url);
     }),
   );
 });
@@ -176,7 +176,7 @@ describe('taking a claim', () => {
   function renderAssignment(assignee: { id: string; name: string } | null) {
     const wf = workflow('in_review', evaluation('review'));
     wf.claim.assignee = assignee;
-    const client = new QueryClient({ defaultOptions: { mutations: { retry: false } } });
+    const client = new QueryClient({ defaultOptions: { queries: { retry: false }, mutations: { retry: false } } });
     return render(
       <QueryClientProvider client={client}>
         <Assignment wf={wf} meId="u1" />
@@ -207,5 +207,66 @@ describe('taking a claim', () => {
     renderAssignment({ id: 'u9', name: 'Sasha' });
     expect(group().getByText('Assigned to Sasha')).toBeInTheDocument();
     expect(group().getByRole('button', { name: 'Assign to me' })).toBeInTheDocument();
+  });
+
+  const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
+  const TEAM = [
+    { id: 'u1', name: 'Rowan' },
+    { id: 'u7', name: 'Noor' },
+    { id: 'u9', name: 'Sasha' },
+  ];
+  const posts = () => sent.filter((s) => s.init?.method === 'POST');
+
+  it('hands the claim to a colleague chosen from the team’s active reviewers, with the claim’s version', async () => {
+    const user = userEvent.setup();
+    reply = (url) => (url === '/api/review/reviewers' ? json({ items: TEAM }) : json({ claim: { id: CLAIM_ID, version: 4 } }));
+    renderAssignment({ id: 'u9', name: 'Sasha' });
+    // The list is asked for only when wanted.
+    expect(sent).toHaveLength(0);
+    await user.click(group().getByRole('button', { name: 'Hand to a colleague' }));
+    const picker = await group().findByRole('combobox', { name: 'Colleague' });
+    await group().findByRole('option', { name: 'Noor' });
+    expect(sent[0].url).toBe('/api/review/reviewers');
+    // Neither oneself (that is "Assign to me") nor whoever has it now.
+    expect(within(picker).getAllByRole('option').map((o) => o.textContent)).toEqual(['Choose a reviewer', 'Noor']);
+    // Nothing chosen: said so, and nothing sent.
+    await user.click(group().getByRole('button', { name: 'Hand over' }));
+    expect(group().getByText('Choose a colleague to hand the claim to.')).toBeInTheDocument();
+    expect(posts()).toHaveLength(0);
+    await user.selectOptions(picker, 'Noor');
+    await user.click(group().getByRole('button', { name: 'Hand over' }));
+    expect(posts()).toHaveLength(1);
+    expect(posts()[0].url).toBe(`/api/claims/${CLAIM_ID}/assign`);
+    expect(JSON.parse(String(posts()[0].init.body))).toEqual({ assigneeId: 'u7' });
+    expect((posts()[0].init.headers as Record<string, string>)['If-Match']).toBe('"3"');
+    // Done: the form closes.
+    expect(await group().findByRole('button', { name: 'Hand to a colleague' })).toBeInTheDocument();
+  });
+
+  it('says plainly when someone changed the claim first (409), and offers to reload it', async () => {
+    const user = userEvent.setup();
+    const message = 'Someone else moved this claim just now. Reload it to see what changed, then try again.';
+    reply = (url) => (url === '/api/review/reviewers' ? json({ items: TEAM }) : json({ error: { code: 'claim.changed', message } }, 409));
+    renderAssignment(null);
+    await user.click(group().getByRole('button', { name: 'Hand to a colleague' }));
+    await user.selectOptions(await group().findByRole('combobox', { name: 'Colleague' }), await group().findByRole('option', { name: 'Sasha' }));
+    await user.click(group().getByRole('button', { name: 'Hand over' }));
+    expect(await group().findByRole('alert')).toHaveTextContent(message);
+    await user.click(group().getByRole('button', { name: 'Reload the claim' }));
+    expect(group().queryByRole('alert')).not.toBeInTheDocument();
+  });
+
+  it('says when there is nobody else to hand it to, or the team could not be loaded', async () => {
+    const user = userEvent.setup();
+    reply = () => json({ items: [{ id: 'u1', name: 'Rowan' }] });
+    const { unmount } = renderAssignment(null);
+    await user.click(group().getByRole('button', { name: 'Hand to a colleague' }));
+    expect(await group().findByText('No other active reviewer on your team.')).toBeInTheDocument();
+    expect(group().getByRole('button', { name: 'Hand over' })).toBeDisabled();
+    unmount();
+    reply = () => json({ error: { code: 'internal', message: 'Something went wrong on our side.' } }, 500);
+    renderAssignment(null);
+    await user.click(group().getByRole('button', { name: 'Hand to a colleague' }));
+    expect(await group().findByText('The list of reviewers could not be loaded. Try again in a moment.')).toBeInTheDocument();
   });
 });

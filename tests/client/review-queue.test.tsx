@@ -32,8 +32,16 @@ const item = (n: number, extra: Partial<QueueItemDto> = {}): QueueItemDto => ({
   ...extra,
 });
 
+const PRODUCT_ID = '00000000-0000-4000-8000-0000000000a1';
+const CONTRACTOR_ID = '00000000-0000-4000-8000-0000000000c1';
+const MANUFACTURER_ID = '00000000-0000-4000-8000-0000000000f1';
+
 let answer: (url: URL) => Response;
+/** The queue's requests; the pickers' lists are answered from `lists` and recorded in `looked`. */
 const asked: URL[] = [];
+const looked: URL[] = [];
+const json = (body: unknown) => new Response(JSON.stringify(body), { status: 200, headers: { 'Content-Type': 'application/json' } });
+let lists: Record<string, () => Response>;
 const page = (items: QueueItemDto[]) =>
   new Response(JSON.stringify({ items, total: items.length, page: 1, pageSize: 25 }), {
     status: 200,
@@ -42,11 +50,37 @@ const page = (items: QueueItemDto[]) =>
 
 beforeEach(() => {
   asked.length = 0;
+  looked.length = 0;
   answer = () => page([item(1), item(2), item(3)]);
+  lists = {
+    '/api/products': () =>
+      json({
+        items: [
+          { id: PRODUCT_ID, modelNumber: 'TW-HB150', name: 'High-bay 150 W' },
+          { id: '00000000-0000-4000-8000-0000000000a2', modelNumber: 'TW-WP40', name: 'Wall pack 40 W' },
+        ],
+        total: 2,
+        page: 1,
+        pageSize: 200,
+      }),
+    '/api/review/contractors': () =>
+      json({
+        items: [
+          { id: CONTRACTOR_ID, name: 'Tidewater Electric' },
+          { id: '00000000-0000-4000-8000-0000000000c2', name: 'Harbourline Wiring' },
+        ],
+        more: false,
+      }),
+  };
   vi.stubGlobal(
     'fetch',
     vi.fn(async (input: string) => {
       const url = new URL(input, 'http://lumenproof.test');
+      const list = lists[url.pathname];
+      if (list) {
+        looked.push(url);
+        return list();
+      }
       asked.push(url);
       return answer(url);
     }),
@@ -64,7 +98,7 @@ function renderQueue() {
     <QueryClientProvider client={client}>
       <MemoryRouter initialEntries={['/review']}>
         <Routes>
-          <Route path="/review" element={<ReviewQueue />} />
+          <Route path="/review" element={<ReviewQueue manufacturerId={MANUFACTURER_ID} />} />
           <Route path="/review/:id" element={<Opened />} />
         </Routes>
       </MemoryRouter>
@@ -111,6 +145,44 @@ describe('the review queue', () => {
     await user.selectOptions(screen.getByLabelText('Stage'), '');
     await waitFor(() => expect(lastQuery().has('verdict')).toBe(false));
     expect(lastQuery().has('stage')).toBe(false);
+  });
+
+  it('filters by one of the manufacturer’s product models and by a contractor that files with it', async () => {
+    const user = userEvent.setup();
+    renderQueue();
+    await screen.findByRole('list', { name: 'Claims' });
+    // The products are the manufacturer's own, in one page the size of the picker.
+    const products = looked.find((u) => u.pathname === '/api/products')!;
+    expect(Object.fromEntries(products.searchParams)).toEqual({ manufacturerId: MANUFACTURER_ID, pageSize: '200', sort: 'modelNumber' });
+    expect(looked.some((u) => u.pathname === '/api/review/contractors')).toBe(true);
+
+    const product = screen.getByLabelText('Product');
+    await screen.findByRole('option', { name: 'TW-HB150 · High-bay 150 W' });
+    await user.selectOptions(product, 'TW-HB150 · High-bay 150 W');
+    await waitFor(() => expect(lastQuery().get('productModelId')).toBe(PRODUCT_ID));
+    expect(lastQuery().get('page')).toBe('1');
+
+    const contractor = screen.getByLabelText('Contractor');
+    await screen.findByRole('option', { name: 'Tidewater Electric' });
+    await user.selectOptions(contractor, 'Tidewater Electric');
+    await waitFor(() => expect(lastQuery().get('contractorId')).toBe(CONTRACTOR_ID));
+    // Both apply together, and "Any" leaves each out again.
+    expect(lastQuery().get('productModelId')).toBe(PRODUCT_ID);
+    await user.selectOptions(product, 'Any product');
+    await waitFor(() => expect(lastQuery().has('productModelId')).toBe(false));
+    expect(lastQuery().get('contractorId')).toBe(CONTRACTOR_ID);
+    await user.selectOptions(contractor, 'Any contractor');
+    await waitFor(() => expect(lastQuery().has('contractorId')).toBe(false));
+  });
+
+  it('says when a picker could not be loaded or holds only part of the list; the queue still works', async () => {
+    lists['/api/products'] = () => new Response(JSON.stringify({ error: { code: 'internal', message: 'Something went wrong on our side.' } }), { status: 500, headers: { 'Content-Type': 'application/json' } });
+    lists['/api/review/contractors'] = () => json({ items: [{ id: CONTRACTOR_ID, name: 'Tidewater Electric' }], more: true });
+    renderQueue();
+    await screen.findByRole('list', { name: 'Claims' });
+    expect(await screen.findByText('The product list could not be loaded.')).toBeInTheDocument();
+    expect(await screen.findByText('Only the first 1 contractors by name are listed; search finds the others.')).toBeInTheDocument();
+    expect(screen.getByLabelText('Product')).toHaveAccessibleDescription('The product list could not be loaded.');
   });
 
   it('moves with j / k and the arrow keys, says where it is, and opens the claim with Enter', async () => {

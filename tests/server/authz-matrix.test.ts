@@ -585,6 +585,10 @@ const ROUTES: Record<string, Entry> = {
   },
   'GET /api/review/queue': { ok: REVIEWER },
   'GET /api/review/summary': { ok: REVIEWER },
+  // The desk's pickers: contractors that file with the manufacturer (its reviewers and administrators), and the
+  // reviewers a claim can be handed to (those who may assign).
+  'GET /api/review/contractors': { ok: members(['reviewer', 'mAdmin'], 200) },
+  'GET /api/review/reviewers': { ok: REVIEWER },
 
   // Credits: one memo per approved claim, by the manufacturer's accountant, with an Idempotency-Key.
   'POST /api/claims/:id/credits': {

@@ -1,16 +1,27 @@
 import { Router } from 'express';
-import { queueQuerySchema, type QueueItemDto, type QueueQuery, type QueueSummaryDto } from '../../../shared/claims/workflow';
+import {
+  DESK_OPTIONS_LIMIT,
+  queueQuerySchema,
+  reviewContractorsQuerySchema,
+  reviewReviewersQuerySchema,
+  type QueueItemDto,
+  type QueueQuery,
+  type QueueSummaryDto,
+} from '../../../shared/claims/workflow';
 import type { ClaimStage } from '../../../shared/schemas/claims';
 import { normalizeClaimNumber } from '../../../shared/claims/claim-number';
 import type { AppContext } from '../../context';
 import { Claim } from '../../db/entities/claim.entity';
+import { User } from '../../db/entities/user.entity';
 import { clock } from '../../lib/clock';
 import { likeContains, pageOf, parseSort } from '../../lib/pagination';
-import { authorizeType, requireUser } from '../../middleware/auth';
+import { authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
 import { parseQuery } from '../../middleware/validate';
+import { presentDeskOption } from './review.presenter';
 
 // The reviewer's desk: GET /api/review/queue (the manufacturer's claims with the reviewer's filters, sorted,
-// paged: two queries a page, whatever the page size) and GET /api/review/summary (counts for the home panel).
+// paged: two queries a page, whatever the page size), GET /api/review/summary (counts for the home panel), and
+// the names behind the desk's pickers: GET /api/review/contractors and GET /api/review/reviewers.
 // Every filter leads with manufacturer_id, and each has an index that starts (manufacturer_id, <filter>, …).
 
 const SORTS: Record<string, string> = {
@@ -157,6 +168,40 @@ export function reviewRouter(ctx: AppContext) {
       oldestWaitingDays: oldest?.at ? Math.max(0, Math.floor((clock.nowMs() - new Date(oldest.at).getTime()) / 86_400_000)) : null,
     };
     res.json(summary);
+  });
+
+  // The contractors with filed claims on this manufacturer (the queue's contractor filter). The subquery walks
+  // ix_claims_mfr_contractor; one row more than the limit says whether the list was cut.
+  r.get('/contractors', async (req, res) => {
+    const q = parseQuery(reviewContractorsQuerySchema, req);
+    authorizeNew(req, 'read', 'Organization', { kind: 'contractor' });
+    const params: unknown[] = [req.user!.organizationId];
+    let filter = '';
+    if (q.q) {
+      filter = ' AND o.name LIKE ?';
+      params.push(likeContains(q.q));
+    }
+    const rows = (await ctx.ds.query(
+      "SELECT o.id, o.name FROM organizations o WHERE o.kind = 'contractor' AND o.id IN " +
+        "(SELECT c.contractor_id FROM claims c WHERE c.manufacturer_id = ? AND c.stage <> 'draft')" +
+        `${filter} ORDER BY o.name, o.id LIMIT ?`,
+      [...params, DESK_OPTIONS_LIMIT + 1],
+    )) as { id: string; name: string }[];
+    res.json({ items: rows.slice(0, DESK_OPTIONS_LIMIT).map(presentDeskOption), more: rows.length > DESK_OPTIONS_LIMIT });
+  });
+
+  // The active reviewers of the signed-in reviewer's own manufacturer: whom a claim can be handed to. The people
+  // list is the administrators'; this names only id and name, and only to those who may assign.
+  r.get('/reviewers', async (req, res) => {
+    parseQuery(reviewReviewersQuerySchema, req);
+    authorizeType(req, 'review', 'Claim');
+    const active = await ctx.ds.getRepository(User).find({
+      where: { organizationId: req.user!.organizationId, status: 'active' },
+      select: { id: true, name: true, roles: true },
+      order: { name: 'ASC', id: 'ASC' },
+    });
+    const reviewers = active.filter((u) => u.roles.includes('reviewer'));
+    res.json({ items: reviewers.map(presentDeskOption) });
   });
 
   return r;

@@ -1,4 +1,4 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent, type ReactNode } from 'react';
 import { DENIAL_CODE_LABELS, DENIAL_CODES, RESOLUTION_LABELS, RESOLUTIONS, type DenialCode, type Resolution } from '../../../../shared/claims/actions.schema';
 import { overrideReasonsFor, STAGE_LABELS, type ClaimActionName } from '../../../../shared/claims/stages';
@@ -10,6 +10,7 @@ import { Card, CardHeader } from '../../../components/ui/card';
 import { InputField, SelectField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
 import { assignClaim, performClaimAction } from '../api/perform-claim-action';
+import { reviewQueries } from '../api/review-queries';
 import { uploadConversationFile } from '../api/upload-conversation-file';
 
 // The workflow around one claim, for both sides: the thread, returns, the decision and its letter, and the
@@ -229,20 +230,41 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
   );
 }
 
-/** Who on the manufacturer's team has the claim: take it, or give it back to the queue (not a stage move). */
+/**
+ * Who on the manufacturer's team has the claim: take it, give it back to the queue, or hand it to a colleague
+ * (not a stage move). Every change carries the version on screen; a 409 says someone changed the claim first.
+ */
 export function Assignment({ wf, meId }: { wf: ClaimWorkflowDto; meId: string }) {
   const qc = useQueryClient();
   const [error, setError] = useState<ApiError | null>(null);
+  const [handing, setHanding] = useState(false);
+  const [colleague, setColleague] = useState('');
+  const [pickError, setPickError] = useState<string | undefined>();
+  const reviewers = useQuery({ ...reviewQueries.reviewers(), enabled: handing });
+  const reload = () => {
+    setError(null);
+    return qc.invalidateQueries({ queryKey: ['claims'] });
+  };
   const m = useMutation({
     mutationFn: (assigneeId: string | null) => assignClaim(wf.claim.id, assigneeId, wf.claim.version),
     onSuccess: () => {
-      setError(null);
-      return qc.invalidateQueries({ queryKey: ['claims'] });
+      setHanding(false);
+      setColleague('');
+      return reload();
     },
     onError: (e) => setError(e instanceof ApiError ? e : new ApiError(0, 'unknown', 'Something went wrong.')),
   });
   if (['draft', 'closed', 'withdrawn'].includes(wf.claim.stage)) return null;
   const who = wf.claim.assignee;
+  const others = (reviewers.data?.items ?? []).filter((r) => r.id !== meId && r.id !== who?.id);
+
+  function hand(e: FormEvent) {
+    e.preventDefault();
+    if (!colleague) return setPickError('Choose a colleague to hand the claim to.');
+    setPickError(undefined);
+    m.mutate(colleague);
+  }
+
   return (
     <div className="space-y-2" role="group" aria-label="Assignment">
       <p className="text-sm text-ink-700">{who ? (who.id === meId ? 'Assigned to you' : `Assigned to ${who.name}`) : 'Not assigned to anyone yet'}</p>
@@ -257,8 +279,59 @@ export function Assignment({ wf, meId }: { wf: ClaimWorkflowDto; meId: string })
             Give back to the queue
           </Button>
         ) : null}
+        {!handing ? (
+          <Button variant="secondary" onClick={() => setHanding(true)}>
+            Hand to a colleague
+          </Button>
+        ) : null}
       </div>
+      {handing ? (
+        <form className="space-y-2" aria-label="Hand to a colleague" onSubmit={hand}>
+          <SelectField
+            label="Colleague"
+            value={colleague}
+            error={pickError}
+            hint={
+              reviewers.isPending
+                ? 'Loading your team’s reviewers…'
+                : reviewers.isError
+                  ? 'The list of reviewers could not be loaded. Try again in a moment.'
+                  : others.length === 0
+                    ? 'No other active reviewer on your team.'
+                    : 'Active reviewers of your team. They get an e-mail saying the claim is theirs.'
+            }
+            onChange={(e) => setColleague(e.target.value)}
+          >
+            <option value="">Choose a reviewer</option>
+            {others.map((r) => (
+              <option key={r.id} value={r.id}>
+                {r.name}
+              </option>
+            ))}
+          </SelectField>
+          <div className="flex flex-wrap gap-2">
+            <Button type="submit" loading={m.isPending} disabled={others.length === 0}>
+              Hand over
+            </Button>
+            <Button
+              variant="ghost"
+              onClick={() => {
+                setHanding(false);
+                setColleague('');
+                setPickError(undefined);
+              }}
+            >
+              Cancel
+            </Button>
+          </div>
+        </form>
+      ) : null}
       <ErrorText error={error} />
+      {error?.status === 409 ? (
+        <Button variant="secondary" onClick={reload}>
+          Reload the claim
+        </Button>
+      ) : null}
     </div>
   );
 }

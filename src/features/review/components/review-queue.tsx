@@ -11,7 +11,7 @@ import { InputField, SelectField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { Pagination } from '../../../components/ui/table';
 import { cn } from '../../../lib/cn';
-import { reviewQueries, type QueueFilters } from '../api/review-queries';
+import { PRODUCT_PICKER_LIMIT, reviewQueries, type QueueFilters } from '../api/review-queries';
 
 const VERDICT: Record<string, { label: string; tone: Tone }> = {
   covered: { label: 'Likely covered', tone: 'ok' },
@@ -44,8 +44,48 @@ function TypedFilter({ label, inputMode, pattern, hint, onValue }: { label: stri
   );
 }
 
+type PickerProps = { value: string; onValue: (v: string | undefined) => void };
+
+/** A filter chosen from a list the server gives; the first option (empty) leaves the filter out. */
+function ListPicker({ label, anyLabel, options, hint, value, onValue }: PickerProps & { label: string; anyLabel: string; options: { id: string; label: string }[]; hint?: string }) {
+  return (
+    <SelectField label={label} value={value} hint={hint} onChange={(e) => onValue(e.target.value || undefined)}>
+      <option value="">{anyLabel}</option>
+      {options.map((o) => (
+        <option key={o.id} value={o.id}>
+          {o.label}
+        </option>
+      ))}
+    </SelectField>
+  );
+}
+
+/** The product filter: the manufacturer's own models, by model number. */
+function ProductPicker({ manufacturerId, ...pick }: PickerProps & { manufacturerId: string }) {
+  const { data, isError } = useQuery(reviewQueries.products(manufacturerId));
+  const hint = isError
+    ? 'The product list could not be loaded.'
+    : data && data.total > data.items.length
+      ? `The first ${PRODUCT_PICKER_LIMIT} models by model number; search finds the others.`
+      : undefined;
+  const options = (data?.items ?? []).map((p) => ({ id: p.id, label: `${p.modelNumber} · ${p.name}` }));
+  return <ListPicker label="Product" anyLabel="Any product" options={options} hint={hint} {...pick} />;
+}
+
+/** The contractor filter: the contractors who have filed claims on this manufacturer's products. */
+function ContractorPicker(pick: PickerProps) {
+  const { data, isError } = useQuery(reviewQueries.contractors());
+  const hint = isError
+    ? 'The contractor list could not be loaded.'
+    : data?.more
+      ? `Only the first ${data.items.length} contractors by name are listed; search finds the others.`
+      : undefined;
+  const options = (data?.items ?? []).map((c) => ({ id: c.id, label: c.name }));
+  return <ListPicker label="Contractor" anyLabel="Any contractor" options={options} hint={hint} {...pick} />;
+}
+
 /** The reviewer's queue: filters, a keyboard-driven list (j/k or arrows, Enter opens), ageing in plain words. */
-export function ReviewQueue() {
+export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
   const [filters, setFilters] = useState<QueueFilters>({ stage: 'filed,in_review,unit_received,return_requested,needs_info', sort: 'stageChangedAt' });
   const { data, isPending, isError } = useQuery(reviewQueries.queue(filters));
   const [active, setActive] = useState(0);
@@ -103,6 +143,8 @@ export function ReviewQueue() {
           <option value="me">Me</option>
           <option value="none">Nobody yet</option>
         </SelectField>
+        <ProductPicker manufacturerId={manufacturerId} value={filters.productModelId ?? ''} onValue={(v) => set({ productModelId: v })} />
+        <ContractorPicker value={filters.contractorId ?? ''} onValue={(v) => set({ contractorId: v })} />
         <TypedFilter label="Filed at least (days ago)" inputMode="numeric" pattern={DAYS} hint="Whole days, 0 to 3650." onValue={(v) => set({ minAgeDays: v === undefined ? undefined : Number(v) })} />
         <TypedFilter label="Amount at least" inputMode="decimal" pattern={MONEY} hint="An amount like 96.00." onValue={(v) => set({ minAmount: v })} />
         <SelectField label="Sort" value={filters.sort ?? 'stageChangedAt'} onChange={(e) => set({ sort: e.target.value })}>
