@@ -32,7 +32,10 @@ export default defineConfig({
     },
   },
   projects: [
-    { name: 'desktop', use: { ...devices['Desktop Chrome'], channel: undefined, viewport: { width: 1280, height: 800 } } },
+    {
+      name: 'desktop',
+      use: { ...devices['Desktop Chrome'], channel: undefined, viewport: { width: 1280, height: 800 } },
+    },
   ],
   webServer: {
     command: 'node_modules/.bin/tsx scripts/e2e-server.ts',

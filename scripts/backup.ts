@@ -6,10 +6,17 @@ import { startLocalDb } from './lib/mariadb';
 
 async function main() {
   const config = loadConfig();
-  const out = path.resolve(process.argv[2] ?? path.join(config.dataDir, 'backups', new Date().toISOString().replace(/[:.]/g, '-')));
-  const url = config.databaseUrl ?? (await startLocalDb({ dataDir: config.dataDir, profile: 'demo', port: config.dbPort, log: () => {} })).url;
+  const out = path.resolve(
+    process.argv[2] ?? path.join(config.dataDir, 'backups', new Date().toISOString().replace(/[:.]/g, '-')),
+  );
+  const url =
+    config.databaseUrl ??
+    (await startLocalDb({ dataDir: config.dataDir, profile: 'demo', port: config.dbPort, log: () => {} }))
+      .url;
   const manifest = await backup({ url, storageDir: config.storage.dir, outDir: out });
-  console.log(`Backup written to ${out}: ${Object.keys(manifest.tables).length} tables, ${Object.keys(manifest.files).length} files.`);
+  console.log(
+    `Backup written to ${out}: ${Object.keys(manifest.tables).length} tables, ${Object.keys(manifest.files).length} files.`,
+  );
 }
 
 main().catch((err) => {

@@ -7,6 +7,11 @@ import { listRoutes } from '../server/lib/routes';
 
 const config = loadConfig({ ...process.env, LOG_LEVEL: 'silent' });
 const url = 'mysql://nobody:x@127.0.0.1:1/none';
-const app = createApp({ config, ds: createDataSource(url), logger: createLogger('silent'), databaseUrl: url });
+const app = createApp({
+  config,
+  ds: createDataSource(url),
+  logger: createLogger('silent'),
+  databaseUrl: url,
+});
 for (const r of listRoutes(app)) console.log(`${r.method.padEnd(6)} ${r.path}`);
 void app.close().finally(() => process.exit(0));

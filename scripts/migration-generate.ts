@@ -17,7 +17,12 @@ const dir = path.resolve('server/db/migrations');
 
 async function main() {
   const config = loadConfig();
-  const db = await startLocalDb({ dataDir: config.dataDir, profile: 'test', port: config.dbPort + 1, log: () => {} });
+  const db = await startLocalDb({
+    dataDir: config.dataDir,
+    profile: 'test',
+    port: config.dbPort + 1,
+    log: () => {},
+  });
   await resetDatabase(db);
   const ds = createDataSource(db.url);
   await ds.initialize();

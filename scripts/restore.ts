@@ -21,7 +21,12 @@ async function main() {
   let stop = async () => {};
   const storageDir = path.join(config.dataDir, 'restore', 'uploads');
   if (!url) {
-    const db = await startLocalDb({ dataDir: config.dataDir, profile: 'restore', port: config.dbPort + 3, log: () => {} });
+    const db = await startLocalDb({
+      dataDir: config.dataDir,
+      profile: 'restore',
+      port: config.dbPort + 3,
+      log: () => {},
+    });
     await resetDatabase(db);
     url = db.url;
     stop = db.stop;
@@ -36,7 +41,12 @@ async function main() {
   const ds = createDataSource(url, { poolSize: 1 });
   await ds.initialize();
   const pending = await ds.showMigrations();
-  const app = createApp({ config: { ...config, mode: 'production' }, ds, logger: createLogger('silent'), databaseUrl: url });
+  const app = createApp({
+    config: { ...config, mode: 'production' },
+    ds,
+    logger: createLogger('silent'),
+    databaseUrl: url,
+  });
   const server = app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
   const port = (server.address() as { port: number }).port;
@@ -46,7 +56,9 @@ async function main() {
   await ds.destroy();
   await stop();
   const ok = report.ok && !pending && health.ok === true;
-  console.log(ok ? 'Restore proven: checksums, files and smoke test all good.' : 'Restore FAILED its checks.');
+  console.log(
+    ok ? 'Restore proven: checksums, files and smoke test all good.' : 'Restore FAILED its checks.',
+  );
   process.exit(ok ? 0 : 1);
 }
 

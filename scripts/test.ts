@@ -1,4 +1,4 @@
-// npm test: lint, typecheck, unit and component tests, API tests against the real test database, then the
+// npm test: lint, formatting (Prettier), typecheck, unit and component tests, API tests against the real test database, then the
 // browser tests in Debian's Chromium on the freshly built client. Stops at the first failing step and exits
 // non-zero; prints one closing line "Tests: N passed, N failed".
 import { execFileSync, spawnSync } from 'node:child_process';
@@ -16,14 +16,18 @@ function step(title: string, cmd: string, args: string[], env: NodeJS.ProcessEnv
   console.log(`\n=== ${title} ===`);
   const started = Date.now();
   const r = spawnSync(cmd, args, { stdio: 'inherit', env: { ...process.env, ...env } });
-  console.log(`--- ${title}: ${r.status === 0 ? 'ok' : 'FAILED'} in ${((Date.now() - started) / 1000).toFixed(1)} s`);
+  console.log(
+    `--- ${title}: ${r.status === 0 ? 'ok' : 'FAILED'} in ${((Date.now() - started) / 1000).toFixed(1)} s`,
+  );
   return r.status === 0;
 }
 
 function ensureChromium() {
   if (fs.existsSync('/usr/bin/chromium')) return;
   if (process.getuid?.() !== 0) {
-    throw new Error('Chromium is missing. Install it with:\n  sudo apt-get install -y chromium\nthen run npm test again.');
+    throw new Error(
+      'Chromium is missing. Install it with:\n  sudo apt-get install -y chromium\nthen run npm test again.',
+    );
   }
   console.log("Chromium not found; installing Debian's package with apt-get...");
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
@@ -52,7 +56,9 @@ function countPlaywright(file: string) {
 }
 
 function finish(ok: boolean): never {
-  console.log(`\nTests: ${results.passed} passed, ${results.failed} failed${results.skipped ? `, ${results.skipped} skipped` : ''}`);
+  console.log(
+    `\nTests: ${results.passed} passed, ${results.failed} failed${results.skipped ? `, ${results.skipped} skipped` : ''}`,
+  );
   process.exit(ok ? 0 : 1);
 }
 
@@ -70,6 +76,7 @@ fs.rmSync(vitestJson, { force: true });
 fs.rmSync(playwrightJson, { force: true });
 
 if (!step('lint', bin('eslint'), ['.', '--max-warnings=0'])) finish(false);
+if (!step('format', bin('prettier'), ['--check', '--log-level=warn', '.'])) finish(false);
 if (!step('typecheck', bin('tsc'), ['--noEmit', '-p', 'tsconfig.json'])) finish(false);
 const unitOk = step('unit, component and API tests (vitest)', bin('vitest'), [
   'run',
@@ -82,8 +89,13 @@ if (!unitOk) finish(false);
 
 console.log('\n=== build the client ===');
 buildClientIfNeeded(console.log, true);
-const browserOk = step('browser tests (Playwright in Debian Chromium)', bin('playwright'), ['test', '--reporter=list,json'], {
-  PLAYWRIGHT_JSON_OUTPUT_NAME: playwrightJson,
-});
+const browserOk = step(
+  'browser tests (Playwright in Debian Chromium)',
+  bin('playwright'),
+  ['test', '--reporter=list,json'],
+  {
+    PLAYWRIGHT_JSON_OUTPUT_NAME: playwrightJson,
+  },
+);
 countPlaywright(playwrightJson);
 finish(browserOk);

@@ -135,7 +135,9 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/reserve', reserveRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
-  api.use((req, _res, next) => next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)));
+  api.use((req, _res, next) =>
+    next(new AppError(404, 'route.not_found', `No route ${req.method} ${req.baseUrl}${req.path}.`)),
+  );
   app.use('/api', api);
 
   const clientDir = opts.clientDir;

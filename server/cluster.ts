@@ -39,7 +39,8 @@ export async function startCluster(opts: {
         live.delete(w);
         if (stopping) return;
         // One that never started (bad configuration, port taken) is an error, not something to retry forever.
-        if (!listening) return reject(new Error(`worker ${index} exited (${signal ?? code}) before it listened`));
+        if (!listening)
+          return reject(new Error(`worker ${index} exited (${signal ?? code}) before it listened`));
         log(`Worker ${index} stopped (${signal ?? code}); starting another.`);
         void fork(index).catch((err: Error) => log(err.message));
       });

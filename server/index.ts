@@ -14,7 +14,8 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
   const ds = createDataSource(databaseUrl);
   await ds.initialize();
   const pending = await ds.showMigrations();
-  if (pending) throw new Error('The database has migrations still to run: run `npm run migrate` (npm start does it).');
+  if (pending)
+    throw new Error('The database has migrations still to run: run `npm run migrate` (npm start does it).');
   const storage = createStorage(config);
   const app = createApp({ config, ds, logger, databaseUrl, clientDir: path.resolve('dist'), storage });
   // E-mail attachments (letters, packing slips) are read from the same storage the documents were written to.
@@ -50,11 +51,16 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
 if (import.meta.url === `file://${process.argv[1]}`) {
   const config = loadConfig();
   if (!config.databaseUrl) {
-    console.error('DATABASE_URL is required to run server/index.ts directly; `npm start` manages a local database.');
+    console.error(
+      'DATABASE_URL is required to run server/index.ts directly; `npm start` manages a local database.',
+    );
     process.exit(2);
   }
   const databaseUrl = config.databaseUrl;
-  (config.workers > 1 ? startCluster({ count: config.workers, databaseUrl }) : startServer(config, databaseUrl))
+  (config.workers > 1
+    ? startCluster({ count: config.workers, databaseUrl })
+    : startServer(config, databaseUrl)
+  )
     .then((srv) => {
       const stop = () => srv.stop().then(() => process.exit(0));
       process.on('SIGINT', stop);

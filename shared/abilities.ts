@@ -90,7 +90,8 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     // The names of the contractors who file with them (the queue's picker); the server lists only those with
     // claims on this manufacturer.
     if (has('reviewer') || has('administrator')) can('read', 'Organization', { kind: 'contractor' });
-    if (has('accountant') || has('administrator')) can(['read', 'export'], 'Reserve', { manufacturerId: orgId });
+    if (has('accountant') || has('administrator'))
+      can(['read', 'export'], 'Reserve', { manufacturerId: orgId });
     if (has('accountant')) {
       can('credit', 'Claim', { manufacturerId: orgId });
       can(['read', 'create', 'export'], 'CreditMemo', { manufacturerId: orgId });

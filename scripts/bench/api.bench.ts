@@ -99,7 +99,12 @@ async function main() {
     const workers = Number(process.env.BENCH_WORKERS ?? os.availableParallelism());
     if (workers > 1) {
       server = await startServerProcess(bench.url, { workers });
-      await loadRuns(server.base, await signInBench(server.base, benchEmail('m', 0, 'reviewer')), targets, workers);
+      await loadRuns(
+        server.base,
+        await signInBench(server.base, benchEmail('m', 0, 'reviewer')),
+        targets,
+        workers,
+      );
     }
   } finally {
     await server.stop();
@@ -116,12 +121,24 @@ async function loadRuns(base: string, cookie: string, targets: Target[], workers
       ['list', () => tg.listPath],
       ['page', (n: number) => tg.detailPath(tg.ids[n % tg.ids.length])],
     ] as const) {
-      const res = await runLoad({ base, path, headers: { cookie }, connections: CONNECTIONS, seconds: SECONDS });
+      const res = await runLoad({
+        base,
+        path,
+        headers: { cookie },
+        connections: CONNECTIONS,
+        seconds: SECONDS,
+      });
       console.log(
         `${tg.name} ${what}, ${label}, ${CONNECTIONS} connections for ${res.seconds.toFixed(1)} s: ${res.perSecond.toFixed(0)} req/s, p50 ${res.p50.toFixed(1)} ms, p99 ${res.p99.toFixed(1)} ms, ${res.errors} errors of ${res.requests}`,
       );
       const figure = `${tg.name} ${what}, ${label}`;
-      report({ part: 'load', figure: `${figure}, ${CONNECTIONS} connections`, value: res.perSecond, unit: 'req/s', aim: '400 req/s' });
+      report({
+        part: 'load',
+        figure: `${figure}, ${CONNECTIONS} connections`,
+        value: res.perSecond,
+        unit: 'req/s',
+        aim: '400 req/s',
+      });
       report({ part: 'load', figure: `${figure}, p50`, value: res.p50, unit: 'ms' });
       report({ part: 'load', figure: `${figure}, p99`, value: res.p99, unit: 'ms', aim: 'under 100 ms' });
       report({ part: 'load', figure: `${figure}, errors`, value: res.errors, unit: `of ${res.requests}` });

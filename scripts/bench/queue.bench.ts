@@ -77,7 +77,12 @@ async function main() {
     DATA_DIR: '.data/bench',
     OUTBOX_WORKER: 'false',
   });
-  const app = createApp({ config, ds: bench.ds, logger: createLogger(process.env.BENCH_LOG ?? 'silent'), databaseUrl: bench.url });
+  const app = createApp({
+    config,
+    ds: bench.ds,
+    logger: createLogger(process.env.BENCH_LOG ?? 'silent'),
+    databaseUrl: bench.url,
+  });
   const server = app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
   const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
@@ -89,7 +94,9 @@ async function main() {
       "SELECT COUNT(*) AS total FROM claims WHERE manufacturer_id = ? AND stage <> 'draft'",
       [mfr.id],
     )) as { total: string }[];
-    console.log(`${Number(n).toLocaleString()} claims, ${Number(total).toLocaleString()} of them on this reviewer's desk`);
+    console.log(
+      `${Number(n).toLocaleString()} claims, ${Number(total).toLocaleString()} of them on this reviewer's desk`,
+    );
     const cookie = await signInBench(base, benchEmail('m', 0, 'reviewer'));
 
     // What any signed-in request costs here (session from MariaDB, user, abilities): the floor under the queue.
@@ -102,7 +109,12 @@ async function main() {
     }
     const me = median(meMs);
     console.log(`GET /api/auth/me (a signed-in request that reads nothing else): median ${me.toFixed(2)} ms`);
-    report({ part: 'queue', figure: 'signed-in request floor (GET /api/auth/me), median', value: me, unit: 'ms' });
+    report({
+      part: 'queue',
+      figure: 'signed-in request floor (GET /api/auth/me), median',
+      value: me,
+      unit: 'ms',
+    });
 
     for (const tc of cases()) {
       const where = `c.manufacturer_id = ? AND c.stage <> 'draft' AND ${tc.where}`;
@@ -113,7 +125,10 @@ async function main() {
         // The route sends its two queries at once on two connections; by hand, one after the other on one.
         const [rows] = await conn.query(pageSql, params);
         const [count] = await conn.query(countSql, params);
-        return { ids: (rows as { id: string }[]).map((r) => r.id), total: Number((count as { n: string }[])[0].n) };
+        return {
+          ids: (rows as { id: string }[]).map((r) => r.id),
+          total: Number((count as { n: string }[])[0].n),
+        };
       };
       const apiMs: number[] = [];
       const rawMs: number[] = [];
@@ -142,14 +157,39 @@ async function main() {
           `API median ${api.toFixed(2)} ms, raw mysql2 ${rawMedian.toFixed(2)} ms, ${(api / rawMedian).toFixed(2)}x (aim: within 2x)`,
       );
       const [plan] = await conn.query(`EXPLAIN ${pageSql}`, params);
-      for (const p of plan as { table: string; type: string; key: string | null; rows: number; Extra: string }[])
+      for (const p of plan as {
+        table: string;
+        type: string;
+        key: string | null;
+        rows: number;
+        Extra: string;
+      }[])
         console.log(`  plan: ${p.table} ${p.type} key=${p.key ?? '-'} rows=${p.rows} ${p.Extra ?? ''}`);
       const [countPlan] = await conn.query(`EXPLAIN ${countSql}`, params);
-      for (const p of countPlan as { table: string; type: string; key: string | null; rows: number; Extra: string }[])
+      for (const p of countPlan as {
+        table: string;
+        type: string;
+        key: string | null;
+        rows: number;
+        Extra: string;
+      }[])
         console.log(`  count plan: ${p.table} ${p.type} key=${p.key ?? '-'} rows=${p.rows} ${p.Extra ?? ''}`);
-      report({ part: 'queue', figure: `${tc.name}, API median`, value: api, unit: 'ms', baseline: rawMedian, aim: 'within 2x of raw' });
-      report({ part: 'queue', figure: `${tc.name}, raw mysql2 median (same rows)`, value: rawMedian, unit: 'ms' });
-      if (!same) report({ part: 'queue', figure: `${tc.name}: rows differ from the raw query`, value: NaN, unit: '' });
+      report({
+        part: 'queue',
+        figure: `${tc.name}, API median`,
+        value: api,
+        unit: 'ms',
+        baseline: rawMedian,
+        aim: 'within 2x of raw',
+      });
+      report({
+        part: 'queue',
+        figure: `${tc.name}, raw mysql2 median (same rows)`,
+        value: rawMedian,
+        unit: 'ms',
+      });
+      if (!same)
+        report({ part: 'queue', figure: `${tc.name}: rows differ from the raw query`, value: NaN, unit: '' });
     }
   } finally {
     await new Promise((r) => server.close(r));

@@ -20,7 +20,12 @@ const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.len
 
 async function main() {
   const config = loadConfig();
-  const db = await startLocalDb({ dataDir: config.dataDir, profile: 'test', port: config.dbPort + 1, log: () => {} });
+  const db = await startLocalDb({
+    dataDir: config.dataDir,
+    profile: 'test',
+    port: config.dbPort + 1,
+    log: () => {},
+  });
   const scratch = fs.mkdtempSync(path.join(os.tmpdir(), 'lumenproof-seed-'));
   const times = { without: [] as number[], with: [] as number[] };
   try {
@@ -36,7 +41,9 @@ async function main() {
         const s = (performance.now() - t0) / 1000;
         (photos ? times.with : times.without).push(s);
         const [{ n }] = (await ds.query('SELECT COUNT(*) AS n FROM attachments')) as { n: string }[];
-        console.log(`round ${round + 1}: seed ${photos ? 'with photos   ' : 'without photos'} ${s.toFixed(2)} s, ${n} attachments`);
+        console.log(
+          `round ${round + 1}: seed ${photos ? 'with photos   ' : 'without photos'} ${s.toFixed(2)} s, ${n} attachments`,
+        );
         await ds.destroy();
       }
     }
@@ -47,9 +54,17 @@ async function main() {
   const base = median(times.without);
   const full = median(times.with);
   console.log(`baseline: demo seed without photos  ${base.toFixed(2)} s (median of ${ROUNDS})`);
-  console.log(`demo seed with photos (npm start)   ${full.toFixed(2)} s (median of ${ROUNDS}), ${(full / base).toFixed(2)}x`);
+  console.log(
+    `demo seed with photos (npm start)   ${full.toFixed(2)} s (median of ${ROUNDS}), ${(full / base).toFixed(2)}x`,
+  );
   report({ part: 'seed', figure: 'demo seed without photos (baseline)', value: base, unit: 's' });
-  report({ part: 'seed', figure: 'demo seed as npm start runs it, with photos', value: full, unit: 's', baseline: base });
+  report({
+    part: 'seed',
+    figure: 'demo seed as npm start runs it, with photos',
+    value: full,
+    unit: 's',
+    baseline: base,
+  });
 }
 
 main().catch((err) => {

@@ -61,12 +61,19 @@ function walk(dir: string, base = dir): string[] {
 export function hashFiles(dir: string): Manifest['files'] {
   const out: Manifest['files'] = {};
   for (const rel of walk(dir).sort()) {
-    out[rel] = crypto.createHash('sha256').update(fs.readFileSync(path.join(dir, rel))).digest('hex');
+    out[rel] = crypto
+      .createHash('sha256')
+      .update(fs.readFileSync(path.join(dir, rel)))
+      .digest('hex');
   }
   return out;
 }
 
-function run(cmd: string, args: string[], io: { stdin?: NodeJS.ReadableStream; stdout?: NodeJS.WritableStream; env?: NodeJS.ProcessEnv }) {
+function run(
+  cmd: string,
+  args: string[],
+  io: { stdin?: NodeJS.ReadableStream; stdout?: NodeJS.WritableStream; env?: NodeJS.ProcessEnv },
+) {
   return new Promise<void>((resolve, reject) => {
     const child = spawn(cmd, args, { stdio: ['pipe', 'pipe', 'pipe'], env: { ...process.env, ...io.env } });
     let err = '';
@@ -76,7 +83,9 @@ function run(cmd: string, args: string[], io: { stdin?: NodeJS.ReadableStream; s
     if (io.stdin) io.stdin.pipe(child.stdin);
     else child.stdin.end();
     child.on('error', reject);
-    child.on('close', (code) => (code === 0 ? resolve() : reject(new Error(`${cmd} exited ${code}: ${err.trim()}`))));
+    child.on('close', (code) =>
+      code === 0 ? resolve() : reject(new Error(`${cmd} exited ${code}: ${err.trim()}`)),
+    );
   });
 }
 
@@ -122,13 +131,26 @@ export async function backup(opts: { url: string; storageDir: string; outDir: st
 export type RestoreReport = { ok: boolean; tables: number; files: number; mismatches: string[] };
 
 /** Loads a backup into an empty database and storage folder, then checks both against the manifest. */
-export async function restore(opts: { backupDir: string; url: string; storageDir: string }): Promise<RestoreReport> {
+export async function restore(opts: {
+  backupDir: string;
+  url: string;
+  storageDir: string;
+}): Promise<RestoreReport> {
   const c = parse(opts.url);
   const manifest: Manifest = JSON.parse(fs.readFileSync(path.join(opts.backupDir, 'manifest.json'), 'utf8'));
   await run(
     'mariadb',
-    [`--host=${c.host}`, `--port=${c.port}`, `--user=${c.user}`, '--default-character-set=utf8mb4', c.database],
-    { stdin: fs.createReadStream(path.join(opts.backupDir, 'database.sql.gz')).pipe(zlib.createGunzip()), env: { MYSQL_PWD: c.password } },
+    [
+      `--host=${c.host}`,
+      `--port=${c.port}`,
+      `--user=${c.user}`,
+      '--default-character-set=utf8mb4',
+      c.database,
+    ],
+    {
+      stdin: fs.createReadStream(path.join(opts.backupDir, 'database.sql.gz')).pipe(zlib.createGunzip()),
+      env: { MYSQL_PWD: c.password },
+    },
   );
   const filesDir = path.join(opts.backupDir, 'attachments');
   if (fs.existsSync(filesDir)) fs.cpSync(filesDir, opts.storageDir, { recursive: true });
@@ -142,12 +164,19 @@ export async function verify(manifest: Manifest, url: string, storageDir: string
     const got = tables[t];
     if (!got) mismatches.push(`table ${t} is missing`);
     else if (got.rows !== want.rows || got.checksum !== want.checksum) {
-      mismatches.push(`table ${t}: ${got.rows} rows / checksum ${got.checksum}, expected ${want.rows} / ${want.checksum}`);
+      mismatches.push(
+        `table ${t}: ${got.rows} rows / checksum ${got.checksum}, expected ${want.rows} / ${want.checksum}`,
+      );
     }
   }
   const files = hashFiles(storageDir);
   for (const [f, sha] of Object.entries(manifest.files)) {
     if (files[f] !== sha) mismatches.push(`file ${f} ${files[f] ? 'differs' : 'is missing'}`);
   }
-  return { ok: mismatches.length === 0, tables: Object.keys(manifest.tables).length, files: Object.keys(manifest.files).length, mismatches };
+  return {
+    ok: mismatches.length === 0,
+    tables: Object.keys(manifest.tables).length,
+    files: Object.keys(manifest.files).length,
+    mismatches,
+  };
 }

@@ -14,12 +14,24 @@ function newestMtime(p: string): number {
 /** Builds the client with Vite when dist/ is missing or older than its sources. */
 export function buildClientIfNeeded(log: (s: string) => void = console.log, force = false) {
   const built = path.resolve('dist/index.html');
-  const sources = ['src', 'shared', 'index.html', 'vite.config.ts', 'tailwind.config.ts', 'package.json', 'public'];
+  const sources = [
+    'src',
+    'shared',
+    'index.html',
+    'vite.config.ts',
+    'tailwind.config.ts',
+    'package.json',
+    'public',
+  ];
   const newestSource = Math.max(...sources.map((s) => newestMtime(path.resolve(s))));
   if (!force && fs.existsSync(built) && fs.statSync(built).mtimeMs >= newestSource) return false;
   log('Building the client (vite build)...');
-  execFileSync(process.execPath, [path.resolve('node_modules/vite/bin/vite.js'), 'build', '--logLevel', 'warn'], {
-    stdio: 'inherit',
-  });
+  execFileSync(
+    process.execPath,
+    [path.resolve('node_modules/vite/bin/vite.js'), 'build', '--logLevel', 'warn'],
+    {
+      stdio: 'inherit',
+    },
+  );
   return true;
 }

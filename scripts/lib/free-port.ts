@@ -21,7 +21,8 @@ export async function waitForHealth(base: string, timeoutMs = 60_000) {
       () => false,
     );
     if (ok) return;
-    if (Date.now() > deadline) throw new Error(`${base} did not answer /api/health within ${timeoutMs / 1000} s`);
+    if (Date.now() > deadline)
+      throw new Error(`${base} did not answer /api/health within ${timeoutMs / 1000} s`);
     await new Promise((r) => setTimeout(r, 200));
   }
 }

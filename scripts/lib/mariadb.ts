@@ -75,7 +75,9 @@ async function waitForSocket(socket: string, pid: number, logFile: string, timeo
   const started = Date.now();
   for (;;) {
     if (!pidAlive(pid)) {
-      const tail = fs.existsSync(logFile) ? fs.readFileSync(logFile, 'utf8').split('\n').slice(-20).join('\n') : '';
+      const tail = fs.existsSync(logFile)
+        ? fs.readFileSync(logFile, 'utf8').split('\n').slice(-20).join('\n')
+        : '';
       throw new Error(`mariadbd exited during start-up. Its log:\n${tail}`);
     }
     try {
@@ -128,7 +130,8 @@ export async function startLocalDb(opts: {
       { stdio: ['ignore', 'ignore', 'pipe'] },
     );
   }
-  if (!fs.existsSync(pwFile)) fs.writeFileSync(pwFile, crypto.randomBytes(18).toString('base64url'), { mode: 0o600 });
+  if (!fs.existsSync(pwFile))
+    fs.writeFileSync(pwFile, crypto.randomBytes(18).toString('base64url'), { mode: 0o600 });
   const appPassword = fs.readFileSync(pwFile, 'utf8').trim();
 
   let startedHere = false;
@@ -167,7 +170,9 @@ export async function startLocalDb(opts: {
   try {
     // Only what the application needs on its own database: data, schema changes by migrations, and the
     // triggers that keep the audit log append-only. No global privileges.
-    await conn.query(`CREATE DATABASE IF NOT EXISTS \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+    await conn.query(
+      `CREATE DATABASE IF NOT EXISTS \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
+    );
     for (const host of ['127.0.0.1', 'localhost']) {
       await conn.query(`CREATE USER IF NOT EXISTS 'lumenproof'@'${host}' IDENTIFIED BY ?`, [appPassword]);
       await conn.query(`ALTER USER 'lumenproof'@'${host}' IDENTIFIED BY ?`, [appPassword]);

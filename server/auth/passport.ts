@@ -19,16 +19,22 @@ export function createPassport(ds: AppDataSource) {
   const users = ds.getRepository(User);
 
   instance.use(
-    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, async (email, password, done) => {
-      try {
-        const user = await users.findOne({ where: { email: email.trim().toLowerCase() }, relations: { organization: true } });
-        const ok = await verifyPassword(user?.passwordHash ?? null, password);
-        if (!user || !ok || user.status !== 'active') return done(null, false);
-        return done(null, user as SessionUser);
-      } catch (err) {
-        return done(err as Error);
-      }
-    }),
+    new LocalStrategy(
+      { usernameField: 'email', passwordField: 'password' },
+      async (email, password, done) => {
+        try {
+          const user = await users.findOne({
+            where: { email: email.trim().toLowerCase() },
+            relations: { organization: true },
+          });
+          const ok = await verifyPassword(user?.passwordHash ?? null, password);
+          if (!user || !ok || user.status !== 'active') return done(null, false);
+          return done(null, user as SessionUser);
+        } catch (err) {
+          return done(err as Error);
+        }
+      },
+    ),
   );
 
   instance.serializeUser((user, done) => done(null, (user as SessionUser).id));

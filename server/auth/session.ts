@@ -43,7 +43,10 @@ export function createSessionStore(databaseUrl: string) {
     expiration: IDLE_TIMEOUT_MS,
     disableTouch: true, // the row is written when lastSeenAt moves (sessionPolicy), not on every request
     connectionLimit: 10, // every authenticated request reads its session first: enough for 16 at once without queueing long
-    schema: { tableName: 'sessions', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
+    schema: {
+      tableName: 'sessions',
+      columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' },
+    },
   });
 }
 

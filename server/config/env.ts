@@ -9,7 +9,10 @@ const bool = z
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
   /** Tests only (NODE_ENV=test): the named crash point (server/lib/crash-point.ts) where the server waits to be killed. */
-  TEST_CRASH_POINT: z.string().regex(/^[a-z0-9_.]+$/).optional(),
+  TEST_CRASH_POINT: z
+    .string()
+    .regex(/^[a-z0-9_.]+$/)
+    .optional(),
   APP_MODE: z.enum(['demo', 'production']).optional(),
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
@@ -36,9 +39,19 @@ const envSchema = z.object({
   S3_ACCESS_KEY_ID: z.string().optional(),
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   /** Unreferenced stored objects younger than this are kept (uploads in flight); server/lib/storage-sweep.ts. */
-  STORAGE_SWEEP_GRACE_MINUTES: z.coerce.number().int().min(5).max(7 * 24 * 60).default(60),
+  STORAGE_SWEEP_GRACE_MINUTES: z.coerce
+    .number()
+    .int()
+    .min(5)
+    .max(7 * 24 * 60)
+    .default(60),
   /** How often the server sweeps after the sweep at start-up; 0 sweeps only at start-up. */
-  STORAGE_SWEEP_INTERVAL_MINUTES: z.coerce.number().int().min(0).max(7 * 24 * 60).default(60),
+  STORAGE_SWEEP_INTERVAL_MINUTES: z.coerce
+    .number()
+    .int()
+    .min(0)
+    .max(7 * 24 * 60)
+    .default(60),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   OUTBOX_WORKER: bool.default(true),
   /** Tests only (NODE_ENV=test): the credit-issuing transaction sleeps this long after the memo insert. */
@@ -64,7 +77,13 @@ export type AppConfig = {
   storage: {
     driver: 'disk' | 's3';
     dir: string;
-    s3: { endpoint?: string; region: string; bucket?: string; accessKeyId?: string; secretAccessKey?: string };
+    s3: {
+      endpoint?: string;
+      region: string;
+      bucket?: string;
+      accessKeyId?: string;
+      secretAccessKey?: string;
+    };
     sweep: { graceMs: number; intervalMs: number };
   };
   logLevel: string;

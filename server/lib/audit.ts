@@ -30,7 +30,10 @@ export async function recordAudit(
   });
 }
 
-export function actorFromRequest(req: { user?: { id: string; organizationId: string }; id?: unknown }): Actor {
+export function actorFromRequest(req: {
+  user?: { id: string; organizationId: string };
+  id?: unknown;
+}): Actor {
   return {
     userId: req.user?.id ?? null,
     organizationId: req.user?.organizationId ?? null,

@@ -7,14 +7,23 @@ import { AppError } from './errors';
 // (row, column, reason). Row numbers are the spreadsheet's: the header is row 1, the first data row is row 2.
 
 export type ColumnKind = 'string' | 'number' | 'boolean' | 'list';
-export type ColumnSpec = { column: string; field: string; kind: ColumnKind; required: boolean; example: string };
+export type ColumnSpec = {
+  column: string;
+  field: string;
+  kind: ColumnKind;
+  required: boolean;
+  example: string;
+};
 
 export type RawRow = { row: number; values: Record<string, unknown> };
 
 export const MAX_LISTED_ERRORS = 500;
 
 /** Turns the request (CSV text or JSON rows) into raw rows keyed by lower-case column name. */
-export function readRows(input: ImportRequest, specs: ColumnSpec[]): { rows: RawRow[]; fileErrors: ImportRowError[] } {
+export function readRows(
+  input: ImportRequest,
+  specs: ColumnSpec[],
+): { rows: RawRow[]; fileErrors: ImportRowError[] } {
   const first = input.firstRowNumber ?? 2;
   let records: Record<string, unknown>[];
   let header: string[];
@@ -32,17 +41,28 @@ export function readRows(input: ImportRequest, specs: ColumnSpec[]): { rows: Raw
       fileErrors.push({ row: (e.row ?? 0) + first, column: '(row)', message: e.message });
     }
   } else {
-    records = (input.rows ?? []).map((r) => Object.fromEntries(Object.entries(r).map(([k, v]) => [k.trim().toLowerCase(), v])));
+    records = (input.rows ?? []).map((r) =>
+      Object.fromEntries(Object.entries(r).map(([k, v]) => [k.trim().toLowerCase(), v])),
+    );
     header = [...new Set(records.flatMap((r) => Object.keys(r)))];
   }
   const known = new Set(specs.map((s) => s.column));
   const unknown = header.filter((h) => h && !known.has(h) && !h.startsWith('_'));
   if (unknown.length) {
-    fileErrors.push({ row: 1, column: unknown.join(', '), message: `Unknown column${unknown.length > 1 ? 's' : ''}: ${unknown.join(', ')}. Download the template for the column names.` });
+    fileErrors.push({
+      row: 1,
+      column: unknown.join(', '),
+      message: `Unknown column${unknown.length > 1 ? 's' : ''}: ${unknown.join(', ')}. Download the template for the column names.`,
+    });
   }
   if (input.csv !== undefined || records.length) {
     const missing = specs.filter((s) => s.required && !header.includes(s.column)).map((s) => s.column);
-    if (missing.length) fileErrors.push({ row: 1, column: missing.join(', '), message: `Missing column${missing.length > 1 ? 's' : ''}: ${missing.join(', ')}.` });
+    if (missing.length)
+      fileErrors.push({
+        row: 1,
+        column: missing.join(', '),
+        message: `Missing column${missing.length > 1 ? 's' : ''}: ${missing.join(', ')}.`,
+      });
   }
   return { rows: records.map((values, i) => ({ row: first + i, values })), fileErrors };
 }
@@ -63,7 +83,8 @@ export function coerceRow(raw: RawRow, specs: ColumnSpec[]) {
     const str = typeof v === 'string' ? v.trim() : v;
     if (s.kind === 'number') {
       const n = typeof str === 'number' ? str : Number(String(str));
-      if (typeof str === 'boolean' || !Number.isFinite(n)) errors.push({ row: raw.row, column: s.column, message: `"${String(str)}" is not a number.` });
+      if (typeof str === 'boolean' || !Number.isFinite(n))
+        errors.push({ row: raw.row, column: s.column, message: `"${String(str)}" is not a number.` });
       else out[s.field] = n;
     } else if (s.kind === 'boolean') {
       if (typeof str === 'boolean') out[s.field] = str;
@@ -82,7 +103,12 @@ export function coerceRow(raw: RawRow, specs: ColumnSpec[]) {
 }
 
 /** A zod failure as row errors, each field named by its spreadsheet column. */
-export function issuesToRowErrors(row: number, error: z.ZodError, specs: ColumnSpec[], skip: Set<string>): ImportRowError[] {
+export function issuesToRowErrors(
+  row: number,
+  error: z.ZodError,
+  specs: ColumnSpec[],
+  skip: Set<string>,
+): ImportRowError[] {
   const byField = new Map(specs.map((s) => [s.field, s.column]));
   const out: ImportRowError[] = [];
   for (const i of error.issues) {
@@ -95,9 +121,19 @@ export function issuesToRowErrors(row: number, error: z.ZodError, specs: ColumnS
 }
 
 export function templateCsv(specs: ColumnSpec[]) {
-  return Papa.unparse({ fields: specs.map((s) => s.column), data: [specs.map((s) => s.example)] }, { newline: '\r\n' }) + '\r\n';
+  return (
+    Papa.unparse(
+      { fields: specs.map((s) => s.column), data: [specs.map((s) => s.example)] },
+      { newline: '\r\n' },
+    ) + '\r\n'
+  );
 }
 
 export function tooManyRows(n: number, max: number) {
-  if (n > max) throw new AppError(413, 'import.too_many_rows', `The file has ${n} rows; import at most ${max.toLocaleString('en-US')} at once.`);
+  if (n > max)
+    throw new AppError(
+      413,
+      'import.too_many_rows',
+      `The file has ${n} rows; import at most ${max.toLocaleString('en-US')} at once.`,
+    );
 }

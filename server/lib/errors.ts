@@ -15,6 +15,7 @@ export class AppError extends Error {
 
 export const notFound = (what = 'record') =>
   new AppError(404, 'not_found', `That ${what} does not exist or is not shared with you.`);
-export const forbidden = (message = 'You are not allowed to do that.') => new AppError(403, 'forbidden', message);
+export const forbidden = (message = 'You are not allowed to do that.') =>
+  new AppError(403, 'forbidden', message);
 export const unauthenticated = () => new AppError(401, 'auth.required', 'Please sign in.');
 export const conflict = (code: string, message: string) => new AppError(409, code, message);

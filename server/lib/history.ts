@@ -9,10 +9,21 @@ import { User } from '../db/entities/user.entity';
  * The audit trail of one record, oldest first. The caller has already authorised reading the record. People
  * are named to viewers of their own organisation; others see only the organisation.
  */
-export async function loadHistory(ds: AppDataSource, entityType: string, entityId: string, viewerOrgId: string): Promise<HistoryEventDto[]> {
-  const events = await ds.getRepository(AuditEvent).find({ where: { entityType, entityId }, order: { id: 'ASC' }, take: 500 });
+export async function loadHistory(
+  ds: AppDataSource,
+  entityType: string,
+  entityId: string,
+  viewerOrgId: string,
+): Promise<HistoryEventDto[]> {
+  const events = await ds
+    .getRepository(AuditEvent)
+    .find({ where: { entityType, entityId }, order: { id: 'ASC' }, take: 500 });
   const userIds = [...new Set(events.map((e) => e.actorUserId).filter((x): x is string => !!x))];
-  const users = userIds.length ? await ds.getRepository(User).find({ where: { id: In(userIds) }, select: { id: true, name: true, organizationId: true } }) : [];
+  const users = userIds.length
+    ? await ds
+        .getRepository(User)
+        .find({ where: { id: In(userIds) }, select: { id: true, name: true, organizationId: true } })
+    : [];
   const orgIds = [...new Set(users.map((u) => u.organizationId))];
   const orgs = orgIds.length ? await ds.getRepository(Organization).find({ where: { id: In(orgIds) } }) : [];
   const userById = new Map(users.map((u) => [u.id, u]));
@@ -24,7 +35,10 @@ export async function loadHistory(ds: AppDataSource, entityType: string, entityI
       id: e.id,
       occurredAt: e.occurredAt.toISOString(),
       action: e.action,
-      actor: u && org ? { name: u.organizationId === viewerOrgId ? u.name : org.name, organization: org.name } : null,
+      actor:
+        u && org
+          ? { name: u.organizationId === viewerOrgId ? u.name : org.name, organization: org.name }
+          : null,
       before: e.before,
       after: e.after,
     };

@@ -47,7 +47,12 @@ export const backoffMs = (attempt: number) => Math.min(60 * 60 * 1000, 5_000 * 2
 export async function deliverDue(
   ds: AppDataSource,
   transport: Transporter,
-  opts: { from: string; batch?: number; leaseMs?: number; loadAttachment?: (a: OutboxAttachment) => Promise<Buffer> },
+  opts: {
+    from: string;
+    batch?: number;
+    leaseMs?: number;
+    loadAttachment?: (a: OutboxAttachment) => Promise<Buffer>;
+  },
 ) {
   const leaseMs = opts.leaseMs ?? 120_000;
   const claimed = await ds.transaction(async (m) => {
@@ -76,7 +81,11 @@ export async function deliverDue(
       const attachments = [];
       for (const a of row.attachments ?? []) {
         if (!opts.loadAttachment) throw new Error('no attachment loader configured');
-        attachments.push({ filename: a.filename, contentType: a.contentType, content: await opts.loadAttachment(a) });
+        attachments.push({
+          filename: a.filename,
+          contentType: a.contentType,
+          content: await opts.loadAttachment(a),
+        });
       }
       const info = await transport.sendMail({
         from: opts.from,
@@ -89,7 +98,10 @@ export async function deliverDue(
       });
       await ds
         .getRepository(OutboxMessage)
-        .update({ id: row.id }, { status: 'sent', sentAt: clock.now(), messageId: info.messageId ?? null, lastError: null });
+        .update(
+          { id: row.id },
+          { status: 'sent', sentAt: clock.now(), messageId: info.messageId ?? null, lastError: null },
+        );
       sent += 1;
     } catch (err) {
       const attempts = row.attempts + 1;

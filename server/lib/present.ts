@@ -9,7 +9,10 @@ export function pick<T extends object, K extends keyof T>(record: T, keys: reado
 }
 
 /** An organisation as the answers name it; the name is empty when the relation was not loaded. */
-export const orgRef = (id: string, org: { name: string } | null | undefined) => ({ id, name: org?.name ?? '' });
+export const orgRef = (id: string, org: { name: string } | null | undefined) => ({
+  id,
+  name: org?.name ?? '',
+});
 
 /** The stamps of a record that is edited under optimistic locking. */
 export const stamps = (r: { createdAt: Date; updatedAt: Date; version: number }) => ({

@@ -18,7 +18,12 @@ function load(rel: string) {
 /** Renders templates/email/<name>.{subject.txt,txt,html}; values are HTML-escaped in the HTML part only. */
 export function renderEmail(name: string, view: Record<string, unknown>) {
   const layout = load('email/layout.html');
-  const subject = Mustache.render(load(`email/${name}.subject.txt`), view, {}, { escape: (s: string) => s }).trim();
+  const subject = Mustache.render(
+    load(`email/${name}.subject.txt`),
+    view,
+    {},
+    { escape: (s: string) => s },
+  ).trim();
   const text = Mustache.render(load(`email/${name}.txt`), view, {}, { escape: (s: string) => s });
   const content = Mustache.render(load(`email/${name}.html`), view);
   const html = Mustache.render(layout, { ...view, subject }, { content });

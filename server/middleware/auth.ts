@@ -16,7 +16,11 @@ declare global {
 }
 
 export function toAbilityUser(user: SessionUser) {
-  return { id: user.id, roles: user.roles, organization: { id: user.organization.id, kind: user.organization.kind } };
+  return {
+    id: user.id,
+    roles: user.roles,
+    organization: { id: user.organization.id, kind: user.organization.kind },
+  };
 }
 
 /** Ends sessions idle for 30 minutes or older than 8 hours (by the server's clock), then builds the ability. */
@@ -26,7 +30,8 @@ export function sessionPolicy(opts: { demoMode: boolean }): RequestHandler {
     if (req.user && s) {
       const now = clock.nowMs();
       const expired =
-        (s.createdAt && now - s.createdAt > ABSOLUTE_TIMEOUT_MS) || (s.lastSeenAt && now - s.lastSeenAt > IDLE_TIMEOUT_MS);
+        (s.createdAt && now - s.createdAt > ABSOLUTE_TIMEOUT_MS) ||
+        (s.lastSeenAt && now - s.lastSeenAt > IDLE_TIMEOUT_MS);
       if (expired) {
         return s.destroy(() => {
           req.user = undefined;
@@ -63,7 +68,11 @@ export function authorize(
 }
 
 /** For actions on a kind of thing rather than one record (creating, listing). */
-export function authorizeType(req: { ability: AppAbility }, action: Action, type: Exclude<SubjectName, 'all'>) {
+export function authorizeType(
+  req: { ability: AppAbility },
+  action: Action,
+  type: Exclude<SubjectName, 'all'>,
+) {
   if (!req.ability.can(action, type)) throw forbidden();
 }
 
@@ -71,6 +80,11 @@ export function authorizeType(req: { ability: AppAbility }, action: Action, type
  * For creating a record whose owners are known before it exists (the candidate's organisation ids): a
  * refusal is 403, since there is no record to hide.
  */
-export function authorizeNew(req: { ability: AppAbility }, action: Action, type: Exclude<SubjectName, 'all'>, candidate: Record<string, unknown>) {
+export function authorizeNew(
+  req: { ability: AppAbility },
+  action: Action,
+  type: Exclude<SubjectName, 'all'>,
+  candidate: Record<string, unknown>,
+) {
   if (!req.ability.can(action, subject(type, { ...candidate }))) throw forbidden();
 }

@@ -18,7 +18,11 @@ export const errorHandler: ErrorRequestHandler = (err: HttpishError, req, res, _
     if (err.headers) res.set(err.headers);
   } else if (err instanceof ZodError) {
     status = 400;
-    body = { code: 'validation.failed', message: 'The request has invalid fields.', details: zodDetails(err) };
+    body = {
+      code: 'validation.failed',
+      message: 'The request has invalid fields.',
+      details: zodDetails(err),
+    };
   } else if (err.type === 'entity.parse.failed') {
     status = 400;
     body = { code: 'request.malformed_json', message: 'The request body is not valid JSON.' };
@@ -39,7 +43,11 @@ export const errorHandler: ErrorRequestHandler = (err: HttpishError, req, res, _
         ? { code: 'route.not_found', message: 'There is nothing at this address.' }
         : { code: 'request.invalid', message: 'The request was refused.' };
   } else {
-    body = { code: 'internal', message: 'Something went wrong on our side. It has been logged.', requestId: String(req.id) };
+    body = {
+      code: 'internal',
+      message: 'Something went wrong on our side. It has been logged.',
+      requestId: String(req.id),
+    };
   }
 
   if (status >= 500) req.log?.error({ err }, 'request failed');

@@ -35,9 +35,11 @@ export function idempotencyKeyOf(req: Request, opts?: { required?: false }): str
 export function idempotencyKeyOf(req: Request, opts: { required?: boolean } = {}): string | undefined {
   const value = req.get('idempotency-key');
   if (value === undefined && !opts.required) return undefined;
-  return parseWith(z.strictObject({ 'idempotency-key': idempotencyKeySchema }), { 'idempotency-key': value }, 'Idempotency-Key header')[
-    'idempotency-key'
-  ];
+  return parseWith(
+    z.strictObject({ 'idempotency-key': idempotencyKeySchema }),
+    { 'idempotency-key': value },
+    'Idempotency-Key header',
+  )['idempotency-key'];
 }
 
 // File uploads (POST …/attachments, and a claim's …/conversation/uploads) are the one place a multipart body is

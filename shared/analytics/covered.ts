@@ -29,5 +29,7 @@ export const COVERED_IF_VERDICT_STAGES = [
 
 export function isCoveredClaim(claim: { stage: ClaimStage; verdict: ClaimVerdict | null }): boolean {
   if ((APPROVED_STAGES as readonly ClaimStage[]).includes(claim.stage)) return true;
-  return (COVERED_IF_VERDICT_STAGES as readonly ClaimStage[]).includes(claim.stage) && claim.verdict === 'covered';
+  return (
+    (COVERED_IF_VERDICT_STAGES as readonly ClaimStage[]).includes(claim.stage) && claim.verdict === 'covered'
+  );
 }

@@ -15,10 +15,34 @@ export interface FailureModeRule {
 }
 
 export const FAILURE_MODE_RULES: readonly FailureModeRule[] = [
-  { mode: 'insects_debris', label: 'Insects or debris inside', findings: ['evidence.debris_ingress'], symptoms: [], observations: ['debrisIngress'] },
-  { mode: 'water', label: 'Water inside', findings: ['evidence.water_ingress'], symptoms: [], observations: ['waterIngress'] },
-  { mode: 'fan', label: 'Cooling fan', findings: ['evidence.fan_stopped'], symptoms: ['fan_noise'], observations: ['fanStopped'] },
-  { mode: 'damage', label: 'Physical damage', findings: ['evidence.physical_damage'], symptoms: [], observations: ['physicalDamage'] },
+  {
+    mode: 'insects_debris',
+    label: 'Insects or debris inside',
+    findings: ['evidence.debris_ingress'],
+    symptoms: [],
+    observations: ['debrisIngress'],
+  },
+  {
+    mode: 'water',
+    label: 'Water inside',
+    findings: ['evidence.water_ingress'],
+    symptoms: [],
+    observations: ['waterIngress'],
+  },
+  {
+    mode: 'fan',
+    label: 'Cooling fan',
+    findings: ['evidence.fan_stopped'],
+    symptoms: ['fan_noise'],
+    observations: ['fanStopped'],
+  },
+  {
+    mode: 'damage',
+    label: 'Physical damage',
+    findings: ['evidence.physical_damage'],
+    symptoms: [],
+    observations: ['physicalDamage'],
+  },
   {
     mode: 'led_strings',
     label: 'LEDs or strings dark',

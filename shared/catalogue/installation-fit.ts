@@ -62,10 +62,20 @@ export function checkInstallationFit(product: FitProduct, conditions: Installati
   const out: FitWarning[] = [];
   for (const rule of applicationExclusionRules) {
     const f = rule(ctx);
-    if (f) out.push(f.reference ? { code: f.code, message: f.message, reference: f.reference } : { code: f.code, message: f.message });
+    if (f)
+      out.push(
+        f.reference
+          ? { code: f.code, message: f.message, reference: f.reference }
+          : { code: f.code, message: f.message },
+      );
   }
   const { dimmer } = conditions;
-  if (dimmer !== 'none' && product.dimming !== 'none' && product.dimming !== 'phase_or_0-10v' && product.dimming !== dimmer) {
+  if (
+    dimmer !== 'none' &&
+    product.dimming !== 'none' &&
+    product.dimming !== 'phase_or_0-10v' &&
+    product.dimming !== dimmer
+  ) {
     out.push({
       code: 'application.dimmer_method_mismatch',
       message: `A ${dimmer === 'phase' ? 'phase-cut' : '0-10 V'} dimmer is on the circuit, but this product dims with ${METHOD_TEXT[product.dimming]}.`,

@@ -1,4 +1,9 @@
-import type { ClaimEngineContext, ClaimFields, ClaimMeasurements, ClaimObservations } from '../schemas/claims';
+import type {
+  ClaimEngineContext,
+  ClaimFields,
+  ClaimMeasurements,
+  ClaimObservations,
+} from '../schemas/claims';
 
 // The one mapping from a claim and what it hangs on (product ratings, the installation's policy version in
 // force, the installation's conditions) to the engine's input (ENGINE.md). The server uses it when filing;
@@ -41,7 +46,11 @@ export type InstallationForEngine = {
   ambientC: number;
 };
 
-export function engineContextFrom(p: ProductRatings, v: PolicyTermsForEngine | null, i: InstallationForEngine): ClaimEngineContext {
+export function engineContextFrom(
+  p: ProductRatings,
+  v: PolicyTermsForEngine | null,
+  i: InstallationForEngine,
+): ClaimEngineContext {
   return {
     product: {
       ratedInputWatts: p.ratedInputWatts,
@@ -91,9 +100,16 @@ const defined = <T extends Record<string, unknown>>(o: T) =>
  * The engine input for a claim (not yet validated: pass it to safeEvaluateClaim, which answers each missing
  * or bad field). `filedOn` is today for the live view, the filing day on the server.
  */
-export function engineInputFor(ctx: ClaimEngineContext, claim: ClaimFields, evidence: ClaimEvidence, filedOn: string): unknown {
+export function engineInputFor(
+  ctx: ClaimEngineContext,
+  claim: ClaimFields,
+  evidence: ClaimEvidence,
+  filedOn: string,
+): unknown {
   const m: ClaimMeasurements = claim.measurements ?? {};
-  const strings = (m.strings ?? []).map((s) => defined({ volts: s.volts, amps: s.amps, darkLeds: s.darkLeds }));
+  const strings = (m.strings ?? []).map((s) =>
+    defined({ volts: s.volts, amps: s.amps, darkLeds: s.darkLeds }),
+  );
   // Trailing rows left blank are not readings.
   while (strings.length && Object.keys(strings[strings.length - 1]).length === 0) strings.pop();
   const o: ClaimObservations = claim.observations ?? {};
@@ -118,8 +134,17 @@ export function engineInputFor(ctx: ClaimEngineContext, claim: ClaimFields, evid
         ...(strings.length ? { strings } : {}),
       },
       // Burn marks are recorded for the reviewer; the engine has no rule of its own for them.
-      observations: defined({ debrisIngress: o.debrisIngress, waterIngress: o.waterIngress, physicalDamage: o.physicalDamage, fanStopped: o.fanStopped }),
-      evidence: { photos: evidence.photos, proofOfPurchase: evidence.proofOfPurchase, ...(serials[0] ? { serial: serials[0] } : {}) },
+      observations: defined({
+        debrisIngress: o.debrisIngress,
+        waterIngress: o.waterIngress,
+        physicalDamage: o.physicalDamage,
+        fanStopped: o.fanStopped,
+      }),
+      evidence: {
+        photos: evidence.photos,
+        proofOfPurchase: evidence.proofOfPurchase,
+        ...(serials[0] ? { serial: serials[0] } : {}),
+      },
     },
   };
 }

@@ -18,7 +18,12 @@ export function parseMeterNumber(text: string, unit: MeterUnit = ''): MeterParse
   const s = text.trim().replace(/\s+/g, ' ');
   if (s === '') return { ok: false, empty: true, message: 'Empty.' };
   const m = /^([+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][+-]?\d+)?)\s*([a-zA-Z]{1,2})?$/.exec(s);
-  if (!m) return { ok: false, empty: false, message: `"${s}" is not a number. Type the digits the meter shows, like 118.4 or 118,4.` };
+  if (!m)
+    return {
+      ok: false,
+      empty: false,
+      message: `"${s}" is not a number. Type the digits the meter shows, like 118.4 or 118,4.`,
+    };
   const digits = m[1].replace(',', '.');
   const suffix = (m[2] ?? '').toLowerCase();
   const chosen = unit.toLowerCase();
@@ -27,7 +32,11 @@ export function parseMeterNumber(text: string, unit: MeterUnit = ''): MeterParse
     const f = SCALE[suffix];
     // The suffix must be the same kind of unit as the field: "mA" in a volts field is a typo worth telling.
     if (f === undefined || (chosen && suffix.slice(-1) !== chosen.slice(-1))) {
-      return { ok: false, empty: false, message: `"${m[2]}" is not a unit for this reading${unit ? ` (${unitKind(unit)})` : ''}.` };
+      return {
+        ok: false,
+        empty: false,
+        message: `"${m[2]}" is not a unit for this reading${unit ? ` (${unitKind(unit)})` : ''}.`,
+      };
     }
     factor = f;
   } else if (chosen) {

@@ -66,7 +66,12 @@ const stageList = z
       .map((x) => x.trim())
       .filter(Boolean),
   )
-  .pipe(z.array(z.enum(CLAIM_STAGES, { error: 'Pick a known stage.' })).min(1).max(CLAIM_STAGES.length));
+  .pipe(
+    z
+      .array(z.enum(CLAIM_STAGES, { error: 'Pick a known stage.' }))
+      .min(1)
+      .max(CLAIM_STAGES.length),
+  );
 
 const money = z.string().regex(/^\d{1,10}(\.\d{1,2})?$/, 'Enter an amount like "96.00".');
 const uuid = z.uuid({ error: 'Not a valid id.' });
@@ -158,7 +163,14 @@ export type ClaimMessageDto = {
   dueOn: string | null;
   answeredAt: string | null;
   createdAt: string;
-  attachments: { id: string; name: string; contentType: string; kind: string; url: string; thumbnailUrl: string | null }[];
+  attachments: {
+    id: string;
+    name: string;
+    contentType: string;
+    kind: string;
+    url: string;
+    thumbnailUrl: string | null;
+  }[];
 };
 
 export type ClaimDocumentDto = {

@@ -21,7 +21,10 @@ const populationShape = {
   asOf: isoDateSchema('the analysis date').optional(),
 };
 
-function exactlyOnePopulation(q: { productModelId?: string; family?: string; lot?: string }, ctx: z.RefinementCtx) {
+function exactlyOnePopulation(
+  q: { productModelId?: string; family?: string; lot?: string },
+  ctx: z.RefinementCtx,
+) {
   const given = [q.productModelId, q.family, q.lot].filter((v) => v !== undefined).length;
   if (given !== 1) {
     ctx.addIssue({
@@ -37,11 +40,15 @@ export const lifeQuerySchema = z
   .strictObject({
     ...populationShape,
     ageUnit: z.enum(AGE_UNITS, { error: 'Ages are in months or hours.' }).default('months'),
-    method: z.enum(FIT_METHODS, { error: 'The fit is mle (maximum likelihood) or mrr (median-rank regression).' }).default('mle'),
+    method: z
+      .enum(FIT_METHODS, { error: 'The fit is mle (maximum likelihood) or mrr (median-rank regression).' })
+      .default('mle'),
     /** midpoint (the default): ages in the middle of the month or day they fell in, so first-month failures fit. */
     age: z.enum(['midpoint', 'completed'], { error: 'Ages are midpoint or completed.' }).default('midpoint'),
     format: z.enum(FORMATS, { error: 'The format is json or csv.' }).default('json'),
-    table: z.enum(LIFE_TABLES, { error: `The table is one of ${LIFE_TABLES.join(', ')}.` }).default('life-data'),
+    table: z
+      .enum(LIFE_TABLES, { error: `The table is one of ${LIFE_TABLES.join(', ')}.` })
+      .default('life-data'),
   })
   .superRefine(exactlyOnePopulation);
 export type LifeQuery = z.infer<typeof lifeQuerySchema>;
@@ -52,8 +59,12 @@ export const failureModesQuerySchema = z
   .strictObject({
     ...populationShape,
     format: z.enum(FORMATS, { error: 'The format is json or csv.' }).default('json'),
-    table: z.enum(FAILURE_TABLES, { error: `The table is one of ${FAILURE_TABLES.join(', ')}.` }).default('modes'),
-    factor: z.enum(ENVIRONMENT_FACTOR_KEYS, { error: `The factor is one of ${ENVIRONMENT_FACTOR_KEYS.join(', ')}.` }).default('enclosure'),
+    table: z
+      .enum(FAILURE_TABLES, { error: `The table is one of ${FAILURE_TABLES.join(', ')}.` })
+      .default('modes'),
+    factor: z
+      .enum(ENVIRONMENT_FACTOR_KEYS, { error: `The factor is one of ${ENVIRONMENT_FACTOR_KEYS.join(', ')}.` })
+      .default('enclosure'),
   })
   .superRefine(exactlyOnePopulation);
 export type FailureModesQuery = z.infer<typeof failureModesQuerySchema>;
@@ -61,7 +72,12 @@ export type FailureModesQuery = z.infer<typeof failureModesQuerySchema>;
 export const AGEING_TABLES = ['open', 'throughput'] as const;
 export const claimsAgeingQuerySchema = z.strictObject({
   asOf: isoDateSchema('the analysis date').optional(),
-  weeks: z.coerce.number({ error: 'Weeks is a whole number.' }).int('Weeks is a whole number.').min(1, 'At least 1 week.').max(104, 'At most 104 weeks.').default(12),
+  weeks: z.coerce
+    .number({ error: 'Weeks is a whole number.' })
+    .int('Weeks is a whole number.')
+    .min(1, 'At least 1 week.')
+    .max(104, 'At most 104 weeks.')
+    .default(12),
   format: z.enum(FORMATS, { error: 'The format is json or csv.' }).default('json'),
   table: z.enum(AGEING_TABLES, { error: `The table is one of ${AGEING_TABLES.join(', ')}.` }).default('open'),
 });
@@ -69,10 +85,17 @@ export type ClaimsAgeingQuery = z.infer<typeof claimsAgeingQuerySchema>;
 
 export const RESERVE_TABLES = ['months', 'cohorts'] as const;
 export const reserveQuerySchema = z.strictObject({
-  months: z.coerce.number({ error: 'Months is a whole number.' }).int('Months is a whole number.').min(1, 'Forecast at least 1 month.').max(60, 'Forecast at most 60 months.').default(12),
+  months: z.coerce
+    .number({ error: 'Months is a whole number.' })
+    .int('Months is a whole number.')
+    .min(1, 'Forecast at least 1 month.')
+    .max(60, 'Forecast at most 60 months.')
+    .default(12),
   asOf: isoDateSchema('the forecast date').optional(),
   format: z.enum(FORMATS, { error: 'The format is json or csv.' }).default('json'),
-  table: z.enum(RESERVE_TABLES, { error: `The table is one of ${RESERVE_TABLES.join(', ')}.` }).default('months'),
+  table: z
+    .enum(RESERVE_TABLES, { error: `The table is one of ${RESERVE_TABLES.join(', ')}.` })
+    .default('months'),
 });
 export type ReserveQuery = z.infer<typeof reserveQuerySchema>;
 
@@ -121,7 +144,14 @@ export type FailureModesDto = {
   ageing: AgeingTable;
 };
 
-export const AGE_BANDS = ['0-7 days', '8-14 days', '15-30 days', '31-60 days', '61-90 days', 'over 90 days'] as const;
+export const AGE_BANDS = [
+  '0-7 days',
+  '8-14 days',
+  '15-30 days',
+  '31-60 days',
+  '61-90 days',
+  'over 90 days',
+] as const;
 export type ClaimsAgeingDto = {
   asOf: string;
   open: { band: (typeof AGE_BANDS)[number]; manufacturer: number; contractor: number; total: number }[];
@@ -148,5 +178,11 @@ export type ReserveDto = {
   cohorts: ReserveCohortDto[];
   /** Models whose units could not be forecast (too few failures, even for their family). */
   unforecast: { productModelId: string; modelNumber: string; survivors: number; reason: string }[];
-  fits: { productModelId: string; modelNumber: string; shape: number; scale: number; from: 'model' | 'family' }[];
+  fits: {
+    productModelId: string;
+    modelNumber: string;
+    shape: number;
+    scale: number;
+    from: 'model' | 'family';
+  }[];
 };

@@ -5,7 +5,15 @@ import { listQuerySchema } from './users';
 // Product models, warranty policies and installations: one strict schema per payload, shared by the forms,
 // the CSV import and the server. Units are in the field names' labels (W, V, A, lm, °C, h).
 
-export const PRODUCT_FAMILIES = ['high_bay', 'wall_pack', 'troffer', 'corn_lamp', 'flood', 'strip', 'other'] as const;
+export const PRODUCT_FAMILIES = [
+  'high_bay',
+  'wall_pack',
+  'troffer',
+  'corn_lamp',
+  'flood',
+  'strip',
+  'other',
+] as const;
 export type ProductFamily = (typeof PRODUCT_FAMILIES)[number];
 export const FAMILY_LABELS: Record<ProductFamily, string> = {
   high_bay: 'High-bay',
@@ -27,7 +35,11 @@ export const ENCLOSURE_LABELS: Record<Enclosure, string> = {
   enclosed: 'Totally enclosed',
   enclosed_ventilated: 'Enclosed and ventilated',
 };
-export const DIMMER_LABELS: Record<Dimmer, string> = { none: 'No dimmer', phase: 'Phase-cut dimmer', '0-10v': '0-10 V dimmer' };
+export const DIMMER_LABELS: Record<Dimmer, string> = {
+  none: 'No dimmer',
+  phase: 'Phase-cut dimmer',
+  '0-10v': '0-10 V dimmer',
+};
 
 /** How a product dims: not at all, by phase-cut (forward or reverse), by 0-10 V, or either. */
 export const DIMMINGS = ['none', 'phase', '0-10v', 'phase_or_0-10v'] as const;
@@ -66,7 +78,13 @@ export const EXCLUSION_LABELS: Record<Exclusion, string> = {
 };
 
 // Helpers with plain messages. Number fields name their unit in the message.
-const num = (what: string, unit: string, min: number, max: number, opts: { int?: boolean; exclusiveMin?: boolean } = {}) => {
+const num = (
+  what: string,
+  unit: string,
+  min: number,
+  max: number,
+  opts: { int?: boolean; exclusiveMin?: boolean } = {},
+) => {
   let s = z.number({ error: `Enter ${what}${unit ? ` in ${unit}` : ''}.` });
   if (opts.int) s = s.int(`${cap(what)} must be a whole number.`);
   s = opts.exclusiveMin
@@ -76,7 +94,11 @@ const num = (what: string, unit: string, min: number, max: number, opts: { int?:
 };
 const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 const text = (what: string, max: number) =>
-  z.string({ error: `Enter ${what}.` }).trim().min(1, `Enter ${what}.`).max(max, `${cap(what)} has at most ${max} characters.`);
+  z
+    .string({ error: `Enter ${what}.` })
+    .trim()
+    .min(1, `Enter ${what}.`)
+    .max(max, `${cap(what)} has at most ${max} characters.`);
 const optionalText = (what: string, max: number) =>
   z
     .string()
@@ -89,10 +111,13 @@ export const isoDateSchema = (what: string) =>
   z
     .string({ error: `Enter ${what} as YYYY-MM-DD.` })
     .regex(/^\d{4}-\d{2}-\d{2}$/, `Enter ${what} as YYYY-MM-DD.`)
-    .refine((s) => {
-      const d = new Date(`${s}T00:00:00Z`);
-      return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
-    }, `${cap(what)} is not a calendar date.`)
+    .refine(
+      (s) => {
+        const d = new Date(`${s}T00:00:00Z`);
+        return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
+      },
+      `${cap(what)} is not a calendar date.`,
+    )
     .refine((s) => s >= '1990-01-01' && s <= '2100-12-31', `${cap(what)} must be between 1990 and 2100.`);
 
 const MONEY = /^\d{1,10}(\.\d{1,2})?$/;
@@ -126,7 +151,9 @@ const productFields = {
   ledsPerString: num('the number of LEDs per string', '', 1, 1000, { int: true }),
   ledForwardVolts: num('the nominal forward voltage of one LED', 'V', 1.5, 50),
   driverOutputAmps: num('the driver output current', 'A', 0, 100, { exclusiveMin: true }),
-  driverMaxOutputVolts: num('the driver open-circuit limit', 'V', 1, 2000).nullish().transform((v) => v ?? null),
+  driverMaxOutputVolts: num('the driver open-circuit limit', 'V', 1, 2000)
+    .nullish()
+    .transform((v) => v ?? null),
   location: z.enum(LOCATIONS, { error: 'Pick the location rating: dry, damp or wet.' }),
   enclosedRated: z.boolean({ error: 'Say whether it is rated for totally enclosed luminaires.' }),
   dimming: z.enum(DIMMINGS, { error: 'Pick how it dims, or not dimmable.' }),
@@ -148,7 +175,11 @@ type RatingCheck = {
 /** Cross-field bounds: the ratings have to describe a fixture that can work. */
 function checkRatings(p: RatingCheck, ctx: z.RefinementCtx) {
   if (p.inputVoltsMin !== undefined && p.inputVoltsMax !== undefined && p.inputVoltsMin >= p.inputVoltsMax) {
-    ctx.addIssue({ code: 'custom', path: ['inputVoltsMax'], message: 'The highest input voltage must be above the lowest.' });
+    ctx.addIssue({
+      code: 'custom',
+      path: ['inputVoltsMax'],
+      message: 'The highest input voltage must be above the lowest.',
+    });
   }
   if (p.ledsPerString !== undefined && p.ledForwardVolts !== undefined) {
     // String voltage = n x Vf (LED application-note practice); the driver must be able to reach it.
@@ -179,7 +210,9 @@ export type ProductInput = z.input<typeof productInputSchema>;
 export type ProductValues = z.output<typeof productInputSchema>;
 
 export const updateProductSchema = z
-  .strictObject({ ...Object.fromEntries(Object.entries(productFields).map(([k, v]) => [k, v.optional()])) } as {
+  .strictObject({
+    ...Object.fromEntries(Object.entries(productFields).map(([k, v]) => [k, v.optional()])),
+  } as {
     [K in keyof typeof productFields]: z.ZodOptional<(typeof productFields)[K]>;
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), 'Nothing to change.');
@@ -189,7 +222,20 @@ const boolParam = z.enum(['true', 'false']).transform((v) => v === 'true');
 
 export const productListQuerySchema = listQuerySchema.extend({
   sort: z
-    .enum(['modelNumber', '-modelNumber', 'name', '-name', 'family', '-family', 'ratedInputWatts', '-ratedInputWatts', 'ratedLumens', '-ratedLumens', 'createdAt', '-createdAt'])
+    .enum([
+      'modelNumber',
+      '-modelNumber',
+      'name',
+      '-name',
+      'family',
+      '-family',
+      'ratedInputWatts',
+      '-ratedInputWatts',
+      'ratedLumens',
+      '-ratedLumens',
+      'createdAt',
+      '-createdAt',
+    ])
     .default('modelNumber'),
   manufacturerId: uuidSchema.optional(),
   family: z.enum(PRODUCT_FAMILIES).optional(),
@@ -238,10 +284,9 @@ export const policyTermsSchema = z
     termMonths: num('the warranty term', 'months', 1, 360, { int: true }),
     fullCoverageMonths: num('the full-coverage period', 'months', 0, 360, { int: true }),
     filingWindowDays: num('the filing window', 'days', 1, 3650, { int: true }),
-    darkLedFailurePercent: num('the failure threshold', '% of LEDs dark', 0, 100, { exclusiveMin: true }).refine(
-      (v) => Math.round(v * 100) === v * 100,
-      'The failure threshold has at most two decimals.',
-    ),
+    darkLedFailurePercent: num('the failure threshold', '% of LEDs dark', 0, 100, {
+      exclusiveMin: true,
+    }).refine((v) => Math.round(v * 100) === v * 100, 'The failure threshold has at most two decimals.'),
     unitCredit: money('the unit credit'),
     currency: z
       .string({ error: 'Enter a currency code like USD.' })
@@ -258,7 +303,11 @@ export const policyTermsSchema = z
     denialReasons: z
       .array(
         z.strictObject({
-          code: z.string().trim().toUpperCase().regex(DENIAL_CODE, 'A reason code is 2-16 capitals, digits or dashes, like MISAPP-WET.'),
+          code: z
+            .string()
+            .trim()
+            .toUpperCase()
+            .regex(DENIAL_CODE, 'A reason code is 2-16 capitals, digits or dashes, like MISAPP-WET.'),
           label: text('the reason in words', 200),
         }),
       )
@@ -268,7 +317,11 @@ export const policyTermsSchema = z
   })
   .superRefine((t, ctx) => {
     if (t.fullCoverageMonths > t.termMonths) {
-      ctx.addIssue({ code: 'custom', path: ['fullCoverageMonths'], message: 'The full-coverage period cannot be longer than the term.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['fullCoverageMonths'],
+        message: 'The full-coverage period cannot be longer than the term.',
+      });
     }
   });
 export type PolicyTermsInput = z.input<typeof policyTermsSchema>;
@@ -343,7 +396,10 @@ const serialSchema = z
   .trim()
   .min(1, 'A serial number or date code cannot be empty.')
   .max(64, 'A serial number or date code has at most 64 characters.')
-  .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'Use letters, digits and . _ / - in serial numbers and date codes.');
+  .regex(
+    /^[A-Za-z0-9][A-Za-z0-9._/-]*$/,
+    'Use letters, digits and . _ / - in serial numbers and date codes.',
+  );
 
 export const serialsSchema = z
   .array(serialSchema)
@@ -363,7 +419,9 @@ const conditionFields = {
   location: z.enum(LOCATIONS, { error: 'Pick the location: dry, damp or wet.' }),
   enclosure: z.enum(ENCLOSURES, { error: 'Pick the enclosure: open, enclosed, or enclosed and ventilated.' }),
   dimmer: z.enum(DIMMERS, { error: 'Pick the dimmer: none, phase-cut or 0-10 V.' }),
-  nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS, { error: 'Pick a nominal supply: 120, 208, 240, 277, 347 or 480 V.' }),
+  nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS, {
+    error: 'Pick a nominal supply: 120, 208, 240, 277, 347 or 480 V.',
+  }),
   hoursPerDay: num('the hours of use a day', 'h', 0, 24),
   ambientC: num('the ambient temperature', '°C', -50, 80),
 };
@@ -393,7 +451,8 @@ export function latestInstallDate(now: Date): string {
   return new Date(now.getTime() + DAY_MS).toISOString().slice(0, 10);
 }
 
-export const FUTURE_INSTALL_DATE_MESSAGE = 'The install date is in the future. Enter the day the fixtures were installed.';
+export const FUTURE_INSTALL_DATE_MESSAGE =
+  'The install date is in the future. Enter the day the fixtures were installed.';
 
 const installDateField = (latest: string | undefined) =>
   latest === undefined
@@ -409,7 +468,9 @@ const installationFieldsUpTo = (latest: string | undefined) => ({
   quantity: num('the quantity', 'units', 1, 100_000, { int: true }),
   serials: serialsSchema,
   installDate: installDateField(latest),
-  purchaseDate: isoDateSchema('the purchase date').nullish().transform((v) => v ?? null),
+  purchaseDate: isoDateSchema('the purchase date')
+    .nullish()
+    .transform((v) => v ?? null),
   distributor: optionalText('the distributor', 160),
   invoiceNumber: optionalText('the invoice number', 64),
   lot: optionalLot,
@@ -455,7 +516,18 @@ export const installationConditionsSchema = z.strictObject(conditionFields);
 export type InstallationConditions = z.infer<typeof installationConditionsSchema>;
 
 export const installationListQuerySchema = listQuerySchema.extend({
-  sort: z.enum(['installDate', '-installDate', 'siteName', '-siteName', 'quantity', '-quantity', 'createdAt', '-createdAt']).default('-installDate'),
+  sort: z
+    .enum([
+      'installDate',
+      '-installDate',
+      'siteName',
+      '-siteName',
+      'quantity',
+      '-quantity',
+      'createdAt',
+      '-createdAt',
+    ])
+    .default('-installDate'),
   productModelId: uuidSchema.optional(),
   manufacturerId: uuidSchema.optional(),
   contractorId: uuidSchema.optional(),
@@ -490,13 +562,23 @@ export type InstallationDto = {
   nominalSupplyVolts: (typeof NOMINAL_SUPPLY_VOLTS)[number];
   hoursPerDay: number;
   ambientC: number;
-  policyVersion: { id: string; policyId: string; policyName: string; versionNumber: number; effectiveFrom: string } | null;
+  policyVersion: {
+    id: string;
+    policyId: string;
+    policyName: string;
+    versionNumber: number;
+    effectiveFrom: string;
+  } | null;
   createdAt: string;
   updatedAt: string;
   version: number;
 };
 
-export type InstallationDetailDto = InstallationDto & { serials: string[]; fit: FitWarning[]; productRatings: ProductDto };
+export type InstallationDetailDto = InstallationDto & {
+  serials: string[];
+  fit: FitWarning[];
+  productRatings: ProductDto;
+};
 
 // ---------------------------------------------------------------------------------------------------------
 // History and import
@@ -513,14 +595,22 @@ export type HistoryEventDto = {
 export const importRequestSchema = z
   .strictObject({
     csv: z.string().max(20_000_000, 'The file is larger than 20 MB.').optional(),
-    rows: z.array(z.record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()]))).max(50_000, 'At most 50,000 rows at once.').optional(),
+    rows: z
+      .array(z.record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()])))
+      .max(50_000, 'At most 50,000 rows at once.')
+      .optional(),
     /** The spreadsheet row number of the first row sent (the header is row 1), for previews sent in chunks. */
     firstRowNumber: z.number().int().min(2).max(10_000_000).optional(),
   })
   .refine((v) => (v.csv === undefined) !== (v.rows === undefined), 'Send either csv or rows.');
 export type ImportRequest = z.infer<typeof importRequestSchema>;
 
-export const importQuerySchema = z.strictObject({ dryRun: z.enum(['true', 'false']).default('false').transform((v) => v === 'true') });
+export const importQuerySchema = z.strictObject({
+  dryRun: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
+});
 
 export type ImportRowError = { row: number; column: string; message: string };
 export type ImportResult = {

@@ -2,7 +2,13 @@ import { z } from 'zod';
 import { STAGE_LABELS, STAGES, type Stage } from '../claims/stages';
 import { SYMPTOMS, type Evaluation, type Verdict } from '../engine';
 import type { AttachmentDto } from './attachments';
-import { isoDateSchema, uuidSchema, type HistoryEventDto, type OrgRef, type ProductFamily } from './catalogue';
+import {
+  isoDateSchema,
+  uuidSchema,
+  type HistoryEventDto,
+  type OrgRef,
+  type ProductFamily,
+} from './catalogue';
 import { listQuerySchema } from './users';
 
 // Claims: one strict schema per payload, shared by the claim form (its resolver and the live checks), the CSV
@@ -14,7 +20,15 @@ export type ClaimStage = Stage;
 export const CLAIM_STAGE_LABELS: Record<ClaimStage, string> = STAGE_LABELS;
 
 /** Stages where the claim is still open: something is left to do by one side or the other. */
-export const OPEN_STAGES: readonly ClaimStage[] = ['draft', 'filed', 'in_review', 'needs_info', 'return_requested', 'unit_received', 'approved'];
+export const OPEN_STAGES: readonly ClaimStage[] = [
+  'draft',
+  'filed',
+  'in_review',
+  'needs_info',
+  'return_requested',
+  'unit_received',
+  'approved',
+];
 
 export const WAITING_ON = ['manufacturer', 'contractor'] as const;
 export type WaitingOn = (typeof WAITING_ON)[number];
@@ -32,7 +46,13 @@ export const SYMPTOM_LABELS: Record<Symptom, string> = {
   other: 'Something else (say in the narrative)',
 };
 
-export const OBSERVATIONS = ['debrisIngress', 'waterIngress', 'physicalDamage', 'fanStopped', 'burnMarks'] as const;
+export const OBSERVATIONS = [
+  'debrisIngress',
+  'waterIngress',
+  'physicalDamage',
+  'fanStopped',
+  'burnMarks',
+] as const;
 export type ObservationKey = (typeof OBSERVATIONS)[number];
 export const OBSERVATION_LABELS: Record<ObservationKey, string> = {
   debrisIngress: 'Debris or insects inside',
@@ -47,7 +67,10 @@ const reading = (what: string, unit: string, max: number) =>
     .number({ error: `Enter ${what} as a number of ${unit}.` })
     .refine(Number.isFinite, `Enter ${what} as a number of ${unit}.`)
     .min(0, `${what[0].toUpperCase()}${what.slice(1)} cannot be negative.`)
-    .max(max, `${what[0].toUpperCase()}${what.slice(1)} must be at most ${max.toLocaleString('en-US')} ${unit}: check the meter's range.`)
+    .max(
+      max,
+      `${what[0].toUpperCase()}${what.slice(1)} must be at most ${max.toLocaleString('en-US')} ${unit}: check the meter's range.`,
+    )
     .optional();
 
 export const stringReadingInputSchema = z.strictObject({
@@ -77,10 +100,12 @@ export type ClaimMeasurements = z.output<typeof claimMeasurementsSchema>;
 export type ClaimMeasurementsInput = z.input<typeof claimMeasurementsSchema>;
 
 export const claimObservationsSchema = z.strictObject(
-  Object.fromEntries(OBSERVATIONS.map((k) => [k, z.boolean({ error: `Say yes or no: ${OBSERVATION_LABELS[k].toLowerCase()}.` }).optional()])) as Record<
-    ObservationKey,
-    z.ZodOptional<z.ZodBoolean>
-  >,
+  Object.fromEntries(
+    OBSERVATIONS.map((k) => [
+      k,
+      z.boolean({ error: `Say yes or no: ${OBSERVATION_LABELS[k].toLowerCase()}.` }).optional(),
+    ]),
+  ) as Record<ObservationKey, z.ZodOptional<z.ZodBoolean>>,
 );
 export type ClaimObservations = z.infer<typeof claimObservationsSchema>;
 
@@ -111,7 +136,10 @@ export const claimFieldsSchema = z.strictObject({
     .optional(),
   measurements: claimMeasurementsSchema.optional(),
   observations: claimObservationsSchema.optional(),
-  narrative: z.string({ error: 'The narrative is text.' }).max(5000, 'The narrative has at most 5,000 characters.').optional(),
+  narrative: z
+    .string({ error: 'The narrative is text.' })
+    .max(5000, 'The narrative has at most 5,000 characters.')
+    .optional(),
 });
 export type ClaimFields = z.output<typeof claimFieldsSchema>;
 export type ClaimFieldsInput = z.input<typeof claimFieldsSchema>;
@@ -132,11 +160,34 @@ export const fileClaimSchema = z.strictObject({
 
 const stageList = z
   .string()
-  .transform((s) => s.split(',').map((x) => x.trim()).filter(Boolean))
-  .pipe(z.array(z.enum(CLAIM_STAGES, { error: 'Pick a known stage.' })).min(1).max(CLAIM_STAGES.length));
+  .transform((s) =>
+    s
+      .split(',')
+      .map((x) => x.trim())
+      .filter(Boolean),
+  )
+  .pipe(
+    z
+      .array(z.enum(CLAIM_STAGES, { error: 'Pick a known stage.' }))
+      .min(1)
+      .max(CLAIM_STAGES.length),
+  );
 
 export const claimListQuerySchema = listQuerySchema.extend({
-  sort: z.enum(['filedAt', '-filedAt', 'updatedAt', '-updatedAt', 'createdAt', '-createdAt', 'failedOn', '-failedOn', 'number', '-number']).default('-updatedAt'),
+  sort: z
+    .enum([
+      'filedAt',
+      '-filedAt',
+      'updatedAt',
+      '-updatedAt',
+      'createdAt',
+      '-createdAt',
+      'failedOn',
+      '-failedOn',
+      'number',
+      '-number',
+    ])
+    .default('-updatedAt'),
   stage: stageList.optional(),
   manufacturerId: uuidSchema.optional(),
   contractorId: uuidSchema.optional(),
@@ -149,7 +200,10 @@ export const claimListQuerySchema = listQuerySchema.extend({
   verdict: z.enum(['covered', 'excluded', 'review']).optional(),
   filedFrom: isoDateSchema('the first filing date').optional(),
   filedTo: isoDateSchema('the last filing date').optional(),
-  open: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
+  open: z
+    .enum(['true', 'false'])
+    .transform((v) => v === 'true')
+    .optional(),
   batchId: uuidSchema.optional(),
 });
 export type ClaimListQuery = z.infer<typeof claimListQuerySchema>;
@@ -172,34 +226,67 @@ export type FilingContext = {
 
 export function filingIssues(c: ClaimFields, ctx: FilingContext): FilingIssue[] {
   const out: FilingIssue[] = [];
-  if (!ctx.hasPolicy) out.push({ path: 'installation', message: 'No warranty policy of the manufacturer covered this model on its purchase date, so there is nothing to claim against.' });
+  if (!ctx.hasPolicy)
+    out.push({
+      path: 'installation',
+      message:
+        'No warranty policy of the manufacturer covered this model on its purchase date, so there is nothing to claim against.',
+    });
   const serials = c.serials ?? [];
   if (ctx.serials.length > 0) {
-    if (serials.length === 0) out.push({ path: 'serials', message: 'Pick the serial number of each failed unit.' });
+    if (serials.length === 0)
+      out.push({ path: 'serials', message: 'Pick the serial number of each failed unit.' });
     const known = new Set(ctx.serials.map((s) => s.toUpperCase()));
     const strangers = serials.filter((s) => !known.has(s.toUpperCase()));
-    if (strangers.length) out.push({ path: 'serials', message: `Not registered on this installation: ${strangers.slice(0, 10).join(', ')}.` });
+    if (strangers.length)
+      out.push({
+        path: 'serials',
+        message: `Not registered on this installation: ${strangers.slice(0, 10).join(', ')}.`,
+      });
   }
   const units = c.units ?? serials.length;
   if (!units) out.push({ path: 'units', message: 'Enter how many units failed.' });
-  else if (units > ctx.quantity) out.push({ path: 'units', message: `The installation has ${ctx.quantity} units; a claim cannot name more.` });
-  else if (serials.length > units) out.push({ path: 'units', message: `${serials.length} serial numbers for ${units} failed units: list one serial per unit.` });
+  else if (units > ctx.quantity)
+    out.push({
+      path: 'units',
+      message: `The installation has ${ctx.quantity} units; a claim cannot name more.`,
+    });
+  else if (serials.length > units)
+    out.push({
+      path: 'units',
+      message: `${serials.length} serial numbers for ${units} failed units: list one serial per unit.`,
+    });
   if (!c.failedOn) out.push({ path: 'failedOn', message: 'Enter the date the unit failed.' });
   else {
-    if (c.failedOn < ctx.installDate) out.push({ path: 'failedOn', message: `The failure date is before the install date (${ctx.installDate}).` });
-    if (c.failedOn > ctx.today) out.push({ path: 'failedOn', message: 'The failure date cannot be in the future.' });
+    if (c.failedOn < ctx.installDate)
+      out.push({
+        path: 'failedOn',
+        message: `The failure date is before the install date (${ctx.installDate}).`,
+      });
+    if (c.failedOn > ctx.today)
+      out.push({ path: 'failedOn', message: 'The failure date cannot be in the future.' });
   }
   if (!c.symptoms?.length) out.push({ path: 'symptoms', message: 'Pick at least one symptom.' });
   const strings = c.measurements?.strings ?? [];
   if (strings.length > ctx.ledStrings) {
-    out.push({ path: 'measurements.strings', message: `The product has ${ctx.ledStrings} LED strings; ${strings.length} string readings were given.` });
+    out.push({
+      path: 'measurements.strings',
+      message: `The product has ${ctx.ledStrings} LED strings; ${strings.length} string readings were given.`,
+    });
   }
   strings.forEach((r, i) => {
     if (r.darkLeds !== undefined && r.darkLeds > ctx.ledsPerString) {
-      out.push({ path: `measurements.strings.${i}.darkLeds`, message: `String ${i + 1}: a string has ${ctx.ledsPerString} LEDs, so at most ${ctx.ledsPerString} can be dark.` });
+      out.push({
+        path: `measurements.strings.${i}.darkLeds`,
+        message: `String ${i + 1}: a string has ${ctx.ledsPerString} LEDs, so at most ${ctx.ledsPerString} can be dark.`,
+      });
     }
   });
-  if ((c.narrative ?? '').trim().length < 10) out.push({ path: 'narrative', message: 'Describe the failure in a sentence or two (at least 10 characters).' });
+  if ((c.narrative ?? '').trim().length < 10)
+    out.push({
+      path: 'narrative',
+      message: 'Describe the failure in a sentence or two (at least 10 characters).',
+    });
   return out;
 }
 
@@ -305,7 +392,10 @@ export const CLAIM_BATCH_MAX_ROWS = 2000;
 export const batchRequestSchema = z
   .strictObject({
     csv: z.string().max(5_000_000, 'The file is larger than 5 MB.').optional(),
-    rows: z.array(z.record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()]))).max(CLAIM_BATCH_MAX_ROWS, `At most ${CLAIM_BATCH_MAX_ROWS} rows at once.`).optional(),
+    rows: z
+      .array(z.record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()])))
+      .max(CLAIM_BATCH_MAX_ROWS, `At most ${CLAIM_BATCH_MAX_ROWS} rows at once.`)
+      .optional(),
     filename: z.string().trim().max(200).optional(),
   })
   .refine((v) => (v.csv === undefined) !== (v.rows === undefined), 'Send either csv or rows.');
@@ -321,10 +411,26 @@ export type ClaimBatchResult = {
   errors: ClaimBatchRowError[];
   errorsTruncated: boolean;
   /** Each good row: what it became (or would become). */
-  rows: { row: number; claimId: string | null; installationId: string; siteName: string; modelNumber: string; serials: string[]; failedOn: string; verdict: Verdict | null }[];
+  rows: {
+    row: number;
+    claimId: string | null;
+    installationId: string;
+    siteName: string;
+    modelNumber: string;
+    serials: string[];
+    failedOn: string;
+    verdict: Verdict | null;
+  }[];
 };
 
 export type ClaimBatchFileResult = {
   batchId: string;
-  results: { claimId: string; number: string | null; stage: ClaimStage; ok: boolean; replayed: boolean; error?: { code: string; message: string; details?: FilingIssue[] } }[];
+  results: {
+    claimId: string;
+    number: string | null;
+    stage: ClaimStage;
+    ok: boolean;
+    replayed: boolean;
+    error?: { code: string; message: string; details?: FilingIssue[] };
+  }[];
 };

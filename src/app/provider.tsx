@@ -9,7 +9,8 @@ export function AppProvider({ children }: { children: ReactNode }) {
       new QueryClient({
         defaultOptions: {
           queries: {
-            retry: (count, err) => !(err instanceof ApiError && err.status >= 400 && err.status < 500) && count < 2,
+            retry: (count, err) =>
+              !(err instanceof ApiError && err.status >= 400 && err.status < 500) && count < 2,
             refetchOnWindowFocus: false,
           },
         },

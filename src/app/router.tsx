@@ -19,26 +19,90 @@ export const router = createBrowserRouter([
     errorElement: <ErrorRoute />,
     children: [
       { index: true, lazy: () => import('./routes/home').then((m) => ({ Component: m.HomeRoute })) },
-      { path: 'admin/users', lazy: () => import('./routes/admin/users').then((m) => ({ Component: m.UsersRoute })) },
-      { path: 'admin/mailbox', lazy: () => import('./routes/admin/mailbox').then((m) => ({ Component: m.MailboxRoute })) },
-      { path: 'catalogue', lazy: () => import('./routes/catalogue/products').then((m) => ({ Component: m.ProductsRoute })) },
-      { path: 'catalogue/new', lazy: () => import('./routes/catalogue/product-new').then((m) => ({ Component: m.ProductNewRoute })) },
-      { path: 'catalogue/:id', lazy: () => import('./routes/catalogue/product').then((m) => ({ Component: m.ProductRoute })) },
-      { path: 'policies', lazy: () => import('./routes/catalogue/policies').then((m) => ({ Component: m.PoliciesRoute })) },
-      { path: 'policies/:id', lazy: () => import('./routes/catalogue/policy').then((m) => ({ Component: m.PolicyRoute })) },
-      { path: 'installations', lazy: () => import('./routes/catalogue/installations').then((m) => ({ Component: m.InstallationsRoute })) },
-      { path: 'installations/new', lazy: () => import('./routes/catalogue/installation-new').then((m) => ({ Component: m.InstallationNewRoute })) },
-      { path: 'installations/:id', lazy: () => import('./routes/catalogue/installation').then((m) => ({ Component: m.InstallationRoute })) },
-      { path: 'review', lazy: () => import('./routes/review/queue').then((m) => ({ Component: m.ReviewQueueRoute })) },
-      { path: 'review/:id', lazy: () => import('./routes/review/claim').then((m) => ({ Component: m.ReviewClaimRoute })) },
-      { path: 'claims/:id/workflow', lazy: () => import('./routes/claims/workflow').then((m) => ({ Component: m.ClaimWorkflowRoute })) },
-      { path: 'claims', lazy: () => import('./routes/claims/claims').then((m) => ({ Component: m.ClaimsRoute })) },
-      { path: 'claims/new', lazy: () => import('./routes/claims/claim-new').then((m) => ({ Component: m.ClaimNewRoute })) },
-      { path: 'claims/batch', lazy: () => import('./routes/claims/claim-batch').then((m) => ({ Component: m.ClaimBatchRoute })) },
-      { path: 'claims/:id', lazy: () => import('./routes/claims/claim').then((m) => ({ Component: m.ClaimRoute })) },
-      { path: 'analytics', lazy: () => import('./routes/analytics/failure-analysis').then((m) => ({ Component: m.FailureAnalysisRoute })) },
-      { path: 'reserve', lazy: () => import('./routes/analytics/reserve').then((m) => ({ Component: m.ReserveRoute })) },
-      { path: 'credits', lazy: () => import('./routes/credits').then((m) => ({ Component: m.CreditsRoute })) },
+      {
+        path: 'admin/users',
+        lazy: () => import('./routes/admin/users').then((m) => ({ Component: m.UsersRoute })),
+      },
+      {
+        path: 'admin/mailbox',
+        lazy: () => import('./routes/admin/mailbox').then((m) => ({ Component: m.MailboxRoute })),
+      },
+      {
+        path: 'catalogue',
+        lazy: () => import('./routes/catalogue/products').then((m) => ({ Component: m.ProductsRoute })),
+      },
+      {
+        path: 'catalogue/new',
+        lazy: () => import('./routes/catalogue/product-new').then((m) => ({ Component: m.ProductNewRoute })),
+      },
+      {
+        path: 'catalogue/:id',
+        lazy: () => import('./routes/catalogue/product').then((m) => ({ Component: m.ProductRoute })),
+      },
+      {
+        path: 'policies',
+        lazy: () => import('./routes/catalogue/policies').then((m) => ({ Component: m.PoliciesRoute })),
+      },
+      {
+        path: 'policies/:id',
+        lazy: () => import('./routes/catalogue/policy').then((m) => ({ Component: m.PolicyRoute })),
+      },
+      {
+        path: 'installations',
+        lazy: () =>
+          import('./routes/catalogue/installations').then((m) => ({ Component: m.InstallationsRoute })),
+      },
+      {
+        path: 'installations/new',
+        lazy: () =>
+          import('./routes/catalogue/installation-new').then((m) => ({ Component: m.InstallationNewRoute })),
+      },
+      {
+        path: 'installations/:id',
+        lazy: () =>
+          import('./routes/catalogue/installation').then((m) => ({ Component: m.InstallationRoute })),
+      },
+      {
+        path: 'review',
+        lazy: () => import('./routes/review/queue').then((m) => ({ Component: m.ReviewQueueRoute })),
+      },
+      {
+        path: 'review/:id',
+        lazy: () => import('./routes/review/claim').then((m) => ({ Component: m.ReviewClaimRoute })),
+      },
+      {
+        path: 'claims/:id/workflow',
+        lazy: () => import('./routes/claims/workflow').then((m) => ({ Component: m.ClaimWorkflowRoute })),
+      },
+      {
+        path: 'claims',
+        lazy: () => import('./routes/claims/claims').then((m) => ({ Component: m.ClaimsRoute })),
+      },
+      {
+        path: 'claims/new',
+        lazy: () => import('./routes/claims/claim-new').then((m) => ({ Component: m.ClaimNewRoute })),
+      },
+      {
+        path: 'claims/batch',
+        lazy: () => import('./routes/claims/claim-batch').then((m) => ({ Component: m.ClaimBatchRoute })),
+      },
+      {
+        path: 'claims/:id',
+        lazy: () => import('./routes/claims/claim').then((m) => ({ Component: m.ClaimRoute })),
+      },
+      {
+        path: 'analytics',
+        lazy: () =>
+          import('./routes/analytics/failure-analysis').then((m) => ({ Component: m.FailureAnalysisRoute })),
+      },
+      {
+        path: 'reserve',
+        lazy: () => import('./routes/analytics/reserve').then((m) => ({ Component: m.ReserveRoute })),
+      },
+      {
+        path: 'credits',
+        lazy: () => import('./routes/credits').then((m) => ({ Component: m.CreditsRoute })),
+      },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
     ],
   },

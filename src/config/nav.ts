@@ -1,4 +1,16 @@
-import { Activity, ClipboardCheck, ClipboardList, Home, Inbox, Landmark, Lightbulb, MapPin, Receipt, Users, type LucideIcon } from 'lucide-react';
+import {
+  Activity,
+  ClipboardCheck,
+  ClipboardList,
+  Home,
+  Inbox,
+  Landmark,
+  Lightbulb,
+  MapPin,
+  Receipt,
+  Users,
+  type LucideIcon,
+} from 'lucide-react';
 import type { AppAbility } from '../../shared/abilities';
 
 export type NavItem = { to: string; label: string; icon: LucideIcon; end?: boolean };
@@ -7,11 +19,14 @@ export type NavItem = { to: string; label: string; icon: LucideIcon; end?: boole
 export function navFor(ability: AppAbility): NavItem[] {
   const items: NavItem[] = [{ to: '/', label: 'Home', icon: Home, end: true }];
   if (ability.can('read', 'Claim')) items.push({ to: '/claims', label: 'Claims', icon: ClipboardList });
-  if (ability.can('read', 'ProductModel')) items.push({ to: '/catalogue', label: 'Catalogue', icon: Lightbulb });
+  if (ability.can('read', 'ProductModel'))
+    items.push({ to: '/catalogue', label: 'Catalogue', icon: Lightbulb });
   if (ability.can('read', 'Installation')) items.push({ to: '/installations', label: 'Sites', icon: MapPin });
-  if (ability.can('review', 'Claim')) items.push({ to: '/review', label: 'Review desk', icon: ClipboardCheck });
+  if (ability.can('review', 'Claim'))
+    items.push({ to: '/review', label: 'Review desk', icon: ClipboardCheck });
   if (ability.can('read', 'CreditMemo')) items.push({ to: '/credits', label: 'Credits', icon: Receipt });
-  if (ability.can('read', 'Analytics')) items.push({ to: '/analytics', label: 'Failure analysis', icon: Activity });
+  if (ability.can('read', 'Analytics'))
+    items.push({ to: '/analytics', label: 'Failure analysis', icon: Activity });
   if (ability.can('read', 'Reserve')) items.push({ to: '/reserve', label: 'Reserve', icon: Landmark });
   if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });
   if (ability.can('read', 'Mailbox')) items.push({ to: '/admin/mailbox', label: 'Mailbox', icon: Inbox });

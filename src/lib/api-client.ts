@@ -21,7 +21,11 @@ export async function api<T>(path: string, init: RequestInit & { json?: unknown 
     res = await fetch(`/api${path}`, {
       credentials: 'same-origin',
       ...rest,
-      headers: { Accept: 'application/json', ...(json !== undefined ? { 'Content-Type': 'application/json' } : {}), ...headers },
+      headers: {
+        Accept: 'application/json',
+        ...(json !== undefined ? { 'Content-Type': 'application/json' } : {}),
+        ...headers,
+      },
       body: json !== undefined ? JSON.stringify(json) : rest.body,
     });
   } catch {
@@ -32,7 +36,12 @@ export async function api<T>(path: string, init: RequestInit & { json?: unknown 
   const body = text ? safeJson(text) : undefined;
   if (!res.ok) {
     const err = (body as { error?: ApiErrorBody } | undefined)?.error;
-    throw new ApiError(res.status, err?.code ?? 'http.error', err?.message ?? `The server answered ${res.status}.`, err?.details ?? []);
+    throw new ApiError(
+      res.status,
+      err?.code ?? 'http.error',
+      err?.message ?? `The server answered ${res.status}.`,
+      err?.details ?? [],
+    );
   }
   return body as T;
 }
@@ -47,7 +56,8 @@ function safeJson(text: string): unknown {
 
 export function toQuery(params: Record<string, string | number | undefined | null>) {
   const sp = new URLSearchParams();
-  for (const [k, v] of Object.entries(params)) if (v !== undefined && v !== null && v !== '') sp.set(k, String(v));
+  for (const [k, v] of Object.entries(params))
+    if (v !== undefined && v !== null && v !== '') sp.set(k, String(v));
   const s = sp.toString();
   return s ? `?${s}` : '';
 }

@@ -6,7 +6,9 @@ import { hasNoHorizontalScroll, PHONE, seriousA11yViolations, signInAs } from '.
 test.describe('catalogue on a phone', () => {
   test.use({ viewport: PHONE, isMobile: true, hasTouch: true });
 
-  test('a manufacturer administrator adds a model and a contractor registers an installation of it', async ({ page }) => {
+  test('a manufacturer administrator adds a model and a contractor registers an installation of it', async ({
+    page,
+  }) => {
     const modelNumber = `AC-E2E-${Date.now().toString(36).toUpperCase()}`;
 
     await signInAs(page, 'max@aldercrest.test');
@@ -52,12 +54,17 @@ test.describe('catalogue on a phone', () => {
     const installed = page.getByRole('columnheader', { name: 'Installed' });
     await expect(installed).toHaveAttribute('aria-sort', 'descending');
     await page.getByRole('button', { name: 'Units' }).click();
-    await expect(page.getByRole('columnheader', { name: 'Units' })).toHaveAttribute('aria-sort', 'descending');
+    await expect(page.getByRole('columnheader', { name: 'Units' })).toHaveAttribute(
+      'aria-sort',
+      'descending',
+    );
     await expect(page.getByLabel('Sort by')).toHaveValue('-quantity');
     await expect(installed).not.toHaveAttribute('aria-sort');
     await page.getByRole('link', { name: 'Register an installation' }).click();
     await page.getByLabel('Find a model').fill(modelNumber);
-    await page.getByLabel('Product model').selectOption({ label: `${modelNumber} · Arden compact high-bay 100 W (Aldercrest Lighting)` });
+    await page
+      .getByLabel('Product model')
+      .selectOption({ label: `${modelNumber} · Arden compact high-bay 100 W (Aldercrest Lighting)` });
     await page.getByLabel('Quantity').fill('2');
     await page.getByLabel('Serial numbers or date codes').fill(`${modelNumber}-0001 ${modelNumber}-0002`);
     await page.getByLabel('Lot (optional)').fill('ACE2405');
@@ -79,11 +86,16 @@ test.describe('catalogue on a phone', () => {
     await expect(page.getByText('but this fixture is rated for damp locations only')).toBeVisible();
     await expect(page.getByText('Source: NFPA 70 (NEC) Article 100 and 410.10(A)')).toBeVisible();
     expect(await hasNoHorizontalScroll(page)).toBe(true);
-    await page.screenshot({ path: '.data/playwright-results/phone-register-installation.png', fullPage: true });
+    await page.screenshot({
+      path: '.data/playwright-results/phone-register-installation.png',
+      fullPage: true,
+    });
     expect(await seriousA11yViolations(page)).toEqual([]);
     await page.getByRole('button', { name: 'Register the installation' }).click();
 
-    await expect(page.getByRole('heading', { level: 1, name: 'Tidewater fish processing, wash-down hall' })).toBeVisible();
+    await expect(
+      page.getByRole('heading', { level: 1, name: 'Tidewater fish processing, wash-down hall' }),
+    ).toBeVisible();
     await expect(page.getByText('but this fixture is rated for damp locations only')).toBeVisible();
     await expect(page.getByText(`${modelNumber}-0001`)).toBeVisible();
     await expect(page.getByText('ACE2405', { exact: true })).toBeVisible();

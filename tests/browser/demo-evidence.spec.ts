@@ -6,13 +6,17 @@ import { PHONE, signInAs } from './support';
 test.describe('demo claims with their evidence', () => {
   test.use({ viewport: PHONE, isMobile: true, hasTouch: true });
 
-  test('an installer sees the nameplate, failure and site photos of a filed demo claim, thumbnails loaded', async ({ page }) => {
+  test('an installer sees the nameplate, failure and site photos of a filed demo claim, thumbnails loaded', async ({
+    page,
+  }) => {
     await signInAs(page, 'ines@harborview.test');
     const list = await page.request.get('/api/claims?stage=in_review&pageSize=50&sort=-filedAt');
     const claims = (await list.json()).items as { id: string; number: string }[];
     let target: { id: string; number: string } | undefined;
     for (const c of claims) {
-      const detail = (await (await page.request.get(`/api/claims/${c.id}`)).json()).claim as { attachments: { purpose: string }[] };
+      const detail = (await (await page.request.get(`/api/claims/${c.id}`)).json()).claim as {
+        attachments: { purpose: string }[];
+      };
       const purposes = new Set(detail.attachments.map((a) => a.purpose));
       if (purposes.has('site') && purposes.has('proof_of_purchase')) {
         target = c;
@@ -31,7 +35,11 @@ test.describe('demo claims with their evidence', () => {
     const thumbs = files.locator('img');
     expect(await thumbs.count()).toBeGreaterThanOrEqual(3);
     await expect
-      .poll(() => thumbs.evaluateAll((imgs) => imgs.every((i) => (i as HTMLImageElement).complete && (i as HTMLImageElement).naturalWidth > 0)))
+      .poll(() =>
+        thumbs.evaluateAll((imgs) =>
+          imgs.every((i) => (i as HTMLImageElement).complete && (i as HTMLImageElement).naturalWidth > 0),
+        ),
+      )
       .toBe(true);
     // 800 x 600 photos, thumbnails at most 320 px wide (server/lib/uploads/inspect.ts).
     expect(await thumbs.first().evaluate((i) => (i as HTMLImageElement).naturalWidth)).toBe(320);

@@ -4,7 +4,9 @@ import { seriousA11yViolations, signInAs } from './support';
 // The review desk's pickers on the demo scenario: the queue filtered by one of the manufacturer's product models
 // and by a contractor that files with it, and the review screen's form for handing a claim to a colleague.
 
-test('a reviewer narrows the queue by product and by contractor, then opens the hand-over form on a claim', async ({ page }) => {
+test('a reviewer narrows the queue by product and by contractor, then opens the hand-over form on a claim', async ({
+  page,
+}) => {
   await signInAs(page, 'rhea@aldercrest.test');
   await page.goto('/review');
   const rows = page.getByRole('list', { name: 'Claims' }).getByRole('link');
@@ -21,14 +23,22 @@ test('a reviewer narrows the queue by product and by contractor, then opens the 
   const model = label!.split(' · ')[0];
   await product.selectOption({ label: label! });
   await expect(rows.first()).toBeVisible();
-  await expect.poll(async () => (await rows.allTextContents()).every((t) => t.includes(` · ${model} · `))).toBe(true);
+  await expect
+    .poll(async () => (await rows.allTextContents()).every((t) => t.includes(` · ${model} · `)))
+    .toBe(true);
 
   const contractor = page.getByLabel('Contractor');
   await expect(contractor.locator('option', { hasText: 'Harborview Electric' })).toBeAttached();
   await product.selectOption({ label: 'Any product' });
   await contractor.selectOption({ label: 'Harborview Electric' });
   await expect(rows.first()).toBeVisible();
-  await expect.poll(async () => (await rows.allTextContents()).every((t) => t.startsWith('LP-') && t.includes('Harborview Electric · '))).toBe(true);
+  await expect
+    .poll(async () =>
+      (await rows.allTextContents()).every(
+        (t) => t.startsWith('LP-') && t.includes('Harborview Electric · '),
+      ),
+    )
+    .toBe(true);
   expect(await seriousA11yViolations(page)).toEqual([]);
 
   await rows.first().click();

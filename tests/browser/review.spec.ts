@@ -11,14 +11,20 @@ import { PHONE, seriousA11yViolations, signInAs } from './support';
 
 type FiledClaim = { id: string; number: string; stage: string; evaluation: { verdict: string } };
 
-const sha256 = async (d: Download) => crypto.createHash('sha256').update(fs.readFileSync(await d.path())).digest('hex');
+const sha256 = async (d: Download) =>
+  crypto
+    .createHash('sha256')
+    .update(fs.readFileSync(await d.path()))
+    .digest('hex');
 
 async function download(page: Page, name: string | RegExp) {
   const [d] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name }).click()]);
   return d;
 }
 
-test('a reviewer asks, the installer answers with a photo, the reviewer approves against the engine with a reason, and both download the same letter', async ({ browser }) => {
+test('a reviewer asks, the installer answers with a photo, the reviewer approves against the engine with a reason, and both download the same letter', async ({
+  browser,
+}) => {
   const reviewerCtx = await browser.newContext();
   const installerCtx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true });
   const reviewer = await reviewerCtx.newPage();
@@ -27,7 +33,13 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
 
   // A claim the engine finds likely excluded, made through the API: the installer files on one of the demo's
   // deliberately misapplied sites (the installation's fit check names the misapplication).
-  type Inst = { id: string; manufacturer: { name: string }; serialCount: number; installDate: string; policyVersion: unknown };
+  type Inst = {
+    id: string;
+    manufacturer: { name: string };
+    serialCount: number;
+    installDate: string;
+    policyVersion: unknown;
+  };
   let site: { id: string; serials: string[]; fit: unknown[]; manufacturer: { name: string } } | undefined;
   let seen = 0;
   for (let p = 1; p <= 10 && !site; p++) {
@@ -45,7 +57,8 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
     }
   }
   if (!site) throw new Error(`no misapplied installation among ${seen} in the demo scenario`);
-  const reviewerEmail = site.manufacturer.name === 'Veltra Luminaires' ? 'theo@veltra.test' : 'rhea@aldercrest.test';
+  const reviewerEmail =
+    site.manufacturer.name === 'Veltra Luminaires' ? 'theo@veltra.test' : 'rhea@aldercrest.test';
   const draft = await installer.request.post('/api/claims', {
     data: {
       installationId: site.id,
@@ -53,14 +66,26 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
       units: 1,
       failedOn: new Date(Date.now() - 10 * 86_400_000).toISOString().slice(0, 10),
       symptoms: ['partly_dark'],
-      observations: { debrisIngress: false, waterIngress: false, physicalDamage: false, fanStopped: false, burnMarks: false },
+      observations: {
+        debrisIngress: false,
+        waterIngress: false,
+        physicalDamage: false,
+        fanStopped: false,
+        burnMarks: false,
+      },
       narrative: 'Two strings dark on the loading-dock fixture since the cold snap.',
     },
   });
   expect(draft.status()).toBe(201);
   const draftId = (await draft.json()).claim.id as string;
-  for (const [purpose, colour] of [['nameplate', '#4a7d5c'], ['failure', '#7d4a4a'], ['site', '#4a4a7d']]) {
-    const buffer = await sharp({ create: { width: 200, height: 150, channels: 3, background: colour } }).jpeg().toBuffer();
+  for (const [purpose, colour] of [
+    ['nameplate', '#4a7d5c'],
+    ['failure', '#7d4a4a'],
+    ['site', '#4a4a7d'],
+  ]) {
+    const buffer = await sharp({ create: { width: 200, height: 150, channels: 3, background: colour } })
+      .jpeg()
+      .toBuffer();
     const up = await installer.request.post(`/api/claims/${draftId}/attachments`, {
       multipart: { purpose, file: { name: `${purpose}.jpg`, mimeType: 'image/jpeg', buffer } },
     });
@@ -77,7 +102,10 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
   const moves = reviewer.getByRole('group', { name: 'Moves' });
   if (claim.stage === 'filed') {
     await moves.getByRole('button', { name: 'Take into review' }).click();
-    await reviewer.getByRole('form', { name: 'Take into review' }).getByRole('button', { name: 'Take into review' }).click();
+    await reviewer
+      .getByRole('form', { name: 'Take into review' })
+      .getByRole('button', { name: 'Take into review' })
+      .click();
     await expect(moves.getByRole('button', { name: 'Ask the installer' })).toBeVisible();
   }
   // Taking it into review made it this reviewer's.
@@ -86,22 +114,34 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
   // 1. The reviewer asks.
   await moves.getByRole('button', { name: 'Ask the installer' }).click();
   const ask = reviewer.getByRole('form', { name: 'Ask the installer' });
-  await ask.getByLabel('What you need from the installer').fill('Please send a photo of the nameplate showing the date code.');
+  await ask
+    .getByLabel('What you need from the installer')
+    .fill('Please send a photo of the nameplate showing the date code.');
   await ask.getByRole('button', { name: 'Ask the installer' }).click();
   await expect(reviewer.getByText(/Waiting on installer/).first()).toBeVisible();
   await expect(moves.getByRole('button', { name: 'Ask the installer' })).toHaveCount(0);
 
   // 2. The installer answers on a phone, with text and a photo (a multipart upload).
   await installer.goto(`/claims/${claim.id}/workflow`);
-  await expect(installer.getByText('Please send a photo of the nameplate showing the date code.').first()).toBeVisible();
+  await expect(
+    installer.getByText('Please send a photo of the nameplate showing the date code.').first(),
+  ).toBeVisible();
   await installer.getByLabel('Your answer').fill('Nameplate photo attached; the date code reads 2319.');
-  const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#6a8caf' } }).jpeg().toBuffer();
-  await installer.getByLabel('Photos or documents').setInputFiles({ name: 'nameplate.jpg', mimeType: 'image/jpeg', buffer: photo });
+  const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#6a8caf' } })
+    .jpeg()
+    .toBuffer();
+  await installer
+    .getByLabel('Photos or documents')
+    .setInputFiles({ name: 'nameplate.jpg', mimeType: 'image/jpeg', buffer: photo });
   await installer.getByRole('button', { name: 'Send answer' }).click();
   await expect(installer.getByText('Nameplate photo attached; the date code reads 2319.')).toBeVisible();
-  await expect(installer.getByRole('img', { name: 'Photo sent with the answer: nameplate.jpg' })).toBeVisible();
+  await expect(
+    installer.getByRole('img', { name: 'Photo sent with the answer: nameplate.jpg' }),
+  ).toBeVisible();
   await expect(installer.getByRole('button', { name: 'Send answer' })).toHaveCount(0);
-  expect(await installer.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+  expect(await installer.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(
+    true,
+  );
 
   // 3. Back in review: the reviewer sees the answer and its photo.
   await reviewer.reload();
@@ -109,7 +149,9 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
   const sent = reviewer.getByRole('img', { name: 'Photo sent with the answer: nameplate.jpg' });
   await expect(sent).toBeVisible();
   // The thumbnail really loads (the reviewer may read the installer's file).
-  await expect.poll(() => sent.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0)).toBe(true);
+  await expect
+    .poll(() => sent.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0))
+    .toBe(true);
   expect(await seriousA11yViolations(reviewer)).toEqual([]);
 
   // 4. Approve against the engine: shown as needing a reason, refused without one, accepted with one.
@@ -125,9 +167,13 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
   const stillOpen = await reviewer.request.get(`/api/claims/${claim.id}/workflow`);
   expect((await stillOpen.json()).claim.stage).toBe('in_review');
   expect((await stillOpen.json()).decision).toBe(null);
-  await approve.getByLabel('Reason for departing from the engine').fill('The nameplate date code shows the unit inside its term; the exclusion rested on a missing photo.');
+  await approve
+    .getByLabel('Reason for departing from the engine')
+    .fill('The nameplate date code shows the unit inside its term; the exclusion rested on a missing photo.');
   await approve.getByRole('button', { name: 'Approve' }).click();
-  await expect(reviewer.getByText('Why it departs from the screening: The nameplate date code')).toBeVisible();
+  await expect(
+    reviewer.getByText('Why it departs from the screening: The nameplate date code'),
+  ).toBeVisible();
   expect(await seriousA11yViolations(reviewer)).toEqual([]);
 
   // 5. Both parties download the letter: the same bytes.
@@ -138,7 +184,12 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
   const [a, b] = [await sha256(fromReviewer), await sha256(fromInstaller)];
   expect(a).toMatch(/^[0-9a-f]{64}$/);
   expect(b).toBe(a);
-  expect(fs.readFileSync(await fromInstaller.path()).subarray(0, 5).toString('latin1')).toBe('%PDF-');
+  expect(
+    fs
+      .readFileSync(await fromInstaller.path())
+      .subarray(0, 5)
+      .toString('latin1'),
+  ).toBe('%PDF-');
 
   await reviewerCtx.close();
   await installerCtx.close();
@@ -147,7 +198,9 @@ test('a reviewer asks, the installer answers with a photo, the reviewer approves
 test.describe('the review desk on a phone', () => {
   test.use({ viewport: PHONE, isMobile: true, hasTouch: true });
 
-  test('the queue fits 360 px, passes axe, filters by verdict, and opens a claim from the keyboard', async ({ page }) => {
+  test('the queue fits 360 px, passes axe, filters by verdict, and opens a claim from the keyboard', async ({
+    page,
+  }) => {
     await signInAs(page, 'rhea@aldercrest.test');
     await page.goto('/review');
     await expect(page.getByRole('heading', { level: 1, name: 'Review desk' })).toBeVisible();

@@ -18,7 +18,9 @@ export async function hasNoHorizontalScroll(page: Page) {
 /** Runs axe on the page and returns the serious and critical violations (none expected). */
 export async function seriousA11yViolations(page: Page) {
   const { default: AxeBuilder } = await import('@axe-core/playwright');
-  const results = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
+  const results = await new AxeBuilder({ page })
+    .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'])
+    .analyze();
   return results.violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
     .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);

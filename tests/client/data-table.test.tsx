@@ -4,7 +4,13 @@ import { useState } from 'react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 
 import type { Paginated } from '../../shared/schemas/users';
-import { DataTable, nextSort, readSort, type Column, type PagedResult } from '../../src/components/ui/data-table';
+import {
+  DataTable,
+  nextSort,
+  readSort,
+  type Column,
+  type PagedResult,
+} from '../../src/components/ui/data-table';
 import { ApiError } from '../../src/lib/api-client';
 
 // Vitest runs without globals here, so Testing Library cannot register its own cleanup.
@@ -16,7 +22,8 @@ const COLUMNS: Column<Row>[] = [
   { key: 'amount', header: 'Amount', sortKey: 'amount', firstSort: 'descending', cell: (r) => r.amount },
   { key: 'note', header: 'Note', cell: () => '—' },
 ];
-const rows = (n: number): Row[] => Array.from({ length: n }, (_, i) => ({ id: `r${i}`, name: `Row ${i + 1}`, amount: i * 10 }));
+const rows = (n: number): Row[] =>
+  Array.from({ length: n }, (_, i) => ({ id: `r${i}`, name: `Row ${i + 1}`, amount: i * 10 }));
 const page = (items: Row[], extra: Partial<Paginated<Row>> = {}): PagedResult<Row> => ({
   isPending: false,
   error: null,
@@ -24,7 +31,17 @@ const page = (items: Row[], extra: Partial<Paginated<Row>> = {}): PagedResult<Ro
 });
 
 /** The table with its sort kept in state, as the screens keep it. */
-function Harness({ result, onSort = () => {}, onPage = () => {}, initialSort = 'name' }: { result: PagedResult<Row>; onSort?: (s: string) => void; onPage?: (p: number) => void; initialSort?: string }) {
+function Harness({
+  result,
+  onSort = () => {},
+  onPage = () => {},
+  initialSort = 'name',
+}: {
+  result: PagedResult<Row>;
+  onSort?: (s: string) => void;
+  onPage?: (p: number) => void;
+  initialSort?: string;
+}) {
   const [sort, setSort] = useState(initialSort);
   return (
     <DataTable
@@ -114,7 +131,14 @@ describe('DataTable', () => {
   it('shows loading, then the server reason or its own words when the list cannot be loaded', () => {
     const { rerender } = render(<Harness result={{ isPending: true, error: null }} />);
     expect(screen.getByRole('status')).toHaveTextContent('Loading rows');
-    rerender(<Harness result={{ isPending: false, error: new ApiError(403, 'auth.forbidden', 'You may not see these rows.') }} />);
+    rerender(
+      <Harness
+        result={{
+          isPending: false,
+          error: new ApiError(403, 'auth.forbidden', 'You may not see these rows.'),
+        }}
+      />,
+    );
     expect(screen.getByRole('alert')).toHaveTextContent('You may not see these rows.');
     rerender(<Harness result={{ isPending: false, error: new TypeError('Failed to fetch') }} />);
     expect(screen.getByRole('alert')).toHaveTextContent('Could not load rows.');

@@ -3,7 +3,11 @@ import { act, cleanup, renderHook, waitFor } from '@testing-library/react';
 import type { ReactNode } from 'react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { ClaimDetailDto } from '../../shared/schemas/claims';
-import { clearLocalDraft, readLocalDraft, useDraftSync } from '../../src/features/claims/hooks/use-draft-sync';
+import {
+  clearLocalDraft,
+  readLocalDraft,
+  useDraftSync,
+} from '../../src/features/claims/hooks/use-draft-sync';
 
 // The draft's offline keeping (src/features/claims/hooks/use-draft-sync.ts) against a small in-memory stand-in
 // for the claims API behind fetch: PATCH /api/claims/:id answers the next version, or 409 claim.changed when
@@ -17,7 +21,12 @@ const CLAIM_ID = '3f6c1b8e-4d2a-4c1e-9a57-0c2f8e6b1d10';
 const toFields = (v: Values) => ({ narrative: v.narrative });
 
 let online = true;
-let server: { version: number; narrative: string; requests: { method: string; body: Record<string, unknown> | null }[]; down: boolean };
+let server: {
+  version: number;
+  narrative: string;
+  requests: { method: string; body: Record<string, unknown> | null }[];
+  down: boolean;
+};
 
 function claimDto(): ClaimDetailDto {
   return { id: CLAIM_ID, version: server.version, narrative: server.narrative } as unknown as ClaimDetailDto;
@@ -56,7 +65,9 @@ afterEach(() => {
 
 function setup() {
   const qc = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  const wrapper = ({ children }: { children: ReactNode }) => <QueryClientProvider client={qc}>{children}</QueryClientProvider>;
+  const wrapper = ({ children }: { children: ReactNode }) => (
+    <QueryClientProvider client={qc}>{children}</QueryClientProvider>
+  );
   const claim = claimDto();
   return renderHook(() => useDraftSync<Values>(claim, toFields, 5), { wrapper });
 }
@@ -67,7 +78,11 @@ describe('useDraftSync: drafts save as the user goes and survive a lost connecti
   it('keeps each change on the device at once, sends it after a pause with the version it was made on, then forgets it', async () => {
     const { result } = setup();
     act(() => result.current.change({ narrative: 'Two strings dark' }));
-    expect(readLocalDraft<Values>(CLAIM_ID)).toMatchObject({ claimId: CLAIM_ID, baseVersion: 3, values: { narrative: 'Two strings dark' } });
+    expect(readLocalDraft<Values>(CLAIM_ID)).toMatchObject({
+      claimId: CLAIM_ID,
+      baseVersion: 3,
+      values: { narrative: 'Two strings dark' },
+    });
     await waitFor(() => expect(result.current.status).toBe('saved'));
     expect(patches()).toEqual([{ method: 'PATCH', body: { version: 3, narrative: 'Two strings dark' } }]);
     expect(server).toMatchObject({ version: 4, narrative: 'Two strings dark' });
@@ -88,7 +103,9 @@ describe('useDraftSync: drafts save as the user goes and survive a lost connecti
     online = true;
     act(() => window.dispatchEvent(new Event('online')));
     await waitFor(() => expect(result.current.status).toBe('saved'));
-    expect(patches()).toEqual([{ method: 'PATCH', body: { version: 3, narrative: 'Typed on the lift with no signal' } }]);
+    expect(patches()).toEqual([
+      { method: 'PATCH', body: { version: 3, narrative: 'Typed on the lift with no signal' } },
+    ]);
     expect(server.narrative).toBe('Typed on the lift with no signal');
     expect(readLocalDraft(CLAIM_ID)).toBeNull();
   });
@@ -140,7 +157,10 @@ describe('useDraftSync: drafts save as the user goes and survive a lost connecti
     act(() => result.current.change({ narrative: 'Typed on the phone' }));
     await waitFor(() => expect(result.current.status).toBe('conflict'));
     expect(server.narrative).toBe('Typed at the desk');
-    expect(readLocalDraft<Values>(CLAIM_ID)).toMatchObject({ baseVersion: 3, values: { narrative: 'Typed on the phone' } });
+    expect(readLocalDraft<Values>(CLAIM_ID)).toMatchObject({
+      baseVersion: 3,
+      values: { narrative: 'Typed on the phone' },
+    });
     await act(() => result.current.keepMine());
     await waitFor(() => expect(result.current.status).toBe('saved'));
     expect(patches().map((p) => p.body)).toEqual([

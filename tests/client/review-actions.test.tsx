@@ -16,7 +16,11 @@ import { makeInput } from '../shared/engine/factory';
 afterEach(cleanup);
 
 const CLAIM_ID = '00000000-0000-4000-8000-000000000042';
-const reviewer = { id: 'u1', roles: ['reviewer' as const], organization: { id: 'm1', kind: 'manufacturer' as const } };
+const reviewer = {
+  id: 'u1',
+  roles: ['reviewer' as const],
+  organization: { id: 'm1', kind: 'manufacturer' as const },
+};
 // These three have routes of their own (DEVELOPERS.md): the workflow answer never offers them.
 const MOVES_ELSEWHERE = ['file', 'credit', 'void_credit'];
 
@@ -27,9 +31,22 @@ function evaluation(verdict: Verdict): Evaluation {
 }
 
 function workflow(stage: Stage, ev: Evaluation): ClaimWorkflowDto {
-  const view = { stage, contractorId: 'c1', manufacturerId: 'm1', evaluation: { verdict: ev.verdict, computed: ev.computed } };
+  const view = {
+    stage,
+    contractorId: 'c1',
+    manufacturerId: 'm1',
+    evaluation: { verdict: ev.verdict, computed: ev.computed },
+  };
   return {
-    claim: { id: CLAIM_ID, number: 'LP-2511-ABC-DEFG', stage, waitingOn: 'manufacturer', version: 3, stageChangedAt: '2026-11-02T09:00:00.000Z', assignee: null },
+    claim: {
+      id: CLAIM_ID,
+      number: 'LP-2511-ABC-DEFG',
+      stage,
+      waitingOn: 'manufacturer',
+      version: 3,
+      stageChangedAt: '2026-11-02T09:00:00.000Z',
+      assignee: null,
+    },
     actions: availableActions(view, reviewer).filter((a) => !MOVES_ELSEWHERE.includes(a)),
     openRequest: null,
     messages: [],
@@ -45,7 +62,11 @@ let sent: { url: string; init: RequestInit }[];
 let reply: (url: string) => Response;
 beforeEach(() => {
   sent = [];
-  reply = () => new Response(JSON.stringify({ claim: { id: CLAIM_ID, stage: 'approved', version: 4 } }), { status: 200, headers: { 'Content-Type': 'application/json' } });
+  reply = () =>
+    new Response(JSON.stringify({ claim: { id: CLAIM_ID, stage: 'approved', version: 4 } }), {
+      status: 200,
+      headers: { 'Content-Type': 'application/json' },
+    });
   vi.stubGlobal(
     'fetch',
     vi.fn(async (url: string, init: RequestInit) => {
@@ -58,7 +79,9 @@ afterEach(() => vi.unstubAllGlobals());
 
 function renderActions(stage: Stage, verdict: Verdict) {
   const ev = evaluation(verdict);
-  const client = new QueryClient({ defaultOptions: { queries: { retry: false }, mutations: { retry: false } } });
+  const client = new QueryClient({
+    defaultOptions: { queries: { retry: false }, mutations: { retry: false } },
+  });
   return render(
     <QueryClientProvider client={client}>
       <ReviewActions wf={workflow(stage, ev)} evaluation={ev} units={1} />
@@ -87,7 +110,8 @@ describe('the review screen’s moves', () => {
     for (const [stage, labels] of expected) {
       const { unmount } = renderActions(stage, 'review');
       expect({ stage, labels: moveButtons() }).toEqual({ stage, labels });
-      if (labels.length === 0) expect(screen.getByText('Nothing for you to do at this stage.')).toBeInTheDocument();
+      if (labels.length === 0)
+        expect(screen.getByText('Nothing for you to do at this stage.')).toBeInTheDocument();
       unmount();
     }
   });
@@ -97,7 +121,9 @@ describe('the review screen’s moves', () => {
     renderActions('in_review', 'excluded');
     await user.click(screen.getByRole('button', { name: 'Approve' }));
     const form = screen.getByRole('form', { name: 'Approve' });
-    expect(within(form).getByRole('alert')).toHaveTextContent('This decision needs a written reason: The engine found this claim likely excluded.');
+    expect(within(form).getByRole('alert')).toHaveTextContent(
+      'This decision needs a written reason: The engine found this claim likely excluded.',
+    );
     expect(reasonField()).toBeInTheDocument();
     await user.type(reasonField()!, 'Date code on the nameplate puts the unit inside its term.');
     await user.click(within(form).getByRole('button', { name: 'Approve' }));
@@ -127,7 +153,9 @@ describe('the review screen’s moves', () => {
       );
     renderActions('in_review', 'excluded');
     await user.click(screen.getByRole('button', { name: 'Approve' }));
-    await user.click(within(screen.getByRole('form', { name: 'Approve' })).getByRole('button', { name: 'Approve' }));
+    await user.click(
+      within(screen.getByRole('form', { name: 'Approve' })).getByRole('button', { name: 'Approve' }),
+    );
     const refusal = await screen.findByText('Say why the decision departs from the engine.');
     expect(refusal.closest('[role="alert"]')).toHaveTextContent('Some of the details need another look.');
     expect(JSON.parse(String(sent[0].init.body))).not.toHaveProperty('overrideReason');
@@ -141,7 +169,9 @@ describe('the review screen’s moves', () => {
     const amount = screen.getByRole('textbox', { name: /Amount/ });
     await user.clear(amount);
     await user.type(amount, '120.00');
-    expect(screen.getByRole('alert')).toHaveTextContent("The amount differs from the engine's credit of 96.00 USD.");
+    expect(screen.getByRole('alert')).toHaveTextContent(
+      "The amount differs from the engine's credit of 96.00 USD.",
+    );
     expect(reasonField()).toBeInTheDocument();
     // Back to the engine's figure (written differently): no reason needed again.
     await user.clear(amount);
@@ -176,7 +206,9 @@ describe('taking a claim', () => {
   function renderAssignment(assignee: { id: string; name: string } | null) {
     const wf = workflow('in_review', evaluation('review'));
     wf.claim.assignee = assignee;
-    const client = new QueryClient({ defaultOptions: { queries: { retry: false }, mutations: { retry: false } } });
+    const client = new QueryClient({
+      defaultOptions: { queries: { retry: false }, mutations: { retry: false } },
+    });
     return render(
       <QueryClientProvider client={client}>
         <Assignment wf={wf} meId="u1" />
@@ -209,7 +241,8 @@ describe('taking a claim', () => {
     expect(group().getByRole('button', { name: 'Assign to me' })).toBeInTheDocument();
   });
 
-  const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
+  const json = (body: unknown, status = 200) =>
+    new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
   const TEAM = [
     { id: 'u1', name: 'Rowan' },
     { id: 'u7', name: 'Noor' },
@@ -219,7 +252,8 @@ describe('taking a claim', () => {
 
   it('hands the claim to a colleague chosen from the team’s active reviewers, with the claim’s version', async () => {
     const user = userEvent.setup();
-    reply = (url) => (url === '/api/review/reviewers' ? json({ items: TEAM }) : json({ claim: { id: CLAIM_ID, version: 4 } }));
+    reply = (url) =>
+      url === '/api/review/reviewers' ? json({ items: TEAM }) : json({ claim: { id: CLAIM_ID, version: 4 } });
     renderAssignment({ id: 'u9', name: 'Sasha' });
     // The list is asked for only when wanted.
     expect(sent).toHaveLength(0);
@@ -228,7 +262,11 @@ describe('taking a claim', () => {
     await group().findByRole('option', { name: 'Noor' });
     expect(sent[0].url).toBe('/api/review/reviewers');
     // Neither oneself (that is "Assign to me") nor whoever has it now.
-    expect(within(picker).getAllByRole('option').map((o) => o.textContent)).toEqual(['Choose a reviewer', 'Noor']);
+    expect(
+      within(picker)
+        .getAllByRole('option')
+        .map((o) => o.textContent),
+    ).toEqual(['Choose a reviewer', 'Noor']);
     // Nothing chosen: said so, and nothing sent.
     await user.click(group().getByRole('button', { name: 'Hand over' }));
     expect(group().getByText('Choose a colleague to hand the claim to.')).toBeInTheDocument();
@@ -246,10 +284,16 @@ describe('taking a claim', () => {
   it('says plainly when someone changed the claim first (409), and offers to reload it', async () => {
     const user = userEvent.setup();
     const message = 'Someone else moved this claim just now. Reload it to see what changed, then try again.';
-    reply = (url) => (url === '/api/review/reviewers' ? json({ items: TEAM }) : json({ error: { code: 'claim.changed', message } }, 409));
+    reply = (url) =>
+      url === '/api/review/reviewers'
+        ? json({ items: TEAM })
+        : json({ error: { code: 'claim.changed', message } }, 409);
     renderAssignment(null);
     await user.click(group().getByRole('button', { name: 'Hand to a colleague' }));
-    await user.selectOptions(await group().findByRole('combobox', { name: 'Colleague' }), await group().findByRole('option', { name: 'Sasha' }));
+    await user.selectOptions(
+      await group().findByRole('combobox', { name: 'Colleague' }),
+      await group().findByRole('option', { name: 'Sasha' }),
+    );
     await user.click(group().getByRole('button', { name: 'Hand over' }));
     expect(await group().findByRole('alert')).toHaveTextContent(message);
     await user.click(group().getByRole('button', { name: 'Reload the claim' }));
@@ -267,6 +311,8 @@ describe('taking a claim', () => {
     reply = () => json({ error: { code: 'internal', message: 'Something went wrong on our side.' } }, 500);
     renderAssignment(null);
     await user.click(group().getByRole('button', { name: 'Hand to a colleague' }));
-    expect(await group().findByText('The list of reviewers could not be loaded. Try again in a moment.')).toBeInTheDocument();
+    expect(
+      await group().findByText('The list of reviewers could not be loaded. Try again in a moment.'),
+    ).toBeInTheDocument();
   });
 });

@@ -40,7 +40,8 @@ let answer: (url: URL) => Response;
 /** The queue's requests; the pickers' lists are answered from `lists` and recorded in `looked`. */
 const asked: URL[] = [];
 const looked: URL[] = [];
-const json = (body: unknown) => new Response(JSON.stringify(body), { status: 200, headers: { 'Content-Type': 'application/json' } });
+const json = (body: unknown) =>
+  new Response(JSON.stringify(body), { status: 200, headers: { 'Content-Type': 'application/json' } });
 let lists: Record<string, () => Response>;
 const page = (items: QueueItemDto[]) =>
   new Response(JSON.stringify({ items, total: items.length, page: 1, pageSize: 25 }), {
@@ -131,7 +132,12 @@ describe('the review queue', () => {
     await user.type(screen.getByLabelText('Search'), 'Depot');
     await waitFor(() => expect(lastQuery().get('q')).toBe('Depot'));
     // Every filter applies together, and a change goes back to the first page.
-    expect(Object.fromEntries(lastQuery())).toMatchObject({ verdict: 'excluded', stage: 'needs_info', assignee: 'me', page: '1' });
+    expect(Object.fromEntries(lastQuery())).toMatchObject({
+      verdict: 'excluded',
+      stage: 'needs_info',
+      assignee: 'me',
+      page: '1',
+    });
     // Age since filing and amount: sent once they read as numbers; until then the field says what it needs.
     await user.type(screen.getByLabelText('Filed at least (days ago)'), '30');
     await waitFor(() => expect(lastQuery().get('minAgeDays')).toBe('30'));
@@ -153,7 +159,11 @@ describe('the review queue', () => {
     await screen.findByRole('list', { name: 'Claims' });
     // The products are the manufacturer's own, in one page the size of the picker.
     const products = looked.find((u) => u.pathname === '/api/products')!;
-    expect(Object.fromEntries(products.searchParams)).toEqual({ manufacturerId: MANUFACTURER_ID, pageSize: '200', sort: 'modelNumber' });
+    expect(Object.fromEntries(products.searchParams)).toEqual({
+      manufacturerId: MANUFACTURER_ID,
+      pageSize: '200',
+      sort: 'modelNumber',
+    });
     expect(looked.some((u) => u.pathname === '/api/review/contractors')).toBe(true);
 
     const product = screen.getByLabelText('Product');
@@ -176,13 +186,22 @@ describe('the review queue', () => {
   });
 
   it('says when a picker could not be loaded or holds only part of the list; the queue still works', async () => {
-    lists['/api/products'] = () => new Response(JSON.stringify({ error: { code: 'internal', message: 'Something went wrong on our side.' } }), { status: 500, headers: { 'Content-Type': 'application/json' } });
-    lists['/api/review/contractors'] = () => json({ items: [{ id: CONTRACTOR_ID, name: 'Tidewater Electric' }], more: true });
+    lists['/api/products'] = () =>
+      new Response(
+        JSON.stringify({ error: { code: 'internal', message: 'Something went wrong on our side.' } }),
+        { status: 500, headers: { 'Content-Type': 'application/json' } },
+      );
+    lists['/api/review/contractors'] = () =>
+      json({ items: [{ id: CONTRACTOR_ID, name: 'Tidewater Electric' }], more: true });
     renderQueue();
     await screen.findByRole('list', { name: 'Claims' });
     expect(await screen.findByText('The product list could not be loaded.')).toBeInTheDocument();
-    expect(await screen.findByText('Only the first 1 contractors by name are listed; search finds the others.')).toBeInTheDocument();
-    expect(screen.getByLabelText('Product')).toHaveAccessibleDescription('The product list could not be loaded.');
+    expect(
+      await screen.findByText('Only the first 1 contractors by name are listed; search finds the others.'),
+    ).toBeInTheDocument();
+    expect(screen.getByLabelText('Product')).toHaveAccessibleDescription(
+      'The product list could not be loaded.',
+    );
   });
 
   it('moves with j / k and the arrow keys, says where it is, and opens the claim with Enter', async () => {
@@ -212,10 +231,20 @@ describe('the review queue', () => {
   });
 
   it('shows ageing in words: days in the stage, waiting on whom, since filing, and who has it', async () => {
-    answer = () => page([item(1, { waitingOn: 'contractor', stage: 'needs_info', daysInStage: 1, assignee: { id: 'r1', name: 'Rowan' } })]);
+    answer = () =>
+      page([
+        item(1, {
+          waitingOn: 'contractor',
+          stage: 'needs_info',
+          daysInStage: 1,
+          assignee: { id: 'r1', name: 'Rowan' },
+        }),
+      ]);
     renderQueue();
     const row = await screen.findByRole('link');
-    expect(row).toHaveTextContent('Waiting on installer for 1 day, waiting on the installer · filed 2 days ago · Rowan');
+    expect(row).toHaveTextContent(
+      'Waiting on installer for 1 day, waiting on the installer · filed 2 days ago · Rowan',
+    );
     expect(row).toHaveTextContent('Needs a person');
   });
 
@@ -228,11 +257,16 @@ describe('the review queue', () => {
 
   it('says so when the queue cannot be loaded', async () => {
     answer = () =>
-      new Response(JSON.stringify({ error: { code: 'internal', message: 'Something went wrong on our side.' } }), {
-        status: 500,
-        headers: { 'Content-Type': 'application/json' },
-      });
+      new Response(
+        JSON.stringify({ error: { code: 'internal', message: 'Something went wrong on our side.' } }),
+        {
+          status: 500,
+          headers: { 'Content-Type': 'application/json' },
+        },
+      );
     renderQueue();
-    expect(await screen.findByText('The queue could not be loaded. Try again in a moment.')).toBeInTheDocument();
+    expect(
+      await screen.findByText('The queue could not be loaded. Try again in a moment.'),
+    ).toBeInTheDocument();
   });
 });

@@ -21,7 +21,10 @@ beforeEach(() => {
       keys.push(new Headers(init.headers).get('Idempotency-Key'));
       // Held until the test lets it go, like a slow connection on a lift.
       await new Promise<void>((r) => (release = r));
-      return new Response(JSON.stringify({ claim: { id: 'c1' } }), { status: 201, headers: { 'Content-Type': 'application/json' } });
+      return new Response(JSON.stringify({ claim: { id: 'c1' } }), {
+        status: 201,
+        headers: { 'Content-Type': 'application/json' },
+      });
     }),
   );
 });

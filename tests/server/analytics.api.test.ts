@@ -10,7 +10,11 @@ import { fitWeibull } from '../../shared/analytics/weibull';
 import { wholeMonthsBetween } from '../../shared/engine/dates';
 import { CLAIM_STAGES } from '../../shared/schemas/claims';
 import { createAnalyticsService } from '../../server/modules/analytics/analytics.service';
-import { coveredClaimSql, failureModeSql, wholeMonthsSql } from '../../server/modules/analytics/analytics.sql';
+import {
+  coveredClaimSql,
+  failureModeSql,
+  wholeMonthsSql,
+} from '../../server/modules/analytics/analytics.sql';
 import { insertClaims, insertInstallations } from '../support/analytics-factories';
 import { createPolicy, createProduct } from '../support/catalogue-factories';
 import { createOrganization, createUser, signIn } from '../support/factories';
@@ -38,18 +42,44 @@ const csvRows = (text: string) => Papa.parse<string[]>(text.trim(), { skipEmptyL
 // 6 failures among 1,703 units (hours), the rest suspended at their current hours.
 const BEARING_CAGE_FAILURES = [230, 334, 423, 990, 1009, 1510];
 const BEARING_CAGE_SUSPENSIONS: [number, number][] = [
-  [288, 50], [148, 150], [124, 250], [111, 350], [106, 450], [99, 550], [110, 650], [114, 750], [119, 850], [127, 950],
-  [123, 1050], [93, 1150], [47, 1250], [41, 1350], [27, 1450], [11, 1550], [6, 1650], [1, 1850], [2, 2050],
+  [288, 50],
+  [148, 150],
+  [124, 250],
+  [111, 350],
+  [106, 450],
+  [99, 550],
+  [110, 650],
+  [114, 750],
+  [119, 850],
+  [127, 950],
+  [123, 1050],
+  [93, 1150],
+  [47, 1250],
+  [41, 1350],
+  [27, 1450],
+  [11, 1550],
+  [6, 1650],
+  [1, 1850],
+  [2, 2050],
 ];
 
 describe('the SQL matches the shared definitions', () => {
-  it('whole months in SQL are the engine\'s wholeMonthsBetween, month ends included', async () => {
+  it("whole months in SQL are the engine's wholeMonthsBetween, month ends included", async () => {
     const pairs = [
-      ['2024-01-31', '2024-02-29'], ['2025-01-31', '2025-02-28'], ['2025-01-31', '2025-02-27'], ['2024-03-15', '2024-03-14'],
-      ['2023-12-31', '2024-06-30'], ['2024-02-29', '2025-02-28'], ['2024-05-10', '2024-05-10'], ['2022-07-01', '2025-06-30'],
+      ['2024-01-31', '2024-02-29'],
+      ['2025-01-31', '2025-02-28'],
+      ['2025-01-31', '2025-02-27'],
+      ['2024-03-15', '2024-03-14'],
+      ['2023-12-31', '2024-06-30'],
+      ['2024-02-29', '2025-02-28'],
+      ['2024-05-10', '2024-05-10'],
+      ['2022-07-01', '2025-06-30'],
     ];
     for (const [from, to] of pairs) {
-      const [row] = await t.ds.query(`SELECT ${wholeMonthsSql('x.a', 'x.b')} AS m FROM (SELECT CAST(? AS DATE) AS a, CAST(? AS DATE) AS b) x`, [from, to]);
+      const [row] = await t.ds.query(
+        `SELECT ${wholeMonthsSql('x.a', 'x.b')} AS m FROM (SELECT CAST(? AS DATE) AS a, CAST(? AS DATE) AS b) x`,
+        [from, to],
+      );
       expect(Number(row.m), `${from} -> ${to}`).toBe(wholeMonthsBetween(from, to));
     }
   });
@@ -57,7 +87,10 @@ describe('the SQL matches the shared definitions', () => {
   it('a covered claim in SQL is isCoveredClaim, for every stage and verdict', async () => {
     for (const stage of CLAIM_STAGES) {
       for (const verdict of ['covered', 'excluded', 'review', null] as const) {
-        const [row] = await t.ds.query(`SELECT ${coveredClaimSql('c')} AS covered FROM (SELECT ? AS stage, ? AS verdict) c`, [stage, verdict]);
+        const [row] = await t.ds.query(
+          `SELECT ${coveredClaimSql('c')} AS covered FROM (SELECT ? AS stage, ? AS verdict) c`,
+          [stage, verdict],
+        );
         expect(Number(row.covered) === 1, `${stage} / ${verdict}`).toBe(isCoveredClaim({ stage, verdict }));
       }
     }
@@ -79,11 +112,10 @@ describe('the SQL matches the shared definitions', () => {
     ];
     for (const c of cases) {
       const evaluation = JSON.stringify({ findings: c.findings.map((code) => ({ code })) });
-      const [row] = await t.ds.query(`SELECT ${failureModeSql('c')} AS mode FROM (SELECT ? AS symptoms, ? AS evaluation, ? AS observations) c`, [
-        JSON.stringify(c.symptoms),
-        evaluation,
-        JSON.stringify(c.observations ?? {}),
-      ]);
+      const [row] = await t.ds.query(
+        `SELECT ${failureModeSql('c')} AS mode FROM (SELECT ? AS symptoms, ? AS evaluation, ? AS observations) c`,
+        [JSON.stringify(c.symptoms), evaluation, JSON.stringify(c.observations ?? {})],
+      );
       expect(row.mode, JSON.stringify(c)).toBe(failureModeOf(c.symptoms, c.findings, c.observations));
     }
   });
@@ -110,8 +142,20 @@ describe('the SQL matches the shared definitions', () => {
       { installationId: inst[2].id, failedOn: '2025-01-10', units: 3 },
       { installationId: inst[2].id, failedOn: '2025-08-01', units: 1 }, // after asOf: still working then
       { installationId: inst[2].id, failedOn: '2024-09-09', units: 2, stage: 'denied' as const },
-      { installationId: inst[2].id, failedOn: '2024-10-09', units: 2, stage: 'in_review' as const, verdict: 'excluded' as const },
-      { installationId: inst[2].id, failedOn: '2024-11-09', units: 1, stage: 'in_review' as const, verdict: 'covered' as const },
+      {
+        installationId: inst[2].id,
+        failedOn: '2024-10-09',
+        units: 2,
+        stage: 'in_review' as const,
+        verdict: 'excluded' as const,
+      },
+      {
+        installationId: inst[2].id,
+        failedOn: '2024-11-09',
+        units: 1,
+        stage: 'in_review' as const,
+        verdict: 'covered' as const,
+      },
     ];
     await insertClaims(t.ds, inst, claims);
     const shared: InstalledUnits[] = fixtures.map((f, i) => ({
@@ -119,7 +163,11 @@ describe('the SQL matches the shared definitions', () => {
       quantity: f.quantity,
       hoursPerDay: f.hoursPerDay,
       failures: claims
-        .filter((c) => c.installationId === inst[i].id && isCoveredClaim({ stage: c.stage ?? 'approved', verdict: c.verdict ?? 'covered' }))
+        .filter(
+          (c) =>
+            c.installationId === inst[i].id &&
+            isCoveredClaim({ stage: c.stage ?? 'approved', verdict: c.verdict ?? 'covered' }),
+        )
         .sort((a, b) => a.failedOn.localeCompare(b.failedOn))
         .map((c) => ({ failedOn: c.failedOn, units: c.units })),
     }));
@@ -127,7 +175,11 @@ describe('the SQL matches the shared definitions', () => {
     for (const unit of ['months', 'hours'] as const) {
       for (const age of ['completed', 'midpoint'] as const) {
         const expected = installedLifeData(shared, { asOf, unit, age });
-        const got = await service.lifeData(mfr.id, { kind: 'model', productModelId: product.id, label: '' }, { asOf, unit, midpoint: age === 'midpoint' });
+        const got = await service.lifeData(
+          mfr.id,
+          { kind: 'model', productModelId: product.id, label: '' },
+          { asOf, unit, midpoint: age === 'midpoint' },
+        );
         expect(got.failures, `${unit} ${age}`).toEqual(expected.failures);
         expect(got.suspensions, `${unit} ${age}`).toEqual(expected.suspensions);
         expect(got.units).toBe(expected.units);
@@ -144,14 +196,29 @@ async function bearingCageWorld() {
   const product = await createProduct(t.ds, mfr);
   const asOf = '2030-06-30';
   // One hour a day, so that days in service are the hours of the published data.
-  const survivors = BEARING_CAGE_SUSPENSIONS.map(([count, hours]) => ({ installDate: addDays(asOf, -hours), quantity: count, hoursPerDay: 1, lot: 'BC01' }));
-  const failing = BEARING_CAGE_FAILURES.map(() => ({ installDate: addDays(asOf, -3000), quantity: 1, hoursPerDay: 1, lot: 'BC02', enclosure: 'enclosed' as const }));
+  const survivors = BEARING_CAGE_SUSPENSIONS.map(([count, hours]) => ({
+    installDate: addDays(asOf, -hours),
+    quantity: count,
+    hoursPerDay: 1,
+    lot: 'BC01',
+  }));
+  const failing = BEARING_CAGE_FAILURES.map(() => ({
+    installDate: addDays(asOf, -3000),
+    quantity: 1,
+    hoursPerDay: 1,
+    lot: 'BC02',
+    enclosure: 'enclosed' as const,
+  }));
   const inst = await insertInstallations(t.ds, contractor, product, [...survivors, ...failing]);
   const failed = inst.slice(survivors.length);
   await insertClaims(
     t.ds,
     failed,
-    BEARING_CAGE_FAILURES.map((hours, i) => ({ installationId: failed[i].id, failedOn: addDays(failed[i].installDate, hours), symptoms: i < 4 ? ['dark'] : ['fan_noise'] })),
+    BEARING_CAGE_FAILURES.map((hours, i) => ({
+      installationId: failed[i].id,
+      failedOn: addDays(failed[i].installDate, hours),
+      symptoms: i < 4 ? ['dark'] : ['fan_noise'],
+    })),
   );
   return { mfr, contractor, product, asOf };
 }
@@ -160,7 +227,9 @@ describe('GET /api/analytics/life', () => {
   it('the bearing-cage data through the database: shape 2.035, scale 11792 h, B10 3903 h (Meeker & Escobar 1998, Table C.5)', async () => {
     const { mfr, product, asOf } = await bearingCageWorld();
     const reviewer = await member(mfr, ['reviewer']);
-    const r = await reviewer.get(`/api/analytics/life?productModelId=${product.id}&ageUnit=hours&age=completed&asOf=${asOf}`);
+    const r = await reviewer.get(
+      `/api/analytics/life?productModelId=${product.id}&ageUnit=hours&age=completed&asOf=${asOf}`,
+    );
     expect(r.status).toBe(200);
     expect(r.body.lifeData).toMatchObject({ units: 1703, failed: 6, survivors: 1697, unit: 'hours' });
     expect(r.body.fit.shape).toBeCloseTo(2.035, 3); // Meeker & Escobar (1998), Table C.5, bearing-cage data
@@ -168,9 +237,13 @@ describe('GET /api/analytics/life', () => {
     expect(Math.round(r.body.fit.b10)).toBe(3903); // Meeker & Escobar (1998), Table C.5, bearing-cage data
     expect(r.body.probabilityPlot.points).toHaveLength(6);
     // Kaplan-Meier from the endpoint is kaplanMeier on the same groups.
-    expect(r.body.kaplanMeier).toEqual(kaplanMeier({ failures: r.body.lifeData.failureGroups, suspensions: r.body.lifeData.suspensionGroups }));
+    expect(r.body.kaplanMeier).toEqual(
+      kaplanMeier({ failures: r.body.lifeData.failureGroups, suspensions: r.body.lifeData.suspensionGroups }),
+    );
     // Regression is the alternative.
-    const mrr = await reviewer.get(`/api/analytics/life?productModelId=${product.id}&ageUnit=hours&age=completed&asOf=${asOf}&method=mrr`);
+    const mrr = await reviewer.get(
+      `/api/analytics/life?productModelId=${product.id}&ageUnit=hours&age=completed&asOf=${asOf}&method=mrr`,
+    );
     expect(mrr.body.fit.method).toBe('mrr');
     expect(mrr.body.fit.shape).not.toBeCloseTo(r.body.fit.shape, 3);
   });
@@ -183,20 +256,52 @@ describe('GET /api/analytics/life', () => {
     expect(lot.body.lifeData).toMatchObject({ units: 6, failed: 6 });
     expect(lot.body.population).toMatchObject({ kind: 'lot', lot: 'BC02' });
     expect((await reviewer.get(`/api/analytics/life?lot=NOPE1&asOf=${asOf}`)).status).toBe(404);
-    const family = await reviewer.get(`/api/analytics/life?family=troffer&ageUnit=hours&age=completed&asOf=${asOf}`);
+    const family = await reviewer.get(
+      `/api/analytics/life?family=troffer&ageUnit=hours&age=completed&asOf=${asOf}`,
+    );
     expect(family.body.lifeData.units).toBe(1703);
 
-    const json = await reviewer.get(`/api/analytics/life?family=troffer&ageUnit=hours&age=completed&asOf=${asOf}`);
-    const km = await reviewer.get(`/api/analytics/life?family=troffer&ageUnit=hours&age=completed&asOf=${asOf}&format=csv&table=kaplan-meier`);
+    const json = await reviewer.get(
+      `/api/analytics/life?family=troffer&ageUnit=hours&age=completed&asOf=${asOf}`,
+    );
+    const km = await reviewer.get(
+      `/api/analytics/life?family=troffer&ageUnit=hours&age=completed&asOf=${asOf}&format=csv&table=kaplan-meier`,
+    );
     expect(km.status).toBe(200);
     expect(km.headers['content-type']).toMatch(/^text\/csv/);
-    expect(km.headers['content-disposition']).toMatch(/^attachment; filename="?lumenproof-kaplan-meier-[a-z0-9-]+\.csv"?$/);
-    const rows = csvRows(km.text);
-    expect(rows[0]).toEqual(['time', 'atRisk', 'failed', 'censored', 'survival', 'standardError', 'lower', 'upper']);
-    expect(rows.slice(1).map((r) => r.map(Number))).toEqual(
-      json.body.kaplanMeier.map((k: Record<string, number>) => [k.time, k.atRisk, k.failed, k.censored, k.survival, k.standardError, k.lower, k.upper]),
+    expect(km.headers['content-disposition']).toMatch(
+      /^attachment; filename="?lumenproof-kaplan-meier-[a-z0-9-]+\.csv"?$/,
     );
-    const fit = csvRows((await reviewer.get(`/api/analytics/life?family=troffer&ageUnit=hours&age=completed&asOf=${asOf}&format=csv&table=fit`)).text);
+    const rows = csvRows(km.text);
+    expect(rows[0]).toEqual([
+      'time',
+      'atRisk',
+      'failed',
+      'censored',
+      'survival',
+      'standardError',
+      'lower',
+      'upper',
+    ]);
+    expect(rows.slice(1).map((r) => r.map(Number))).toEqual(
+      json.body.kaplanMeier.map((k: Record<string, number>) => [
+        k.time,
+        k.atRisk,
+        k.failed,
+        k.censored,
+        k.survival,
+        k.standardError,
+        k.lower,
+        k.upper,
+      ]),
+    );
+    const fit = csvRows(
+      (
+        await reviewer.get(
+          `/api/analytics/life?family=troffer&ageUnit=hours&age=completed&asOf=${asOf}&format=csv&table=fit`,
+        )
+      ).text,
+    );
     expect(Number(fit[1][1])).toBe(json.body.fit.shape);
     expect(Number(fit[1][2])).toBe(json.body.fit.scale);
   });
@@ -205,7 +310,9 @@ describe('GET /api/analytics/life', () => {
     const mfr = await createOrganization(t.ds, 'manufacturer');
     const contractor = await createOrganization(t.ds, 'contractor');
     const product = await createProduct(t.ds, mfr);
-    const inst = await insertInstallations(t.ds, contractor, product, [{ installDate: '2024-01-10', quantity: 20 }]);
+    const inst = await insertInstallations(t.ds, contractor, product, [
+      { installDate: '2024-01-10', quantity: 20 },
+    ]);
     await insertClaims(t.ds, inst, [{ installationId: inst[0].id, failedOn: '2024-05-01' }]);
     const reviewer = await member(mfr, ['reviewer']);
     const r = await reviewer.get(`/api/analytics/life?productModelId=${product.id}&asOf=2025-01-01`);
@@ -215,13 +322,16 @@ describe('GET /api/analytics/life', () => {
     expect(r.body.lifeData).toMatchObject({ units: 20, failed: 1 });
   });
 
-  it('scoping: another manufacturer\'s model is 404; installers and accountants are refused (403); bad input is 400', async () => {
+  it("scoping: another manufacturer's model is 404; installers and accountants are refused (403); bad input is 400", async () => {
     const { product, asOf } = await bearingCageWorld();
     const other = await createOrganization(t.ds, 'manufacturer');
     const otherReviewer = await member(other, ['reviewer']);
     const r = await otherReviewer.get(`/api/analytics/life?productModelId=${product.id}&asOf=${asOf}`);
     expect(r.status).toBe(404);
-    expect((await otherReviewer.get(`/api/analytics/failure-modes?productModelId=${product.id}&asOf=${asOf}`)).status).toBe(404);
+    expect(
+      (await otherReviewer.get(`/api/analytics/failure-modes?productModelId=${product.id}&asOf=${asOf}`))
+        .status,
+    ).toBe(404);
     expect((await otherReviewer.get(`/api/analytics/life?lot=BC01&asOf=${asOf}`)).status).toBe(404);
     // The other manufacturer's family view counts only its own (no) units.
     const fam = await otherReviewer.get(`/api/analytics/life?family=troffer&asOf=${asOf}`);
@@ -259,16 +369,37 @@ describe('GET /api/analytics/failure-modes', () => {
     expect(r.body.claims).toBe(6);
     const rows = BEARING_CAGE_FAILURES.map((hours, i) => {
       const installedOn = addDays(asOf, -3000);
-      return { failureMode: i < 4 ? 'driver' : 'fan', installedOn, failedOn: addDays(installedOn, hours), enclosure: 'enclosed', lot: 'BC02' };
+      return {
+        failureMode: i < 4 ? 'driver' : 'fan',
+        installedOn,
+        failedOn: addDays(installedOn, hours),
+        enclosure: 'enclosed',
+        lot: 'BC02',
+      };
     });
     expect(r.body.modes.map(({ label: _l, ...m }: { label: string }) => m)).toEqual(rankFailureModes(rows));
-    expect(r.body.modes[0]).toMatchObject({ key: 'driver', claims: 4, label: 'Driver (dark, cycling, flicker)' });
+    expect(r.body.modes[0]).toMatchObject({
+      key: 'driver',
+      claims: 4,
+      label: 'Driver (dark, cycling, flicker)',
+    });
     expect(r.body.environment.enclosure).toEqual(rankByEnvironment(rows, 'enclosure'));
     expect(r.body.lots).toEqual([{ key: 'BC02', claims: 6, units: 6, share: 1 }]);
     expect(r.body.ageing).toEqual(ageingTable(rows));
-    expect(r.body.crossTable).toMatchObject({ factor: 'enclosure', rows: ['driver', 'fan'], columns: ['enclosed'], counts: [[4], [2]] });
+    expect(r.body.crossTable).toMatchObject({
+      factor: 'enclosure',
+      rows: ['driver', 'fan'],
+      columns: ['enclosed'],
+      counts: [[4], [2]],
+    });
 
-    const csv = csvRows((await reviewer.get(`/api/analytics/failure-modes?productModelId=${product.id}&asOf=${asOf}&format=csv&table=ageing`)).text);
+    const csv = csvRows(
+      (
+        await reviewer.get(
+          `/api/analytics/failure-modes?productModelId=${product.id}&asOf=${asOf}&format=csv&table=ageing`,
+        )
+      ).text,
+    );
     expect(csv[0][0]).toBe('installMonth');
     expect(csv.slice(1).map((row) => Number(row[row.length - 1]))).toEqual(r.body.ageing.rowTotals);
   });
@@ -279,12 +410,32 @@ describe('GET /api/analytics/claims-ageing', () => {
     const mfr = await createOrganization(t.ds, 'manufacturer');
     const contractor = await createOrganization(t.ds, 'contractor');
     const product = await createProduct(t.ds, mfr);
-    const inst = await insertInstallations(t.ds, contractor, product, [{ installDate: '2024-01-10', quantity: 20 }]);
+    const inst = await insertInstallations(t.ds, contractor, product, [
+      { installDate: '2024-01-10', quantity: 20 },
+    ]);
     const at = (iso: string) => new Date(`${iso}T12:00:00Z`);
     await insertClaims(t.ds, inst, [
-      { installationId: inst[0].id, failedOn: '2025-05-01', stage: 'filed', filedAt: at('2025-06-28'), waitingOn: 'manufacturer' },
-      { installationId: inst[0].id, failedOn: '2025-05-01', stage: 'needs_info', filedAt: at('2025-06-01'), waitingOn: 'contractor' },
-      { installationId: inst[0].id, failedOn: '2025-05-01', stage: 'in_review', filedAt: at('2025-01-01'), waitingOn: 'manufacturer' },
+      {
+        installationId: inst[0].id,
+        failedOn: '2025-05-01',
+        stage: 'filed',
+        filedAt: at('2025-06-28'),
+        waitingOn: 'manufacturer',
+      },
+      {
+        installationId: inst[0].id,
+        failedOn: '2025-05-01',
+        stage: 'needs_info',
+        filedAt: at('2025-06-01'),
+        waitingOn: 'contractor',
+      },
+      {
+        installationId: inst[0].id,
+        failedOn: '2025-05-01',
+        stage: 'in_review',
+        filedAt: at('2025-01-01'),
+        waitingOn: 'manufacturer',
+      },
       { installationId: inst[0].id, failedOn: '2025-05-01', stage: 'denied', filedAt: at('2025-06-01') }, // not open
     ]);
     const reviewer = await member(mfr, ['reviewer']);
@@ -298,7 +449,12 @@ describe('GET /api/analytics/claims-ageing', () => {
       { band: '61-90 days', manufacturer: 0, contractor: 0, total: 0 },
       { band: 'over 90 days', manufacturer: 1, contractor: 0, total: 1 },
     ]);
-    expect(r.body.throughput.map((w: { week: string }) => w.week)).toEqual(['2025-06-09', '2025-06-16', '2025-06-23', '2025-06-30']);
+    expect(r.body.throughput.map((w: { week: string }) => w.week)).toEqual([
+      '2025-06-09',
+      '2025-06-16',
+      '2025-06-23',
+      '2025-06-30',
+    ]);
   });
 });
 
@@ -307,7 +463,12 @@ describe('GET /api/reserve', () => {
     const mfr = await createOrganization(t.ds, 'manufacturer');
     const contractor = await createOrganization(t.ds, 'contractor');
     const product = await createProduct(t.ds, mfr);
-    const { versions } = await createPolicy(t.ds, mfr, [product], [{ effectiveFrom: '2020-01-01', unitCredit: '100.00' }]);
+    const { versions } = await createPolicy(
+      t.ds,
+      mfr,
+      [product],
+      [{ effectiveFrom: '2020-01-01', unitCredit: '100.00' }],
+    );
     const asOf = '2025-06-30';
     const inst = await insertInstallations(t.ds, contractor, product, [
       { installDate: '2023-03-10', quantity: 200, policyVersionId: versions[0].id },
@@ -331,7 +492,14 @@ describe('GET /api/reserve', () => {
     // model x install month x version x whole-month age.
     const life = installedLifeData(
       [
-        { installedOn: '2023-03-10', quantity: 200, failures: [{ failedOn: '2023-09-01', units: 3 }, { failedOn: '2024-06-01', units: 5 }] },
+        {
+          installedOn: '2023-03-10',
+          quantity: 200,
+          failures: [
+            { failedOn: '2023-09-01', units: 3 },
+            { failedOn: '2024-06-01', units: 5 },
+          ],
+        },
         { installedOn: '2024-03-10', quantity: 100, failures: [{ failedOn: '2024-10-01', units: 2 }] },
         { installedOn: '2024-03-20', quantity: 50 },
         { installedOn: '2024-09-05', quantity: 80, failures: [{ failedOn: '2025-02-01', units: 1 }] },
@@ -340,7 +508,13 @@ describe('GET /api/reserve', () => {
     );
     const fit = fitWeibull(life);
     if (!fit.ok) throw new Error(fit.message);
-    const terms = { life: fit.fit, termMonths: 60, fullCoverageMonths: 36, unitCredit: '100.00', currency: 'USD' };
+    const terms = {
+      life: fit.fit,
+      termMonths: 60,
+      fullCoverageMonths: 36,
+      unitCredit: '100.00',
+      currency: 'USD',
+    };
     const expected = forecastReserve(
       [
         { key: 'a', survivors: 192, ageMonths: wholeMonthsBetween('2023-03-10', asOf), ...terms },
@@ -351,7 +525,15 @@ describe('GET /api/reserve', () => {
     );
     expect(r.body.totals).toEqual(expected.totals);
     expect(r.body.cohorts).toHaveLength(2);
-    expect(r.body.fits).toEqual([{ productModelId: product.id, modelNumber: product.modelNumber, shape: fit.fit.shape, scale: fit.fit.scale, from: 'model' }]);
+    expect(r.body.fits).toEqual([
+      {
+        productModelId: product.id,
+        modelNumber: product.modelNumber,
+        shape: fit.fit.shape,
+        scale: fit.fit.scale,
+        from: 'model',
+      },
+    ]);
     const march = r.body.cohorts.find((c: { installMonth: string }) => c.installMonth === '2024-03');
     expect(march.survivors).toBe(148);
 
@@ -359,8 +541,12 @@ describe('GET /api/reserve', () => {
     expect(months[0]).toEqual(['currency', 'month', 'expectedClaims', 'amount']);
     expect(months.slice(1).map((row) => row[3])).toEqual(r.body.totals[0].monthlyAmounts);
     expect(months.slice(1).map((row) => Number(row[2]))).toEqual(r.body.totals[0].monthlyClaims);
-    const cohorts = csvRows((await accountant.get(`/api/reserve?asOf=${asOf}&format=csv&table=cohorts`)).text);
-    expect(cohorts.slice(1).map((row) => row[8])).toEqual(r.body.cohorts.map((c: { amount: string }) => c.amount));
+    const cohorts = csvRows(
+      (await accountant.get(`/api/reserve?asOf=${asOf}&format=csv&table=cohorts`)).text,
+    );
+    expect(cohorts.slice(1).map((row) => row[8])).toEqual(
+      r.body.cohorts.map((c: { amount: string }) => c.amount),
+    );
 
     // Another manufacturer's accountant sees none of it.
     const other = await member(await createOrganization(t.ds, 'manufacturer'), ['accountant']);

@@ -22,9 +22,16 @@ describe('sign-in and sign-out', () => {
   it('signs in, answers /me, signs out, and refuses the old cookie afterwards', async () => {
     const org = await createOrganization(t.ds, 'contractor');
     const user = await createUser(t.ds, org, ['installer']);
-    const login = await t.request().post('/api/auth/login').send({ email: user.email, password: TEST_PASSWORD });
+    const login = await t
+      .request()
+      .post('/api/auth/login')
+      .send({ email: user.email, password: TEST_PASSWORD });
     expect(login.status).toBe(200);
-    expect(login.body.user).toMatchObject({ email: user.email, roles: ['installer'], organization: { id: org.id, kind: 'contractor' } });
+    expect(login.body.user).toMatchObject({
+      email: user.email,
+      roles: ['installer'],
+      organization: { id: org.id, kind: 'contractor' },
+    });
     expect(login.body.user.passwordHash).toBeUndefined();
     const cookie = sessionCookie(login)!;
     expect(cookie).toBeTruthy();
@@ -42,7 +49,9 @@ describe('sign-in and sign-out', () => {
     expect(after.status).toBe(401);
     expect(after.body.error.code).toBe('auth.required');
 
-    const audit = await t.ds.getRepository(AuditEvent).findOneBy({ entityId: user.id, action: 'user.signed_in' });
+    const audit = await t.ds
+      .getRepository(AuditEvent)
+      .findOneBy({ entityId: user.id, action: 'user.signed_in' });
     expect(audit).not.toBeNull();
   });
 
@@ -64,8 +73,14 @@ describe('sign-in and sign-out', () => {
   it('answers an unknown e-mail exactly like a wrong password', async () => {
     const org = await createOrganization(t.ds, 'contractor');
     const user = await createUser(t.ds, org, ['installer']);
-    const wrong = await t.request().post('/api/auth/login').send({ email: user.email, password: 'not the password' });
-    const unknown = await t.request().post('/api/auth/login').send({ email: 'nobody-here@example.test', password: 'whatever' });
+    const wrong = await t
+      .request()
+      .post('/api/auth/login')
+      .send({ email: user.email, password: 'not the password' });
+    const unknown = await t
+      .request()
+      .post('/api/auth/login')
+      .send({ email: 'nobody-here@example.test', password: 'whatever' });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(unknown.body).toEqual(wrong.body);
@@ -75,10 +90,16 @@ describe('sign-in and sign-out', () => {
     const org = await createOrganization(t.ds, 'contractor');
     const user = await createUser(t.ds, org, ['installer']);
     for (let i = 0; i < 10; i++) {
-      const r = await t.request().post('/api/auth/login').send({ email: user.email, password: `wrong-${i}` });
+      const r = await t
+        .request()
+        .post('/api/auth/login')
+        .send({ email: user.email, password: `wrong-${i}` });
       expect(r.status).toBe(401);
     }
-    const limited = await t.request().post('/api/auth/login').send({ email: user.email, password: TEST_PASSWORD });
+    const limited = await t
+      .request()
+      .post('/api/auth/login')
+      .send({ email: user.email, password: TEST_PASSWORD });
     expect(limited.status).toBe(429);
     expect(limited.body.error.code).toBe('auth.too_many_attempts');
     expect(limited.headers['retry-after']).toBe('900');
@@ -90,7 +111,10 @@ describe('sign-in and sign-out', () => {
 
   it('limits failed sign-ins per address across accounts', async () => {
     for (let i = 0; i < 10; i++) {
-      await t.request().post('/api/auth/login').send({ email: `spray-${i}@example.test`, password: 'guess' });
+      await t
+        .request()
+        .post('/api/auth/login')
+        .send({ email: `spray-${i}@example.test`, password: 'guess' });
     }
     const org = await createOrganization(t.ds, 'contractor');
     const user = await createUser(t.ds, org, ['installer']);
@@ -101,7 +125,10 @@ describe('sign-in and sign-out', () => {
   it('refuses disabled and invited accounts', async () => {
     const org = await createOrganization(t.ds, 'contractor');
     const disabled = await createUser(t.ds, org, ['installer'], { status: 'disabled' });
-    const r = await t.request().post('/api/auth/login').send({ email: disabled.email, password: TEST_PASSWORD });
+    const r = await t
+      .request()
+      .post('/api/auth/login')
+      .send({ email: disabled.email, password: TEST_PASSWORD });
     expect(r.status).toBe(401);
   });
 
@@ -135,7 +162,12 @@ describe('sign-in and sign-out', () => {
     const login = await agent.post('/api/auth/login').send({ email: user.email, password: TEST_PASSWORD });
     const sid = decodeURIComponent(sessionCookie(login)!.split('=')[1]).replace(/^s:/, '').split('.')[0];
     const row = async () =>
-      ((await t.ds.query('SELECT data, expires FROM sessions WHERE session_id = ?', [sid])) as { data: string; expires: number }[])[0];
+      (
+        (await t.ds.query('SELECT data, expires FROM sessions WHERE session_id = ?', [sid])) as {
+          data: string;
+          expires: number;
+        }[]
+      )[0];
     const signedIn = await row();
     for (let i = 0; i < 5; i++) {
       const r = await agent.get('/api/auth/me');
@@ -149,21 +181,32 @@ describe('sign-in and sign-out', () => {
     expect(later.status).toBe(200);
     expect(later.headers['set-cookie']?.[0]).toMatch(/^lp\.sid=.*Expires=/i);
     const moved = await row();
-    expect(JSON.parse(moved.data).lastSeenAt).toBeGreaterThanOrEqual(JSON.parse(signedIn.data).lastSeenAt + 65_000);
+    expect(JSON.parse(moved.data).lastSeenAt).toBeGreaterThanOrEqual(
+      JSON.parse(signedIn.data).lastSeenAt + 65_000,
+    );
     clock.reset();
   });
 });
 
 describe('the demo accounts', () => {
   it('each signs in and /me tells its role and organisation kind', async () => {
-    await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage: createStorage(t.config), config: t.config } });
+    await seedDemo(t.ds, {
+      onlyIfEmpty: false,
+      credits: { storage: createStorage(t.config), config: t.config },
+    });
     for (const account of DEMO_ACCOUNTS) {
       const agent = t.request();
-      const login = await agent.post('/api/auth/login').send({ email: account.email, password: DEMO_PASSWORD });
+      const login = await agent
+        .post('/api/auth/login')
+        .send({ email: account.email, password: DEMO_PASSWORD });
       expect(login.status, account.email).toBe(200);
       const me = await agent.get('/api/auth/me');
       const org = DEMO_ORGANIZATIONS.find((o) => o.key === account.org)!;
-      expect(me.body.user).toMatchObject({ email: account.email, roles: account.roles, organization: { name: org.name, kind: org.kind } });
+      expect(me.body.user).toMatchObject({
+        email: account.email,
+        roles: account.roles,
+        organization: { name: org.name, kind: org.kind },
+      });
     }
   }, 120_000); // loading the whole demo (its letters and memos too) on a busy machine
 });
@@ -191,27 +234,49 @@ describe('the API spine', () => {
   it('refuses a state-changing request from a foreign origin or marked cross-site with 403', async () => {
     const org = await createOrganization(t.ds, 'contractor');
     const user = await createUser(t.ds, org, ['installer']);
-    const foreign = await t.request().post('/api/auth/login').set('Origin', 'https://evil.example').send({ email: user.email, password: TEST_PASSWORD });
+    const foreign = await t
+      .request()
+      .post('/api/auth/login')
+      .set('Origin', 'https://evil.example')
+      .send({ email: user.email, password: TEST_PASSWORD });
     expect(foreign.status).toBe(403);
     expect(foreign.body.error.code).toBe('request.cross_origin');
-    const crossSite = await t.request().post('/api/auth/login').set('Sec-Fetch-Site', 'cross-site').send({ email: user.email, password: TEST_PASSWORD });
+    const crossSite = await t
+      .request()
+      .post('/api/auth/login')
+      .set('Sec-Fetch-Site', 'cross-site')
+      .send({ email: user.email, password: TEST_PASSWORD });
     expect(crossSite.status).toBe(403);
     // The same request with our own origin, or from a script with neither header, works.
-    const own = await t.request().post('/api/auth/login').set('Origin', 'http://127.0.0.1:3000').send({ email: user.email, password: TEST_PASSWORD });
+    const own = await t
+      .request()
+      .post('/api/auth/login')
+      .set('Origin', 'http://127.0.0.1:3000')
+      .send({ email: user.email, password: TEST_PASSWORD });
     expect(own.status).toBe(200);
-    const script = await t.request().post('/api/auth/login').send({ email: user.email, password: TEST_PASSWORD });
+    const script = await t
+      .request()
+      .post('/api/auth/login')
+      .send({ email: user.email, password: TEST_PASSWORD });
     expect(script.status).toBe(200);
   });
 
   it('answers malformed JSON with 400 and the error shape, never a 500 or a stack', async () => {
-    const r = await t.request().post('/api/auth/login').set('Content-Type', 'application/json').send('{"email": "a@b.test", ');
+    const r = await t
+      .request()
+      .post('/api/auth/login')
+      .set('Content-Type', 'application/json')
+      .send('{"email": "a@b.test", ');
     expect(r.status).toBe(400);
     expect(r.body).toEqual({ error: { code: 'request.malformed_json', message: expect.any(String) } });
     expect(JSON.stringify(r.body)).not.toMatch(/at .*\.ts:\d+/);
   });
 
   it('lists each bad field with its path on invalid input', async () => {
-    const r = await t.request().post('/api/auth/login').send({ email: 'not-an-email', password: '', extra: 1 });
+    const r = await t
+      .request()
+      .post('/api/auth/login')
+      .send({ email: 'not-an-email', password: '', extra: 1 });
     expect(r.status).toBe(400);
     expect(r.body.error.code).toBe('validation.failed');
     const paths = r.body.error.details.map((d: { path: string }) => d.path);
@@ -221,7 +286,10 @@ describe('the API spine', () => {
   it('refuses a body that is not JSON with 415, and a huge one with 413', async () => {
     const form = await t.request().post('/api/auth/login').type('form').send('email=a@b.test&password=x');
     expect(form.status).toBe(415);
-    const huge = await t.request().post('/api/auth/login').send({ email: 'a@b.test', password: 'x'.repeat(600_000) });
+    const huge = await t
+      .request()
+      .post('/api/auth/login')
+      .send({ email: 'a@b.test', password: 'x'.repeat(600_000) });
     expect(huge.status).toBe(413);
   });
 

@@ -548,7 +548,10 @@ const ROUTES: Record<string, Entry> = {
     upload: photoUpload,
     denied: members(MANUFACTURERS, 404),
     variants: {
-      needs_info: { ok: members(CONTRACTORS, 201), target: async (w) => ({ id: await claimAt(w, 'needs_info') }) },
+      needs_info: {
+        ok: members(CONTRACTORS, 201),
+        target: async (w) => ({ id: await claimAt(w, 'needs_info') }),
+      },
       in_review: { ok: {}, target: async (w) => ({ id: await claimAt(w, 'in_review') }) },
     },
   },

@@ -16,7 +16,12 @@ const work = fs.mkdtempSync(path.join(os.tmpdir(), 'lumenproof-backup-'));
 beforeAll(async () => {
   t = await createTestApp();
   const config = loadConfig();
-  target = await startLocalDb({ dataDir: config.dataDir, profile: 'restore', port: config.dbPort + 3, log: () => {} });
+  target = await startLocalDb({
+    dataDir: config.dataDir,
+    profile: 'restore',
+    port: config.dbPort + 3,
+    log: () => {},
+  });
   await resetDatabase(target);
 }, 120_000);
 afterAll(async () => {
@@ -33,12 +38,20 @@ describe('backup and restore', () => {
     fs.mkdirSync(path.join(storage, 'ab'), { recursive: true });
     fs.writeFileSync(path.join(storage, 'ab', 'photo.jpg'), crypto.randomBytes(50_000));
 
-    const manifest: Manifest = await backup({ url: (t.ds.options as { url: string }).url, storageDir: storage, outDir: path.join(work, 'b1') });
+    const manifest: Manifest = await backup({
+      url: (t.ds.options as { url: string }).url,
+      storageDir: storage,
+      outDir: path.join(work, 'b1'),
+    });
     expect(manifest.tables.users.rows).toBeGreaterThan(0);
     expect(Object.keys(manifest.files)).toEqual(['ab/photo.jpg']);
 
     const restoredStorage = path.join(work, 'restored');
-    const report = await restore({ backupDir: path.join(work, 'b1'), url: target.url, storageDir: restoredStorage });
+    const report = await restore({
+      backupDir: path.join(work, 'b1'),
+      url: target.url,
+      storageDir: restoredStorage,
+    });
     expect(report.mismatches).toEqual([]);
     expect(report.ok).toBe(true);
 

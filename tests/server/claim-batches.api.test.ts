@@ -10,7 +10,8 @@ beforeAll(async () => {
 });
 afterAll(() => closeTestApp(t));
 
-const HEADER = 'serial,units,failed_on,symptoms,supply_volts,input_watts,power_factor,driver_output_volts,driver_output_amps,water_ingress,narrative';
+const HEADER =
+  'serial,units,failed_on,symptoms,supply_volts,input_watts,power_factor,driver_output_volts,driver_output_amps,water_ingress,narrative';
 
 describe('bulk filing from a spreadsheet', () => {
   it('previews a CSV mixing good and bad rows (row, column, reason), makes drafts of the good ones, and files them together', async () => {
@@ -24,9 +25,18 @@ describe('bulk filing from a spreadsheet', () => {
       `${s1},1,${daysAgo(7)},dark,277,,,,,no,Listed twice in this file.`,
       `${s2},1,2025-02-30,glowing,2x7,,1.4,,350 mV,maybe,short`,
     ].join('\n');
-    const preview = await w.installer.agent.post('/api/claims/batches?dryRun=true').send({ csv, filename: 'failures.csv' });
+    const preview = await w.installer.agent
+      .post('/api/claims/batches?dryRun=true')
+      .send({ csv, filename: 'failures.csv' });
     expect(preview.status).toBe(200);
-    expect(preview.body).toMatchObject({ dryRun: true, total: 5, valid: 2, invalid: 3, created: 0, batchId: null });
+    expect(preview.body).toMatchObject({
+      dryRun: true,
+      total: 5,
+      valid: 2,
+      invalid: 3,
+      created: 0,
+      batchId: null,
+    });
     const errs = preview.body.errors as { row: number; column: string; message: string }[];
     expect(errs).toEqual(
       expect.arrayContaining([
@@ -34,8 +44,16 @@ describe('bulk filing from a spreadsheet', () => {
         { row: 5, column: 'serial', message: `Also on row 2: ${s1}.` },
         { row: 6, column: 'failed_on', message: 'The failure date is not a calendar date.' },
         { row: 6, column: 'symptoms', message: 'Pick a listed symptom.' },
-        { row: 6, column: 'supply_volts', message: '"2x7" is not a number. Type the digits the meter shows, like 118.4 or 118,4.' },
-        { row: 6, column: 'power_factor', message: 'The power factor is at most 1 (a reading like 93 % is 0.93).' },
+        {
+          row: 6,
+          column: 'supply_volts',
+          message: '"2x7" is not a number. Type the digits the meter shows, like 118.4 or 118,4.',
+        },
+        {
+          row: 6,
+          column: 'power_factor',
+          message: 'The power factor is at most 1 (a reading like 93 % is 0.93).',
+        },
         { row: 6, column: 'driver_output_amps', message: '"mV" is not a unit for this reading (amps).' },
         { row: 6, column: 'water_ingress', message: '"maybe" is not yes or no.' },
         { row: 6, column: 'serial', message: `Also on row 3: ${s2}.` },
@@ -57,7 +75,9 @@ describe('bulk filing from a spreadsheet', () => {
 
     // Another contractor cannot see or file the batch.
     expect((await w.otherInstaller.agent.get(`/api/claims/batches/${made.body.batchId}`)).status).toBe(404);
-    expect((await w.otherInstaller.agent.post(`/api/claims/batches/${made.body.batchId}/file`).send({})).status).toBe(404);
+    expect(
+      (await w.otherInstaller.agent.post(`/api/claims/batches/${made.body.batchId}/file`).send({})).status,
+    ).toBe(404);
 
     const filed = await w.installer.agent.post(`/api/claims/batches/${made.body.batchId}/file`).send({});
     expect(filed.status).toBe(200);
@@ -77,10 +97,17 @@ describe('bulk filing from a spreadsheet', () => {
     const r = await w.installer.agent.post('/api/claims/batches').send({ csv: 'serial,colour\nA,red\n' });
     expect(r.status).toBe(200);
     expect(r.body.created).toBe(0);
-    expect(r.body.errors.filter((e: { row: number }) => e.row === 1).map((e: { message: string }) => e.message)).toEqual(
-      expect.arrayContaining(['Unknown column: colour. Download the template for the column names.', 'Missing columns: failed_on, symptoms, narrative.']),
+    expect(
+      r.body.errors.filter((e: { row: number }) => e.row === 1).map((e: { message: string }) => e.message),
+    ).toEqual(
+      expect.arrayContaining([
+        'Unknown column: colour. Download the template for the column names.',
+        'Missing columns: failed_on, symptoms, narrative.',
+      ]),
     );
     expect(await t.ds.getRepository(ClaimBatch).countBy({ contractorId: w.conX.id })).toBe(0);
-    expect((await w.reviewer.agent.post('/api/claims/batches?dryRun=true').send({ csv: 'serial\n' })).status).toBe(403);
+    expect(
+      (await w.reviewer.agent.post('/api/claims/batches?dryRun=true').send({ csv: 'serial\n' })).status,
+    ).toBe(403);
   });
 });

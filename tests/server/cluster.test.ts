@@ -17,7 +17,10 @@ afterAll(() => closeTestApp(t));
 
 const childrenOf = (pid: number) => {
   try {
-    return execFileSync('pgrep', ['-P', String(pid)], { encoding: 'utf8' }).trim().split('\n').filter(Boolean);
+    return execFileSync('pgrep', ['-P', String(pid)], { encoding: 'utf8' })
+      .trim()
+      .split('\n')
+      .filter(Boolean);
   } catch {
     return []; // pgrep exits 1 when there are none
   }

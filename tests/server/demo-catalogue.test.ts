@@ -11,7 +11,10 @@ import { closeTestApp, createTestApp, type TestContext } from '../support/test-a
 let t: TestContext;
 beforeAll(async () => {
   t = await createTestApp();
-  await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage: createStorage(t.config), config: t.config } });
+  await seedDemo(t.ds, {
+    onlyIfEmpty: false,
+    credits: { storage: createStorage(t.config), config: t.config },
+  });
 });
 afterAll(() => closeTestApp(t));
 
@@ -20,7 +23,9 @@ const org = (name: string) => t.ds.getRepository(Organization).findOneByOrFail({
 describe('the demo catalogue', () => {
   it('has at least four models for each manufacturer across families and ratings', async () => {
     for (const name of ['Aldercrest Lighting', 'Veltra Luminaires']) {
-      const products = await t.ds.getRepository(ProductModel).findBy({ manufacturerId: (await org(name)).id });
+      const products = await t.ds
+        .getRepository(ProductModel)
+        .findBy({ manufacturerId: (await org(name)).id });
       expect(products.length).toBeGreaterThanOrEqual(4);
       expect(new Set(products.map((p) => p.family)).size).toBeGreaterThanOrEqual(4);
       expect(products.some((p) => p.location === 'damp')).toBe(true);
@@ -31,13 +36,17 @@ describe('the demo catalogue', () => {
   });
 
   it('has a policy line with two versions', async () => {
-    const policies = await t.ds.getRepository(WarrantyPolicy).find({ where: { manufacturerId: (await org('Aldercrest Lighting')).id } });
+    const policies = await t.ds
+      .getRepository(WarrantyPolicy)
+      .find({ where: { manufacturerId: (await org('Aldercrest Lighting')).id } });
     expect(policies.some((p) => p.latestVersionNumber === 2)).toBe(true);
   });
 
   it('has at least 30 installations for each contractor across locations, enclosures and supplies, each judged by the version in force', async () => {
     for (const name of ['Harborview Electric', 'Copperline Electrical']) {
-      const list = await t.ds.getRepository(Installation).find({ where: { contractorId: (await org(name)).id }, relations: { policyVersion: true } });
+      const list = await t.ds
+        .getRepository(Installation)
+        .find({ where: { contractorId: (await org(name)).id }, relations: { policyVersion: true } });
       expect(list.length).toBeGreaterThanOrEqual(30);
       expect(new Set(list.map((i) => i.location)).size).toBe(3);
       expect(new Set(list.map((i) => i.enclosure)).size).toBe(3);

@@ -29,7 +29,9 @@ beforeAll(async () => {
   t = await createTestApp();
   storage = createStorage(t.config);
   await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage, config: t.config } });
-  const orgs = await t.ds.getRepository(Organization).findBy({ name: In(['Aldercrest Lighting', 'Veltra Luminaires', 'Harborview Electric', 'Copperline Electrical']) });
+  const orgs = await t.ds.getRepository(Organization).findBy({
+    name: In(['Aldercrest Lighting', 'Veltra Luminaires', 'Harborview Electric', 'Copperline Electrical']),
+  });
   names = new Map(orgs.map((o) => [o.id, o.name]));
   claims = await t.ds.getRepository(Claim).findBy({ contractorId: In(orgs.map((o) => o.id)) });
 });
@@ -37,7 +39,9 @@ afterAll(() => closeTestApp(t));
 
 /** The claims demo's own claims (the reliability history's have no filing in the audit trail). */
 async function claimsDemo() {
-  const filed = await t.ds.getRepository(AuditEvent).findBy({ entityType: 'Claim', action: 'claim.filed', entityId: In(claims.map((c) => c.id)) });
+  const filed = await t.ds
+    .getRepository(AuditEvent)
+    .findBy({ entityType: 'Claim', action: 'claim.filed', entityId: In(claims.map((c) => c.id)) });
   const ids = new Set(filed.map((a) => a.entityId));
   return claims.filter((c) => ids.has(c.id));
 }
@@ -46,16 +50,29 @@ describe('the demo claims (API.md demo data)', () => {
   it('hold at least 60 claims over every stage, both manufacturers and both contractors', () => {
     expect(claims.length).toBeGreaterThanOrEqual(60);
     expect(new Set(claims.map((c) => c.stage))).toEqual(new Set(CLAIM_STAGES));
-    expect(new Set(claims.map((c) => names.get(c.manufacturerId)))).toEqual(new Set(['Aldercrest Lighting', 'Veltra Luminaires']));
-    expect(new Set(claims.map((c) => names.get(c.contractorId)))).toEqual(new Set(['Harborview Electric', 'Copperline Electrical']));
-    for (const pair of ['Harborview Electric|Aldercrest Lighting', 'Harborview Electric|Veltra Luminaires', 'Copperline Electrical|Aldercrest Lighting', 'Copperline Electrical|Veltra Luminaires']) {
-      expect(claims.some((c) => `${names.get(c.contractorId)}|${names.get(c.manufacturerId)}` === pair)).toBe(true);
+    expect(new Set(claims.map((c) => names.get(c.manufacturerId)))).toEqual(
+      new Set(['Aldercrest Lighting', 'Veltra Luminaires']),
+    );
+    expect(new Set(claims.map((c) => names.get(c.contractorId)))).toEqual(
+      new Set(['Harborview Electric', 'Copperline Electrical']),
+    );
+    for (const pair of [
+      'Harborview Electric|Aldercrest Lighting',
+      'Harborview Electric|Veltra Luminaires',
+      'Copperline Electrical|Aldercrest Lighting',
+      'Copperline Electrical|Veltra Luminaires',
+    ]) {
+      expect(claims.some((c) => `${names.get(c.contractorId)}|${names.get(c.manufacturerId)}` === pair)).toBe(
+        true,
+      );
     }
   });
 
   it('have at least 5 approved and not yet credited claims for each manufacturer', () => {
     for (const m of ['Aldercrest Lighting', 'Veltra Luminaires']) {
-      expect(claims.filter((c) => c.stage === 'approved' && names.get(c.manufacturerId) === m).length).toBeGreaterThanOrEqual(5);
+      expect(
+        claims.filter((c) => c.stage === 'approved' && names.get(c.manufacturerId) === m).length,
+      ).toBeGreaterThanOrEqual(5);
     }
   });
 
@@ -68,16 +85,30 @@ describe('the demo claims (API.md demo data)', () => {
     }
     expect(new Set(filed.map((c) => c.verdict)).size).toBeGreaterThanOrEqual(2);
     const credited = (await claimsDemo()).find((c) => c.stage === 'credited')!; // credited through the credits service
-    const trail = (await t.ds.getRepository(AuditEvent).find({ where: { entityType: 'Claim', entityId: credited.id }, order: { id: 'ASC' } })).map((a) => a.action);
-    expect(trail).toEqual(['claim.created', 'claim.filed', 'claim.review_started', 'claim.approved', 'claim.credited']);
+    const trail = (
+      await t.ds
+        .getRepository(AuditEvent)
+        .find({ where: { entityType: 'Claim', entityId: credited.id }, order: { id: 'ASC' } })
+    ).map((a) => a.action);
+    expect(trail).toEqual([
+      'claim.created',
+      'claim.filed',
+      'claim.review_started',
+      'claim.approved',
+      'claim.credited',
+    ]);
   });
 
   it('decided claims carry their decision in force and a stored letter; questions, returns and credits their rows', async () => {
     const claims = await claimsDemo();
     const decided = claims.filter((c) => ['approved', 'denied', 'credited', 'closed'].includes(c.stage));
-    const decisions = await t.ds.getRepository(Decision).findBy({ currentClaimId: In(decided.map((c) => c.id)) });
+    const decisions = await t.ds
+      .getRepository(Decision)
+      .findBy({ currentClaimId: In(decided.map((c) => c.id)) });
     expect(decisions).toHaveLength(decided.length);
-    const letters = await t.ds.getRepository(ClaimDocument).findBy({ id: In(decisions.map((d) => d.letterId!)), kind: 'letter' });
+    const letters = await t.ds
+      .getRepository(ClaimDocument)
+      .findBy({ id: In(decisions.map((d) => d.letterId!)), kind: 'letter' });
     expect(letters).toHaveLength(decided.length);
     for (const d of decisions) {
       const c = decided.find((x) => x.id === d.claimId)!;
@@ -89,7 +120,9 @@ describe('the demo claims (API.md demo data)', () => {
       expect(open[0].answeredAt).toBeNull();
     }
     const returning = claims.filter((x) => x.stage === 'return_requested' || x.stage === 'unit_received');
-    const ras = await t.ds.getRepository(ReturnAuthorization).findBy({ claimId: In(returning.map((c) => c.id)) });
+    const ras = await t.ds
+      .getRepository(ReturnAuthorization)
+      .findBy({ claimId: In(returning.map((c) => c.id)) });
     expect(ras).toHaveLength(returning.length);
     for (const ra of ras) expect(ra.packingSlipId).toBeTruthy();
     const received = claims.filter((x) => x.stage === 'unit_received');
@@ -99,15 +132,20 @@ describe('the demo claims (API.md demo data)', () => {
       expect(await t.ds.getRepository(CreditMemo).countBy({ creditedClaimId: c.id })).toBe(1);
       const memo = await t.ds.getRepository(CreditMemo).findOneByOrFail({ creditedClaimId: c.id });
       expect(await t.ds.getRepository(LedgerEntry).countBy({ memoId: memo.id })).toBe(1);
-      expect(await t.ds.getRepository(AuditEvent).countBy({ entityId: c.id, action: 'claim.credited' })).toBe(1);
+      expect(await t.ds.getRepository(AuditEvent).countBy({ entityId: c.id, action: 'claim.credited' })).toBe(
+        1,
+      );
     }
   });
 
   it('a demo letter downloads as a PDF for the reviewer and the installer', async () => {
     const claims = await claimsDemo();
-    const c = claims.find((x) => x.stage === 'approved' && names.get(x.manufacturerId) === 'Aldercrest Lighting')!;
+    const c = claims.find(
+      (x) => x.stage === 'approved' && names.get(x.manufacturerId) === 'Aldercrest Lighting',
+    )!;
     const d = await t.ds.getRepository(Decision).findOneByOrFail({ currentClaimId: c.id });
-    const installer = names.get(c.contractorId) === 'Harborview Electric' ? 'ines@harborview.test' : 'omar@copperline.test';
+    const installer =
+      names.get(c.contractorId) === 'Harborview Electric' ? 'ines@harborview.test' : 'omar@copperline.test';
     for (const email of ['rhea@aldercrest.test', installer]) {
       const agent = await signIn(t.request(), email, DEMO_PASSWORD);
       const wf = await agent.get(`/api/claims/${c.id}/workflow`);
@@ -120,8 +158,14 @@ describe('the demo claims (API.md demo data)', () => {
 });
 
 describe('the demo claims’ photos and invoices (issue 5, demo scenario)', () => {
-  const INSTALLER: Record<string, string> = { 'Harborview Electric': 'ines@harborview.test', 'Copperline Electrical': 'omar@copperline.test' };
-  const REVIEWER: Record<string, string> = { 'Aldercrest Lighting': 'rhea@aldercrest.test', 'Veltra Luminaires': 'theo@veltra.test' };
+  const INSTALLER: Record<string, string> = {
+    'Harborview Electric': 'ines@harborview.test',
+    'Copperline Electrical': 'omar@copperline.test',
+  };
+  const REVIEWER: Record<string, string> = {
+    'Aldercrest Lighting': 'rhea@aldercrest.test',
+    'Veltra Luminaires': 'theo@veltra.test',
+  };
   const other = (m: Record<string, string>, name: string) => Object.entries(m).find(([k]) => k !== name)![1];
   const filesOf = async (ids: string[]) => {
     const rows = await t.ds.getRepository(Attachment).findBy({ ownerType: 'claim', ownerId: In(ids) });
@@ -138,9 +182,16 @@ describe('the demo claims’ photos and invoices (issue 5, demo scenario)', () =
       const list = files.get(c.id) ?? [];
       const photos = list.filter((a) => a.kind === 'photo');
       expect(new Set(photos.map((a) => a.purpose))).toEqual(new Set(['nameplate', 'failure', 'site']));
-      for (const p of photos) expect([p.contentType, p.width, p.height, p.thumbnailKey !== null]).toEqual(['image/jpeg', 800, 600, true]);
+      for (const p of photos)
+        expect([p.contentType, p.width, p.height, p.thumbnailKey !== null]).toEqual([
+          'image/jpeg',
+          800,
+          600,
+          true,
+        ]);
       const invoices = list.filter((a) => a.purpose === 'proof_of_purchase');
-      for (const d of invoices) expect([d.kind, d.contentType, d.thumbnailKey]).toEqual(['document', 'application/pdf', null]);
+      for (const d of invoices)
+        expect([d.kind, d.contentType, d.thumbnailKey]).toEqual(['document', 'application/pdf', null]);
       if (invoices.length) withInvoice++;
       // The evaluation stored at filing counted exactly these files.
       for (const f of c.evaluation!.findings) {
@@ -158,14 +209,23 @@ describe('the demo claims’ photos and invoices (issue 5, demo scenario)', () =
     expect(withInvoice).toBeGreaterThan(filed.length / 2);
     expect(withInvoice).toBeLessThan(filed.length);
     // The reliability history's claims still in review carry theirs too.
-    const open = claims.filter((c) => ['filed', 'in_review', 'needs_info'].includes(c.stage) && !filed.some((f) => f.id === c.id));
+    const open = claims.filter(
+      (c) => ['filed', 'in_review', 'needs_info'].includes(c.stage) && !filed.some((f) => f.id === c.id),
+    );
     expect(open.length).toBeGreaterThan(0);
     const openFiles = await filesOf(open.map((c) => c.id));
-    for (const c of open) expect((openFiles.get(c.id) ?? []).map((a) => a.purpose).sort()).toEqual(['failure', 'nameplate', 'proof_of_purchase']);
+    for (const c of open)
+      expect((openFiles.get(c.id) ?? []).map((a) => a.purpose).sort()).toEqual([
+        'failure',
+        'nameplate',
+        'proof_of_purchase',
+      ]);
   });
 
   it('each claim has its own rows and stored objects (original and thumbnail), each with its audit row', async () => {
-    const all = await t.ds.getRepository(Attachment).findBy({ ownerType: 'claim', ownerId: In(claims.map((c) => c.id)) });
+    const all = await t.ds
+      .getRepository(Attachment)
+      .findBy({ ownerType: 'claim', ownerId: In(claims.map((c) => c.id)) });
     expect(all.length).toBeGreaterThan(150);
     const keys = all.flatMap((a) => [a.storageKey, a.thumbnailKey].filter((k): k is string => !!k));
     expect(new Set(keys).size).toBe(keys.length);
@@ -177,13 +237,17 @@ describe('the demo claims’ photos and invoices (issue 5, demo scenario)', () =
       expect(body.length).toBe(a.byteSize);
       expect(crypto.createHash('sha256').update(body).digest('hex')).toBe(a.sha256);
     }
-    const audited = await t.ds.getRepository(AuditEvent).findBy({ entityType: 'Attachment', action: 'attachment.added', entityId: In(all.map((a) => a.id)) });
+    const audited = await t.ds
+      .getRepository(AuditEvent)
+      .findBy({ entityType: 'Attachment', action: 'attachment.added', entityId: In(all.map((a) => a.id)) });
     expect(audited).toHaveLength(all.length);
   });
 
   it('a demo photo and invoice download for the claim’s installer and reviewer, and are a 404 for the other contractor and manufacturer', async () => {
-    const c = (await claimsDemo()).find((x) => x.stage === 'in_review' && names.get(x.manufacturerId) === 'Veltra Luminaires')
-      ?? (await claimsDemo()).find((x) => x.stage === 'in_review')!;
+    const c =
+      (await claimsDemo()).find(
+        (x) => x.stage === 'in_review' && names.get(x.manufacturerId) === 'Veltra Luminaires',
+      ) ?? (await claimsDemo()).find((x) => x.stage === 'in_review')!;
     const list = (await filesOf([c.id])).get(c.id)!;
     const photo = list.find((a) => a.purpose === 'failure')!;
     const contractor = names.get(c.contractorId)!;
@@ -192,9 +256,15 @@ describe('the demo claims’ photos and invoices (issue 5, demo scenario)', () =
       const agent = await signIn(t.request(), email, DEMO_PASSWORD);
       const detail = await agent.get(`/api/claims/${c.id}`);
       expect(detail.status).toBe(200);
-      expect(detail.body.claim.attachments.map((a: { id: string }) => a.id).sort()).toEqual(list.map((a) => a.id).sort());
+      expect(detail.body.claim.attachments.map((a: { id: string }) => a.id).sort()).toEqual(
+        list.map((a) => a.id).sort(),
+      );
       const res = await agent.get(`/api/claims/${c.id}/attachments/${photo.id}/content`).buffer(true);
-      expect([res.status, res.headers['content-type'], res.headers['x-content-type-options']]).toEqual([200, 'image/jpeg', 'nosniff']);
+      expect([res.status, res.headers['content-type'], res.headers['x-content-type-options']]).toEqual([
+        200,
+        'image/jpeg',
+        'nosniff',
+      ]);
       expect(res.headers['content-disposition']).toMatch(/^attachment;/);
       expect(Buffer.compare(res.body as Buffer, await storage.getBuffer(photo.storageKey))).toBe(0);
       const thumb = await agent.get(`/api/claims/${c.id}/attachments/${photo.id}/thumbnail`).buffer(true);

@@ -44,7 +44,11 @@ describe('demo photos', () => {
 
   it('draws a model’s nameplate without a serial row when none is given', async () => {
     const body = await drawNameplate({ manufacturer: 'Veltra Luminaires', model: 'VL-FL100' });
-    await expect(inspectUpload(body, 'nameplate.jpg')).resolves.toMatchObject({ kind: 'photo', width: 800, height: 600 });
+    await expect(inspectUpload(body, 'nameplate.jpg')).resolves.toMatchObject({
+      kind: 'photo',
+      width: 800,
+      height: 600,
+    });
   });
 
   it('draws a distributor invoice as a passive one-page PDF the upload check keeps as sent, the same bytes each time', async () => {
@@ -62,7 +66,11 @@ describe('demo photos', () => {
     const pdf = await drawInvoice(info);
     expect((await drawInvoice(info)).equals(pdf)).toBe(true);
     const inspected = await inspectUpload(pdf, 'invoice.pdf');
-    expect([inspected.kind, inspected.contentType, inspected.body.equals(pdf)]).toEqual(['document', 'application/pdf', true]);
+    expect([inspected.kind, inspected.contentType, inspected.body.equals(pdf)]).toEqual([
+      'document',
+      'application/pdf',
+      true,
+    ]);
     const text = (await new PDFParse({ data: new Uint8Array(pdf) }).getText()).text;
     expect(text).toContain('INV-H2024-1017');
     // 12 x 148.00 = 1,776.00; demo prices and a demo tax rate, invented: the arithmetic is what is checked.

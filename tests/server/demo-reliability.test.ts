@@ -12,7 +12,10 @@ import { closeTestApp, createTestApp, type TestContext } from '../support/test-a
 let t: TestContext;
 beforeAll(async () => {
   t = await createTestApp();
-  await seedDemo(t.ds, { onlyIfEmpty: false, credits: { storage: createStorage(t.config), config: t.config } });
+  await seedDemo(t.ds, {
+    onlyIfEmpty: false,
+    credits: { storage: createStorage(t.config), config: t.config },
+  });
 }, 120_000);
 afterAll(() => closeTestApp(t));
 

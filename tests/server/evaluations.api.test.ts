@@ -35,6 +35,8 @@ describe('POST /api/evaluations', () => {
     expect(r.status).toBe(400);
     expect(r.body.error.code).toBe('validation.failed');
     const paths = r.body.error.details.map((d: { path: string }) => d.path);
-    expect(paths).toEqual(expect.arrayContaining(['product.ratedInputWatts', 'claim.failedOn', 'installation']));
+    expect(paths).toEqual(
+      expect.arrayContaining(['product.ratedInputWatts', 'claim.failedOn', 'installation']),
+    );
   });
 });

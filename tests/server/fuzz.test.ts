@@ -35,18 +35,28 @@ async function rowCounts() {
 }
 
 const pathValue = () =>
-  fc.oneof(fc.uuid(), fc.constantFrom(...ids), fc.string({ maxLength: 40 }), fc.constantFrom('..%2f..%2fetc', '%00', '0', '-1', 'null'));
+  fc.oneof(
+    fc.uuid(),
+    fc.constantFrom(...ids),
+    fc.string({ maxLength: 40 }),
+    fc.constantFrom('..%2f..%2fetc', '%00', '0', '-1', 'null'),
+  );
 
 // Valid bodies for the routes that have one; the fuzzer mutates them (one field replaced, dropped or added) so
 // that requests get past validation into the services. Routes without a sample get generated bodies only.
 const SAMPLES: Record<string, () => Record<string, unknown>> = {
   'POST /api/auth/login': () => ({ email: 'someone@example.test', password: 'a password' }),
-  'POST /api/users/invitations': () => ({ email: `fuzz-${Math.random().toString(36).slice(2)}@example.test`, name: 'Fuzz', roles: ['reviewer'] }),
+  'POST /api/users/invitations': () => ({
+    email: `fuzz-${Math.random().toString(36).slice(2)}@example.test`,
+    name: 'Fuzz',
+    roles: ['reviewer'],
+  }),
   'PATCH /api/users/:id': () => ({ roles: ['reviewer', 'accountant'] }),
   'POST /api/invitations/:token/accept': () => ({ password: 'a long enough password' }),
 };
 
-SAMPLES['POST /api/evaluations'] = () => JSON.parse(fs.readFileSync('tests/shared/engine/fixtures/valid-claim.json', 'utf8'));
+SAMPLES['POST /api/evaluations'] = () =>
+  JSON.parse(fs.readFileSync('tests/shared/engine/fixtures/valid-claim.json', 'utf8'));
 
 /** Every path to a value inside a sample, nested objects and arrays included. */
 function leafPaths(v: unknown, prefix: (string | number)[] = []): (string | number)[][] {
@@ -71,37 +81,65 @@ const mutate = (sample: Record<string, unknown>) => {
   const paths = leafPaths(sample).filter((p) => p.length > 0);
   return fc.oneof(
     fc.constant(sample),
-    fc.tuple(fc.constantFrom(...paths), fc.oneof(fc.jsonValue({ maxDepth: 2 }), fc.double(), fc.constantFrom(-1, 0, 1e308, '', '1,5', null)))
+    fc
+      .tuple(
+        fc.constantFrom(...paths),
+        fc.oneof(fc.jsonValue({ maxDepth: 2 }), fc.double(), fc.constantFrom(-1, 0, 1e308, '', '1,5', null)),
+      )
       .map(([p, v]) => setAt(sample, p, v)),
     fc.constantFrom(...paths).map((p) => setAt(sample, p, undefined, true)),
-    fc.tuple(fc.string({ maxLength: 12 }), fc.jsonValue({ maxDepth: 2 })).map(([k, v]) => ({ ...sample, [k]: v })),
+    fc
+      .tuple(fc.string({ maxLength: 12 }), fc.jsonValue({ maxDepth: 2 }))
+      .map(([k, v]) => ({ ...sample, [k]: v })),
   );
 };
 
 const genericBody = fc.oneof(
   fc.anything({ maxDepth: 3 }),
   fc.dictionary(fc.string({ maxLength: 20 }), fc.jsonValue({ maxDepth: 3 }), { maxKeys: 8 }),
-  fc.record({
-    email: fc.oneof(fc.emailAddress(), fc.string()),
-    name: fc.string({ maxLength: 300 }),
-    password: fc.string({ maxLength: 300 }),
-    roles: fc.array(fc.oneof(fc.constantFrom('installer', 'reviewer', 'accountant', 'administrator'), fc.string()), { maxLength: 5 }),
-    status: fc.oneof(fc.constantFrom('active', 'disabled', 'invited'), fc.string()),
-  }, { requiredKeys: [] }),
+  fc.record(
+    {
+      email: fc.oneof(fc.emailAddress(), fc.string()),
+      name: fc.string({ maxLength: 300 }),
+      password: fc.string({ maxLength: 300 }),
+      roles: fc.array(
+        fc.oneof(fc.constantFrom('installer', 'reviewer', 'accountant', 'administrator'), fc.string()),
+        { maxLength: 5 },
+      ),
+      status: fc.oneof(fc.constantFrom('active', 'disabled', 'invited'), fc.string()),
+    },
+    { requiredKeys: [] },
+  ),
 );
 
-const makeRequest = (route: RouteInfo) => fc.record({
-  body: SAMPLES[`${route.method} ${route.path}`]
-    ? fc.oneof({ arbitrary: mutate(SAMPLES[`${route.method} ${route.path}`]()), weight: 3 }, { arbitrary: genericBody, weight: 1 })
-    : genericBody,
-  query: fc.dictionary(fc.constantFrom('page', 'pageSize', 'sort', 'q', 'dryRun', 'stage', 'x'), fc.oneof(fc.string(), fc.integer().map(String)), { maxKeys: 4 }),
-  contentType: fc.oneof(
-    { arbitrary: fc.constant('application/json'), weight: 6 },
-    { arbitrary: fc.constantFrom('text/plain', 'application/x-www-form-urlencoded', 'application/json; charset=latin1', 'multipart/form-data'), weight: 1 },
-  ),
-  raw: fc.oneof({ arbitrary: fc.constant(false), weight: 9 }, { arbitrary: fc.constant(true), weight: 1 }),
-  params: fc.array(pathValue(), { minLength: 3, maxLength: 3 }),
-});
+const makeRequest = (route: RouteInfo) =>
+  fc.record({
+    body: SAMPLES[`${route.method} ${route.path}`]
+      ? fc.oneof(
+          { arbitrary: mutate(SAMPLES[`${route.method} ${route.path}`]()), weight: 3 },
+          { arbitrary: genericBody, weight: 1 },
+        )
+      : genericBody,
+    query: fc.dictionary(
+      fc.constantFrom('page', 'pageSize', 'sort', 'q', 'dryRun', 'stage', 'x'),
+      fc.oneof(fc.string(), fc.integer().map(String)),
+      { maxKeys: 4 },
+    ),
+    contentType: fc.oneof(
+      { arbitrary: fc.constant('application/json'), weight: 6 },
+      {
+        arbitrary: fc.constantFrom(
+          'text/plain',
+          'application/x-www-form-urlencoded',
+          'application/json; charset=latin1',
+          'multipart/form-data',
+        ),
+        weight: 1,
+      },
+    ),
+    raw: fc.oneof({ arbitrary: fc.constant(false), weight: 9 }, { arbitrary: fc.constant(true), weight: 1 }),
+    params: fc.array(pathValue(), { minLength: 3, maxLength: 3 }),
+  });
 
 beforeAll(async () => {
   t = await createTestApp();
@@ -154,36 +192,45 @@ async function fuzzRoute(route: RouteInfo, failures: string[]) {
   await t.ds.query('DELETE FROM login_attempts');
   // Sign-out would end the fuzzing session itself: that route is fuzzed without one.
   const cookie = route.path === '/api/auth/logout' ? '' : await signInCookie(admin.email);
-  await fc.assert(
-    fc.asyncProperty(makeRequest(route), async (req) => {
-      let i = 0;
-      const path = route.path.replace(/:[A-Za-z]+/g, () => encodeURIComponent(req.params[i++] ?? 'x'));
-      const qs = new URLSearchParams(req.query).toString();
-      const before = await rowCounts();
-      const payload = req.raw ? String(typeof req.body === 'string' ? req.body : JSON.stringify(req.body) ?? '').slice(1) : JSON.stringify(req.body ?? null);
-      const res = await fetch(`${base}${path}${qs ? `?${qs}` : ''}`, {
-        method: route.method,
-        headers: { 'content-type': req.contentType, ...(cookie ? { cookie } : {}) },
-        body: payload,
-      });
-      const text = await res.text();
-      if (process.env.FUZZ_DEBUG) console.log(route.method, route.path, res.status, text.slice(0, 80));
-      const where = `${route.method} ${path} (${req.contentType}) -> ${res.status}`;
-      if (res.status >= 500) failures.push(`${where}: ${text.slice(0, 200)}`);
-      if (/\n\s+at .+:\d+:\d+/.test(text) || /node_modules|\.ts:\d+/.test(text)) failures.push(`${where}: stack trace in body`);
-      if (res.status >= 400) {
-        let shape: { error?: { code?: unknown; message?: unknown } } = {};
-        try {
-          shape = JSON.parse(text);
-        } catch {
-          failures.push(`${where}: error body is not JSON`);
+  await fc
+    .assert(
+      fc.asyncProperty(makeRequest(route), async (req) => {
+        let i = 0;
+        const path = route.path.replace(/:[A-Za-z]+/g, () => encodeURIComponent(req.params[i++] ?? 'x'));
+        const qs = new URLSearchParams(req.query).toString();
+        const before = await rowCounts();
+        const payload = req.raw
+          ? String(typeof req.body === 'string' ? req.body : (JSON.stringify(req.body) ?? '')).slice(1)
+          : JSON.stringify(req.body ?? null);
+        const res = await fetch(`${base}${path}${qs ? `?${qs}` : ''}`, {
+          method: route.method,
+          headers: { 'content-type': req.contentType, ...(cookie ? { cookie } : {}) },
+          body: payload,
+        });
+        const text = await res.text();
+        if (process.env.FUZZ_DEBUG) console.log(route.method, route.path, res.status, text.slice(0, 80));
+        const where = `${route.method} ${path} (${req.contentType}) -> ${res.status}`;
+        if (res.status >= 500) failures.push(`${where}: ${text.slice(0, 200)}`);
+        if (/\n\s+at .+:\d+:\d+/.test(text) || /node_modules|\.ts:\d+/.test(text))
+          failures.push(`${where}: stack trace in body`);
+        if (res.status >= 400) {
+          let shape: { error?: { code?: unknown; message?: unknown } } = {};
+          try {
+            shape = JSON.parse(text);
+          } catch {
+            failures.push(`${where}: error body is not JSON`);
+          }
+          if (typeof shape.error?.code !== 'string' || typeof shape.error?.message !== 'string')
+            failures.push(`${where}: error shape`);
+          const after = await rowCounts();
+          for (const [tb, n] of after)
+            if (n !== before.get(tb)) failures.push(`${where}: refused request wrote to ${tb}`);
         }
-        if (typeof shape.error?.code !== 'string' || typeof shape.error?.message !== 'string') failures.push(`${where}: error shape`);
-        const after = await rowCounts();
-        for (const [tb, n] of after) if (n !== before.get(tb)) failures.push(`${where}: refused request wrote to ${tb}`);
-      }
-      return failures.length === 0;
-    }),
-    { numRuns: RUNS, seed: 20261201 },
-  ).catch((e) => failures.push(`${route.method} ${route.path}: ${String(e.message).split('\n').slice(0, 3).join(' ')}`));
+        return failures.length === 0;
+      }),
+      { numRuns: RUNS, seed: 20261201 },
+    )
+    .catch((e) =>
+      failures.push(`${route.method} ${route.path}: ${String(e.message).split('\n').slice(0, 3).join(' ')}`),
+    );
 }

@@ -6,7 +6,12 @@ import { Installation } from '../../server/db/entities/installation.entity';
 import { ProductModel } from '../../server/db/entities/product-model.entity';
 import { clock } from '../../server/lib/clock';
 import { createOrganization, createUser, signIn } from '../support/factories';
-import { createPolicy, createProduct, installationPayload, productPayload } from '../support/catalogue-factories';
+import {
+  createPolicy,
+  createProduct,
+  installationPayload,
+  productPayload,
+} from '../support/catalogue-factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
 let t: TestContext;
@@ -16,7 +21,11 @@ beforeAll(async () => {
 afterAll(() => closeTestApp(t));
 
 type Org = Awaited<ReturnType<typeof createOrganization>>;
-async function member(kind: 'contractor' | 'manufacturer', roles: Parameters<typeof createUser>[2], org?: Org) {
+async function member(
+  kind: 'contractor' | 'manufacturer',
+  roles: Parameters<typeof createUser>[2],
+  org?: Org,
+) {
   const o = org ?? (await createOrganization(t.ds, kind));
   const user = await createUser(t.ds, o, roles);
   return { org: o, user, agent: await signIn(t.request(), user.email) };
@@ -29,14 +38,22 @@ async function world() {
   return { mfr, product, installer };
 }
 
-const countInstallations = (contractorId: string) => t.ds.getRepository(Installation).countBy({ contractorId });
+const countInstallations = (contractorId: string) =>
+  t.ds.getRepository(Installation).countBy({ contractorId });
 
 describe('installations', () => {
   it('an installer registers an installation; the version in force on the purchase date is recorded', async () => {
     const { mfr, product, installer } = await world();
-    const { versions } = await createPolicy(t.ds, mfr, [product], [{ effectiveFrom: '2022-01-01' }, { effectiveFrom: '2024-03-01' }]);
+    const { versions } = await createPolicy(
+      t.ds,
+      mfr,
+      [product],
+      [{ effectiveFrom: '2022-01-01' }, { effectiveFrom: '2024-03-01' }],
+    );
     // Bought 2024-02-15 (version 1 in force), installed 2024-03-05 (version 2 by then): the purchase date decides.
-    const r = await installer.agent.post('/api/installations').send(installationPayload(product.id, { purchaseDate: '2024-02-15', installDate: '2024-03-05' }));
+    const r = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { purchaseDate: '2024-02-15', installDate: '2024-03-05' }));
     expect(r.status).toBe(201);
     expect(r.body.installation).toMatchObject({
       contractor: { id: installer.org.id },
@@ -47,20 +64,31 @@ describe('installations', () => {
       fit: [],
     });
     // Without a purchase date the install date decides.
-    const r2 = await installer.agent.post('/api/installations').send(installationPayload(product.id, { purchaseDate: null, installDate: '2024-03-05' }));
+    const r2 = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { purchaseDate: null, installDate: '2024-03-05' }));
     expect(r2.body.installation.policyVersion.versionNumber).toBe(2);
     // Before any version took effect: none.
-    const r3 = await installer.agent.post('/api/installations').send(installationPayload(product.id, { purchaseDate: '2021-06-01', installDate: '2021-06-10' }));
+    const r3 = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { purchaseDate: '2021-06-01', installDate: '2021-06-10' }));
     expect(r3.body.installation.policyVersion).toBeNull();
-    const audit = await t.ds.getRepository(AuditEvent).findOneByOrFail({ entityType: 'Installation', entityId: r.body.installation.id });
+    const audit = await t.ds
+      .getRepository(AuditEvent)
+      .findOneByOrFail({ entityType: 'Installation', entityId: r.body.installation.id });
     expect(audit.action).toBe('installation.created');
   });
 
   it('saves conditions that do not fit the ratings, and says why (NFPA 70 (NEC) 410.10(A) for the location)', async () => {
     const { product, installer } = await world(); // damp-rated, not enclosed-rated, 0-10 V, 120-277 V, 45 °C
-    const r = await installer.agent
-      .post('/api/installations')
-      .send(installationPayload(product.id, { location: 'wet', enclosure: 'enclosed', nominalSupplyVolts: 480, ambientC: 55 }));
+    const r = await installer.agent.post('/api/installations').send(
+      installationPayload(product.id, {
+        location: 'wet',
+        enclosure: 'enclosed',
+        nominalSupplyVolts: 480,
+        ambientC: 55,
+      }),
+    );
     expect(r.status).toBe(201);
     expect(r.body.installation.fit.map((w: { code: string }) => w.code)).toEqual([
       'application.location_wetter_than_rated',
@@ -73,10 +101,14 @@ describe('installations', () => {
 
   it('refuses a serial already registered for the model with 409 naming it, and writes nothing', async () => {
     const { mfr, product, installer } = await world();
-    const first = await installer.agent.post('/api/installations').send(installationPayload(product.id, { serials: ['DUP-0001', 'OK-0001'] }));
+    const first = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { serials: ['DUP-0001', 'OK-0001'] }));
     expect(first.status).toBe(201);
     const other = await member('contractor', ['installer']);
-    const again = await other.agent.post('/api/installations').send(installationPayload(product.id, { serials: ['dup-0001', 'OK-0002'] }));
+    const again = await other.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { serials: ['dup-0001', 'OK-0002'] }));
     expect(again.status).toBe(409);
     expect(again.body.error.code).toBe('installation.duplicate_serial');
     expect(again.body.error.message).toContain('DUP-0001');
@@ -84,11 +116,22 @@ describe('installations', () => {
     expect(await t.ds.getRepository(InstallationUnit).countBy({ serial: 'OK-0002' })).toBe(0);
     // The same serial on another model is fine: unique per manufacturer and model.
     const model2 = await createProduct(t.ds, mfr);
-    expect((await other.agent.post('/api/installations').send(installationPayload(model2.id, { serials: ['DUP-0001'] }))).status).toBe(201);
+    expect(
+      (
+        await other.agent
+          .post('/api/installations')
+          .send(installationPayload(model2.id, { serials: ['DUP-0001'] }))
+      ).status,
+    ).toBe(201);
     // And the database refuses a duplicate on its own, whatever the code does.
     const inst = await t.ds.getRepository(Installation).findOneByOrFail({ contractorId: installer.org.id });
     await expect(
-      t.ds.getRepository(InstallationUnit).insert({ manufacturerId: mfr.id, productModelId: product.id, installationId: inst.id, serial: 'DUP-0001' }),
+      t.ds.getRepository(InstallationUnit).insert({
+        manufacturerId: mfr.id,
+        productModelId: product.id,
+        installationId: inst.id,
+        serial: 'DUP-0001',
+      }),
     ).rejects.toThrow(/Duplicate/);
   });
 
@@ -102,12 +145,18 @@ describe('installations', () => {
     expect(list.body.items.map((i: { id: string }) => i.id)).toEqual([id]);
 
     const missing = await installer.agent.get('/api/installations/00000000-0000-4000-8000-000000000000');
-    for (const stranger of [await member('manufacturer', ['reviewer']), await member('contractor', ['installer']), await member('contractor', ['administrator'])]) {
+    for (const stranger of [
+      await member('manufacturer', ['reviewer']),
+      await member('contractor', ['installer']),
+      await member('contractor', ['administrator']),
+    ]) {
       const seen = await stranger.agent.get(`/api/installations/${id}`);
       expect(seen.status).toBe(404);
       expect(seen.body).toEqual(missing.body);
       expect((await stranger.agent.get(`/api/installations/${id}/history`)).status).toBe(404);
-      expect((await stranger.agent.patch(`/api/installations/${id}`).send({ quantity: 99 })).status).toBe(404);
+      expect((await stranger.agent.patch(`/api/installations/${id}`).send({ quantity: 99 })).status).toBe(
+        404,
+      );
       expect((await stranger.agent.get('/api/installations')).body.total).toBe(0);
     }
     // The manufacturer may read, not change; a colleague of the installer may change.
@@ -119,19 +168,29 @@ describe('installations', () => {
 
   it('only contractors register installations', async () => {
     const { mfr, product } = await world();
-    for (const o of [await member('manufacturer', ['administrator'], mfr), await member('manufacturer', ['reviewer'], mfr), await member('manufacturer', ['accountant'])]) {
-      expect((await o.agent.post('/api/installations').send(installationPayload(product.id))).status).toBe(403);
+    for (const o of [
+      await member('manufacturer', ['administrator'], mfr),
+      await member('manufacturer', ['reviewer'], mfr),
+      await member('manufacturer', ['accountant']),
+    ]) {
+      expect((await o.agent.post('/api/installations').send(installationPayload(product.id))).status).toBe(
+        403,
+      );
     }
     expect(await t.ds.getRepository(Installation).countBy({ productModelId: product.id })).toBe(0);
   });
 
   it('refuses bad input with a message per field; an unknown model is a 400 on productModelId', async () => {
     const { product, installer } = await world();
-    const r = await installer.agent.post('/api/installations').send(installationPayload(product.id, { quantity: 0, hoursPerDay: 30, installDate: '2024-13-01' }));
+    const r = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { quantity: 0, hoursPerDay: 30, installDate: '2024-13-01' }));
     expect(r.status).toBe(400);
     const paths = r.body.error.details.map((d: { path: string }) => d.path);
     expect(paths).toEqual(expect.arrayContaining(['quantity', 'hoursPerDay', 'installDate']));
-    const unknown = await installer.agent.post('/api/installations').send(installationPayload('00000000-0000-4000-8000-000000000000'));
+    const unknown = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload('00000000-0000-4000-8000-000000000000'));
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.details[0].path).toBe('productModelId');
     expect(await countInstallations(installer.org.id)).toBe(0);
@@ -139,39 +198,69 @@ describe('installations', () => {
 
   it('edits replace the serials, re-pick the version when the dates change, and show in the history', async () => {
     const { mfr, product, installer } = await world();
-    const { versions } = await createPolicy(t.ds, mfr, [product], [{ effectiveFrom: '2022-01-01' }, { effectiveFrom: '2024-06-01' }]);
-    const r = await installer.agent.post('/api/installations').send(installationPayload(product.id, { serials: ['ED-1', 'ED-2'] }));
+    const { versions } = await createPolicy(
+      t.ds,
+      mfr,
+      [product],
+      [{ effectiveFrom: '2022-01-01' }, { effectiveFrom: '2024-06-01' }],
+    );
+    const r = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { serials: ['ED-1', 'ED-2'] }));
     const id = r.body.installation.id;
-    const p = await installer.agent.patch(`/api/installations/${id}`).send({ serials: ['ED-1', 'ED-3'], purchaseDate: '2024-07-01', installDate: '2024-07-02' });
+    const p = await installer.agent
+      .patch(`/api/installations/${id}`)
+      .send({ serials: ['ED-1', 'ED-3'], purchaseDate: '2024-07-01', installDate: '2024-07-02' });
     expect(p.status).toBe(200);
     expect(p.body.installation.serials).toEqual(['ED-1', 'ED-3']);
     expect(p.body.installation.policyVersion.id).toBe(versions[1].id);
     const h = await installer.agent.get(`/api/installations/${id}/history`);
-    expect(h.body.items.map((e: { action: string }) => e.action)).toEqual(['installation.created', 'installation.updated']);
+    expect(h.body.items.map((e: { action: string }) => e.action)).toEqual([
+      'installation.created',
+      'installation.updated',
+    ]);
     expect(h.body.items[1].after.serials).toEqual(['ED-1', 'ED-3']);
     // A duplicate in an edit is refused and changes nothing.
-    const other = await installer.agent.post('/api/installations').send(installationPayload(product.id, { serials: ['ED-9'] }));
-    const dup = await installer.agent.patch(`/api/installations/${other.body.installation.id}`).send({ serials: ['ED-3'], siteName: 'Changed' });
+    const other = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { serials: ['ED-9'] }));
+    const dup = await installer.agent
+      .patch(`/api/installations/${other.body.installation.id}`)
+      .send({ serials: ['ED-3'], siteName: 'Changed' });
     expect(dup.status).toBe(409);
     const after = await t.ds.getRepository(Installation).findOneByOrFail({ id: other.body.installation.id });
     expect(after.siteName).not.toBe('Changed');
-    expect((await t.ds.getRepository(InstallationUnit).findBy({ installationId: after.id })).map((u) => u.serial)).toEqual(['ED-9']);
+    expect(
+      (await t.ds.getRepository(InstallationUnit).findBy({ installationId: after.id })).map((u) => u.serial),
+    ).toEqual(['ED-9']);
   });
 
   it('lists with filters, search and sort, in the same number of queries whatever the page size', async () => {
     const { product, installer } = await world();
     for (let i = 0; i < 10; i++) {
-      await installer.agent
-        .post('/api/installations')
-        .send(installationPayload(product.id, { siteName: `Depot ${String(i).padStart(2, '0')}`, location: i % 2 ? 'damp' : 'dry', installDate: `2024-01-${String(i + 1).padStart(2, '0')}`, serials: [`LS-${i}-${product.id.slice(0, 6)}`] }));
+      await installer.agent.post('/api/installations').send(
+        installationPayload(product.id, {
+          siteName: `Depot ${String(i).padStart(2, '0')}`,
+          location: i % 2 ? 'damp' : 'dry',
+          installDate: `2024-01-${String(i + 1).padStart(2, '0')}`,
+          serials: [`LS-${i}-${product.id.slice(0, 6)}`],
+        }),
+      );
     }
-    const run = (size: number) => t.ds.countQueries(() => installer.agent.get(`/api/installations?pageSize=${size}`));
+    const run = (size: number) =>
+      t.ds.countQueries(() => installer.agent.get(`/api/installations?pageSize=${size}`));
     const small = await run(2);
     const large = await run(10);
     expect(large.result.body.items).toHaveLength(10);
     expect(large.counter.count).toBe(small.counter.count);
     const damp = await installer.agent.get('/api/installations?location=damp&sort=siteName');
-    expect(damp.body.items.map((i: { siteName: string }) => i.siteName)).toEqual(['Depot 01', 'Depot 03', 'Depot 05', 'Depot 07', 'Depot 09']);
+    expect(damp.body.items.map((i: { siteName: string }) => i.siteName)).toEqual([
+      'Depot 01',
+      'Depot 03',
+      'Depot 05',
+      'Depot 07',
+      'Depot 09',
+    ]);
     const bySerial = await installer.agent.get(`/api/installations?q=LS-7-`);
     expect(bySerial.body.items.map((i: { siteName: string }) => i.siteName)).toEqual(['Depot 07']);
     expect((await installer.agent.get('/api/installations?nominalSupplyVolts=230')).status).toBe(400);
@@ -181,15 +270,37 @@ describe('installations', () => {
 describe('spreadsheet import', () => {
   it('installations: a preview marks each bad row by row, column and reason, writes nothing; the import writes the good rows', async () => {
     const { mfr, product, installer } = await world();
-    await installer.agent.post('/api/installations').send(installationPayload(product.id, { serials: ['TAKEN-1'] }));
-    const header = 'manufacturer,model_number,site_name,site_address,site_city,site_region,site_postal_code,quantity,serials,install_date,purchase_date,distributor,invoice_number,location,enclosure,dimmer,nominal_supply_volts,hours_per_day,ambient_c';
+    await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { serials: ['TAKEN-1'] }));
+    const header =
+      'manufacturer,model_number,site_name,site_address,site_city,site_region,site_postal_code,quantity,serials,install_date,purchase_date,distributor,invoice_number,location,enclosure,dimmer,nominal_supply_volts,hours_per_day,ambient_c';
     const row = (over: Record<string, string>) => {
       const base: Record<string, string> = {
-        manufacturer: mfr.name, model_number: product.modelNumber, site_name: 'Bay', site_address: '1 Road', site_city: 'Town', site_region: 'WA', site_postal_code: '98000',
-        quantity: '2', serials: '', install_date: '2024-04-01', purchase_date: '', distributor: '', invoice_number: '', location: 'dry', enclosure: 'open', dimmer: 'none',
-        nominal_supply_volts: '277', hours_per_day: '12', ambient_c: '20',
+        manufacturer: mfr.name,
+        model_number: product.modelNumber,
+        site_name: 'Bay',
+        site_address: '1 Road',
+        site_city: 'Town',
+        site_region: 'WA',
+        site_postal_code: '98000',
+        quantity: '2',
+        serials: '',
+        install_date: '2024-04-01',
+        purchase_date: '',
+        distributor: '',
+        invoice_number: '',
+        location: 'dry',
+        enclosure: 'open',
+        dimmer: 'none',
+        nominal_supply_volts: '277',
+        hours_per_day: '12',
+        ambient_c: '20',
       };
-      return header.split(',').map((k) => over[k] ?? base[k]).join(',');
+      return header
+        .split(',')
+        .map((k) => over[k] ?? base[k])
+        .join(',');
     };
     const csv = [
       header,
@@ -207,11 +318,19 @@ describe('spreadsheet import', () => {
     expect(preview.body).toMatchObject({ dryRun: true, total: 7, valid: 2, invalid: 5, imported: 0 });
     expect(preview.body.errors).toEqual([
       { row: 3, column: 'quantity', message: '"lots" is not a number.' },
-      { row: 4, column: 'model_number', message: `No model numbered NOPE-404 from ${mfr.name} in the catalogue.` },
+      {
+        row: 4,
+        column: 'model_number',
+        message: `No model numbered NOPE-404 from ${mfr.name} in the catalogue.`,
+      },
       { row: 6, column: 'serials', message: 'Already registered for this model: TAKEN-1.' },
       { row: 7, column: 'serials', message: 'Also on an earlier row: IMP-3 (row 5).' },
       { row: 8, column: 'install_date', message: 'The install date is not a calendar date.' },
-      { row: 8, column: 'nominal_supply_volts', message: 'Pick a nominal supply: 120, 208, 240, 277, 347 or 480 V.' },
+      {
+        row: 8,
+        column: 'nominal_supply_volts',
+        message: 'Pick a nominal supply: 120, 208, 240, 277, 347 or 480 V.',
+      },
     ]);
     expect(await countInstallations(installer.org.id)).toBe(before);
 
@@ -219,9 +338,19 @@ describe('spreadsheet import', () => {
     expect(done.status).toBe(201);
     expect(done.body).toMatchObject({ dryRun: false, imported: 2 });
     expect(await countInstallations(installer.org.id)).toBe(before + 2);
-    const good = await t.ds.getRepository(Installation).findOneByOrFail({ contractorId: installer.org.id, siteName: 'Good one' });
-    expect((await t.ds.getRepository(InstallationUnit).findBy({ installationId: good.id })).map((u) => u.serial).sort()).toEqual(['IMP-1', 'IMP-2']);
-    expect(await t.ds.getRepository(AuditEvent).countBy({ entityType: 'Installation', entityId: good.id, action: 'installation.imported' })).toBe(1);
+    const good = await t.ds
+      .getRepository(Installation)
+      .findOneByOrFail({ contractorId: installer.org.id, siteName: 'Good one' });
+    expect(
+      (await t.ds.getRepository(InstallationUnit).findBy({ installationId: good.id }))
+        .map((u) => u.serial)
+        .sort(),
+    ).toEqual(['IMP-1', 'IMP-2']);
+    expect(
+      await t.ds
+        .getRepository(AuditEvent)
+        .countBy({ entityType: 'Installation', entityId: good.id, action: 'installation.imported' }),
+    ).toBe(1);
   });
 
   it('a file with a wrong header is refused as a whole and nothing is written', async () => {
@@ -238,12 +367,31 @@ describe('spreadsheet import', () => {
     const p = productPayload();
     const good = Object.fromEntries(
       Object.entries({
-        model_number: p.modelNumber, name: p.name, family: p.family, rated_input_watts: p.ratedInputWatts, input_volts_min: p.inputVoltsMin, input_volts_max: p.inputVoltsMax,
-        rated_lumens: p.ratedLumens, led_strings: p.ledStrings, leds_per_string: p.ledsPerString, led_forward_volts: p.ledForwardVolts, driver_output_amps: p.driverOutputAmps,
-        driver_max_output_volts: '', location: p.location, enclosed_rated: 'no', dimming: p.dimming, ambient_max_c: p.ambientMaxC, rated_life_hours: p.ratedLifeHours, active_cooling: 'no',
+        model_number: p.modelNumber,
+        name: p.name,
+        family: p.family,
+        rated_input_watts: p.ratedInputWatts,
+        input_volts_min: p.inputVoltsMin,
+        input_volts_max: p.inputVoltsMax,
+        rated_lumens: p.ratedLumens,
+        led_strings: p.ledStrings,
+        leds_per_string: p.ledsPerString,
+        led_forward_volts: p.ledForwardVolts,
+        driver_output_amps: p.driverOutputAmps,
+        driver_max_output_volts: '',
+        location: p.location,
+        enclosed_rated: 'no',
+        dimming: p.dimming,
+        ambient_max_c: p.ambientMaxC,
+        rated_life_hours: p.ratedLifeHours,
+        active_cooling: 'no',
       }).map(([k, v]) => [k, String(v)]),
     );
-    const rows = [good, { ...good, model_number: `${p.modelNumber}-B`, input_volts_min: '300' }, { ...good, family: 'chandelier', model_number: `${p.modelNumber}-C` }];
+    const rows = [
+      good,
+      { ...good, model_number: `${p.modelNumber}-B`, input_volts_min: '300' },
+      { ...good, family: 'chandelier', model_number: `${p.modelNumber}-C` },
+    ];
     const preview = await admin.agent.post('/api/products/import?dryRun=true').send({ rows });
     expect(preview.body).toMatchObject({ total: 3, valid: 1, invalid: 2 });
     expect(preview.body.errors).toEqual([
@@ -277,12 +425,16 @@ describe('spreadsheet import', () => {
 describe('the lot (date code)', () => {
   it('is optional, trimmed, bounded and validated; it is shown, edited, cleared and audited', async () => {
     const { product, installer } = await world();
-    const r = await installer.agent.post('/api/installations').send(installationPayload(product.id, { lot: ' ACH2502 ' }));
+    const r = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { lot: ' ACH2502 ' }));
     expect(r.status).toBe(201);
     expect(r.body.installation.lot).toBe('ACH2502');
     const id = r.body.installation.id;
     expect((await t.ds.getRepository(Installation).findOneByOrFail({ id })).lot).toBe('ACH2502');
-    const created = await t.ds.getRepository(AuditEvent).findOneByOrFail({ entityType: 'Installation', entityId: id });
+    const created = await t.ds
+      .getRepository(AuditEvent)
+      .findOneByOrFail({ entityType: 'Installation', entityId: id });
     expect(created.after).toMatchObject({ lot: 'ACH2502' });
     expect((await installer.agent.get(`/api/installations/${id}`)).body.installation.lot).toBe('ACH2502');
     // Without a lot: null.
@@ -298,7 +450,9 @@ describe('the lot (date code)', () => {
       expect(bad.status).toBe(400);
       expect(bad.body.error.details).toEqual([{ path: 'lot', message }]);
     }
-    const refused = await installer.agent.post('/api/installations').send(installationPayload(product.id, { lot: 'B'.repeat(33) }));
+    const refused = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { lot: 'B'.repeat(33) }));
     expect(refused.status).toBe(400);
     expect(refused.body.error.details.map((d: { path: string }) => d.path)).toEqual(['lot']);
     expect(await countInstallations(installer.org.id)).toBe(2);
@@ -310,7 +464,9 @@ describe('the lot (date code)', () => {
     expect(cleared.status).toBe(200);
     expect(cleared.body.installation.lot).toBeNull();
     const h = await installer.agent.get(`/api/installations/${id}/history`);
-    expect(h.body.items.slice(1).map((e: { before: unknown; after: unknown }) => [e.before, e.after])).toEqual([
+    expect(
+      h.body.items.slice(1).map((e: { before: unknown; after: unknown }) => [e.before, e.after]),
+    ).toEqual([
       [{ lot: 'ACH2502' }, { lot: 'ACH2503' }],
       [{ lot: 'ACH2503' }, { lot: null }],
     ]);
@@ -319,19 +475,35 @@ describe('the lot (date code)', () => {
   it('is a column of the import and its template; a bad lot is a row error on that column', async () => {
     const { product, installer } = await world();
     const template = await installer.agent.get('/api/installations/import-template');
-    const [example] = Papa.parse<Record<string, string>>(template.text, { header: true, skipEmptyLines: true }).data;
+    const [example] = Papa.parse<Record<string, string>>(template.text, {
+      header: true,
+      skipEmptyLines: true,
+    }).data;
     expect(example.lot).toBe('AC2401');
-    const header = 'model_number,site_name,site_address,site_city,site_region,site_postal_code,quantity,install_date,lot,location,enclosure,dimmer,nominal_supply_volts,hours_per_day,ambient_c';
-    const row = (site: string, lot: string) => `${product.modelNumber},${site},1 Road,Town,WA,98000,2,2024-04-01,${lot},dry,open,none,277,12,20`;
-    const csv = [header, row('With lot', 'VLT2411'), row('Without lot', ''), row('Long lot', 'X'.repeat(33))].join('\n');
+    const header =
+      'model_number,site_name,site_address,site_city,site_region,site_postal_code,quantity,install_date,lot,location,enclosure,dimmer,nominal_supply_volts,hours_per_day,ambient_c';
+    const row = (site: string, lot: string) =>
+      `${product.modelNumber},${site},1 Road,Town,WA,98000,2,2024-04-01,${lot},dry,open,none,277,12,20`;
+    const csv = [
+      header,
+      row('With lot', 'VLT2411'),
+      row('Without lot', ''),
+      row('Long lot', 'X'.repeat(33)),
+    ].join('\n');
     const preview = await installer.agent.post('/api/installations/import?dryRun=true').send({ csv });
     expect(preview.body).toMatchObject({ total: 3, valid: 2, invalid: 1 });
-    expect(preview.body.errors).toEqual([{ row: 4, column: 'lot', message: 'A lot (date code) has at most 32 characters.' }]);
+    expect(preview.body.errors).toEqual([
+      { row: 4, column: 'lot', message: 'A lot (date code) has at most 32 characters.' },
+    ]);
     const done = await installer.agent.post('/api/installations/import').send({ csv });
     expect(done.body.imported).toBe(2);
     const repo = t.ds.getRepository(Installation);
-    expect((await repo.findOneByOrFail({ contractorId: installer.org.id, siteName: 'With lot' })).lot).toBe('VLT2411');
-    expect((await repo.findOneByOrFail({ contractorId: installer.org.id, siteName: 'Without lot' })).lot).toBeNull();
+    expect((await repo.findOneByOrFail({ contractorId: installer.org.id, siteName: 'With lot' })).lot).toBe(
+      'VLT2411',
+    );
+    expect(
+      (await repo.findOneByOrFail({ contractorId: installer.org.id, siteName: 'Without lot' })).lot,
+    ).toBeNull();
     expect(await repo.countBy({ contractorId: installer.org.id, siteName: 'Long lot' })).toBe(0);
   });
 });
@@ -339,40 +511,69 @@ describe('the lot (date code)', () => {
 describe('install dates in the future', () => {
   const DAY = 86_400_000;
   const utcDate = (ms: number) => new Date(ms).toISOString().slice(0, 10);
-  const future = { path: 'installDate', message: 'The install date is in the future. Enter the day the fixtures were installed.' };
+  const future = {
+    path: 'installDate',
+    message: 'The install date is in the future. Enter the day the fixtures were installed.',
+  };
 
   it('are refused by the server clock, allowing today in any time zone; nothing is written', async () => {
     const { product, installer } = await world();
     const now = clock.nowMs();
     // The furthest-ahead local date on Earth is UTC+14 (Pacific/Kiritimati) — from memory (IANA tz database).
     const todayAtUtcPlus14 = utcDate(now + 14 * 3_600_000);
-    const ok = await installer.agent.post('/api/installations').send(installationPayload(product.id, { installDate: todayAtUtcPlus14, purchaseDate: null }));
+    const ok = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { installDate: todayAtUtcPlus14, purchaseDate: null }));
     expect(ok.status).toBe(201);
-    const tomorrowUtc = await installer.agent.post('/api/installations').send(installationPayload(product.id, { installDate: utcDate(now + DAY), purchaseDate: null }));
+    const tomorrowUtc = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { installDate: utcDate(now + DAY), purchaseDate: null }));
     expect(tomorrowUtc.status).toBe(201);
 
-    const later = await installer.agent.post('/api/installations').send(installationPayload(product.id, { installDate: utcDate(now + 2 * DAY), purchaseDate: null }));
+    const later = await installer.agent
+      .post('/api/installations')
+      .send(installationPayload(product.id, { installDate: utcDate(now + 2 * DAY), purchaseDate: null }));
     expect(later.status).toBe(400);
     expect(later.body.error.details).toEqual([future]);
-    const edit = await installer.agent.patch(`/api/installations/${ok.body.installation.id}`).send({ installDate: utcDate(now + 30 * DAY) });
+    const edit = await installer.agent
+      .patch(`/api/installations/${ok.body.installation.id}`)
+      .send({ installDate: utcDate(now + 30 * DAY) });
     expect(edit.status).toBe(400);
     expect(edit.body.error.details).toEqual([future]);
     expect(await countInstallations(installer.org.id)).toBe(2);
-    expect((await t.ds.getRepository(Installation).findOneByOrFail({ id: ok.body.installation.id })).installDate).toBe(todayAtUtcPlus14);
+    expect(
+      (await t.ds.getRepository(Installation).findOneByOrFail({ id: ok.body.installation.id })).installDate,
+    ).toBe(todayAtUtcPlus14);
 
     // The server's clock decides: five days on, the same date is no longer in the future.
     const inFiveDays = utcDate(now + 5 * DAY);
-    expect((await installer.agent.post('/api/installations').send(installationPayload(product.id, { installDate: inFiveDays, purchaseDate: null }))).status).toBe(400);
+    expect(
+      (
+        await installer.agent
+          .post('/api/installations')
+          .send(installationPayload(product.id, { installDate: inFiveDays, purchaseDate: null }))
+      ).status,
+    ).toBe(400);
     clock.advance(5 * DAY);
     const again = await signIn(t.request(), installer.user.email); // the session has expired by then
-    expect((await again.post('/api/installations').send(installationPayload(product.id, { installDate: inFiveDays, purchaseDate: null }))).status).toBe(201);
+    expect(
+      (
+        await again
+          .post('/api/installations')
+          .send(installationPayload(product.id, { installDate: inFiveDays, purchaseDate: null }))
+      ).status,
+    ).toBe(201);
   });
 
   it('are a row error in an import', async () => {
     const { product, installer } = await world();
-    const header = 'model_number,site_name,site_address,site_city,site_region,site_postal_code,quantity,install_date,location,enclosure,dimmer,nominal_supply_volts,hours_per_day,ambient_c';
-    const row = (site: string, date: string) => `${product.modelNumber},${site},1 Road,Town,WA,98000,2,${date},dry,open,none,277,12,20`;
-    const csv = [header, row('Done', '2024-04-01'), row('Planned', utcDate(clock.nowMs() + 10 * DAY))].join('\n');
+    const header =
+      'model_number,site_name,site_address,site_city,site_region,site_postal_code,quantity,install_date,location,enclosure,dimmer,nominal_supply_volts,hours_per_day,ambient_c';
+    const row = (site: string, date: string) =>
+      `${product.modelNumber},${site},1 Road,Town,WA,98000,2,${date},dry,open,none,277,12,20`;
+    const csv = [header, row('Done', '2024-04-01'), row('Planned', utcDate(clock.nowMs() + 10 * DAY))].join(
+      '\n',
+    );
     const r = await installer.agent.post('/api/installations/import').send({ csv });
     expect(r.body).toMatchObject({ total: 2, valid: 1, invalid: 1, imported: 1 });
     expect(r.body.errors).toEqual([{ row: 3, column: 'install_date', message: future.message }]);

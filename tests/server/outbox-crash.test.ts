@@ -22,7 +22,13 @@ afterAll(async () => {
 
 function worker(env: Record<string, string>): ChildProcess {
   return spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'tests/support/outbox-worker-child.ts'], {
-    env: { ...process.env, DATABASE_URL: inject('databaseUrl'), SMTP_PORT: String(smtp.port), SMTP_HOST: '127.0.0.1', ...env },
+    env: {
+      ...process.env,
+      DATABASE_URL: inject('databaseUrl'),
+      SMTP_PORT: String(smtp.port),
+      SMTP_HOST: '127.0.0.1',
+      ...env,
+    },
     stdio: ['ignore', 'inherit', 'inherit'],
   });
 }
@@ -38,14 +44,28 @@ describe('the outbox worker, killed mid-send', () => {
     const ids: string[] = [];
     for (let i = 0; i < 30; i++) {
       await t.ds.transaction((m) =>
-        enqueueEmail(m, { to: [`crash-${stamp}-${i}@example.test`], template: 'invitation', view: { name: 'T', inviterName: 'A', organizationName: 'O', rolesText: 'installer', link: 'http://x/', expiresOn: '2026-01-01' } }),
+        enqueueEmail(m, {
+          to: [`crash-${stamp}-${i}@example.test`],
+          template: 'invitation',
+          view: {
+            name: 'T',
+            inviterName: 'A',
+            organizationName: 'O',
+            rolesText: 'installer',
+            link: 'http://x/',
+            expiresOn: '2026-01-01',
+          },
+        }),
       );
     }
-    const ours = await t.ds.getRepository(OutboxMessage).find({ where: { to: MoreThanOrEqual(`crash-${stamp}-`) }, order: { id: 'ASC' } });
+    const ours = await t.ds
+      .getRepository(OutboxMessage)
+      .find({ where: { to: MoreThanOrEqual(`crash-${stamp}-`) }, order: { id: 'ASC' } });
     for (const r of ours) if (r.to.startsWith(`crash-${stamp}-`)) ids.push(r.id);
     expect(ids).toHaveLength(30);
     const ourIds = new Set(ids);
-    const delivered = () => smtp.received.map((m) => outboxIdOf(m.raw)).filter((id): id is string => !!id && ourIds.has(id));
+    const delivered = () =>
+      smtp.received.map((m) => outboxIdOf(m.raw)).filter((id): id is string => !!id && ourIds.has(id));
 
     const first = worker({ SEND_DELAY_MS: '250', LEASE_MS: '3000' });
     const exited = new Promise((r) => first.on('exit', r));
@@ -57,7 +77,9 @@ describe('the outbox worker, killed mid-send', () => {
     expect(beforeSecond).toBeGreaterThanOrEqual(3);
     expect(beforeSecond).toBeLessThan(30);
     // Rows the dead worker had leased and not sent are still pending.
-    const stuck = await t.ds.getRepository(OutboxMessage).count({ where: { id: MoreThanOrEqual(ids[0]), status: 'pending' } });
+    const stuck = await t.ds
+      .getRepository(OutboxMessage)
+      .count({ where: { id: MoreThanOrEqual(ids[0]), status: 'pending' } });
     expect(stuck).toBeGreaterThan(0);
 
     const second = worker({ SEND_DELAY_MS: '10', LEASE_MS: '3000', UNTIL_SENT_FROM: ids[0] });

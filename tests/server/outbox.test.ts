@@ -46,7 +46,9 @@ describe('the e-mail outbox', () => {
     transport.close();
     expect(smtp.received.filter((m) => m.to.includes(kept))).toHaveLength(1);
     expect(smtp.received.filter((m) => m.to.includes(dropped))).toHaveLength(0);
-    expect(await t.ds.getRepository(OutboxMessage).findOneByOrFail({ to: kept })).toMatchObject({ status: 'sent' });
+    expect(await t.ds.getRepository(OutboxMessage).findOneByOrFail({ to: kept })).toMatchObject({
+      status: 'sent',
+    });
     const raw = smtp.received.find((m) => m.to.includes(kept))!.raw;
     expect(raw).toContain('Subject: Admin invited you to Org on Lumenproof');
   });
@@ -66,7 +68,10 @@ describe('the e-mail outbox', () => {
     const up = createTransport(t.config);
     await deliverDue(t.ds, up, { from: t.config.smtp.from, batch: 100 });
     up.close();
-    expect(await t.ds.getRepository(OutboxMessage).findOneByOrFail({ to })).toMatchObject({ status: 'sent', attempts: 2 });
+    expect(await t.ds.getRepository(OutboxMessage).findOneByOrFail({ to })).toMatchObject({
+      status: 'sent',
+      attempts: 2,
+    });
     expect(smtp.received.filter((m) => m.to.includes(to))).toHaveLength(1);
   });
 });

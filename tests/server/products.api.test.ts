@@ -11,13 +11,18 @@ beforeAll(async () => {
 });
 afterAll(() => closeTestApp(t));
 
-async function member(kind: 'contractor' | 'manufacturer', roles: Parameters<typeof createUser>[2], org?: Awaited<ReturnType<typeof createOrganization>>) {
+async function member(
+  kind: 'contractor' | 'manufacturer',
+  roles: Parameters<typeof createUser>[2],
+  org?: Awaited<ReturnType<typeof createOrganization>>,
+) {
   const o = org ?? (await createOrganization(t.ds, kind));
   const user = await createUser(t.ds, o, roles);
   return { org: o, user, agent: await signIn(t.request(), user.email) };
 }
 
-const countProducts = (manufacturerId: string) => t.ds.getRepository(ProductModel).countBy({ manufacturerId });
+const countProducts = (manufacturerId: string) =>
+  t.ds.getRepository(ProductModel).countBy({ manufacturerId });
 
 describe('product models', () => {
   it('a manufacturer administrator creates a model; the audit log records it', async () => {
@@ -25,15 +30,24 @@ describe('product models', () => {
     const body = productPayload();
     const r = await admin.agent.post('/api/products').send(body);
     expect(r.status).toBe(201);
-    expect(r.body.product).toMatchObject({ modelNumber: body.modelNumber, manufacturer: { id: admin.org.id, name: admin.org.name }, ratedInputWatts: 24, dimming: '0-10v' });
-    const audit = await t.ds.getRepository(AuditEvent).findOneByOrFail({ entityType: 'ProductModel', entityId: r.body.product.id });
+    expect(r.body.product).toMatchObject({
+      modelNumber: body.modelNumber,
+      manufacturer: { id: admin.org.id, name: admin.org.name },
+      ratedInputWatts: 24,
+      dimming: '0-10v',
+    });
+    const audit = await t.ds
+      .getRepository(AuditEvent)
+      .findOneByOrFail({ entityType: 'ProductModel', entityId: r.body.product.id });
     expect(audit.action).toBe('product.created');
     expect(audit.actorUserId).toBe(admin.user.id);
   });
 
   it('refuses bad values with a message per field, and writes nothing', async () => {
     const admin = await member('manufacturer', ['administrator']);
-    const r = await admin.agent.post('/api/products').send(productPayload({ inputVoltsMin: 300, inputVoltsMax: 277, ledStrings: 0 }));
+    const r = await admin.agent
+      .post('/api/products')
+      .send(productPayload({ inputVoltsMin: 300, inputVoltsMax: 277, ledStrings: 0 }));
     expect(r.status).toBe(400);
     expect(r.body.error.code).toBe('validation.failed');
     expect(r.body.error.details).toEqual(
@@ -66,12 +80,18 @@ describe('product models', () => {
     ];
     for (const o of others) {
       expect((await o.agent.post('/api/products').send(productPayload())).status).toBe(403);
-      expect((await o.agent.patch(`/api/products/${product.id}`).send({ name: 'Hijacked' })).status).toBe(403);
+      expect((await o.agent.patch(`/api/products/${product.id}`).send({ name: 'Hijacked' })).status).toBe(
+        403,
+      );
     }
     // Another manufacturer's administrator can read the public catalogue entry, so is refused with 403, not 404.
     const rival = await member('manufacturer', ['administrator']);
-    expect((await rival.agent.patch(`/api/products/${product.id}`).send({ name: 'Hijacked' })).status).toBe(403);
-    expect((await t.ds.getRepository(ProductModel).findOneByOrFail({ id: product.id })).name).toBe(product.name);
+    expect((await rival.agent.patch(`/api/products/${product.id}`).send({ name: 'Hijacked' })).status).toBe(
+      403,
+    );
+    expect((await t.ds.getRepository(ProductModel).findOneByOrFail({ id: product.id })).name).toBe(
+      product.name,
+    );
     expect(await countProducts(mfr.org.id)).toBe(1);
   });
 
@@ -85,7 +105,9 @@ describe('product models', () => {
     const list = await installer.agent.get(`/api/products?manufacturerId=${mfr.org.id}`);
     expect(list.body).toMatchObject({ total: 1, page: 1, pageSize: 50 });
     expect((await t.request().get('/api/products')).status).toBe(401);
-    expect((await installer.agent.get('/api/products/00000000-0000-4000-8000-000000000000')).status).toBe(404);
+    expect((await installer.agent.get('/api/products/00000000-0000-4000-8000-000000000000')).status).toBe(
+      404,
+    );
   });
 
   it('edits keep every bound (cross-field too), bump the version and appear in the history', async () => {
@@ -93,8 +115,12 @@ describe('product models', () => {
     const product = await createProduct(t.ds, admin.org);
     const bad = await admin.agent.patch(`/api/products/${product.id}`).send({ inputVoltsMin: 347 });
     expect(bad.status).toBe(400);
-    expect(bad.body.error.details).toEqual([{ path: 'inputVoltsMax', message: 'The highest input voltage must be above the lowest.' }]);
-    const ok = await admin.agent.patch(`/api/products/${product.id}`).send({ location: 'wet', ambientMaxC: 50 });
+    expect(bad.body.error.details).toEqual([
+      { path: 'inputVoltsMax', message: 'The highest input voltage must be above the lowest.' },
+    ]);
+    const ok = await admin.agent
+      .patch(`/api/products/${product.id}`)
+      .send({ location: 'wet', ambientMaxC: 50 });
     expect(ok.status).toBe(200);
     expect(ok.body.product).toMatchObject({ location: 'wet', ambientMaxC: 50, version: 2 });
     const history = await admin.agent.get(`/api/products/${product.id}/history`);
@@ -113,9 +139,32 @@ describe('product models', () => {
 
   it('filters, searches and sorts on the server', async () => {
     const admin = await member('manufacturer', ['administrator']);
-    await createProduct(t.ds, admin.org, { modelNumber: 'ZZ-WP-1', name: 'Wall pack one', family: 'wall_pack', location: 'wet', ratedInputWatts: 40, ledStrings: 4, ledsPerString: 10, driverOutputAmps: 0.9 });
-    await createProduct(t.ds, admin.org, { modelNumber: 'ZZ-HB-2', name: 'High-bay two', family: 'high_bay', ratedInputWatts: 150, ledStrings: 24, driverOutputAmps: 2.8 });
-    await createProduct(t.ds, admin.org, { modelNumber: 'ZZ-HB-3', name: 'High-bay three', family: 'high_bay', ratedInputWatts: 100, ledStrings: 24, driverOutputAmps: 1.8 });
+    await createProduct(t.ds, admin.org, {
+      modelNumber: 'ZZ-WP-1',
+      name: 'Wall pack one',
+      family: 'wall_pack',
+      location: 'wet',
+      ratedInputWatts: 40,
+      ledStrings: 4,
+      ledsPerString: 10,
+      driverOutputAmps: 0.9,
+    });
+    await createProduct(t.ds, admin.org, {
+      modelNumber: 'ZZ-HB-2',
+      name: 'High-bay two',
+      family: 'high_bay',
+      ratedInputWatts: 150,
+      ledStrings: 24,
+      driverOutputAmps: 2.8,
+    });
+    await createProduct(t.ds, admin.org, {
+      modelNumber: 'ZZ-HB-3',
+      name: 'High-bay three',
+      family: 'high_bay',
+      ratedInputWatts: 100,
+      ledStrings: 24,
+      driverOutputAmps: 1.8,
+    });
     const base = `/api/products?manufacturerId=${admin.org.id}`;
     const hb = await admin.agent.get(`${base}&family=high_bay&sort=-ratedInputWatts`);
     expect(hb.body.items.map((p: { modelNumber: string }) => p.modelNumber)).toEqual(['ZZ-HB-2', 'ZZ-HB-3']);
@@ -130,7 +179,10 @@ describe('product models', () => {
   it('a list runs the same number of queries whatever the page size', async () => {
     const admin = await member('manufacturer', ['administrator']);
     for (let i = 0; i < 12; i++) await createProduct(t.ds, admin.org);
-    const run = (size: number) => t.ds.countQueries(() => admin.agent.get(`/api/products?manufacturerId=${admin.org.id}&pageSize=${size}`));
+    const run = (size: number) =>
+      t.ds.countQueries(() =>
+        admin.agent.get(`/api/products?manufacturerId=${admin.org.id}&pageSize=${size}`),
+      );
     const small = await run(2);
     const large = await run(12);
     expect(small.result.body.items).toHaveLength(2);

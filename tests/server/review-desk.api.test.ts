@@ -51,12 +51,18 @@ describe('GET /api/review/contractors', () => {
     }
     const found = await asReviewer.get('/api/review/contractors').query({ q: 'Desk Electric' }).expect(200);
     expect(found.body.items.map((o: { id: string }) => o.id)).toEqual([filing.id]);
-    const none = await asReviewer.get('/api/review/contractors').query({ q: 'no such contractor' }).expect(200);
+    const none = await asReviewer
+      .get('/api/review/contractors')
+      .query({ q: 'no such contractor' })
+      .expect(200);
     expect(none.body.items).toEqual([]);
   });
 
   it('refuses an unknown parameter, and those who do not review', async () => {
-    const bad = await asReviewer.get('/api/review/contractors').query({ manufacturerId: elsewhere.id }).expect(400);
+    const bad = await asReviewer
+      .get('/api/review/contractors')
+      .query({ manufacturerId: elsewhere.id })
+      .expect(400);
     expect(bad.body.error.code).toBe('validation.failed');
     await (await signIn(t.request(), accountant.email)).get('/api/review/contractors').expect(403);
     const installer = await createUser(t.ds, filing, ['installer', 'administrator']);

@@ -12,7 +12,13 @@ describe('route listing', () => {
   it('reads the registered routes from the router', () => {
     const routes = listRoutes(t.app).map((r) => `${r.method} ${r.path}`);
     expect(routes).toEqual(
-      expect.arrayContaining(['POST /api/auth/login', 'GET /api/auth/me', 'PATCH /api/users/:id', 'POST /api/evaluations', 'GET /api/health']),
+      expect.arrayContaining([
+        'POST /api/auth/login',
+        'GET /api/auth/me',
+        'PATCH /api/users/:id',
+        'POST /api/evaluations',
+        'GET /api/health',
+      ]),
     );
   });
 });

@@ -31,7 +31,7 @@ describe('administration of users', () => {
     expect(r.body.items[0].passwordHash).toBeUndefined();
   });
 
-  it('answers 404 for another organisation\'s user, exactly like a missing one, and changes nothing', async () => {
+  it("answers 404 for another organisation's user, exactly like a missing one, and changes nothing", async () => {
     const a = await adminOf('contractor');
     const b = await adminOf('manufacturer');
     const foreign = await createUser(t.ds, b.org, ['reviewer']);
@@ -50,18 +50,34 @@ describe('administration of users', () => {
     const colleague = await createUser(t.ds, org, ['installer']);
     const agent = await signIn(t.request(), installer.email);
     expect((await agent.get('/api/users')).status).toBe(403);
-    expect((await agent.post('/api/users/invitations').send({ email: 'x@example.test', name: 'X', roles: ['installer'] })).status).toBe(403);
+    expect(
+      (
+        await agent
+          .post('/api/users/invitations')
+          .send({ email: 'x@example.test', name: 'X', roles: ['installer'] })
+      ).status,
+    ).toBe(403);
     // A colleague's record is not theirs to read: 404. Their own record they may read, not promote: 403.
-    expect((await agent.patch(`/api/users/${colleague.id}`).send({ roles: ['administrator'] })).status).toBe(404);
-    expect((await agent.patch(`/api/users/${installer.id}`).send({ roles: ['administrator'] })).status).toBe(403);
-    expect((await t.ds.getRepository(User).findOneByOrFail({ id: installer.id })).roles).toEqual(['installer']);
-    expect((await t.ds.getRepository(User).findOneByOrFail({ id: colleague.id })).roles).toEqual(['installer']);
+    expect((await agent.patch(`/api/users/${colleague.id}`).send({ roles: ['administrator'] })).status).toBe(
+      404,
+    );
+    expect((await agent.patch(`/api/users/${installer.id}`).send({ roles: ['administrator'] })).status).toBe(
+      403,
+    );
+    expect((await t.ds.getRepository(User).findOneByOrFail({ id: installer.id })).roles).toEqual([
+      'installer',
+    ]);
+    expect((await t.ds.getRepository(User).findOneByOrFail({ id: colleague.id })).roles).toEqual([
+      'installer',
+    ]);
   });
 
   it('invites by e-mail with a one-time link that sets the password', async () => {
     const a = await adminOf('manufacturer');
     const email = `new-reviewer-${Date.now()}@example.test`;
-    const r = await a.agent.post('/api/users/invitations').send({ email: email.toUpperCase(), name: 'Nia Reviewer', roles: ['reviewer'] });
+    const r = await a.agent
+      .post('/api/users/invitations')
+      .send({ email: email.toUpperCase(), name: 'Nia Reviewer', roles: ['reviewer'] });
     expect(r.status).toBe(201);
     expect(r.body.user).toMatchObject({ email, status: 'invited', roles: ['reviewer'] });
 
@@ -75,22 +91,34 @@ describe('administration of users', () => {
 
     const short = await t.request().post(`/api/invitations/${token}/accept`).send({ password: 'short' });
     expect(short.status).toBe(400);
-    const accepted = await t.request().post(`/api/invitations/${token}/accept`).send({ password: 'a long enough password' });
+    const accepted = await t
+      .request()
+      .post(`/api/invitations/${token}/accept`)
+      .send({ password: 'a long enough password' });
     expect(accepted.status).toBe(200);
-    const again = await t.request().post(`/api/invitations/${token}/accept`).send({ password: 'another long password' });
+    const again = await t
+      .request()
+      .post(`/api/invitations/${token}/accept`)
+      .send({ password: 'another long password' });
     expect(again.status).toBe(404);
 
     await signIn(t.request(), email, 'a long enough password');
-    const audit = await t.ds.getRepository(AuditEvent).find({ where: { entityId: r.body.user.id }, order: { id: 'ASC' } });
+    const audit = await t.ds
+      .getRepository(AuditEvent)
+      .find({ where: { entityId: r.body.user.id }, order: { id: 'ASC' } });
     expect(audit.map((e) => e.action)).toEqual(['user.invited', 'user.joined', 'user.signed_in']);
   });
 
   it('refuses an invitation for an e-mail already in use, and roles that do not fit the organisation', async () => {
     const a = await adminOf('contractor');
-    const taken = await a.agent.post('/api/users/invitations').send({ email: a.admin.email, name: 'Dup', roles: ['installer'] });
+    const taken = await a.agent
+      .post('/api/users/invitations')
+      .send({ email: a.admin.email, name: 'Dup', roles: ['installer'] });
     expect(taken.status).toBe(409);
     expect(taken.body.error.code).toBe('user.email_taken');
-    const wrongRole = await a.agent.post('/api/users/invitations').send({ email: 'r@example.test', name: 'R', roles: ['reviewer'] });
+    const wrongRole = await a.agent
+      .post('/api/users/invitations')
+      .send({ email: 'r@example.test', name: 'R', roles: ['reviewer'] });
     expect(wrongRole.status).toBe(400);
     expect(wrongRole.body.error.details[0].path).toBe('roles');
     expect(await t.ds.getRepository(User).existsBy({ email: 'r@example.test' })).toBe(false);
@@ -102,7 +130,9 @@ describe('administration of users', () => {
     const r = await a.agent.patch(`/api/users/${u.id}`).send({ roles: ['reviewer', 'accountant'] });
     expect(r.status).toBe(200);
     expect(r.body.user.roles).toEqual(['reviewer', 'accountant']);
-    const audit = await t.ds.getRepository(AuditEvent).findOneByOrFail({ entityId: u.id, action: 'user.updated' });
+    const audit = await t.ds
+      .getRepository(AuditEvent)
+      .findOneByOrFail({ entityId: u.id, action: 'user.updated' });
     expect(audit.before).toMatchObject({ roles: ['reviewer'] });
     expect(audit.after).toMatchObject({ roles: ['reviewer', 'accountant'] });
     expect(audit.actorUserId).toBe(a.admin.id);
@@ -114,7 +144,7 @@ describe('administration of users', () => {
     expect((await a.agent.patch(`/api/users/${a.admin.id}`).send({ status: 'disabled' })).status).toBe(403);
   });
 
-  it('ends a disabled user\'s sessions at once', async () => {
+  it("ends a disabled user's sessions at once", async () => {
     const a = await adminOf('contractor');
     const u = await createUser(t.ds, a.org, ['installer']);
     const theirs = await signIn(t.request(), u.email);
@@ -122,8 +152,12 @@ describe('administration of users', () => {
     const r = await a.agent.patch(`/api/users/${u.id}`).send({ status: 'disabled' });
     expect(r.status).toBe(200);
     expect((await theirs.get('/api/auth/me')).status).toBe(401);
-    expect((await t.request().post('/api/auth/login').send({ email: u.email, password: TEST_PASSWORD })).status).toBe(401);
-    const [{ n }] = await t.ds.query('SELECT COUNT(*) AS n FROM sessions WHERE data LIKE ?', [`%"user":"${u.id}"%`]);
+    expect(
+      (await t.request().post('/api/auth/login').send({ email: u.email, password: TEST_PASSWORD })).status,
+    ).toBe(401);
+    const [{ n }] = await t.ds.query('SELECT COUNT(*) AS n FROM sessions WHERE data LIKE ?', [
+      `%"user":"${u.id}"%`,
+    ]);
     expect(Number(n)).toBe(0);
   });
 
@@ -137,7 +171,11 @@ describe('administration of users', () => {
   it('keeps the audit log append-only in the database itself', async () => {
     const a = await adminOf('contractor');
     const row = await t.ds.getRepository(AuditEvent).findOneByOrFail({ entityId: a.admin.id });
-    await expect(t.ds.query('UPDATE audit_events SET action = ? WHERE id = ?', ['tampered', row.id])).rejects.toThrow(/append-only/);
-    await expect(t.ds.query('DELETE FROM audit_events WHERE id = ?', [row.id])).rejects.toThrow(/append-only/);
+    await expect(
+      t.ds.query('UPDATE audit_events SET action = ? WHERE id = ?', ['tampered', row.id]),
+    ).rejects.toThrow(/append-only/);
+    await expect(t.ds.query('DELETE FROM audit_events WHERE id = ?', [row.id])).rejects.toThrow(
+      /append-only/,
+    );
   });
 });

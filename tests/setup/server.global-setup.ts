@@ -13,7 +13,12 @@ declare module 'vitest' {
 // emptied and migrated once per run. Tests never touch the demo's database.
 export default async function setup(project: TestProject) {
   const config = loadConfig();
-  const db = await startLocalDb({ dataDir: config.dataDir, profile: 'test', port: config.dbPort + 1, log: () => {} });
+  const db = await startLocalDb({
+    dataDir: config.dataDir,
+    profile: 'test',
+    port: config.dbPort + 1,
+    log: () => {},
+  });
   await resetDatabase(db);
   const ds = createDataSource(db.url, { poolSize: 1 });
   await ds.initialize();

@@ -21,7 +21,12 @@ export type InstallationFixture = {
   policyVersionId?: string | null;
 };
 
-export async function insertInstallations(ds: AppDataSource, contractor: Organization, product: ProductModel, list: InstallationFixture[]) {
+export async function insertInstallations(
+  ds: AppDataSource,
+  contractor: Organization,
+  product: ProductModel,
+  list: InstallationFixture[],
+) {
   const rows = list.map((f) => ({
     id: crypto.randomUUID(),
     contractorId: contractor.id,
@@ -48,7 +53,13 @@ export async function insertInstallations(ds: AppDataSource, contractor: Organiz
     createdById: null,
   }));
   for (let i = 0; i < rows.length; i += 500) {
-    await ds.createQueryBuilder().insert().into(Installation).values(rows.slice(i, i + 500)).updateEntity(false).execute();
+    await ds
+      .createQueryBuilder()
+      .insert()
+      .into(Installation)
+      .values(rows.slice(i, i + 500))
+      .updateEntity(false)
+      .execute();
   }
   return rows;
 }
@@ -65,7 +76,11 @@ export type ClaimFixture = {
   filedAt?: Date | null;
 };
 
-export async function insertClaims(ds: AppDataSource, installations: { id: string; contractorId: string; manufacturerId: string; productModelId: string }[], list: ClaimFixture[]) {
+export async function insertClaims(
+  ds: AppDataSource,
+  installations: { id: string; contractorId: string; manufacturerId: string; productModelId: string }[],
+  list: ClaimFixture[],
+) {
   const byId = new Map(installations.map((i) => [i.id, i]));
   const rows = list.map((f) => {
     const inst = byId.get(f.installationId)!;
@@ -87,13 +102,21 @@ export async function insertClaims(ds: AppDataSource, installations: { id: strin
       measurements: {},
       observations: {},
       narrative: '',
-      evaluation: f.findings ? ({ findings: f.findings.map((code) => ({ code })) } as unknown as Claim['evaluation']) : null,
+      evaluation: f.findings
+        ? ({ findings: f.findings.map((code) => ({ code })) } as unknown as Claim['evaluation'])
+        : null,
       verdict: f.verdict === undefined ? 'covered' : f.verdict,
       filedAt: f.filedAt === undefined ? new Date() : f.filedAt,
     };
   });
   for (let i = 0; i < rows.length; i += 500) {
-    await ds.createQueryBuilder().insert().into(Claim).values(rows.slice(i, i + 500)).updateEntity(false).execute();
+    await ds
+      .createQueryBuilder()
+      .insert()
+      .into(Claim)
+      .values(rows.slice(i, i + 500))
+      .updateEntity(false)
+      .execute();
   }
   return rows;
 }

@@ -52,7 +52,10 @@ export function termsPayload(extra: Partial<PolicyTermsInput> = {}): PolicyTerms
   };
 }
 
-export function installationPayload(productModelId: string, extra: Partial<InstallationInput> = {}): InstallationInput {
+export function installationPayload(
+  productModelId: string,
+  extra: Partial<InstallationInput> = {},
+): InstallationInput {
   return {
     productModelId,
     siteName: `Test site ${unique()}`,
@@ -77,10 +80,20 @@ export function installationPayload(productModelId: string, extra: Partial<Insta
 }
 
 /** Straight into the database, for tests that are not about creating products. */
-export async function createProduct(ds: AppDataSource, manufacturer: Organization, extra: Partial<ProductInput> = {}) {
+export async function createProduct(
+  ds: AppDataSource,
+  manufacturer: Organization,
+  extra: Partial<ProductInput> = {},
+) {
   const repo = ds.getRepository(ProductModel);
   const { driverMaxOutputVolts, ...p } = productPayload(extra);
-  return repo.save(repo.create({ ...p, driverMaxOutputVolts: driverMaxOutputVolts ?? null, manufacturerId: manufacturer.id }));
+  return repo.save(
+    repo.create({
+      ...p,
+      driverMaxOutputVolts: driverMaxOutputVolts ?? null,
+      manufacturerId: manufacturer.id,
+    }),
+  );
 }
 
 export async function createPolicy(
@@ -90,7 +103,11 @@ export async function createPolicy(
   versions: { effectiveFrom: string; unitCredit?: string }[],
 ) {
   const policy = await ds.getRepository(WarrantyPolicy).save(
-    ds.getRepository(WarrantyPolicy).create({ manufacturerId: manufacturer.id, name: `Policy ${unique()}`, latestVersionNumber: versions.length }),
+    ds.getRepository(WarrantyPolicy).create({
+      manufacturerId: manufacturer.id,
+      name: `Policy ${unique()}`,
+      latestVersionNumber: versions.length,
+    }),
   );
   const saved: WarrantyPolicyVersion[] = [];
   for (const [i, v] of versions.entries()) {
@@ -118,6 +135,9 @@ export async function createPolicy(
       ),
     );
   }
-  if (models.length) await ds.getRepository(PolicyModel).insert(models.map((m) => ({ policyId: policy.id, productModelId: m.id })));
+  if (models.length)
+    await ds
+      .getRepository(PolicyModel)
+      .insert(models.map((m) => ({ policyId: policy.id, productModelId: m.id })));
   return { policy, versions: saved };
 }

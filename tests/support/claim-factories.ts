@@ -7,7 +7,11 @@ import type { TestContext } from './test-app';
 
 export const daysAgo = (n: number) => new Date(Date.now() - n * 86_400_000).toISOString().slice(0, 10);
 
-export async function member(t: TestContext, org: Awaited<ReturnType<typeof createOrganization>>, roles: Role[]) {
+export async function member(
+  t: TestContext,
+  org: Awaited<ReturnType<typeof createOrganization>>,
+  roles: Role[],
+) {
   const user = await createUser(t.ds, org, roles);
   return { org, user, agent: await signIn(t.request(), user.email) };
 }
@@ -24,7 +28,9 @@ export async function claimWorld(t: TestContext) {
   const product = await createProduct(t.ds, mfrA);
   const { versions } = await createPolicy(t.ds, mfrA, [product], [{ effectiveFrom: '2023-01-01' }]);
   const installer = await member(t, conX, ['installer']);
-  const inst = await installer.agent.post('/api/installations').send(installationPayload(product.id, { installDate: '2024-03-01', purchaseDate: '2024-02-15' }));
+  const inst = await installer.agent
+    .post('/api/installations')
+    .send(installationPayload(product.id, { installDate: '2024-03-01', purchaseDate: '2024-02-15' }));
   if (inst.status !== 201) throw new Error(`installation: ${inst.status} ${JSON.stringify(inst.body)}`);
   return {
     mfrA,
@@ -48,14 +54,30 @@ export function goodClaimFields(serial: string, extra: Partial<ClaimFieldsInput>
     units: 1,
     failedOn: daysAgo(10),
     symptoms: ['partly_dark'],
-    measurements: { supplyVolts: 276, inputWatts: 23.5, powerFactor: 0.95, driverOutputVolts: 48.1, driverOutputAmps: 0.44 },
-    observations: { debrisIngress: false, waterIngress: false, physicalDamage: false, fanStopped: false, burnMarks: false },
+    measurements: {
+      supplyVolts: 276,
+      inputWatts: 23.5,
+      powerFactor: 0.95,
+      driverOutputVolts: 48.1,
+      driverOutputAmps: 0.44,
+    },
+    observations: {
+      debrisIngress: false,
+      waterIngress: false,
+      physicalDamage: false,
+      fanStopped: false,
+      burnMarks: false,
+    },
     narrative: 'Three strings went dark on the east row after a week of flicker.',
     ...extra,
   };
 }
 
-export async function createDraft(agent: supertest.Agent, installationId: string, fields: ClaimFieldsInput = {}) {
+export async function createDraft(
+  agent: supertest.Agent,
+  installationId: string,
+  fields: ClaimFieldsInput = {},
+) {
   const r = await agent.post('/api/claims').send({ installationId, ...fields });
   if (r.status !== 201) throw new Error(`draft: ${r.status} ${JSON.stringify(r.body)}`);
   return r.body.claim as { id: string; version: number };

@@ -14,7 +14,12 @@ const unique = () => crypto.randomBytes(5).toString('hex');
 
 export async function createOrganization(ds: AppDataSource, kind: OrganizationKind, name?: string) {
   const repo = ds.getRepository(Organization);
-  return repo.save(repo.create({ name: name ?? `${kind === 'manufacturer' ? 'Test Lighting' : 'Test Electric'} ${unique()}`, kind }));
+  return repo.save(
+    repo.create({
+      name: name ?? `${kind === 'manufacturer' ? 'Test Lighting' : 'Test Electric'} ${unique()}`,
+      kind,
+    }),
+  );
 }
 
 export async function createUser(
@@ -39,7 +44,8 @@ export async function createUser(
 /** Signs an agent in and returns it (the agent keeps the cookie). */
 export async function signIn(agent: supertest.Agent, email: string, password = TEST_PASSWORD) {
   const res = await agent.post('/api/auth/login').send({ email, password });
-  if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  if (res.status !== 200)
+    throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
   return agent;
 }
 

@@ -21,9 +21,15 @@ const slow = {
 } as unknown as Transporter;
 const from = process.env.UNTIL_SENT_FROM;
 for (;;) {
-  await deliverDue(ds, slow, { from: config.smtp.from, batch: 10, leaseMs: Number(process.env.LEASE_MS ?? 2000) });
+  await deliverDue(ds, slow, {
+    from: config.smtp.from,
+    batch: 10,
+    leaseMs: Number(process.env.LEASE_MS ?? 2000),
+  });
   if (from) {
-    const left = await ds.getRepository(OutboxMessage).count({ where: { id: MoreThanOrEqual(from), status: 'pending' } });
+    const left = await ds
+      .getRepository(OutboxMessage)
+      .count({ where: { id: MoreThanOrEqual(from), status: 'pending' } });
     if (left === 0) break;
   }
   await sleep(200);

@@ -32,7 +32,11 @@ export type ReviewWorld = {
   installation: Installation;
 };
 
-export async function createReviewWorld(ds: AppDataSource, contractor: Organization, manufacturer: Organization): Promise<ReviewWorld> {
+export async function createReviewWorld(
+  ds: AppDataSource,
+  contractor: Organization,
+  manufacturer: Organization,
+): Promise<ReviewWorld> {
   const product = await createProduct(ds, manufacturer);
   const { versions } = await createPolicy(ds, manufacturer, [product], [{ effectiveFrom: '2023-01-01' }]);
   const p = installationPayload(product.id);
@@ -78,7 +82,10 @@ export const FAILED_READINGS: ClaimMeasurements = {
   ],
 };
 
-export function evaluationFor(w: ReviewWorld, fields: { failedOn: string; filedOn: string; measurements: ClaimMeasurements; serials: string[] }) {
+export function evaluationFor(
+  w: ReviewWorld,
+  fields: { failedOn: string; filedOn: string; measurements: ClaimMeasurements; serials: string[] },
+) {
   const p = w.product;
   const ctx = engineContextFrom(
     { ...p, driverMaxOutputVolts: p.driverMaxOutputVolts },
@@ -87,7 +94,15 @@ export function evaluationFor(w: ReviewWorld, fields: { failedOn: string; filedO
   );
   const input = engineInputFor(
     ctx,
-    { serials: fields.serials, units: 1, failedOn: fields.failedOn, symptoms: ['partly_dark'], measurements: fields.measurements as ClaimFields['measurements'], observations: {}, narrative: 'Two strings dark.' },
+    {
+      serials: fields.serials,
+      units: 1,
+      failedOn: fields.failedOn,
+      symptoms: ['partly_dark'],
+      measurements: fields.measurements as ClaimFields['measurements'],
+      observations: {},
+      narrative: 'Two strings dark.',
+    },
     { photos: 2, proofOfPurchase: true },
     fields.filedOn,
   );
@@ -100,65 +115,109 @@ export async function createClaimAt(
   ds: AppDataSource,
   w: ReviewWorld,
   stage: Stage,
-  opts: { filedById?: string | null; reviewerId?: string | null; verdict?: 'covered' | 'excluded' | 'review'; filedAt?: Date; assigneeId?: string | null } = {},
+  opts: {
+    filedById?: string | null;
+    reviewerId?: string | null;
+    verdict?: 'covered' | 'excluded' | 'review';
+    filedAt?: Date;
+    assigneeId?: string | null;
+  } = {},
 ): Promise<Claim> {
   const filedAt = opts.filedAt ?? new Date('2025-06-02T10:00:00Z');
   const serial = w.installation.id.slice(0, 8).toUpperCase();
   const serials = [`SN-${serial}`];
-  const evaluation = stage === 'draft' ? null : evaluationFor(w, { failedOn: '2025-05-20', filedOn: filedAt.toISOString().slice(0, 10), measurements: FAILED_READINGS, serials });
+  const evaluation =
+    stage === 'draft'
+      ? null
+      : evaluationFor(w, {
+          failedOn: '2025-05-20',
+          filedOn: filedAt.toISOString().slice(0, 10),
+          measurements: FAILED_READINGS,
+          serials,
+        });
   if (evaluation && opts.verdict) evaluation.verdict = opts.verdict;
   const repo = ds.getRepository(Claim);
   const fields: Omit<DeepPartial<Claim>, 'number'> = {
-      contractorId: w.contractor.id,
-      manufacturerId: w.manufacturer.id,
-      installationId: w.installation.id,
-      productModelId: w.product.id,
-      policyVersionId: w.version.id,
-      stage,
-      stageChangedAt: filedAt,
-      waitingOn: WAITING_ON_BY_STAGE[stage],
-      units: 1,
-      serials,
-      failedOn: '2025-05-20',
-      symptoms: ['partly_dark'],
-      measurements: FAILED_READINGS,
-      observations: {},
-      narrative: 'Two strings went dark after a storm week.',
-      evaluation,
-      engineVersion: evaluation?.engineVersion ?? null,
-      evaluatedAt: evaluation ? filedAt : null,
-      verdict: evaluation?.verdict ?? null,
-      expectedCredit: evaluation?.computed.credit ?? null,
-      currency: evaluation ? 'USD' : null,
-      filedAt: stage === 'draft' ? null : filedAt,
-      filedById: opts.filedById ?? null,
-      assignedReviewerId: opts.assigneeId ?? null,
-      createdById: opts.filedById ?? null,
+    contractorId: w.contractor.id,
+    manufacturerId: w.manufacturer.id,
+    installationId: w.installation.id,
+    productModelId: w.product.id,
+    policyVersionId: w.version.id,
+    stage,
+    stageChangedAt: filedAt,
+    waitingOn: WAITING_ON_BY_STAGE[stage],
+    units: 1,
+    serials,
+    failedOn: '2025-05-20',
+    symptoms: ['partly_dark'],
+    measurements: FAILED_READINGS,
+    observations: {},
+    narrative: 'Two strings went dark after a storm week.',
+    evaluation,
+    engineVersion: evaluation?.engineVersion ?? null,
+    evaluatedAt: evaluation ? filedAt : null,
+    verdict: evaluation?.verdict ?? null,
+    expectedCredit: evaluation?.computed.credit ?? null,
+    currency: evaluation ? 'USD' : null,
+    filedAt: stage === 'draft' ? null : filedAt,
+    filedById: opts.filedById ?? null,
+    assignedReviewerId: opts.assigneeId ?? null,
+    createdById: opts.filedById ?? null,
   };
   // A draft has no number yet; any other stage gets a fresh one (drawn again if taken).
-  const claim = stage === 'draft' ? await repo.save(repo.create({ ...fields, number: null })) : await saveNumberedClaim(ds, filedAt, fields);
+  const claim =
+    stage === 'draft'
+      ? await repo.save(repo.create({ ...fields, number: null }))
+      : await saveNumberedClaim(ds, filedAt, fields);
   const reviewerId = opts.reviewerId ?? opts.filedById ?? crypto.randomUUID();
   if (stage === 'needs_info') {
     await ds.getRepository(ClaimMessage).insert({
-      id: crypto.randomUUID(), claimId: claim.id, kind: 'info_request', authorOrgId: w.manufacturer.id, authorId: opts.reviewerId ?? null,
-      body: 'Please send a photo of the nameplate.', dueOn: '2025-06-20', answeredAt: null,
+      id: crypto.randomUUID(),
+      claimId: claim.id,
+      kind: 'info_request',
+      authorOrgId: w.manufacturer.id,
+      authorId: opts.reviewerId ?? null,
+      body: 'Please send a photo of the nameplate.',
+      dueOn: '2025-06-20',
+      answeredAt: null,
     });
   }
   if (stage === 'return_requested' || stage === 'unit_received') {
     await ds.getRepository(ReturnAuthorization).insert({
-      id: crypto.randomUUID(), number: `RA-2506-${crypto.randomBytes(3).toString('hex').toUpperCase().replace(/[01ILOUV]/g, 'X')}`,
-      claimId: claim.id, shipTo: { name: 'Returns', line1: '1 Dock Rd', city: 'Porttown', postalCode: '10001', country: 'US' },
-      instructions: null, shipBy: '2025-07-01', requestedById: reviewerId,
-      receivedOn: stage === 'unit_received' ? '2025-06-10' : null, receivedCondition: stage === 'unit_received' ? 'as_described' : null,
+      id: crypto.randomUUID(),
+      number: `RA-2506-${crypto
+        .randomBytes(3)
+        .toString('hex')
+        .toUpperCase()
+        .replace(/[01ILOUV]/g, 'X')}`,
+      claimId: claim.id,
+      shipTo: { name: 'Returns', line1: '1 Dock Rd', city: 'Porttown', postalCode: '10001', country: 'US' },
+      instructions: null,
+      shipBy: '2025-07-01',
+      requestedById: reviewerId,
+      receivedOn: stage === 'unit_received' ? '2025-06-10' : null,
+      receivedCondition: stage === 'unit_received' ? 'as_described' : null,
     });
   }
   if (['approved', 'denied', 'credited', 'closed'].includes(stage)) {
     const denied = stage === 'denied' || stage === 'closed';
     await ds.getRepository(Decision).insert({
-      id: crypto.randomUUID(), claimId: claim.id, currentClaimId: claim.id, outcome: denied ? 'denied' : 'approved',
-      resolution: denied ? null : 'credit', amount: denied ? null : (evaluation?.computed.credit ?? '96.00'), currency: denied ? null : 'USD',
-      engineAmount: evaluation?.computed.credit ?? null, approvedUnits: null, reasonCodes: denied ? ['physical_damage'] : [],
-      note: 'Decided in a test.', overrideReason: null, againstEngine: false, decidedById: reviewerId, supersededAt: null, letterId: null,
+      id: crypto.randomUUID(),
+      claimId: claim.id,
+      currentClaimId: claim.id,
+      outcome: denied ? 'denied' : 'approved',
+      resolution: denied ? null : 'credit',
+      amount: denied ? null : (evaluation?.computed.credit ?? '96.00'),
+      currency: denied ? null : 'USD',
+      engineAmount: evaluation?.computed.credit ?? null,
+      approvedUnits: null,
+      reasonCodes: denied ? ['physical_damage'] : [],
+      note: 'Decided in a test.',
+      overrideReason: null,
+      againstEngine: false,
+      decidedById: reviewerId,
+      supersededAt: null,
+      letterId: null,
     });
   }
   return claim;
@@ -167,8 +226,14 @@ export async function createClaimAt(
 /** Everything a move could touch, for "a refused move changes nothing". */
 export async function snapshotClaim(ds: AppDataSource, claimId: string) {
   const claim = await ds.getRepository(Claim).findOneByOrFail({ id: claimId });
-  const count = (entity: typeof ClaimMessage | typeof ReturnAuthorization | typeof BenchTest | typeof Decision | typeof ClaimDocument) =>
-    ds.getRepository(entity).count({ where: { claimId } });
+  const count = (
+    entity:
+      | typeof ClaimMessage
+      | typeof ReturnAuthorization
+      | typeof BenchTest
+      | typeof Decision
+      | typeof ClaimDocument,
+  ) => ds.getRepository(entity).count({ where: { claimId } });
   return {
     stage: claim.stage,
     version: claim.version,

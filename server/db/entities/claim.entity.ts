@@ -10,7 +10,14 @@ import {
 } from 'typeorm';
 import { CreatedAtColumn, UpdatedAtColumn } from './columns';
 import type { Evaluation, Verdict } from '../../../shared/engine';
-import { CLAIM_STAGES, type ClaimMeasurements, type ClaimObservations, type ClaimStage, type Symptom, type WaitingOn } from '../../../shared/schemas/claims';
+import {
+  CLAIM_STAGES,
+  type ClaimMeasurements,
+  type ClaimObservations,
+  type ClaimStage,
+  type Symptom,
+  type WaitingOn,
+} from '../../../shared/schemas/claims';
 import { Installation } from './installation.entity';
 import { Organization } from './organization.entity';
 import { ProductModel } from './product-model.entity';

@@ -42,7 +42,10 @@ export class ProductModel {
   @Column({ type: 'varchar', length: 160 })
   name: string;
 
-  @Column({ type: 'enum', enum: ['high_bay', 'wall_pack', 'troffer', 'corn_lamp', 'flood', 'strip', 'other'] })
+  @Column({
+    type: 'enum',
+    enum: ['high_bay', 'wall_pack', 'troffer', 'corn_lamp', 'flood', 'strip', 'other'],
+  })
   family: ProductFamily;
 
   @Column({ type: 'double', name: 'rated_input_watts' })

@@ -6,7 +6,9 @@ export class InstallationLot1796167600000 implements MigrationInterface {
 
   public async up(queryRunner: QueryRunner): Promise<void> {
     await queryRunner.query(`ALTER TABLE \`installations\` ADD \`lot\` varchar(32) NULL`);
-    await queryRunner.query(`CREATE INDEX \`ix_installations_mfr_lot\` ON \`installations\` (\`manufacturer_id\`, \`lot\`)`);
+    await queryRunner.query(
+      `CREATE INDEX \`ix_installations_mfr_lot\` ON \`installations\` (\`manufacturer_id\`, \`lot\`)`,
+    );
   }
 
   public async down(queryRunner: QueryRunner): Promise<void> {

@@ -7,7 +7,9 @@ export class ReviewQueueCountIndex1796178256332 implements MigrationInterface {
   name = 'ReviewQueueCountIndex1796178256332';
 
   public async up(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query(`CREATE INDEX \`ix_claims_mfr_stage_verdict\` ON \`claims\` (\`manufacturer_id\`, \`stage\`, \`verdict\`)`);
+    await queryRunner.query(
+      `CREATE INDEX \`ix_claims_mfr_stage_verdict\` ON \`claims\` (\`manufacturer_id\`, \`stage\`, \`verdict\`)`,
+    );
   }
 
   public async down(queryRunner: QueryRunner): Promise<void> {

@@ -6,8 +6,12 @@ export class StorageKeyIndexes1796179613559 implements MigrationInterface {
   name = 'StorageKeyIndexes1796179613559';
 
   public async up(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query(`CREATE INDEX \`ix_attachments_thumbnail_key\` ON \`attachments\` (\`thumbnail_key\`)`);
-    await queryRunner.query(`CREATE INDEX \`ix_credit_memos_pdf_storage_key\` ON \`credit_memos\` (\`pdf_storage_key\`)`);
+    await queryRunner.query(
+      `CREATE INDEX \`ix_attachments_thumbnail_key\` ON \`attachments\` (\`thumbnail_key\`)`,
+    );
+    await queryRunner.query(
+      `CREATE INDEX \`ix_credit_memos_pdf_storage_key\` ON \`credit_memos\` (\`pdf_storage_key\`)`,
+    );
   }
 
   public async down(queryRunner: QueryRunner): Promise<void> {

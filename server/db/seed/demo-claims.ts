@@ -32,8 +32,22 @@ function prng(seed: number) {
 
 /** Per manufacturer, in turn: at least 5 approved-not-credited in every 16 (API.md's demo needs). */
 const STAGE_ROTATION: ClaimStage[] = [
-  'filed', 'approved', 'in_review', 'needs_info', 'approved', 'draft', 'return_requested', 'unit_received',
-  'approved', 'denied', 'credited', 'approved', 'closed', 'withdrawn', 'approved', 'filed',
+  'filed',
+  'approved',
+  'in_review',
+  'needs_info',
+  'approved',
+  'draft',
+  'return_requested',
+  'unit_received',
+  'approved',
+  'denied',
+  'credited',
+  'approved',
+  'closed',
+  'withdrawn',
+  'approved',
+  'filed',
 ];
 
 /** The moves from filed to each stage (stage machine action names). */
@@ -71,22 +85,39 @@ const NARRATIVES = [
   'Fan stopped and the housing runs hot; the unit dims itself after twenty minutes.',
 ];
 
-const addDays = (iso: string, days: number) => new Date(Date.parse(`${iso}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
+const addDays = (iso: string, days: number) =>
+  new Date(Date.parse(`${iso}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
 const round = (v: number, d: number) => Number(v.toFixed(d));
 
-export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organization>, users: Map<string, User>, catalogue: DemoCatalogue) {
+export async function seedDemoClaims(
+  m: EntityManager,
+  orgs: Map<string, Organization>,
+  users: Map<string, User>,
+  catalogue: DemoCatalogue,
+) {
   const rand = prng(5150);
   const products = new Map([...catalogue.products.values()].map((p) => [p.id, p]));
   const instIds = catalogue.installations.map((i) => i.id);
-  const unitRows = await m.find(InstallationUnit, { where: { installationId: In(instIds) }, select: { installationId: true, serial: true } });
+  const unitRows = await m.find(InstallationUnit, {
+    where: { installationId: In(instIds) },
+    select: { installationId: true, serial: true },
+  });
   const serialsOf = new Map<string, string[]>();
-  for (const u of unitRows) serialsOf.set(u.installationId, [...(serialsOf.get(u.installationId) ?? []), u.serial]);
-  const versionIds = [...new Set(catalogue.installations.map((i) => i.policyVersionId).filter((x): x is string => !!x))];
-  const versions = new Map((await m.find(WarrantyPolicyVersion, { where: { id: In(versionIds) } })).map((v) => [v.id, v]));
+  for (const u of unitRows)
+    serialsOf.set(u.installationId, [...(serialsOf.get(u.installationId) ?? []), u.serial]);
+  const versionIds = [
+    ...new Set(catalogue.installations.map((i) => i.policyVersionId).filter((x): x is string => !!x)),
+  ];
+  const versions = new Map(
+    (await m.find(WarrantyPolicyVersion, { where: { id: In(versionIds) } })).map((v) => [v.id, v]),
+  );
 
-  const installerOf = (orgId: string) => [...users.values()].find((u) => u.organizationId === orgId && u.roles.includes('installer'))!;
-  const reviewerOf = (orgId: string) => [...users.values()].find((u) => u.organizationId === orgId && u.roles.includes('reviewer')) ?? null;
-  const accountantOf = (orgId: string) => [...users.values()].find((u) => u.organizationId === orgId && u.roles.includes('accountant')) ?? null;
+  const installerOf = (orgId: string) =>
+    [...users.values()].find((u) => u.organizationId === orgId && u.roles.includes('installer'))!;
+  const reviewerOf = (orgId: string) =>
+    [...users.values()].find((u) => u.organizationId === orgId && u.roles.includes('reviewer')) ?? null;
+  const accountantOf = (orgId: string) =>
+    [...users.values()].find((u) => u.organizationId === orgId && u.roles.includes('accountant')) ?? null;
   const turn = new Map<string, number>();
   const today = clock.now().toISOString().slice(0, 10);
   const claims: Claim[] = [];
@@ -101,10 +132,13 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
     turn.set(inst.manufacturerId, k + 1);
     const slot = STAGE_ROTATION[k % STAGE_ROTATION.length];
     const stage: ClaimStage = slot === 'credited' ? 'approved' : slot;
-    const v = inst.policyVersionId ? versions.get(inst.policyVersionId) ?? null : null;
+    const v = inst.policyVersionId ? (versions.get(inst.policyVersionId) ?? null) : null;
     if (!v && stage !== 'draft') continue; // nothing to claim against
 
-    const ageDays = Math.max(30, Math.floor((Date.parse(today) - Date.parse(inst.installDate)) / 86_400_000) - 20);
+    const ageDays = Math.max(
+      30,
+      Math.floor((Date.parse(today) - Date.parse(inst.installDate)) / 86_400_000) - 20,
+    );
     // A claim still waiting on someone failed in the last couple of months (a reviewer's desk holds weeks, not
     // years); a decided one may be from any time in the fixture's life.
     const when = rand();
@@ -113,15 +147,30 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
       ? maxIso(addDays(inst.installDate, 30), addDays(today, -(25 + Math.floor(when * 45))))
       : addDays(inst.installDate, Math.floor(30 + when * (ageDays - 30)));
     const filedOn = addDays(failedOn, 2 + Math.floor(rand() * 12));
-    const units = serials.length ? 1 + Math.floor(rand() * Math.min(3, serials.length)) : 1 + Math.floor(rand() * 2);
+    const units = serials.length
+      ? 1 + Math.floor(rand() * Math.min(3, serials.length))
+      : 1 + Math.floor(rand() * 2);
     const mode = Math.floor(rand() * 6);
-    const symptoms: Symptom[] = [[ 'partly_dark'], ['cycling'], ['flicker', 'partly_dark'], ['dark'], ['dim', 'color_shift'], ['fan_noise', 'dim']][mode] as Symptom[];
+    const symptoms: Symptom[] = [
+      ['partly_dark'],
+      ['cycling'],
+      ['flicker', 'partly_dark'],
+      ['dark'],
+      ['dim', 'color_shift'],
+      ['fan_noise', 'dim'],
+    ][mode] as Symptom[];
     const nominal = inst.nominalSupplyVolts;
     const stringVolts = p.ledsPerString * p.ledForwardVolts;
     const share = p.driverOutputAmps / p.ledStrings;
-    const darkStrings = mode === 0 || mode === 2 ? 1 + Math.floor(rand() * Math.max(1, Math.floor(p.ledStrings / 3))) : 0;
+    const darkStrings =
+      mode === 0 || mode === 2 ? 1 + Math.floor(rand() * Math.max(1, Math.floor(p.ledStrings / 3))) : 0;
     const strings = Array.from({ length: Math.min(p.ledStrings, 12) }, (_, i) =>
-      i < darkStrings ? { volts: round(stringVolts * (1.05 + rand() * 0.05), 1), amps: 0, darkLeds: p.ledsPerString } : { volts: round(stringVolts * (0.98 + rand() * 0.03), 1), amps: round(share * (0.95 + rand() * 0.1), 3) },
+      i < darkStrings
+        ? { volts: round(stringVolts * (1.05 + rand() * 0.05), 1), amps: 0, darkLeds: p.ledsPerString }
+        : {
+            volts: round(stringVolts * (0.98 + rand() * 0.03), 1),
+            amps: round(share * (0.95 + rand() * 0.1), 3),
+          },
     );
     const fields: ClaimFields = {
       serials: serials.slice(0, units),
@@ -136,14 +185,25 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
               inputWatts: round(p.ratedInputWatts * (0.9 + rand() * 0.1), 1),
               powerFactor: round(0.9 + rand() * 0.08, 2),
               driverOutputVolts: round(stringVolts * (1 + rand() * 0.04), 1),
-              driverOutputAmps: round(p.driverOutputAmps * (darkStrings ? 1 - darkStrings / p.ledStrings : 0.98 + rand() * 0.03), 3),
+              driverOutputAmps: round(
+                p.driverOutputAmps * (darkStrings ? 1 - darkStrings / p.ledStrings : 0.98 + rand() * 0.03),
+                3,
+              ),
               strings,
             },
-      observations: { debrisIngress: mode === 5 && rand() < 0.5, waterIngress: rand() < 0.08, physicalDamage: rand() < 0.05, fanStopped: mode === 5 && p.activeCooling, burnMarks: rand() < 0.04 },
+      observations: {
+        debrisIngress: mode === 5 && rand() < 0.5,
+        waterIngress: rand() < 0.08,
+        physicalDamage: rand() < 0.05,
+        fanStopped: mode === 5 && p.activeCooling,
+        burnMarks: rand() < 0.04,
+      },
       narrative: NARRATIVES[mode],
     };
     const installer = installerOf(inst.contractorId);
-    const filedAt = new Date(`${filedOn}T${String(7 + Math.floor(rand() * 10)).padStart(2, '0')}:${String(Math.floor(rand() * 60)).padStart(2, '0')}:00Z`);
+    const filedAt = new Date(
+      `${filedOn}T${String(7 + Math.floor(rand() * 10)).padStart(2, '0')}:${String(Math.floor(rand() * 60)).padStart(2, '0')}:00Z`,
+    );
     const claim = m.create(Claim, {
       id: crypto.randomUUID(),
       number: null,
@@ -153,7 +213,8 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
       productModelId: p.id,
       policyVersionId: inst.policyVersionId,
       stage,
-      stageChangedAt: stage === 'draft' ? clock.now() : new Date(filedAt.getTime() + PATHS[stage].length * 2 * 86_400_000),
+      stageChangedAt:
+        stage === 'draft' ? clock.now() : new Date(filedAt.getTime() + PATHS[stage].length * 2 * 86_400_000),
       waitingOn: WAITING[stage] ?? null,
       units: fields.units!,
       serials: fields.serials!,
@@ -176,7 +237,12 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
       version: 1,
     });
     const cActor: Actor = { userId: installer.id, organizationId: inst.contractorId };
-    audits.push({ actor: cActor, action: 'claim.created', entityId: claim.id, after: { stage: 'draft', installationId: inst.id, source: 'demo' } });
+    audits.push({
+      actor: cActor,
+      action: 'claim.created',
+      entityId: claim.id,
+      after: { stage: 'draft', installationId: inst.id, source: 'demo' },
+    });
     if (stage !== 'draft' && v) {
       const ctx = engineContextFrom(p, v, inst);
       // The evidence the engine counts is the evidence demo-evidence attaches: nameplate, failure and site photos
@@ -205,10 +271,20 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
         const to = (Array.isArray(def.to) ? def.to[0] : def.to) as ClaimStage;
         const who = def.side === 'contractor' ? installer : a === 'credit' ? accountant : reviewer;
         audits.push({
-          actor: { userId: who?.id ?? null, organizationId: def.side === 'contractor' ? inst.contractorId : inst.manufacturerId },
+          actor: {
+            userId: who?.id ?? null,
+            organizationId: def.side === 'contractor' ? inst.contractorId : inst.manufacturerId,
+          },
           action: def.audit,
           entityId: claim.id,
-          after: { from, stage: to, ...(a === 'file' ? { number: claim.number, verdict: e.verdict, engineVersion: e.engineVersion } : {}), source: 'demo' },
+          after: {
+            from,
+            stage: to,
+            ...(a === 'file'
+              ? { number: claim.number, verdict: e.verdict, engineVersion: e.engineVersion }
+              : {}),
+            source: 'demo',
+          },
         });
         from = to;
       }
@@ -218,7 +294,10 @@ export async function seedDemoClaims(m: EntityManager, orgs: Map<string, Organiz
     claims.push(claim);
   }
   await m.save(claims, { chunk: 50 });
-  for (const a of audits) await recordAuditMany(m, a.actor, [{ action: a.action, entityType: 'Claim', entityId: a.entityId, after: a.after }]);
+  for (const a of audits)
+    await recordAuditMany(m, a.actor, [
+      { action: a.action, entityType: 'Claim', entityId: a.entityId, after: a.after },
+    ]);
   void orgs;
   return { claims, evidence };
 }

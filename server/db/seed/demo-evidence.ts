@@ -28,10 +28,19 @@ import { drawInvoice, drawLedBoard, drawNameplate, drawSite } from './demo-photo
  * whether the invoice is on file. */
 export type EvidencePlan = { photos: number; proofOfPurchase: boolean };
 
-const LOCATION_TEXT = { dry: 'Dry locations only', damp: 'Suitable for damp locations', wet: 'Suitable for wet locations' } as const;
+const LOCATION_TEXT = {
+  dry: 'Dry locations only',
+  damp: 'Suitable for damp locations',
+  wet: 'Suitable for wet locations',
+} as const;
 /** Invented list prices for the invoices (demo only). */
 const UNIT_PRICE: Record<string, string> = {
-  high_bay: '148.00', wall_pack: '86.00', troffer: '64.00', corn_lamp: '42.00', flood: '129.00', strip: '38.00',
+  high_bay: '148.00',
+  wall_pack: '86.00',
+  troffer: '64.00',
+  corn_lamp: '42.00',
+  flood: '129.00',
+  strip: '38.00',
 };
 const SITE_VARIANTS = 3;
 /** Images drawn and inspected at once: sharp works on its own threads, the machine has few cores. */
@@ -43,7 +52,11 @@ type LoadedClaim = Claim & { installation: NonNullable<Claim['installation']>; p
 
 type Planned = { claim: LoadedClaim; purpose: AttachmentPurpose; name: string; art: string; at: Date };
 
-const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
+const slug = (s: string) =>
+  s
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '');
 const hashOf = (s: string) => crypto.createHash('sha1').update(s).digest().readUInt32BE(0);
 
 async function pool<T>(items: T[], n: number, fn: (item: T) => Promise<void>) {
@@ -71,18 +84,42 @@ function filesOf(c: LoadedClaim, plan: EvidencePlan, at: Date): Planned[] {
   const minutes = (n: number) => new Date(at.getTime() - n * 60_000);
   const photos: Omit<Planned, 'claim'>[] = [
     { purpose: 'nameplate', name: `nameplate-${serial}.jpg`, art: `nameplate:${p.id}`, at: minutes(50) },
-    { purpose: 'failure', name: `led-board-${serial}.jpg`, art: `board:${p.id}:${boardCaseOf(c)}`, at: minutes(45) },
-    { purpose: 'site', name: `site-${slug(c.installation.siteName)}.jpg`, art: `site:${site}`, at: minutes(40) },
-    { purpose: 'site', name: `site-${slug(c.installation.siteName)}-2.jpg`, art: `site:${(site + 1) % SITE_VARIANTS}`, at: minutes(38) },
+    {
+      purpose: 'failure',
+      name: `led-board-${serial}.jpg`,
+      art: `board:${p.id}:${boardCaseOf(c)}`,
+      at: minutes(45),
+    },
+    {
+      purpose: 'site',
+      name: `site-${slug(c.installation.siteName)}.jpg`,
+      art: `site:${site}`,
+      at: minutes(40),
+    },
+    {
+      purpose: 'site',
+      name: `site-${slug(c.installation.siteName)}-2.jpg`,
+      art: `site:${(site + 1) % SITE_VARIANTS}`,
+      at: minutes(38),
+    },
   ];
-  const files = photos.slice(0, Math.max(0, Math.min(plan.photos, photos.length))).map((f) => ({ ...f, claim: c }));
+  const files = photos
+    .slice(0, Math.max(0, Math.min(plan.photos, photos.length)))
+    .map((f) => ({ ...f, claim: c }));
   if (plan.proofOfPurchase) {
-    files.push({ claim: c, purpose: 'proof_of_purchase', name: `invoice-${invoiceNumberOf(c)}.pdf`, art: `invoice:${c.installationId}`, at: minutes(30) });
+    files.push({
+      claim: c,
+      purpose: 'proof_of_purchase',
+      name: `invoice-${invoiceNumberOf(c)}.pdf`,
+      art: `invoice:${c.installationId}`,
+      at: minutes(30),
+    });
   }
   return files;
 }
 
-const invoiceNumberOf = (c: LoadedClaim) => c.installation.invoiceNumber ?? `INV-${c.installationId.slice(0, 8).toUpperCase()}`;
+const invoiceNumberOf = (c: LoadedClaim) =>
+  c.installation.invoiceNumber ?? `INV-${c.installationId.slice(0, 8).toUpperCase()}`;
 
 function drawArt(key: string, c: LoadedClaim): Promise<Buffer> {
   const p = c.productModel;
@@ -99,7 +136,8 @@ function drawArt(key: string, c: LoadedClaim): Promise<Buffer> {
   }
   if (kind === 'board') {
     const strings = Math.min(p.ledStrings, 12);
-    const dark = extra === 'all_dark' ? strings : extra === 'some_dark' ? Math.max(1, Math.round(strings / 4)) : 0;
+    const dark =
+      extra === 'all_dark' ? strings : extra === 'some_dark' ? Math.max(1, Math.round(strings / 4)) : 0;
     return drawLedBoard({
       strings,
       ledsPerString: p.ledsPerString,
@@ -126,7 +164,12 @@ function drawArt(key: string, c: LoadedClaim): Promise<Buffer> {
  * Attaches each planned claim's evidence (see above), inside the seed's transaction. The claims' installer
  * uploaded them shortly before filing (a draft's files: shortly before now).
  */
-export async function seedDemoEvidence(m: EntityManager, storage: Storage, plans: Map<string, EvidencePlan>, now: Date) {
+export async function seedDemoEvidence(
+  m: EntityManager,
+  storage: Storage,
+  plans: Map<string, EvidencePlan>,
+  now: Date,
+) {
   if (!plans.size) return { attachments: 0, drawn: 0 };
   const claims = (await m.find(Claim, {
     where: { id: In([...plans.keys()]) },
@@ -134,14 +177,19 @@ export async function seedDemoEvidence(m: EntityManager, storage: Storage, plans
     order: { createdAt: 'ASC', id: 'ASC' },
   })) as LoadedClaim[];
   // Every demo claim has the installer who made it; a claim without one would have no uploader to name.
-  const files = claims.filter((c) => c.createdById).flatMap((c) => filesOf(c, plans.get(c.id)!, c.filedAt ?? now));
+  const files = claims
+    .filter((c) => c.createdById)
+    .flatMap((c) => filesOf(c, plans.get(c.id)!, c.filedAt ?? now));
 
   // The library: each picture drawn and inspected (re-encoded, thumbnailed) once, as an upload would be.
   const art = new Map<string, InspectedUpload>();
   const firstUse = new Map<string, LoadedClaim>();
   for (const f of files) if (!firstUse.has(f.art)) firstUse.set(f.art, f.claim);
   await pool([...firstUse], DRAW_CONCURRENCY, async ([key, c]) => {
-    art.set(key, await inspectUpload(await drawArt(key, c), key.startsWith('invoice') ? 'invoice.pdf' : 'photo.jpg'));
+    art.set(
+      key,
+      await inspectUpload(await drawArt(key, c), key.startsWith('invoice') ? 'invoice.pdf' : 'photo.jpg'),
+    );
   });
 
   const stored: StoredKeys[] = [];
@@ -151,7 +199,11 @@ export async function seedDemoEvidence(m: EntityManager, storage: Storage, plans
       const inspected = art.get(f.art)!;
       const keys = await storeInspected(storage, inspected);
       stored.push(keys);
-      const displayName = safeDisplayName(f.name, ACCEPTED_TYPES[inspected.contentType].extensions, inspected.kind);
+      const displayName = safeDisplayName(
+        f.name,
+        ACCEPTED_TYPES[inspected.contentType].extensions,
+        inspected.kind,
+      );
       const row = newAttachmentRow(m, {
         owner: { type: 'claim', id: f.claim.id },
         uploader: { id: f.claim.createdById!, organizationId: f.claim.contractorId },
@@ -168,7 +220,9 @@ export async function seedDemoEvidence(m: EntityManager, storage: Storage, plans
     const byUploader = new Map<string, Attachment[]>();
     for (const r of rows) byUploader.set(r.uploadedById, [...(byUploader.get(r.uploadedById) ?? []), r]);
     for (const [userId, list] of byUploader) {
-      const events = list.map((r) => attachmentAddedEvent(r)).map((e) => ({ ...e, after: { ...e.after, source: 'demo' } }));
+      const events = list
+        .map((r) => attachmentAddedEvent(r))
+        .map((e) => ({ ...e, after: { ...e.after, source: 'demo' } }));
       await recordAuditMany(m, { userId, organizationId: list[0].organizationId }, events);
     }
   } catch (err) {

@@ -216,7 +216,8 @@ export type InvoiceInfo = {
 };
 
 const cents = (s: string) => Math.round(Number(s) * 100);
-const money = (c: number) => `${(c / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
+const money = (c: number) =>
+  `${(c / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
 
 /**
  * A distributor's invoice for the fixtures, as a contractor would scan or download it: one page in the PDF
@@ -227,7 +228,12 @@ export function drawInvoice(info: InvoiceInfo): Promise<Buffer> {
   const doc = new PDFDocument({
     size: 'LETTER',
     margin: 56,
-    info: { Title: `Invoice ${info.invoiceNumber}`, Author: info.distributor, CreationDate: date, ModDate: date },
+    info: {
+      Title: `Invoice ${info.invoiceNumber}`,
+      Author: info.distributor,
+      CreationDate: date,
+      ModDate: date,
+    },
   });
   const parts: Buffer[] = [];
   const done = new Promise<Buffer>((resolve, reject) => {
@@ -238,7 +244,11 @@ export function drawInvoice(info: InvoiceInfo): Promise<Buffer> {
   const net = cents(info.unitPrice) * info.quantity;
   const tax = Math.round(net * 0.065);
   doc.font('Helvetica-Bold').fontSize(20).fillColor('#1d3557').text(info.distributor);
-  doc.font('Helvetica').fontSize(9).fillColor('#555').text('Electrical and lighting supply. Fictional: Lumenproof demo data.');
+  doc
+    .font('Helvetica')
+    .fontSize(9)
+    .fillColor('#555')
+    .text('Electrical and lighting supply. Fictional: Lumenproof demo data.');
   doc.moveDown(1.5);
   doc.font('Helvetica-Bold').fontSize(14).fillColor('#111').text(`INVOICE ${info.invoiceNumber}`);
   doc.font('Helvetica').fontSize(10).text(`Date: ${info.date}    Terms: net 30`);
@@ -250,20 +260,36 @@ export function drawInvoice(info: InvoiceInfo): Promise<Buffer> {
   const y = doc.y;
   const cols = [56, 150, 380, 440, 500];
   doc.font('Helvetica-Bold');
-  ['Item', 'Description', 'Qty', 'Unit', 'Amount'].forEach((h, i) => doc.text(h, cols[i], y, { lineBreak: false }));
-  doc.moveTo(56, y + 14).lineTo(556, y + 14).strokeColor('#999').stroke();
+  ['Item', 'Description', 'Qty', 'Unit', 'Amount'].forEach((h, i) =>
+    doc.text(h, cols[i], y, { lineBreak: false }),
+  );
+  doc
+    .moveTo(56, y + 14)
+    .lineTo(556, y + 14)
+    .strokeColor('#999')
+    .stroke();
   doc.font('Helvetica');
   const row = y + 22;
-  [info.model, info.description, String(info.quantity), money(cents(info.unitPrice)), money(net)].forEach((v, i) =>
-    doc.text(v, cols[i], row, { width: i === 1 ? 220 : 60, lineBreak: i === 1 }),
+  [info.model, info.description, String(info.quantity), money(cents(info.unitPrice)), money(net)].forEach(
+    (v, i) => doc.text(v, cols[i], row, { width: i === 1 ? 220 : 60, lineBreak: i === 1 }),
   );
   let ty = row + 44;
-  for (const [label, value] of [['Subtotal', net], ['Sales tax 6.5 %', tax], ['Total USD', net + tax]] as const) {
-    doc.font(label.startsWith('Total') ? 'Helvetica-Bold' : 'Helvetica').text(label, 380, ty, { lineBreak: false });
+  for (const [label, value] of [
+    ['Subtotal', net],
+    ['Sales tax 6.5 %', tax],
+    ['Total USD', net + tax],
+  ] as const) {
+    doc
+      .font(label.startsWith('Total') ? 'Helvetica-Bold' : 'Helvetica')
+      .text(label, 380, ty, { lineBreak: false });
     doc.text(money(value), 500, ty, { lineBreak: false });
     ty += 16;
   }
-  doc.font('Helvetica').fontSize(8).fillColor('#777').text('Keep this invoice: the manufacturer may ask for it with a warranty claim.', 56, ty + 30);
+  doc
+    .font('Helvetica')
+    .fontSize(8)
+    .fillColor('#777')
+    .text('Keep this invoice: the manufacturer may ask for it with a warranty claim.', 56, ty + 30);
   doc.end();
   return done;
 }

@@ -11,16 +11,53 @@ import { PolicyModel } from '../entities/policy-model.entity';
 import type { ProductModel } from '../entities/product-model.entity';
 import type { User } from '../entities/user.entity';
 import { WarrantyPolicyVersion } from '../entities/warranty-policy-version.entity';
-import { addDaysIso, generateStory, prng, stageFor, storyUuid, type StoryClaim, type StoryInstallation, type StoryOptions } from './reliability-story';
+import {
+  addDaysIso,
+  generateStory,
+  prng,
+  stageFor,
+  storyUuid,
+  type StoryClaim,
+  type StoryInstallation,
+  type StoryOptions,
+} from './reliability-story';
 
 // The demo's reliability history (see reliability-story.ts for the story): about three years of installations
 // for both manufacturers and the claims their units brought, each judged by the real engine at filing, with
 // the reviewers' decisions in the audit trail for the throughput chart. Fictional throughout.
 
-const PLACES = ['Alder', 'Brook', 'Cinder', 'Dunmore', 'Elm', 'Fallow', 'Granite', 'Heron', 'Iris', 'Juniper', 'Kestrel', 'Larch'];
-const KINDS = ['distribution centre', 'parking deck', 'school', 'cold store', 'depot', 'workshop', 'retail park', 'clinic'];
+const PLACES = [
+  'Alder',
+  'Brook',
+  'Cinder',
+  'Dunmore',
+  'Elm',
+  'Fallow',
+  'Granite',
+  'Heron',
+  'Iris',
+  'Juniper',
+  'Kestrel',
+  'Larch',
+];
+const KINDS = [
+  'distribution centre',
+  'parking deck',
+  'school',
+  'cold store',
+  'depot',
+  'workshop',
+  'retail park',
+  'clinic',
+];
 
-export const DEMO_STORY: Omit<StoryOptions, 'today'> = { months: 36, perMonth: 2, quantity: [12, 60], scaleFactor: 1, seed: 9009 };
+export const DEMO_STORY: Omit<StoryOptions, 'today'> = {
+  months: 36,
+  perMonth: 2,
+  quantity: [12, 60],
+  scaleFactor: 1,
+  seed: 9009,
+};
 
 export function installationRow(i: StoryInstallation) {
   const place = PLACES[i.siteIndex % PLACES.length];
@@ -57,7 +94,10 @@ export async function loadStoryInputs(m: EntityManager, products: ProductModel[]
   const versionsByModel = new Map<string, WarrantyPolicyVersion[]>();
   for (const p of products) {
     const policyIds = new Set(links.filter((l) => l.productModelId === p.id).map((l) => l.policyId));
-    versionsByModel.set(p.id, versions.filter((v) => policyIds.has(v.policyId)));
+    versionsByModel.set(
+      p.id,
+      versions.filter((v) => policyIds.has(v.policyId)),
+    );
   }
   return versionsByModel;
 }
@@ -77,9 +117,18 @@ export async function seedDemoReliability(
      WHERE i.lot IS NULL`,
   );
   const contractorIds = [orgs.get('harborview')!.id, orgs.get('copperline')!.id];
-  const { installations, claims } = generateStory(products, versionsByModel, contractorIds, { ...DEMO_STORY, today });
+  const { installations, claims } = generateStory(products, versionsByModel, contractorIds, {
+    ...DEMO_STORY,
+    today,
+  });
   for (let i = 0; i < installations.length; i += 500) {
-    await m.createQueryBuilder().insert().into(Installation).values(installations.slice(i, i + 500).map(installationRow)).updateEntity(false).execute();
+    await m
+      .createQueryBuilder()
+      .insert()
+      .into(Installation)
+      .values(installations.slice(i, i + 500).map(installationRow))
+      .updateEntity(false)
+      .execute();
   }
 
   const productById = new Map(products.map((p) => [p.id, p]));
@@ -95,20 +144,37 @@ export async function seedDemoReliability(
   const rand = prng(4242);
   const numbers = new Set<string>();
   const rows: Partial<Claim>[] = [];
-  const audits: (Omit<Partial<AuditEvent>, 'before' | 'after'> & { before: null; after: { number: string; source: string } })[] = [];
+  const audits: (Omit<Partial<AuditEvent>, 'before' | 'after'> & {
+    before: null;
+    after: { number: string; source: string };
+  })[] = [];
   for (const c of claims) {
     const inst = c.installation;
     const product = productById.get(inst.productModelId)!;
     const version = inst.policyVersionId ? versionById.get(inst.policyVersionId)! : null;
     const ctx = engineContextFrom(product, version, inst);
-    const serials = Array.from({ length: c.units }, (_, k) => `${inst.lot}-${String(Math.floor(rand() * 90000) + 10000)}${k}`);
-    const fields = { units: c.units, serials, failedOn: c.failedOn, symptoms: c.symptoms, observations: c.observations, measurements: {}, narrative: narrativeOf(c) };
-    const result = safeEvaluateClaim(engineInputFor(ctx, fields as never, { photos: 2, proofOfPurchase: true }, c.filedOn));
+    const serials = Array.from(
+      { length: c.units },
+      (_, k) => `${inst.lot}-${String(Math.floor(rand() * 90000) + 10000)}${k}`,
+    );
+    const fields = {
+      units: c.units,
+      serials,
+      failedOn: c.failedOn,
+      symptoms: c.symptoms,
+      observations: c.observations,
+      measurements: {},
+      narrative: narrativeOf(c),
+    };
+    const result = safeEvaluateClaim(
+      engineInputFor(ctx, fields as never, { photos: 2, proofOfPurchase: true }, c.filedOn),
+    );
     const evaluation: Evaluation | null = result.ok ? result.evaluation : null;
     const verdict = evaluation?.verdict ?? 'review';
     const { stage, waitingOn, decidedOn } = stageFor(verdict, c.filedOn, today, rand);
     let number = newClaimNumber(new Date(`${c.filedOn}T12:00:00Z`), (n) => Math.floor(rand() * n));
-    while (numbers.has(number)) number = newClaimNumber(new Date(`${c.filedOn}T12:00:00Z`), (n) => Math.floor(rand() * n));
+    while (numbers.has(number))
+      number = newClaimNumber(new Date(`${c.filedOn}T12:00:00Z`), (n) => Math.floor(rand() * n));
     numbers.add(number);
     const id = storyUuid(rand);
     const filedAt = new Date(`${c.filedOn}T15:00:00Z`);
@@ -146,7 +212,10 @@ export async function seedDemoReliability(
         occurredAt: new Date(`${decidedOn}T16:00:00Z`),
         actorUserId: reviewer?.id ?? null,
         organizationId: inst.manufacturerId,
-        action: stage === 'denied' || (stage === 'closed' && verdict === 'excluded') ? 'claim.denied' : 'claim.approved',
+        action:
+          stage === 'denied' || (stage === 'closed' && verdict === 'excluded')
+            ? 'claim.denied'
+            : 'claim.approved',
         entityType: 'Claim',
         entityId: id,
         before: null,
@@ -156,17 +225,35 @@ export async function seedDemoReliability(
     }
   }
   for (let i = 0; i < rows.length; i += 200) {
-    await m.createQueryBuilder().insert().into(Claim).values(rows.slice(i, i + 200)).updateEntity(false).execute();
+    await m
+      .createQueryBuilder()
+      .insert()
+      .into(Claim)
+      .values(rows.slice(i, i + 200))
+      .updateEntity(false)
+      .execute();
   }
   for (let i = 0; i < audits.length; i += 500) {
-    await m.createQueryBuilder().insert().into(AuditEvent).values(audits.slice(i, i + 500)).updateEntity(false).execute();
+    await m
+      .createQueryBuilder()
+      .insert()
+      .into(AuditEvent)
+      .values(audits.slice(i, i + 500))
+      .updateEntity(false)
+      .execute();
   }
-  return { installations: installations.length, units: installations.reduce((n, i) => n + i.quantity, 0), claims: rows.length };
+  return {
+    installations: installations.length,
+    units: installations.reduce((n, i) => n + i.quantity, 0),
+    claims: rows.length,
+  };
 }
 
 function narrativeOf(c: StoryClaim): string {
-  if (c.mode === 'weak_lot') return 'Several LEDs on one board went dark within months; the rest of the fixture still lights.';
-  if (c.mode === 'enclosed_driver') return 'Fixture cycles off when warm and comes back after cooling; mounted in a closed housing.';
+  if (c.mode === 'weak_lot')
+    return 'Several LEDs on one board went dark within months; the rest of the fixture still lights.';
+  if (c.mode === 'enclosed_driver')
+    return 'Fixture cycles off when warm and comes back after cooling; mounted in a closed housing.';
   if (c.mode === 'insects') return 'Fan is clogged with insects and the lamp runs hot and dim.';
   return 'Fixture failed in normal service.';
 }

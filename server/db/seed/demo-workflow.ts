@@ -1,7 +1,12 @@
 import crypto from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import type { Address, DenialCode } from '../../../shared/claims/actions.schema';
-import { addDays, INFO_RESPONSE_DAYS, newReturnNumber, RETURN_SHIP_DAYS } from '../../../shared/claims/workflow';
+import {
+  addDays,
+  INFO_RESPONSE_DAYS,
+  newReturnNumber,
+  RETURN_SHIP_DAYS,
+} from '../../../shared/claims/workflow';
 import { needsReason } from '../../../shared/claims/stages';
 import { formatCents, parseCents } from '../../../shared/engine/money';
 import type { Storage } from '../../lib/storage';
@@ -45,8 +50,22 @@ const DENIAL_NOTES: Record<string, string> = {
 };
 
 const RETURN_ADDRESS: Record<string, Address> = {
-  'Aldercrest Lighting': { name: 'Aldercrest Lighting Returns', line1: '400 Foundry Road', city: 'Tacoma', region: 'WA', postalCode: '98421', country: 'US' },
-  'Veltra Luminaires': { name: 'Veltra Luminaires Test Lab', line1: '18 Quarry Lane', city: 'Spokane', region: 'WA', postalCode: '99202', country: 'US' },
+  'Aldercrest Lighting': {
+    name: 'Aldercrest Lighting Returns',
+    line1: '400 Foundry Road',
+    city: 'Tacoma',
+    region: 'WA',
+    postalCode: '98421',
+    country: 'US',
+  },
+  'Veltra Luminaires': {
+    name: 'Veltra Luminaires Test Lab',
+    line1: '18 Quarry Lane',
+    city: 'Spokane',
+    region: 'WA',
+    postalCode: '99202',
+    country: 'US',
+  },
 };
 
 const day = (d: Date) => d.toISOString().slice(0, 10);
@@ -58,9 +77,15 @@ function denialOf(claim: Claim): DenialCode {
 }
 
 /** Adds the workflow rows for the claims demo's claims (see above); `claims` as seedDemoClaims returns them. */
-export async function seedDemoWorkflow(m: EntityManager, storage: Storage, claims: Claim[], users: Map<string, User>) {
+export async function seedDemoWorkflow(
+  m: EntityManager,
+  storage: Storage,
+  claims: Claim[],
+  users: Map<string, User>,
+) {
   const rand = prng(4242);
-  const person = (orgId: string, role: string) => [...users.values()].find((u) => u.organizationId === orgId && u.roles.includes(role as never));
+  const person = (orgId: string, role: string) =>
+    [...users.values()].find((u) => u.organizationId === orgId && u.roles.includes(role as never));
   let benchTurn = 0;
   for (const claim of claims) {
     if (!claim.filedAt) continue;
@@ -84,16 +109,43 @@ export async function seedDemoWorkflow(m: EntityManager, storage: Storage, claim
           ? 'Goodwill for a long-standing account: the failure pattern matches a known driver issue.'
           : undefined;
         letter = { outcome: 'approved', resolution: 'credit', amount, currency, overrideReason };
-        row = { outcome: 'approved', resolution: 'credit', amount, currency, approvedUnits: null, reasonCodes: [], note: null, overrideReason: overrideReason ?? null };
+        row = {
+          outcome: 'approved',
+          resolution: 'credit',
+          amount,
+          currency,
+          approvedUnits: null,
+          reasonCodes: [],
+          note: null,
+          overrideReason: overrideReason ?? null,
+        };
       } else {
         const code = denialOf(claim);
         const overrideReason = needsReason(evaluation?.verdict ?? null, 'deny')
           ? 'The installer’s photos contradict the readings entered; the failure is not one the policy covers.'
           : undefined;
         letter = { outcome: 'denied', reasonCodes: [code], note: DENIAL_NOTES[code], overrideReason };
-        row = { outcome: 'denied', resolution: null, amount: null, currency: null, approvedUnits: null, reasonCodes: [code], note: DENIAL_NOTES[code], overrideReason: overrideReason ?? null };
+        row = {
+          outcome: 'denied',
+          resolution: null,
+          amount: null,
+          currency: null,
+          approvedUnits: null,
+          reasonCodes: [code],
+          note: DENIAL_NOTES[code],
+          overrideReason: overrideReason ?? null,
+        };
       }
-      const doc = await createDeterminationLetter(m, storage, claim, parties, evaluation, letter, reviewer.name, decidedAt);
+      const doc = await createDeterminationLetter(
+        m,
+        storage,
+        claim,
+        parties,
+        evaluation,
+        letter,
+        reviewer.name,
+        decidedAt,
+      );
       await m.insert(Decision, {
         id: crypto.randomUUID(),
         claimId: claim.id,

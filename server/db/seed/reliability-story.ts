@@ -65,8 +65,10 @@ export function prng(seed: number) {
 }
 
 const DAY = 86_400_000;
-export const addDaysIso = (iso: string, days: number) => new Date(Date.parse(`${iso}T00:00:00Z`) + Math.round(days) * DAY).toISOString().slice(0, 10);
-const daysBetweenIso = (a: string, b: string) => Math.round((Date.parse(`${b}T00:00:00Z`) - Date.parse(`${a}T00:00:00Z`)) / DAY);
+export const addDaysIso = (iso: string, days: number) =>
+  new Date(Date.parse(`${iso}T00:00:00Z`) + Math.round(days) * DAY).toISOString().slice(0, 10);
+const daysBetweenIso = (a: string, b: string) =>
+  Math.round((Date.parse(`${b}T00:00:00Z`) - Date.parse(`${a}T00:00:00Z`)) / DAY);
 const MONTH_DAYS = 30.4375;
 
 /** A stable fake uuid from the PRNG: the same story gives the same ids. */
@@ -78,17 +80,35 @@ export function storyUuid(rand: () => number): string {
 type Life = { shape: number; scale: number; mode: StoryClaim['mode'] };
 
 /** Each installation's life model in months: the story's three problems, and ordinary wear for the rest. */
-function lifeOf(model: StoryModel, inst: Pick<StoryInstallation, 'lot' | 'enclosure' | 'location'>, scaleFactor: number): Life {
+function lifeOf(
+  model: StoryModel,
+  inst: Pick<StoryInstallation, 'lot' | 'enclosure' | 'location'>,
+  scaleFactor: number,
+): Life {
   if (inst.lot === 'ACH2502') return { shape: 1.1, scale: 45 * scaleFactor, mode: 'weak_lot' };
-  if (model.modelNumber === 'VL-WP80-W' && inst.enclosure === 'enclosed') return { shape: 3.2, scale: 38 * scaleFactor, mode: 'enclosed_driver' };
-  if (model.activeCooling && inst.location !== 'dry') return { shape: 2.0, scale: 70 * scaleFactor, mode: 'insects' };
+  if (model.modelNumber === 'VL-WP80-W' && inst.enclosure === 'enclosed')
+    return { shape: 3.2, scale: 38 * scaleFactor, mode: 'enclosed_driver' };
+  if (model.activeCooling && inst.location !== 'dry')
+    return { shape: 2.0, scale: 70 * scaleFactor, mode: 'insects' };
   return { shape: 1.7, scale: 520 * scaleFactor, mode: 'wear' };
 }
 
-function claimLooks(mode: StoryClaim['mode'], rand: () => number): Pick<StoryClaim, 'symptoms' | 'observations'> {
-  if (mode === 'weak_lot') return { symptoms: rand() < 0.8 ? ['partly_dark'] : ['partly_dark', 'flicker'], observations: {} };
-  if (mode === 'enclosed_driver') return { symptoms: rand() < 0.6 ? ['cycling'] : ['dark'], observations: rand() < 0.2 ? { burnMarks: true } : {} };
-  if (mode === 'insects') return { symptoms: rand() < 0.7 ? ['fan_noise', 'dim'] : ['dark'], observations: { debrisIngress: true, fanStopped: rand() < 0.6 } };
+function claimLooks(
+  mode: StoryClaim['mode'],
+  rand: () => number,
+): Pick<StoryClaim, 'symptoms' | 'observations'> {
+  if (mode === 'weak_lot')
+    return { symptoms: rand() < 0.8 ? ['partly_dark'] : ['partly_dark', 'flicker'], observations: {} };
+  if (mode === 'enclosed_driver')
+    return {
+      symptoms: rand() < 0.6 ? ['cycling'] : ['dark'],
+      observations: rand() < 0.2 ? { burnMarks: true } : {},
+    };
+  if (mode === 'insects')
+    return {
+      symptoms: rand() < 0.7 ? ['fan_noise', 'dim'] : ['dark'],
+      observations: { debrisIngress: true, fanStopped: rand() < 0.6 },
+    };
   const r = rand();
   if (r < 0.45) return { symptoms: ['dark'], observations: {} };
   if (r < 0.7) return { symptoms: ['flicker'], observations: {} };
@@ -121,8 +141,15 @@ export function generateStory(
   const claims: StoryClaim[] = [];
   const [y, m] = opts.today.split('-').map(Number);
   for (const model of models) {
-    const supplies = [120, 208, 240, 277, 347, 480].filter((v) => v >= model.inputVoltsMin && v <= model.inputVoltsMax);
-    const locations: RatedLocation[] = model.location === 'wet' ? ['dry', 'damp', 'wet'] : model.location === 'damp' ? ['dry', 'damp'] : ['dry'];
+    const supplies = [120, 208, 240, 277, 347, 480].filter(
+      (v) => v >= model.inputVoltsMin && v <= model.inputVoltsMax,
+    );
+    const locations: RatedLocation[] =
+      model.location === 'wet'
+        ? ['dry', 'damp', 'wet']
+        : model.location === 'damp'
+          ? ['dry', 'damp']
+          : ['dry'];
     for (let k = opts.months; k >= 1; k--) {
       const index = y * 12 + (m - 1) - k;
       const year = Math.floor(index / 12);
@@ -135,20 +162,33 @@ export function generateStory(
         const installDate = `${year}-${String(month).padStart(2, '0')}-${String(day).padStart(2, '0')}`;
         if (installDate > opts.today) continue;
         // The weak lot was shipped over three months.
-        const weak = model.modelNumber === 'AC-HB150-D' && index >= 2025 * 12 + 2 && index <= 2025 * 12 + 4 && n % 2 === 0;
-        const enclosure: Enclosure = model.enclosedRated ? pick(['open', 'enclosed', 'enclosed', 'enclosed_ventilated'] as const) : pick(['open', 'open', 'enclosed_ventilated'] as const);
+        const weak =
+          model.modelNumber === 'AC-HB150-D' &&
+          index >= 2025 * 12 + 2 &&
+          index <= 2025 * 12 + 4 &&
+          n % 2 === 0;
+        const enclosure: Enclosure = model.enclosedRated
+          ? pick(['open', 'enclosed', 'enclosed', 'enclosed_ventilated'] as const)
+          : pick(['open', 'open', 'enclosed_ventilated'] as const);
         const inst: StoryInstallation = {
           id: storyUuid(rand),
           contractorId: contractorIds[n % contractorIds.length],
           manufacturerId: model.manufacturerId,
           productModelId: model.id,
-          policyVersionId: versionInForce<StoryVersion>(versionsByModel.get(model.id) ?? [], addDaysIso(installDate, -14))?.id ?? null, // bought two weeks before
+          policyVersionId:
+            versionInForce<StoryVersion>(versionsByModel.get(model.id) ?? [], addDaysIso(installDate, -14))
+              ?.id ?? null, // bought two weeks before
           installDate,
           quantity: opts.quantity[0] + Math.floor(rand() * (opts.quantity[1] - opts.quantity[0] + 1)),
           lot: weak ? 'ACH2502' : `${prefix}${dateCode}`,
           location: pick(locations),
           enclosure,
-          dimmer: model.dimming === 'none' ? 'none' : model.dimming === 'phase' ? pick(['none', 'phase'] as const) : pick(['none', '0-10v'] as const),
+          dimmer:
+            model.dimming === 'none'
+              ? 'none'
+              : model.dimming === 'phase'
+                ? pick(['none', 'phase'] as const)
+                : pick(['none', '0-10v'] as const),
           nominalSupplyVolts: pick(supplies),
           hoursPerDay: pick([10, 12, 16, 18, 24]),
           ambientC: Math.round(10 + rand() * Math.max(5, model.ambientMaxC - 15)),
@@ -170,7 +210,14 @@ export function generateStory(
           const failedOn = addDaysIso(installDate, t * MONTH_DAYS);
           const filedOn = addDaysIso(failedOn, 2 + Math.floor(rand() * 25));
           if (filedOn > opts.today || failedOn > opts.today) continue;
-          claims.push({ installation: inst, failedOn, filedOn, units, mode: life.mode, ...claimLooks(life.mode, rand) });
+          claims.push({
+            installation: inst,
+            failedOn,
+            filedOn,
+            units,
+            mode: life.mode,
+            ...claimLooks(life.mode, rand),
+          });
         }
       }
     }
@@ -188,8 +235,12 @@ export function stageFor(
   const age = daysBetweenIso(filedOn, today);
   const decidedOn = addDaysIso(filedOn, 6 + Math.floor(rand() * 14));
   if (age <= 5) return { stage: 'filed', waitingOn: 'manufacturer', decidedOn: null };
-  if (age <= 20) return rand() < 0.25 ? { stage: 'needs_info', waitingOn: 'contractor', decidedOn: null } : { stage: 'in_review', waitingOn: 'manufacturer', decidedOn: null };
-  if (verdict === 'excluded') return { stage: rand() < 0.7 ? 'denied' : 'closed', waitingOn: null, decidedOn };
+  if (age <= 20)
+    return rand() < 0.25
+      ? { stage: 'needs_info', waitingOn: 'contractor', decidedOn: null }
+      : { stage: 'in_review', waitingOn: 'manufacturer', decidedOn: null };
+  if (verdict === 'excluded')
+    return { stage: rand() < 0.7 ? 'denied' : 'closed', waitingOn: null, decidedOn };
   if (age <= 40) return { stage: 'approved', waitingOn: 'manufacturer', decidedOn };
   return { stage: verdict === 'covered' && rand() < 0.3 ? 'closed' : 'credited', waitingOn: null, decidedOn };
 }

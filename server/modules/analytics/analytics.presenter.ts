@@ -2,7 +2,12 @@ import Papa from 'papaparse';
 import type { Response } from 'express';
 import { FAILURE_MODE_LABELS } from '../../../shared/analytics/failure-mode-rules';
 import type { RankedCount } from '../../../shared/analytics/failure-modes';
-import type { ClaimsAgeingDto, FailureModesDto, LifeAnalysisDto, ReserveDto } from '../../../shared/schemas/analytics';
+import type {
+  ClaimsAgeingDto,
+  FailureModesDto,
+  LifeAnalysisDto,
+  ReserveDto,
+} from '../../../shared/schemas/analytics';
 
 // Every list of numbers the screens chart is also a CSV: the same numbers as the JSON, unrounded, one table per
 // file. Cells that a spreadsheet would run as a formula are escaped (papaparse's escapeFormulae).
@@ -10,20 +15,32 @@ import type { ClaimsAgeingDto, FailureModesDto, LifeAnalysisDto, ReserveDto } fr
 export type CsvTable = { name: string; fields: string[]; rows: (string | number | null)[][] };
 
 export function sendCsv(res: Response, table: CsvTable) {
-  const body = Papa.unparse({ fields: table.fields, data: table.rows }, { escapeFormulae: true, newline: '\r\n' });
+  const body = Papa.unparse(
+    { fields: table.fields, data: table.rows },
+    { escapeFormulae: true, newline: '\r\n' },
+  );
   res.type('text/csv; charset=utf-8').attachment(`lumenproof-${table.name}.csv`).send(`${body}\r\n`);
 }
 
-const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
+const slug = (s: string) =>
+  s
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '');
 
-export function lifeCsv(dto: LifeAnalysisDto, table: 'fit' | 'probability-plot' | 'kaplan-meier' | 'life-data'): CsvTable {
+export function lifeCsv(
+  dto: LifeAnalysisDto,
+  table: 'fit' | 'probability-plot' | 'kaplan-meier' | 'life-data',
+): CsvTable {
   const name = `${table}-${slug(dto.population.label)}-${dto.lifeData.unit}`;
   if (table === 'fit') {
     const f = dto.fit;
     return {
       name,
       fields: ['method', 'shape', 'scale', 'b10', 'b50', 'meanLife', 'failures', 'units', 'unit'],
-      rows: f ? [[f.method, f.shape, f.scale, f.b10, f.b50, f.meanLife, f.failures, f.units, dto.lifeData.unit]] : [],
+      rows: f
+        ? [[f.method, f.shape, f.scale, f.b10, f.b50, f.meanLife, f.failures, f.units, dto.lifeData.unit]]
+        : [],
     };
   }
   if (table === 'probability-plot') {
@@ -42,7 +59,16 @@ export function lifeCsv(dto: LifeAnalysisDto, table: 'fit' | 'probability-plot' 
     return {
       name,
       fields: ['time', 'atRisk', 'failed', 'censored', 'survival', 'standardError', 'lower', 'upper'],
-      rows: dto.kaplanMeier.map((r) => [r.time, r.atRisk, r.failed, r.censored, r.survival, r.standardError, r.lower, r.upper]),
+      rows: dto.kaplanMeier.map((r) => [
+        r.time,
+        r.atRisk,
+        r.failed,
+        r.censored,
+        r.survival,
+        r.standardError,
+        r.lower,
+        r.upper,
+      ]),
     };
   }
   return {
@@ -55,13 +81,32 @@ export function lifeCsv(dto: LifeAnalysisDto, table: 'fit' | 'probability-plot' 
   };
 }
 
-const ranked = (rows: RankedCount[], label?: (key: string) => string) => rows.map((r) => [label ? label(r.key) : r.key, r.claims, r.units, r.share]);
+const ranked = (rows: RankedCount[], label?: (key: string) => string) =>
+  rows.map((r) => [label ? label(r.key) : r.key, r.claims, r.units, r.share]);
 
-export function failureModesCsv(dto: FailureModesDto, table: 'modes' | 'environment' | 'lot' | 'contractor' | 'ageing'): CsvTable {
+export function failureModesCsv(
+  dto: FailureModesDto,
+  table: 'modes' | 'environment' | 'lot' | 'contractor' | 'ageing',
+): CsvTable {
   const base = slug(dto.population.label);
-  if (table === 'modes') return { name: `failure-modes-${base}`, fields: ['failureMode', 'claims', 'units', 'share'], rows: ranked(dto.modes, (k) => FAILURE_MODE_LABELS[k] ?? k) };
-  if (table === 'lot') return { name: `claims-by-lot-${base}`, fields: ['lot', 'claims', 'units', 'share'], rows: ranked(dto.lots) };
-  if (table === 'contractor') return { name: `claims-by-contractor-${base}`, fields: ['contractor', 'claims', 'units', 'share'], rows: ranked(dto.contractors) };
+  if (table === 'modes')
+    return {
+      name: `failure-modes-${base}`,
+      fields: ['failureMode', 'claims', 'units', 'share'],
+      rows: ranked(dto.modes, (k) => FAILURE_MODE_LABELS[k] ?? k),
+    };
+  if (table === 'lot')
+    return {
+      name: `claims-by-lot-${base}`,
+      fields: ['lot', 'claims', 'units', 'share'],
+      rows: ranked(dto.lots),
+    };
+  if (table === 'contractor')
+    return {
+      name: `claims-by-contractor-${base}`,
+      fields: ['contractor', 'claims', 'units', 'share'],
+      rows: ranked(dto.contractors),
+    };
   if (table === 'environment') {
     const ct = dto.crossTable;
     return {
@@ -80,20 +125,55 @@ export function failureModesCsv(dto: FailureModesDto, table: 'modes' | 'environm
 
 export function claimsAgeingCsv(dto: ClaimsAgeingDto, table: 'open' | 'throughput'): CsvTable {
   if (table === 'open') {
-    return { name: `open-claims-by-age-${dto.asOf}`, fields: ['age', 'waitingOnManufacturer', 'waitingOnContractor', 'total'], rows: dto.open.map((r) => [r.band, r.manufacturer, r.contractor, r.total]) };
+    return {
+      name: `open-claims-by-age-${dto.asOf}`,
+      fields: ['age', 'waitingOnManufacturer', 'waitingOnContractor', 'total'],
+      rows: dto.open.map((r) => [r.band, r.manufacturer, r.contractor, r.total]),
+    };
   }
-  return { name: `decisions-per-week-${dto.asOf}`, fields: ['weekStarting', 'approved', 'denied', 'decided'], rows: dto.throughput.map((r) => [r.week, r.approved, r.denied, r.decided]) };
+  return {
+    name: `decisions-per-week-${dto.asOf}`,
+    fields: ['weekStarting', 'approved', 'denied', 'decided'],
+    rows: dto.throughput.map((r) => [r.week, r.approved, r.denied, r.decided]),
+  };
 }
 
 export function reserveCsv(dto: ReserveDto, table: 'months' | 'cohorts'): CsvTable {
   if (table === 'months') {
     const rows: (string | number)[][] = [];
-    for (const t of dto.totals) dto.monthLabels.forEach((m, k) => rows.push([t.currency, m, t.monthlyClaims[k], t.monthlyAmounts[k]]));
-    return { name: `reserve-by-month-${dto.asOf}`, fields: ['currency', 'month', 'expectedClaims', 'amount'], rows };
+    for (const t of dto.totals)
+      dto.monthLabels.forEach((m, k) => rows.push([t.currency, m, t.monthlyClaims[k], t.monthlyAmounts[k]]));
+    return {
+      name: `reserve-by-month-${dto.asOf}`,
+      fields: ['currency', 'month', 'expectedClaims', 'amount'],
+      rows,
+    };
   }
   return {
     name: `reserve-by-cohort-${dto.asOf}`,
-    fields: ['model', 'installMonth', 'ageMonths', 'survivors', 'termMonths', 'unitCredit', 'currency', 'expectedClaims', 'amount', 'fitFrom'],
-    rows: dto.cohorts.map((c) => [c.modelNumber, c.installMonth, c.ageMonths, c.survivors, c.termMonths, c.unitCredit, c.currency, c.expectedClaims, c.amount, c.fitFrom]),
+    fields: [
+      'model',
+      'installMonth',
+      'ageMonths',
+      'survivors',
+      'termMonths',
+      'unitCredit',
+      'currency',
+      'expectedClaims',
+      'amount',
+      'fitFrom',
+    ],
+    rows: dto.cohorts.map((c) => [
+      c.modelNumber,
+      c.installMonth,
+      c.ageMonths,
+      c.survivors,
+      c.termMonths,
+      c.unitCredit,
+      c.currency,
+      c.expectedClaims,
+      c.amount,
+      c.fitFrom,
+    ]),
   };
 }

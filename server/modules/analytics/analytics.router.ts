@@ -26,7 +26,12 @@ import { notFound } from '../../lib/errors';
 import { authorize, authorizeType, requireUser } from '../../middleware/auth';
 import { parseQuery } from '../../middleware/validate';
 import { claimsAgeingCsv, failureModesCsv, lifeCsv, sendCsv } from './analytics.presenter';
-import { createAnalyticsService, presentPopulation, type AnalyticsService, type Population } from './analytics.service';
+import {
+  createAnalyticsService,
+  presentPopulation,
+  type AnalyticsService,
+  type Population,
+} from './analytics.service';
 
 export const today = () => clock.now().toISOString().slice(0, 10);
 
@@ -42,7 +47,13 @@ export async function resolvePopulation(
   const manufacturerId = req.user!.organizationId;
   if (q.productModelId) {
     const model = await service.findModel(q.productModelId);
-    authorize(req, 'read', 'Analytics', model ? { manufacturerId: model.manufacturerId } : null, 'product model');
+    authorize(
+      req,
+      'read',
+      'Analytics',
+      model ? { manufacturerId: model.manufacturerId } : null,
+      'product model',
+    );
     return { kind: 'model', productModelId: model!.id, label: `${model!.modelNumber} ${model!.name}` };
   }
   if (q.family) {
@@ -66,7 +77,11 @@ export function analyticsRouter(ctx: AppContext) {
     const population = await resolvePopulation(req, service, q);
     const asOf = q.asOf ?? today();
     // By default ages at the middle of the month (or day) they fell in, so a failure in the first month can be fitted.
-    const life = await service.lifeData(req.user!.organizationId, population, { asOf, unit: q.ageUnit, midpoint: q.age === 'midpoint' });
+    const life = await service.lifeData(req.user!.organizationId, population, {
+      asOf,
+      unit: q.ageUnit,
+      midpoint: q.age === 'midpoint',
+    });
     const result = service.fit(life, q.method);
     const data = { failures: life.failures, suspensions: life.suspensions };
     const dto: LifeAnalysisDto = {
@@ -97,13 +112,19 @@ export function analyticsRouter(ctx: AppContext) {
     const q = parseQuery(failureModesQuerySchema, req);
     const population = await resolvePopulation(req, service, q);
     const asOf = q.asOf ?? today();
-    const { envRows, lotRows, cells } = await service.failureGroups(req.user!.organizationId, population, asOf);
+    const { envRows, lotRows, cells } = await service.failureGroups(
+      req.user!.organizationId,
+      population,
+      asOf,
+    );
     const dto: FailureModesDto = {
       population: presentPopulation(population),
       asOf,
       claims: envRows.reduce((n, r) => n + (r.claims ?? 1), 0),
       modes: rankFailureModes(envRows).map((m) => ({ ...m, label: FAILURE_MODE_LABELS[m.key] ?? m.key })),
-      environment: Object.fromEntries(ENVIRONMENT_FACTOR_KEYS.map((f) => [f, rankByEnvironment(envRows, f)])) as FailureModesDto['environment'],
+      environment: Object.fromEntries(
+        ENVIRONMENT_FACTOR_KEYS.map((f) => [f, rankByEnvironment(envRows, f)]),
+      ) as FailureModesDto['environment'],
       crossTable: { ...failureModesByEnvironment(envRows, q.factor), factor: q.factor },
       lots: rankByLot(lotRows),
       contractors: rankByContractor(lotRows),
@@ -118,7 +139,10 @@ export function analyticsRouter(ctx: AppContext) {
     authorizeType(req, 'read', 'Analytics');
     const q = parseQuery(claimsAgeingQuerySchema, req);
     const asOf = q.asOf ?? today();
-    const dto: ClaimsAgeingDto = { asOf, ...(await service.claimsAgeing(req.user!.organizationId, asOf, q.weeks)) };
+    const dto: ClaimsAgeingDto = {
+      asOf,
+      ...(await service.claimsAgeing(req.user!.organizationId, asOf, q.weeks)),
+    };
     if (q.format === 'csv') return sendCsv(res, claimsAgeingCsv(dto, q.table));
     res.json(dto);
   });

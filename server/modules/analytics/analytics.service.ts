@@ -46,7 +46,13 @@ export function presentPopulation(p: Population): PopulationDto {
 function lifeSql(opts: { unit: 'months' | 'hours'; midpoint: boolean; where: string; groupBy?: string }) {
   const g = opts.groupBy ? `${opts.groupBy} AS grp, ` : `'' AS grp, `;
   const gBy = opts.groupBy ? `grp, ` : `grp, `;
-  const failAge = ageSql(opts.unit, 'inst.install_date', 'counted.failed_on', 'inst.hours_per_day', opts.midpoint);
+  const failAge = ageSql(
+    opts.unit,
+    'inst.install_date',
+    'counted.failed_on',
+    'inst.hours_per_day',
+    opts.midpoint,
+  );
   const survAge = ageSql(opts.unit, 'inst.install_date', 'inst.as_of', 'inst.hours_per_day', opts.midpoint);
   return `
 WITH p AS (SELECT CAST(? AS DATE) AS as_of),
@@ -117,14 +123,31 @@ export function mergeLife(list: readonly GroupedLife[]): GroupedLife {
   return out;
 }
 
-export const EMPTY_LIFE: GroupedLife = { failures: [], suspensions: [], units: 0, failed: 0, excessFailures: 0 };
+export const EMPTY_LIFE: GroupedLife = {
+  failures: [],
+  suspensions: [],
+  units: 0,
+  failed: 0,
+  excessFailures: 0,
+};
 
 export function createAnalyticsService(ds: AppDataSource) {
   return {
     async findModel(id: string) {
-      const rows: Row[] = await ds.query('SELECT id, manufacturer_id, model_number, name, family FROM product_models WHERE id = ?', [id]);
+      const rows: Row[] = await ds.query(
+        'SELECT id, manufacturer_id, model_number, name, family FROM product_models WHERE id = ?',
+        [id],
+      );
       const r = rows[0];
-      return r ? { id: String(r.id), manufacturerId: String(r.manufacturer_id), modelNumber: String(r.model_number), name: String(r.name), family: r.family as ProductFamily } : null;
+      return r
+        ? {
+            id: String(r.id),
+            manufacturerId: String(r.manufacturer_id),
+            modelNumber: String(r.model_number),
+            name: String(r.name),
+            family: r.family as ProductFamily,
+          }
+        : null;
     },
 
     /** Whether the manufacturer has any installation of this family or lot (else the population is unknown: 404). */
@@ -140,15 +163,30 @@ export function createAnalyticsService(ds: AppDataSource) {
     familyLabel: (family: ProductFamily) => FAMILY_LABELS[family],
 
     /** Grouped life data of one population (installedLifeData's answer, counted by the database). */
-    async lifeData(manufacturerId: string, p: Population, opts: { asOf: string; unit: 'months' | 'hours'; midpoint: boolean }) {
+    async lifeData(
+      manufacturerId: string,
+      p: Population,
+      opts: { asOf: string; unit: 'months' | 'hours'; midpoint: boolean },
+    ) {
       const f = populationFilter(p);
-      const rows: Row[] = await ds.query(lifeSql({ unit: opts.unit, midpoint: opts.midpoint, where: f.sql }), [opts.asOf, manufacturerId, ...f.params, manufacturerId]);
+      const rows: Row[] = await ds.query(
+        lifeSql({ unit: opts.unit, midpoint: opts.midpoint, where: f.sql }),
+        [opts.asOf, manufacturerId, ...f.params, manufacturerId],
+      );
       return toGrouped(rows).get('') ?? EMPTY_LIFE;
     },
 
     /** Life data of every model of the manufacturer at once, in months, keyed by model id. */
     async lifeDataByModel(manufacturerId: string, opts: { asOf: string; midpoint: boolean }) {
-      const rows: Row[] = await ds.query(lifeSql({ unit: 'months', midpoint: opts.midpoint, where: '1 = 1', groupBy: 'inst.product_model_id' }), [opts.asOf, manufacturerId, manufacturerId]);
+      const rows: Row[] = await ds.query(
+        lifeSql({
+          unit: 'months',
+          midpoint: opts.midpoint,
+          where: '1 = 1',
+          groupBy: 'inst.product_model_id',
+        }),
+        [opts.asOf, manufacturerId, manufacturerId],
+      );
       return toGrouped(rows);
     },
 
@@ -196,7 +234,11 @@ export function createAnalyticsService(ds: AppDataSource) {
         lot: r.lot as string | null,
         contractor: r.contractor as string | null,
       }));
-      const cells: AgeingCount[] = ageing.map((r) => ({ installMonth: String(r.month), monthsInService: num(r.age), claims: num(r.claims) }));
+      const cells: AgeingCount[] = ageing.map((r) => ({
+        installMonth: String(r.month),
+        monthsInService: num(r.age),
+        claims: num(r.claims),
+      }));
       return { envRows, lotRows, cells };
     },
 

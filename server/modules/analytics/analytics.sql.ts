@@ -22,8 +22,13 @@ export function coveredClaimSql(c = 'c'): string {
 export function failureModeSql(c = 'c'): string {
   const cases = FAILURE_MODE_RULES.map((rule) => {
     const tests = [
-      ...rule.findings.map((f) => `JSON_SEARCH(${c}.evaluation, 'one', ${literal(f)}, NULL, '$.findings[*].code') IS NOT NULL`),
-      ...(rule.observations ?? []).map((o) => `COALESCE(JSON_CONTAINS(${c}.observations, 'true', '$.${o.replace(/[^A-Za-z]/g, '')}'), 0) = 1`),
+      ...rule.findings.map(
+        (f) => `JSON_SEARCH(${c}.evaluation, 'one', ${literal(f)}, NULL, '$.findings[*].code') IS NOT NULL`,
+      ),
+      ...(rule.observations ?? []).map(
+        (o) =>
+          `COALESCE(JSON_CONTAINS(${c}.observations, 'true', '$.${o.replace(/[^A-Za-z]/g, '')}'), 0) = 1`,
+      ),
       ...rule.symptoms.map((s) => `JSON_CONTAINS(${c}.symptoms, '"${s.replace(/[^a-z_]/g, '')}"')`),
     ];
     return `WHEN ${tests.join(' OR ')} THEN ${literal(rule.mode)}`;
@@ -41,7 +46,13 @@ export function wholeMonthsSql(from: string, to: string): string {
 }
 
 /** An age in the life data (shared/analytics/life-data.ts): whole months, or whole days x hours a day. */
-export function ageSql(unit: 'months' | 'hours', from: string, to: string, hoursPerDay: string, midpoint: boolean): string {
+export function ageSql(
+  unit: 'months' | 'hours',
+  from: string,
+  to: string,
+  hoursPerDay: string,
+  midpoint: boolean,
+): string {
   const half = midpoint ? ' + 0.5' : '';
   if (unit === 'months') return `(${wholeMonthsSql(from, to)}${half})`;
   return `((GREATEST(0, DATEDIFF(${to}, ${from}))${half}) * ${hoursPerDay})`;
@@ -49,8 +60,12 @@ export function ageSql(unit: 'months' | 'hours', from: string, to: string, hours
 
 /** The ambient band of ambientBand() with its default edges, as a CASE over a column in °C. */
 export function ambientBandSql(column: string, edges: readonly number[] = [25, 35, 45]): string {
-  const parts = [`WHEN ${column} IS NULL THEN NULL`, `WHEN ${column} < ${edges[0]} THEN ${literal(ambientBand(edges[0] - 1, edges)!)}`];
-  for (let i = 1; i < edges.length; i++) parts.push(`WHEN ${column} < ${edges[i]} THEN ${literal(ambientBand(edges[i - 1], edges)!)}`);
+  const parts = [
+    `WHEN ${column} IS NULL THEN NULL`,
+    `WHEN ${column} < ${edges[0]} THEN ${literal(ambientBand(edges[0] - 1, edges)!)}`,
+  ];
+  for (let i = 1; i < edges.length; i++)
+    parts.push(`WHEN ${column} < ${edges[i]} THEN ${literal(ambientBand(edges[i - 1], edges)!)}`);
   parts.push(`ELSE ${literal(ambientBand(edges[edges.length - 1], edges)!)}`);
   return `(CASE ${parts.join(' ')} END)`;
 }

@@ -94,7 +94,9 @@ type OrphanLogger = (err: unknown, key: string) => void;
 
 /** Deletes stored objects whose row was never written; a failure is logged, never thrown over the cause. */
 export async function deleteStored(storage: Storage, keys: StoredKeys | string[], onOrphan: OrphanLogger) {
-  const list = Array.isArray(keys) ? keys : [keys.storageKey, keys.thumbnailKey].filter((k): k is string => !!k);
+  const list = Array.isArray(keys)
+    ? keys
+    : [keys.storageKey, keys.thumbnailKey].filter((k): k is string => !!k);
   for (const key of list) await storage.delete(key).catch((err) => onOrphan(err, key));
 }
 
@@ -163,7 +165,8 @@ export async function saveAttachment(
     throw limitReached();
 
   const inspected = await inspectUpload(file.buffer, file.originalname);
-  const onOrphan: OrphanLogger = (err, key) => ctx.logger.error({ err, key }, 'could not delete an orphaned upload');
+  const onOrphan: OrphanLogger = (err, key) =>
+    ctx.logger.error({ err, key }, 'could not delete an orphaned upload');
   const stored = await storeInspected(ctx.storage, inspected, onOrphan);
   try {
     await crashPoint('attachment.save.after_store');
@@ -172,7 +175,11 @@ export async function saveAttachment(
       const row = newAttachmentRow(m, { owner, uploader, purpose, inspected, stored });
       await m.save(row);
       await crashPoint('attachment.save.after_row', m);
-      await recordAudit(m, input.actor ?? { userId: uploader.id, organizationId: uploader.organizationId }, attachmentAddedEvent(row));
+      await recordAudit(
+        m,
+        input.actor ?? { userId: uploader.id, organizationId: uploader.organizationId },
+        attachmentAddedEvent(row),
+      );
       await crashPoint('attachment.save.before_commit', m);
       return row;
     });

@@ -40,15 +40,25 @@ export function authRouter(ctx: AppContext, pp: Authenticator) {
       attempts.countBy({ ip, attemptedAt: MoreThan(since) }),
     ]);
     if (byEmail >= LOGIN_MAX_FAILURES || byIp >= LOGIN_MAX_FAILURES) {
-      throw new AppError(429, 'auth.too_many_attempts', 'Too many failed sign-ins. Wait 15 minutes and try again.', undefined, {
-        'Retry-After': String(LOGIN_WINDOW_MS / 1000),
-      });
+      throw new AppError(
+        429,
+        'auth.too_many_attempts',
+        'Too many failed sign-ins. Wait 15 minutes and try again.',
+        undefined,
+        {
+          'Retry-After': String(LOGIN_WINDOW_MS / 1000),
+        },
+      );
     }
 
     const user = await authenticate(pp, req);
     if (!user) {
       await attempts.insert({ email: input.email, ip, attemptedAt: clock.now() });
-      throw new AppError(401, 'auth.invalid_credentials', 'That e-mail and password do not match an active account.');
+      throw new AppError(
+        401,
+        'auth.invalid_credentials',
+        'That e-mail and password do not match an active account.',
+      );
     }
 
     // passport's logIn regenerates the session: a new id at every sign-in (no fixation).

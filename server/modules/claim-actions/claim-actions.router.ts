@@ -30,11 +30,21 @@ import { loadWorkflow } from './claim-workflow.presenter';
 
 const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
 const actionParams = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }), action: z.string().max(40) });
-const docParams = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }), docId: z.uuid({ error: 'Not a valid id.' }) });
-const fileParams = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }), fileId: z.uuid({ error: 'Not a valid id.' }) });
+const docParams = z.strictObject({
+  id: z.uuid({ error: 'Not a valid id.' }),
+  docId: z.uuid({ error: 'Not a valid id.' }),
+});
+const fileParams = z.strictObject({
+  id: z.uuid({ error: 'Not a valid id.' }),
+  fileId: z.uuid({ error: 'Not a valid id.' }),
+});
 
 const asClaim = (c: Claim) =>
-  subject('Claim', { contractorId: c.contractorId, manufacturerId: c.manufacturerId, stage: c.stage } as Record<string, unknown>);
+  subject('Claim', {
+    contractorId: c.contractorId,
+    manufacturerId: c.manufacturerId,
+    stage: c.stage,
+  } as Record<string, unknown>);
 
 /** `If-Match: "7"` or `7`: the claim's version the user last saw. */
 function expectedVersion(req: Request): number | undefined {
@@ -64,8 +74,23 @@ export function claimActionsRouter(ctx: AppContext & { storage: Storage }) {
     }
     const version = expectedVersion(req);
     const claim = await loadReadable(req, id);
-    const result = await service.perform(claim, req.user!, action, req.body ?? {}, actorFromRequest(req), version);
-    res.json({ claim: { id: result.claim.id, stage: result.claim.stage, version: result.claim.version, waitingOn: result.claim.waitingOn }, workflow: await loadWorkflow(ctx.ds, result.claim, req.user!) });
+    const result = await service.perform(
+      claim,
+      req.user!,
+      action,
+      req.body ?? {},
+      actorFromRequest(req),
+      version,
+    );
+    res.json({
+      claim: {
+        id: result.claim.id,
+        stage: result.claim.stage,
+        version: result.claim.version,
+        waitingOn: result.claim.waitingOn,
+      },
+      workflow: await loadWorkflow(ctx.ds, result.claim, req.user!),
+    });
   });
 
   r.post('/:id/assign', async (req, res) => {
@@ -75,7 +100,14 @@ export function claimActionsRouter(ctx: AppContext & { storage: Storage }) {
     const claim = await loadReadable(req, id);
     authorize(req, 'review', 'Claim', claim, 'claim');
     const fresh = await service.assign(claim, req.user!, input.assigneeId, actorFromRequest(req), version);
-    res.json({ claim: { id: fresh.id, stage: fresh.stage, version: fresh.version, assigneeId: fresh.assignedReviewerId } });
+    res.json({
+      claim: {
+        id: fresh.id,
+        stage: fresh.stage,
+        version: fresh.version,
+        assigneeId: fresh.assignedReviewerId,
+      },
+    });
   });
 
   r.get('/:id/workflow', async (req, res) => {
@@ -93,7 +125,11 @@ export function claimActionsRouter(ctx: AppContext & { storage: Storage }) {
     // The stored hash is the record: a copy that no longer matches is refused rather than served.
     if (sha256Hex(bytes) !== doc.sha256) {
       ctx.logger.error({ docId: doc.id }, 'stored document does not match its hash');
-      throw new AppError(500, 'document.corrupted', 'The stored copy of this document does not match its record.');
+      throw new AppError(
+        500,
+        'document.corrupted',
+        'The stored copy of this document does not match its record.',
+      );
     }
     res.setHeader('Content-Type', 'application/pdf');
     res.setHeader('Content-Disposition', contentDisposition(doc.filename));
@@ -121,19 +157,23 @@ export function claimActionsRouter(ctx: AppContext & { storage: Storage }) {
 
   // A file sent with an answer: whoever may read the claim may read it.
   for (const variant of ['original', 'thumbnail'] as const) {
-    r.get(`/:id/conversation/files/:fileId${variant === 'thumbnail' ? '/thumbnail' : ''}`, async (req, res) => {
-      const { id, fileId } = parseWith(fileParams, req.params, 'address');
-      const claim = await loadReadable(req, id);
-      const opened = await openAttachment(ctx, {
-        id: fileId,
-        ownerType: CONVERSATION_SENT,
-        variant,
-        canSee: async (owner) =>
-          !!owner.id && ctx.ds.getRepository(ClaimMessage).exists({ where: { id: owner.id, claimId: claim.id } }),
-      });
-      res.status(200).set(opened.headers);
-      await pipeline(opened.body, res);
-    });
+    r.get(
+      `/:id/conversation/files/:fileId${variant === 'thumbnail' ? '/thumbnail' : ''}`,
+      async (req, res) => {
+        const { id, fileId } = parseWith(fileParams, req.params, 'address');
+        const claim = await loadReadable(req, id);
+        const opened = await openAttachment(ctx, {
+          id: fileId,
+          ownerType: CONVERSATION_SENT,
+          variant,
+          canSee: async (owner) =>
+            !!owner.id &&
+            ctx.ds.getRepository(ClaimMessage).exists({ where: { id: owner.id, claimId: claim.id } }),
+        });
+        res.status(200).set(opened.headers);
+        await pipeline(opened.body, res);
+      },
+    );
   }
 
   return r;

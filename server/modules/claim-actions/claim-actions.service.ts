@@ -1,10 +1,6 @@
 import crypto from 'node:crypto';
 import { In, IsNull, type EntityManager } from 'typeorm';
-import type {
-  ActionPayload,
-  ClaimActionName,
-  ClaimView,
-} from '../../../shared/claims/stages';
+import type { ActionPayload, ClaimActionName, ClaimView } from '../../../shared/claims/stages';
 import { ACTIONS, canPerform, needsReason, REFUSAL_STATUS } from '../../../shared/claims/stages';
 import type { Role } from '../../../shared/roles';
 import { engineContextFrom, engineInputFor } from '../../../shared/claims/engine-input';
@@ -83,13 +79,23 @@ type MoveResult = { claim: Claim; to: string };
 
 type Recipient = { email: string; name: string };
 
-async function usersWith(m: EntityManager, orgId: string, roles: Role[], only?: string | null): Promise<Recipient[]> {
+async function usersWith(
+  m: EntityManager,
+  orgId: string,
+  roles: Role[],
+  only?: string | null,
+): Promise<Recipient[]> {
   if (only) {
     const u = await m.findOne(User, { where: { id: only, organizationId: orgId, status: 'active' } });
     if (u) return [{ email: u.email, name: u.name }];
   }
-  const all = await m.find(User, { where: { organizationId: orgId, status: 'active' }, order: { createdAt: 'ASC' } });
-  return all.filter((u) => u.roles.some((r) => roles.includes(r))).map((u) => ({ email: u.email, name: u.name }));
+  const all = await m.find(User, {
+    where: { organizationId: orgId, status: 'active' },
+    order: { createdAt: 'ASC' },
+  });
+  return all
+    .filter((u) => u.roles.some((r) => roles.includes(r)))
+    .map((u) => ({ email: u.email, name: u.name }));
 }
 
 export function createClaimActionsService(ctx: AppContext & { storage: Storage }) {
@@ -149,7 +155,8 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
     const now = clock.now();
     const stageChangedAt = to === claim.stage ? claim.stageChangedAt : now;
     const waitingOn = extra.waitingOn !== undefined ? extra.waitingOn : WAITING_ON_BY_STAGE[to];
-    const assignee = extra.assignedReviewerId !== undefined ? extra.assignedReviewerId : claim.assignedReviewerId;
+    const assignee =
+      extra.assignedReviewerId !== undefined ? extra.assignedReviewerId : claim.assignedReviewerId;
     const result: { affectedRows?: number } = await m.query(
       'UPDATE claims SET stage = ?, version = version + 1, stage_changed_at = ?, waiting_on = ?, assigned_reviewer_id = ?, updated_at = ? ' +
         'WHERE id = ? AND stage = ? AND version = ?',
@@ -160,7 +167,9 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
   }
 
   async function assertReviewer(m: EntityManager, claim: Claim, userId: string, path: string) {
-    const u = await m.findOne(User, { where: { id: userId, organizationId: claim.manufacturerId, status: 'active' } });
+    const u = await m.findOne(User, {
+      where: { id: userId, organizationId: claim.manufacturerId, status: 'active' },
+    });
     if (!u || !u.roles.includes('reviewer')) {
       throw new AppError(400, 'validation.failed', 'The request body has invalid fields.', [
         { path, message: 'Choose an active reviewer of the manufacturer.' },
@@ -169,7 +178,11 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
     return u;
   }
 
-  async function benchEvaluation(m: EntityManager, claim: Claim, readings: ActionPayload<'record_bench_test'>['readings']) {
+  async function benchEvaluation(
+    m: EntityManager,
+    claim: Claim,
+    readings: ActionPayload<'record_bench_test'>['readings'],
+  ) {
     const parties = await loadParties(m, claim);
     const version = claim.policyVersionId
       ? await m.findOneBy(WarrantyPolicyVersion, { id: claim.policyVersionId })
@@ -208,14 +221,22 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         observations: claim.observations,
         narrative: claim.narrative,
       },
-      { photos: files.filter((f) => f.kind === 'photo').length, proofOfPurchase: files.some((f) => f.purpose === 'proof_of_purchase') },
+      {
+        photos: files.filter((f) => f.kind === 'photo').length,
+        proofOfPurchase: files.some((f) => f.purpose === 'proof_of_purchase'),
+      },
       claim.filedAt ? claim.filedAt.toISOString().slice(0, 10) : today(),
     ) as { claim: { measurements: unknown } };
     // The bench readings replace the field readings; everything else is judged as at filing.
     input.claim.measurements = readings;
     const result = safeEvaluateClaim(input);
     if (!result.ok) {
-      throw new AppError(422, 'claim.bench_unevaluable', 'The engine could not evaluate these bench readings.', result.issues);
+      throw new AppError(
+        422,
+        'claim.bench_unevaluable',
+        'The engine could not evaluate these bench readings.',
+        result.issues,
+      );
     }
     return result.evaluation;
   }
@@ -285,7 +306,8 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             intro: `The reviewer asks:`,
             quote: p.message,
             details: [{ label: 'Please answer by', value: msg.dueOn! }],
-            nextStep: 'Answer on the claim, with photos or documents if they help. The claim returns to review when you do.',
+            nextStep:
+              'Answer on the claim, with photos or documents if they help. The claim returns to review when you do.',
           });
           break;
         }
@@ -312,11 +334,19 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
           if (ids.length) {
             // Only the sender's own files, uploaded for this claim's thread and not yet sent with an answer.
             const files = await m.find(Attachment, {
-              where: { id: In(ids), ownerType: CONVERSATION_DRAFT, ownerId: claim.id, organizationId: user.organizationId },
+              where: {
+                id: In(ids),
+                ownerType: CONVERSATION_DRAFT,
+                ownerId: claim.id,
+                organizationId: user.organizationId,
+              },
             });
             if (files.length !== ids.length) {
               throw new AppError(400, 'validation.failed', 'The request body has invalid fields.', [
-                { path: 'attachmentIds', message: 'Attach only files you uploaded to this claim’s conversation.' },
+                {
+                  path: 'attachmentIds',
+                  message: 'Attach only files you uploaded to this claim’s conversation.',
+                },
               ]);
             }
             await m.update(Attachment, { id: In(ids) }, { ownerType: CONVERSATION_SENT, ownerId: msg.id });
@@ -356,11 +386,22 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             quote: p.instructions,
             details: [
               { label: 'Return number', value: number },
-              { label: 'Ship to', value: [p.shipTo.name, p.shipTo.line1, p.shipTo.city, p.shipTo.postalCode, p.shipTo.country].join(', ') },
+              {
+                label: 'Ship to',
+                value: [
+                  p.shipTo.name,
+                  p.shipTo.line1,
+                  p.shipTo.city,
+                  p.shipTo.postalCode,
+                  p.shipTo.country,
+                ].join(', '),
+              },
               { label: 'Ship by', value: ra.shipBy },
             ],
             nextStep: 'Record the carrier and tracking number on the claim once the box is on its way.',
-            attachments: [{ filename: slip.filename, contentType: 'application/pdf', storageKey: slip.storageKey }],
+            attachments: [
+              { filename: slip.filename, contentType: 'application/pdf', storageKey: slip.storageKey },
+            ],
           });
           break;
         }
@@ -370,10 +411,23 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             where: { claimId: claim.id, receivedOn: IsNull() },
             order: { createdAt: 'DESC' },
           });
-          if (!ra) throw conflict('claim.invalid_transition', 'There is no open return authorisation on this claim.');
+          if (!ra)
+            throw conflict(
+              'claim.invalid_transition',
+              'There is no open return authorisation on this claim.',
+            );
           moved = await moveRow(m, claim, 'return_requested', { waitingOn: 'manufacturer' });
-          await m.update(ReturnAuthorization, { id: ra.id }, { carrier: p.carrier, trackingNumber: p.trackingNumber, shippedOn: p.shippedOn });
-          after = { returnNumber: ra.number, carrier: p.carrier, trackingNumber: p.trackingNumber, shippedOn: p.shippedOn };
+          await m.update(
+            ReturnAuthorization,
+            { id: ra.id },
+            { carrier: p.carrier, trackingNumber: p.trackingNumber, shippedOn: p.shippedOn },
+          );
+          after = {
+            returnNumber: ra.number,
+            carrier: p.carrier,
+            trackingNumber: p.trackingNumber,
+            shippedOn: p.shippedOn,
+          };
           await notify(m, claim, parties, 'manufacturer', await reviewers(m, claim), {
             headline: `The unit is on its way (${ra.number})`,
             details: [
@@ -391,9 +445,17 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             where: { claimId: claim.id, receivedOn: IsNull() },
             order: { createdAt: 'DESC' },
           });
-          if (!ra) throw conflict('claim.invalid_transition', 'There is no open return authorisation on this claim.');
+          if (!ra)
+            throw conflict(
+              'claim.invalid_transition',
+              'There is no open return authorisation on this claim.',
+            );
           moved = await moveRow(m, claim, 'unit_received');
-          await m.update(ReturnAuthorization, { id: ra.id }, { receivedOn: p.receivedOn, receivedCondition: p.condition, receivedNote: p.note ?? null });
+          await m.update(
+            ReturnAuthorization,
+            { id: ra.id },
+            { receivedOn: p.receivedOn, receivedCondition: p.condition, receivedNote: p.note ?? null },
+          );
           after = { returnNumber: ra.number, receivedOn: p.receivedOn, condition: p.condition };
           await notify(m, claim, parties, 'contractor', await contractorPeople(m, claim), {
             headline: `${parties.manufacturer.name} received the returned unit`,
@@ -409,7 +471,10 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
           const p = payload as ActionPayload<'record_bench_test'>;
           const evaluationNow = await benchEvaluation(m, claim, p.readings);
           moved = await moveRow(m, claim, verdict.to);
-          const ra = await m.findOne(ReturnAuthorization, { where: { claimId: claim.id }, order: { createdAt: 'DESC' } });
+          const ra = await m.findOne(ReturnAuthorization, {
+            where: { claimId: claim.id },
+            order: { createdAt: 'DESC' },
+          });
           const test = m.create(BenchTest, {
             id: crypto.randomUUID(),
             claimId: claim.id,
@@ -423,7 +488,12 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             testedById: user.id,
           });
           await m.insert(BenchTest, test);
-          after = { benchTestId: test.id, result: p.result, verdict: evaluationNow.verdict, filingVerdict: claim.verdict };
+          after = {
+            benchTestId: test.id,
+            result: p.result,
+            verdict: evaluationNow.verdict,
+            filingVerdict: claim.verdict,
+          };
           break;
         }
         case 'approve':
@@ -502,7 +572,10 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
       const units = claim.units ?? (claim.serials.length || 1);
       if (p.approvedUnits !== undefined && p.approvedUnits > units) {
         throw new AppError(400, 'claim.invalid_payload', 'Some of the details need another look.', [
-          { path: 'approvedUnits', message: `The claim names ${units} units; at most ${units} can be approved.` },
+          {
+            path: 'approvedUnits',
+            message: `The claim names ${units} units; at most ${units} can be approved.`,
+          },
         ]);
       }
       const partly = p.approvedUnits !== undefined && p.approvedUnits < units;
@@ -528,11 +601,33 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
       };
     } else {
       const p = payload as ActionPayload<'deny'>;
-      letterDecision = { outcome: 'denied', reasonCodes: p.reasonCodes, note: p.note, overrideReason: p.overrideReason };
-      row = { outcome: 'denied', resolution: null, amount: null, currency: null, approvedUnits: null, reasonCodes: p.reasonCodes, note: p.note };
+      letterDecision = {
+        outcome: 'denied',
+        reasonCodes: p.reasonCodes,
+        note: p.note,
+        overrideReason: p.overrideReason,
+      };
+      row = {
+        outcome: 'denied',
+        resolution: null,
+        amount: null,
+        currency: null,
+        approvedUnits: null,
+        reasonCodes: p.reasonCodes,
+        note: p.note,
+      };
     }
     const moved = await moveRow(m, claim, name === 'approve' ? 'approved' : 'denied');
-    const letter = await createDeterminationLetter(m, storage, claim, parties, evaluation, letterDecision, user.name, now);
+    const letter = await createDeterminationLetter(
+      m,
+      storage,
+      claim,
+      parties,
+      evaluation,
+      letterDecision,
+      user.name,
+      now,
+    );
     const decision = m.create(Decision, {
       id: crypto.randomUUID(),
       claimId: claim.id,
@@ -549,7 +644,11 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
     await m.insert(Decision, decision);
     await crashPoint('claim.move.after_decision', m);
 
-    const letterFile: OutboxAttachment = { filename: letter.filename, contentType: 'application/pdf', storageKey: letter.storageKey };
+    const letterFile: OutboxAttachment = {
+      filename: letter.filename,
+      contentType: 'application/pdf',
+      storageKey: letter.storageKey,
+    };
     if (letterDecision.outcome === 'denied') {
       await notify(m, claim, parties, 'contractor', await contractorPeople(m, claim), {
         headline: `${parties.manufacturer.name} denied the claim`,
@@ -574,11 +673,18 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             : 'The credit memo follows from the manufacturer’s accounts team.',
         attachments: [letterFile],
       });
-      await notify(m, claim, parties, 'manufacturer', await usersWith(m, claim.manufacturerId, ['accountant']), {
-        headline: 'Approved and ready for a credit memo',
-        details: [...details, { label: 'Contractor', value: parties.contractor.name }],
-        nextStep: 'Issue the credit memo in Lumenproof.',
-      });
+      await notify(
+        m,
+        claim,
+        parties,
+        'manufacturer',
+        await usersWith(m, claim.manufacturerId, ['accountant']),
+        {
+          headline: 'Approved and ready for a credit memo',
+          details: [...details, { label: 'Contractor', value: parties.contractor.name }],
+          nextStep: 'Issue the credit memo in Lumenproof.',
+        },
+      );
     }
     await crashPoint('claim.move.after_outbox', m);
     return {
@@ -598,10 +704,20 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
   }
 
   /** Takes a claim or hands it to another reviewer, or back to the queue; not a stage move, still versioned. */
-  async function assign(claim: Claim, user: SessionUser, assigneeId: string | null, actor: Actor, expectedVersion?: number) {
-    if (expectedVersion !== undefined && expectedVersion !== claim.version) throw conflict('claim.changed', CLAIM_CHANGED_MESSAGE);
+  async function assign(
+    claim: Claim,
+    user: SessionUser,
+    assigneeId: string | null,
+    actor: Actor,
+    expectedVersion?: number,
+  ) {
+    if (expectedVersion !== undefined && expectedVersion !== claim.version)
+      throw conflict('claim.changed', CLAIM_CHANGED_MESSAGE);
     if (claim.stage === 'draft' || claim.stage === 'closed' || claim.stage === 'withdrawn') {
-      throw conflict('claim.invalid_transition', 'Only a claim that is still open for review can be assigned.');
+      throw conflict(
+        'claim.invalid_transition',
+        'Only a claim that is still open for review can be assigned.',
+      );
     }
     return ds.transaction(async (m) => {
       if (assigneeId) await assertReviewer(m, claim, assigneeId, 'assigneeId');
@@ -620,10 +736,17 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
       });
       if (assigneeId && assigneeId !== user.id) {
         const parties = await loadParties(m, claim);
-        await notify(m, claim, parties, 'manufacturer', await usersWith(m, claim.manufacturerId, ['reviewer'], assigneeId), {
-          headline: `${user.name} handed you a claim`,
-          nextStep: 'Open it from your review desk.',
-        });
+        await notify(
+          m,
+          claim,
+          parties,
+          'manufacturer',
+          await usersWith(m, claim.manufacturerId, ['reviewer'], assigneeId),
+          {
+            headline: `${user.name} handed you a claim`,
+            nextStep: 'Open it from your review desk.',
+          },
+        );
       }
       return m.findOneByOrFail(Claim, { id: claim.id });
     });

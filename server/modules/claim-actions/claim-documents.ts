@@ -100,7 +100,10 @@ export async function createDeterminationLetter(
     product: { model: product.modelNumber, name: product.name },
     site: {
       name: installation.siteName,
-      address: [installation.siteAddress, `${installation.siteCity} ${installation.siteRegion} ${installation.sitePostalCode}`.trim()],
+      address: [
+        installation.siteAddress,
+        `${installation.siteCity} ${installation.siteRegion} ${installation.sitePostalCode}`.trim(),
+      ],
     },
     installedOn: installation.installDate,
     units: { count: claim.units ?? claim.serials.length ?? 1, serials: claim.serials },
@@ -139,7 +142,11 @@ export async function createPackingSlip(
     manufacturer: { name: manufacturer.name },
     contractor: {
       name: contractor.name,
-      address: [installation.siteName, installation.siteAddress, `${installation.siteCity} ${installation.siteRegion} ${installation.sitePostalCode}`.trim()],
+      address: [
+        installation.siteName,
+        installation.siteAddress,
+        `${installation.siteCity} ${installation.siteRegion} ${installation.sitePostalCode}`.trim(),
+      ],
     },
     shipTo: ra.shipTo,
     product: { model: product.modelNumber, name: product.name },

@@ -39,7 +39,11 @@ export function presentDocument(claimId: string, d: ClaimDocument): ClaimDocumen
   };
 }
 
-export async function loadWorkflow(ds: AppDataSource, claim: Claim, viewer: SessionUser): Promise<ClaimWorkflowDto> {
+export async function loadWorkflow(
+  ds: AppDataSource,
+  claim: Claim,
+  viewer: SessionUser,
+): Promise<ClaimWorkflowDto> {
   const m: EntityManager = ds.manager;
   const [messages, returns, benches, decisions, documents, evaluation, history] = await Promise.all([
     m.find(ClaimMessage, { where: { claimId: claim.id }, order: { createdAt: 'ASC' } }),
@@ -57,9 +61,19 @@ export async function loadWorkflow(ds: AppDataSource, claim: Claim, viewer: Sess
   if (claim.assignedReviewerId) userIds.add(claim.assignedReviewerId);
   const messageIds = messages.map((x) => x.id);
   const [users, orgs, files] = await Promise.all([
-    userIds.size ? m.find(User, { where: { id: In([...userIds]) }, select: { id: true, name: true, organizationId: true } }) : [],
+    userIds.size
+      ? m.find(User, {
+          where: { id: In([...userIds]) },
+          select: { id: true, name: true, organizationId: true },
+        })
+      : [],
     m.find(Organization, { where: { id: In([claim.contractorId, claim.manufacturerId]) } }),
-    messageIds.length ? m.find(Attachment, { where: { ownerType: CONVERSATION_SENT, ownerId: In(messageIds) }, order: { createdAt: 'ASC' } }) : [],
+    messageIds.length
+      ? m.find(Attachment, {
+          where: { ownerType: CONVERSATION_SENT, ownerId: In(messageIds) },
+          order: { createdAt: 'ASC' },
+        })
+      : [],
   ]);
   const userById = new Map(users.map((u) => [u.id, u]));
   const orgById = new Map(orgs.map((o) => [o.id, o]));
@@ -141,7 +155,8 @@ export async function loadWorkflow(ds: AppDataSource, claim: Claim, viewer: Sess
     letter: doc(current.letterId),
   };
   const assignee = claim.assignedReviewerId ? userById.get(claim.assignedReviewerId) : undefined;
-  const openRequest = [...messageDtos].reverse().find((x) => x.kind === 'info_request' && !x.answeredAt) ?? null;
+  const openRequest =
+    [...messageDtos].reverse().find((x) => x.kind === 'info_request' && !x.answeredAt) ?? null;
   return {
     claim: {
       id: claim.id,
@@ -151,9 +166,13 @@ export async function loadWorkflow(ds: AppDataSource, claim: Claim, viewer: Sess
       version: claim.version,
       stageChangedAt: claim.stageChangedAt.toISOString(),
       assignee:
-        assignee && assignee.organizationId === viewer.organizationId ? { id: assignee.id, name: assignee.name } : null,
+        assignee && assignee.organizationId === viewer.organizationId
+          ? { id: assignee.id, name: assignee.name }
+          : null,
     },
-    actions: availableActions(claimView(claim, evaluation), toAbilityUser(viewer)).filter((a) => !MOVES_ELSEWHERE[a]),
+    actions: availableActions(claimView(claim, evaluation), toAbilityUser(viewer)).filter(
+      (a) => !MOVES_ELSEWHERE[a],
+    ),
     openRequest: claim.stage === 'needs_info' ? openRequest : null,
     messages: messageDtos,
     returns: returnDtos,

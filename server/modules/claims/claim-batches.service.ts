@@ -37,14 +37,32 @@ export const CLAIM_BATCH_COLUMNS: ColumnSpec[] = [
   { column: 'supply_volts', field: 'supplyVolts', kind: 'string', required: false, example: '276,4' },
   { column: 'input_watts', field: 'inputWatts', kind: 'string', required: false, example: '148' },
   { column: 'power_factor', field: 'powerFactor', kind: 'string', required: false, example: '0.95' },
-  { column: 'driver_output_volts', field: 'driverOutputVolts', kind: 'string', required: false, example: '49.2' },
-  { column: 'driver_output_amps', field: 'driverOutputAmps', kind: 'string', required: false, example: '2650 mA' },
+  {
+    column: 'driver_output_volts',
+    field: 'driverOutputVolts',
+    kind: 'string',
+    required: false,
+    example: '49.2',
+  },
+  {
+    column: 'driver_output_amps',
+    field: 'driverOutputAmps',
+    kind: 'string',
+    required: false,
+    example: '2650 mA',
+  },
   { column: 'debris_ingress', field: 'debrisIngress', kind: 'boolean', required: false, example: 'no' },
   { column: 'water_ingress', field: 'waterIngress', kind: 'boolean', required: false, example: 'no' },
   { column: 'physical_damage', field: 'physicalDamage', kind: 'boolean', required: false, example: 'no' },
   { column: 'fan_stopped', field: 'fanStopped', kind: 'boolean', required: false, example: 'no' },
   { column: 'burn_marks', field: 'burnMarks', kind: 'boolean', required: false, example: 'no' },
-  { column: 'narrative', field: 'narrative', kind: 'string', required: true, example: 'Two strings dark after a week of flicker.' },
+  {
+    column: 'narrative',
+    field: 'narrative',
+    kind: 'string',
+    required: true,
+    example: 'Two strings dark after a week of flicker.',
+  },
 ];
 
 const PATH_COLUMNS: Record<string, string> = {
@@ -65,7 +83,11 @@ const PATH_COLUMNS: Record<string, string> = {
   'observations.fanStopped': 'fan_stopped',
   'observations.burnMarks': 'burn_marks',
 };
-const columnOf = (path: string) => PATH_COLUMNS[path] ?? PATH_COLUMNS[path.split('.').slice(0, 2).join('.')] ?? PATH_COLUMNS[path.split('.')[0]] ?? '(row)';
+const columnOf = (path: string) =>
+  PATH_COLUMNS[path] ??
+  PATH_COLUMNS[path.split('.').slice(0, 2).join('.')] ??
+  PATH_COLUMNS[path.split('.')[0]] ??
+  '(row)';
 const READINGS = [
   ['supplyVolts', 'supply_volts', 'V'],
   ['inputWatts', 'input_watts', 'W'],
@@ -79,7 +101,13 @@ type LoadedInst = Installation & { units: InstallationUnit[] };
 
 export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsService) {
   return {
-    async importRows(user: SessionUser, input: ImportRequest, dryRun: boolean, actor: Actor, filename: string | null): Promise<ClaimBatchResult> {
+    async importRows(
+      user: SessionUser,
+      input: ImportRequest,
+      dryRun: boolean,
+      actor: Actor,
+      filename: string | null,
+    ): Promise<ClaimBatchResult> {
       const contractorId = user.organization.id;
       const { rows, fileErrors } = readRows(input, CLAIM_BATCH_COLUMNS);
       tooManyRows(rows.length, CLAIM_BATCH_MAX_ROWS);
@@ -87,7 +115,9 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
       const coerced = rows.map((raw) => ({ raw, ...coerceRow(raw, CLAIM_BATCH_COLUMNS) }));
 
       // Installations named by serial (one query) or by id (one query), the contractor's own only.
-      const allSerials = [...new Set(coerced.flatMap((c) => (c.values.serial as string[] | undefined) ?? []))];
+      const allSerials = [
+        ...new Set(coerced.flatMap((c) => (c.values.serial as string[] | undefined) ?? [])),
+      ];
       const unitHits: { serial: string; installationId: string }[] = [];
       for (let i = 0; i < allSerials.length; i += 1000) {
         unitHits.push(
@@ -96,11 +126,16 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
             .createQueryBuilder('u')
             .innerJoin(Installation, 'i', 'i.id = u.installation_id')
             .select(['u.serial AS serial', 'u.installation_id AS installationId'])
-            .where('i.contractor_id = :c AND u.serial IN (:...s)', { c: contractorId, s: allSerials.slice(i, i + 1000) })
+            .where('i.contractor_id = :c AND u.serial IN (:...s)', {
+              c: contractorId,
+              s: allSerials.slice(i, i + 1000),
+            })
             .getRawMany<{ serial: string; installationId: string }>()),
         );
       }
-      const byIdWanted = coerced.map((c) => c.values.installationId).filter((x): x is string => typeof x === 'string' && UUID.test(x));
+      const byIdWanted = coerced
+        .map((c) => c.values.installationId)
+        .filter((x): x is string => typeof x === 'string' && UUID.test(x));
       const instIds = [...new Set([...unitHits.map((u) => u.installationId), ...byIdWanted])];
       const insts = instIds.length
         ? ((await ds.getRepository(Installation).find({
@@ -110,9 +145,18 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
         : [];
       const instById = new Map(insts.map((i) => [i.id, i]));
       const hitsBySerial = new Map<string, string[]>();
-      for (const h of unitHits) hitsBySerial.set(h.serial.toUpperCase(), [...(hitsBySerial.get(h.serial.toUpperCase()) ?? []), h.installationId]);
+      for (const h of unitHits)
+        hitsBySerial.set(h.serial.toUpperCase(), [
+          ...(hitsBySerial.get(h.serial.toUpperCase()) ?? []),
+          h.installationId,
+        ]);
 
-      type Good = { row: number; inst: LoadedInst; fields: ReturnType<typeof claimFieldsSchema.parse>; verdict: ClaimBatchResult['rows'][number]['verdict'] };
+      type Good = {
+        row: number;
+        inst: LoadedInst;
+        fields: ReturnType<typeof claimFieldsSchema.parse>;
+        verdict: ClaimBatchResult['rows'][number]['verdict'];
+      };
       const good: Good[] = [];
       const seenSerial = new Map<string, number>();
       for (const c of coerced) {
@@ -123,17 +167,36 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
         let inst: LoadedInst | undefined;
         if (typeof v.installationId === 'string') {
           inst = UUID.test(v.installationId) ? instById.get(v.installationId) : undefined;
-          if (!inst) rowErrors.push({ row, column: 'installation_id', message: `No installation of yours has the id ${v.installationId}.` });
+          if (!inst)
+            rowErrors.push({
+              row,
+              column: 'installation_id',
+              message: `No installation of yours has the id ${v.installationId}.`,
+            });
         } else if (serials.length) {
           const model = typeof v.modelNumber === 'string' ? v.modelNumber.toUpperCase() : null;
           const candidates = [...new Set(hitsBySerial.get(serials[0].toUpperCase()) ?? [])]
             .map((id) => instById.get(id)!)
             .filter((i) => i && (!model || i.productModel.modelNumber.toUpperCase() === model));
-          if (!candidates.length) rowErrors.push({ row, column: 'serial', message: `No installation of yours has the serial ${serials[0]}${model ? ` on model ${v.modelNumber}` : ''}.` });
-          else if (candidates.length > 1) rowErrors.push({ row, column: 'model_number', message: `The serial ${serials[0]} is on several of your installations: fill in the model number.` });
+          if (!candidates.length)
+            rowErrors.push({
+              row,
+              column: 'serial',
+              message: `No installation of yours has the serial ${serials[0]}${model ? ` on model ${v.modelNumber}` : ''}.`,
+            });
+          else if (candidates.length > 1)
+            rowErrors.push({
+              row,
+              column: 'model_number',
+              message: `The serial ${serials[0]} is on several of your installations: fill in the model number.`,
+            });
           else inst = candidates[0];
         } else {
-          rowErrors.push({ row, column: 'serial', message: 'Give the serial of the failed unit (or the installation id).' });
+          rowErrors.push({
+            row,
+            column: 'serial',
+            message: 'Give the serial of the failed unit (or the installation id).',
+          });
         }
         const measurements: Record<string, number> = {};
         for (const [field, column, unit] of READINGS) {
@@ -144,7 +207,12 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
           else rowErrors.push({ row, column, message: r.message });
         }
         const dupes = serials.filter((s) => seenSerial.has(s.toUpperCase()));
-        if (dupes.length) rowErrors.push({ row, column: 'serial', message: `Also on row ${seenSerial.get(dupes[0].toUpperCase())}: ${dupes.join(', ')}.` });
+        if (dupes.length)
+          rowErrors.push({
+            row,
+            column: 'serial',
+            message: `Also on row ${seenSerial.get(dupes[0].toUpperCase())}: ${dupes.join(', ')}.`,
+          });
         for (const s of serials) if (!seenSerial.has(s.toUpperCase())) seenSerial.set(s.toUpperCase(), row);
         const parsed = claimFieldsSchema.safeParse({
           serials,
@@ -152,7 +220,11 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
           failedOn: v.failedOn,
           symptoms: v.symptoms,
           measurements,
-          observations: Object.fromEntries(['debrisIngress', 'waterIngress', 'physicalDamage', 'fanStopped', 'burnMarks'].filter((k) => v[k] !== undefined).map((k) => [k, v[k]])),
+          observations: Object.fromEntries(
+            ['debrisIngress', 'waterIngress', 'physicalDamage', 'fanStopped', 'burnMarks']
+              .filter((k) => v[k] !== undefined)
+              .map((k) => [k, v[k]]),
+          ),
           narrative: typeof v.narrative === 'string' ? v.narrative : '',
         });
         const skip = new Set(rowErrors.map((e) => e.column));
@@ -177,7 +249,14 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
             if (!skip.has(column)) rowErrors.push({ row, column, message: i.message });
           }
           if (!rowErrors.length) {
-            const r = safeEvaluateClaim(engineInputFor(engineContextOf(inst.productModel, inst.policyVersion, inst), fields, { photos: 0, proofOfPurchase: false }, todayIso()));
+            const r = safeEvaluateClaim(
+              engineInputFor(
+                engineContextOf(inst.productModel, inst.policyVersion, inst),
+                fields,
+                { photos: 0, proofOfPurchase: false },
+                todayIso(),
+              ),
+            );
             good.push({ row, inst, fields, verdict: r.ok ? r.evaluation.verdict : null });
           }
         }
@@ -189,11 +268,22 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
       const created: string[] = [];
       if (!dryRun && !blocked && good.length) {
         await ds.transaction(async (m) => {
-          const batch = m.create(ClaimBatch, { contractorId, filename, rowCount: rows.length, createdById: actor.userId });
+          const batch = m.create(ClaimBatch, {
+            contractorId,
+            filename,
+            rowCount: rows.length,
+            createdById: actor.userId,
+          });
           await m.save(batch);
           batchId = batch.id;
-          for (const g of good) created.push(await claims.create(g.inst, g.fields, actor, { batchId: batch.id, m }));
-          await recordAudit(m, actor, { action: 'claim_batch.created', entityType: 'ClaimBatch', entityId: batch.id, after: { rows: rows.length, drafts: good.length, filename } });
+          for (const g of good)
+            created.push(await claims.create(g.inst, g.fields, actor, { batchId: batch.id, m }));
+          await recordAudit(m, actor, {
+            action: 'claim_batch.created',
+            entityType: 'ClaimBatch',
+            entityId: batch.id,
+            after: { rows: rows.length, drafts: good.length, filename },
+          });
         });
       }
       return {
@@ -221,12 +311,17 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
     async findBatch(user: SessionUser, id: string) {
       const batch = await ds.getRepository(ClaimBatch).findOne({ where: { id } });
       // Another contractor's batch is as missing as a made-up one.
-      if (!batch || batch.contractorId !== user.organization.id || user.organization.kind !== 'contractor') throw notFound('batch');
+      if (!batch || batch.contractorId !== user.organization.id || user.organization.kind !== 'contractor')
+        throw notFound('batch');
       return batch;
     },
 
     async claimIdsOf(batchId: string) {
-      return (await ds.getRepository(Claim).find({ where: { batchId }, select: { id: true }, order: { createdAt: 'ASC', id: 'ASC' } })).map((c) => c.id);
+      return (
+        await ds
+          .getRepository(Claim)
+          .find({ where: { batchId }, select: { id: true }, order: { createdAt: 'ASC', id: 'ASC' } })
+      ).map((c) => c.id);
     },
 
     /** Files every draft of the batch, each in its own transaction: one bad claim does not hold back the rest. */
@@ -236,12 +331,23 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
       for (const id of ids) {
         try {
           const r = await claims.file(id, user, actor);
-          const c = (await ds.getRepository(Claim).findOne({ where: { id }, select: { id: true, number: true, stage: true } }))!;
+          const c = (await ds
+            .getRepository(Claim)
+            .findOne({ where: { id }, select: { id: true, number: true, stage: true } }))!;
           results.push({ claimId: id, number: c.number, stage: c.stage, ok: true, replayed: r.replayed });
         } catch (err) {
           if (!(err instanceof AppError)) throw err;
-          const c = await ds.getRepository(Claim).findOne({ where: { id }, select: { id: true, number: true, stage: true } });
-          results.push({ claimId: id, number: c?.number ?? null, stage: c?.stage ?? 'draft', ok: false, replayed: false, error: { code: err.code, message: err.message, details: err.details } });
+          const c = await ds
+            .getRepository(Claim)
+            .findOne({ where: { id }, select: { id: true, number: true, stage: true } });
+          results.push({
+            claimId: id,
+            number: c?.number ?? null,
+            stage: c?.stage ?? 'draft',
+            ok: false,
+            replayed: false,
+            error: { code: err.code, message: err.message, details: err.details },
+          });
         }
       }
       return { batchId, results };

@@ -12,8 +12,17 @@ export function presentClaimListItem(c: ClaimListRow): ClaimListItemDto {
     waitingOn: c.waitingOn,
     contractor: { id: c.contractorId, name: c.contractor?.name ?? '' },
     manufacturer: { id: c.manufacturerId, name: c.manufacturer?.name ?? '' },
-    product: { id: c.productModelId, modelNumber: c.productModel?.modelNumber ?? '', name: c.productModel?.name ?? '', family: c.productModel?.family ?? 'other' },
-    installation: { id: c.installationId, siteName: c.installation?.siteName ?? '', siteCity: c.installation?.siteCity ?? '' },
+    product: {
+      id: c.productModelId,
+      modelNumber: c.productModel?.modelNumber ?? '',
+      name: c.productModel?.name ?? '',
+      family: c.productModel?.family ?? 'other',
+    },
+    installation: {
+      id: c.installationId,
+      siteName: c.installation?.siteName ?? '',
+      siteCity: c.installation?.siteCity ?? '',
+    },
     serials: c.serials,
     units: c.units ?? c.serials.length,
     failedOn: c.failedOn,
@@ -30,7 +39,12 @@ export function presentClaimListItem(c: ClaimListRow): ClaimListItemDto {
 
 export function presentClaimDetail(
   c: LoadedClaim,
-  extra: { history: HistoryEventDto[]; attachments: AttachmentDto[]; filingIssues: FilingIssue[]; createdBy: { id: string; name: string } | null },
+  extra: {
+    history: HistoryEventDto[];
+    attachments: AttachmentDto[];
+    filingIssues: FilingIssue[];
+    createdBy: { id: string; name: string } | null;
+  },
 ): ClaimDetailDto {
   const i = c.installation;
   const v = c.policyVersion;
@@ -50,10 +64,18 @@ export function presentClaimDetail(
       installDate: i.installDate,
       purchaseDate: i.purchaseDate,
       serials: i.units.map((u) => u.serial).sort(),
-      policyVersion: v ? { id: v.id, policyName: v.policy?.name ?? '', versionNumber: v.versionNumber, effectiveFrom: v.effectiveFrom } : null,
+      policyVersion: v
+        ? {
+            id: v.id,
+            policyName: v.policy?.name ?? '',
+            versionNumber: v.versionNumber,
+            effectiveFrom: v.effectiveFrom,
+          }
+        : null,
     },
     engineContext: engineContextOf(c.productModel, v, i),
-    evaluation: c.evaluation && c.evaluatedAt ? { ...c.evaluation, evaluatedAt: c.evaluatedAt.toISOString() } : null,
+    evaluation:
+      c.evaluation && c.evaluatedAt ? { ...c.evaluation, evaluatedAt: c.evaluatedAt.toISOString() } : null,
     attachments: extra.attachments,
     requests: [],
     decision: null,

@@ -27,23 +27,43 @@ import { attachmentsRouter } from '../attachments/attachments.router';
 import { listAttachments } from '../attachments/attachments.service';
 import { CLAIM_BATCH_COLUMNS, createClaimBatchesService } from './claim-batches.service';
 import { presentClaimDetail, presentClaimListItem } from './claims.presenter';
-import { createClaimsService, currentFilingIssues, scopeOf, type ClaimsService, type EvidenceCounter, type LoadedClaim } from './claims.service';
+import {
+  createClaimsService,
+  currentFilingIssues,
+  scopeOf,
+  type ClaimsService,
+  type EvidenceCounter,
+  type LoadedClaim,
+} from './claims.service';
 
-const asClaim = (c: LoadedClaim) => subject('Claim', { contractorId: c.contractorId, manufacturerId: c.manufacturerId, stage: c.stage } as Record<string, unknown>);
+const asClaim = (c: LoadedClaim) =>
+  subject('Claim', {
+    contractorId: c.contractorId,
+    manufacturerId: c.manufacturerId,
+    stage: c.stage,
+  } as Record<string, unknown>);
 
 const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
 
 /** Photos and proof of purchase on the claim, as the engine counts evidence (removed files do not count). */
 export const claimEvidence: EvidenceCounter = async (m, claimId) => {
-  const rows = await m.find(Attachment, { where: { ownerType: 'claim', ownerId: claimId }, select: { id: true, kind: true, purpose: true } });
-  return { photos: rows.filter((a) => a.kind === 'photo').length, proofOfPurchase: rows.some((a) => a.purpose === 'proof_of_purchase') };
+  const rows = await m.find(Attachment, {
+    where: { ownerType: 'claim', ownerId: claimId },
+    select: { id: true, kind: true, purpose: true },
+  });
+  return {
+    photos: rows.filter((a) => a.kind === 'photo').length,
+    proofOfPurchase: rows.some((a) => a.purpose === 'proof_of_purchase'),
+  };
 };
 
 export async function claimDetail(ctx: AppContext, req: Request, c: LoadedClaim) {
   // Three independent reads, side by side.
   const [createdBy, history, attachments] = await Promise.all([
     c.createdById
-      ? ctx.ds.getRepository(User).findOne({ where: { id: c.createdById }, select: { id: true, name: true, organizationId: true } })
+      ? ctx.ds
+          .getRepository(User)
+          .findOne({ where: { id: c.createdById }, select: { id: true, name: true, organizationId: true } })
       : null,
     loadHistory(ctx.ds, 'Claim', c.id, req.user!.organizationId),
     listAttachments(ctx, { type: 'claim', id: c.id }),
@@ -52,13 +72,19 @@ export async function claimDetail(ctx: AppContext, req: Request, c: LoadedClaim)
     history,
     attachments: attachments.map((a) => presentAttachment(a, `/api/claims/${c.id}/attachments`)),
     filingIssues: c.stage === 'draft' ? currentFilingIssues(c) : [],
-    createdBy: createdBy ? { id: createdBy.id, name: createdBy.organizationId === req.user!.organizationId ? createdBy.name : '' } : null,
+    createdBy: createdBy
+      ? {
+          id: createdBy.id,
+          name: createdBy.organizationId === req.user!.organizationId ? createdBy.name : '',
+        }
+      : null,
   });
 }
 
 export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } = {}) {
   const r = Router();
-  const service = opts.service ?? createClaimsService(ctx.ds, { publicUrl: ctx.publicUrl, evidence: claimEvidence });
+  const service =
+    opts.service ?? createClaimsService(ctx.ds, { publicUrl: ctx.publicUrl, evidence: claimEvidence });
   r.use(requireUser);
 
   const batches = createClaimBatchesService(ctx.ds, service);
@@ -89,8 +115,20 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     const { id } = parseWith(idParam, req.params, 'address');
     const batch = await batches.findBatch(req.user!, id);
     const ids = await batches.claimIdsOf(batch.id);
-    const { items } = await service.list(scopeOf(req.user!), claimListQuerySchema.parse({ pageSize: '200', sort: '-createdAt', batchId: batch.id }));
-    res.json({ batch: { id: batch.id, filename: batch.filename, rowCount: batch.rowCount, createdAt: batch.createdAt.toISOString(), claimIds: ids }, claims: items.map(presentClaimListItem) });
+    const { items } = await service.list(
+      scopeOf(req.user!),
+      claimListQuerySchema.parse({ pageSize: '200', sort: '-createdAt', batchId: batch.id }),
+    );
+    res.json({
+      batch: {
+        id: batch.id,
+        filename: batch.filename,
+        rowCount: batch.rowCount,
+        createdAt: batch.createdAt.toISOString(),
+        claimIds: ids,
+      },
+      claims: items.map(presentClaimListItem),
+    });
   });
 
   r.post('/batches/:id/file', async (req, res) => {
@@ -116,14 +154,25 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     const { installationId, ...fields } = input;
     const inst = await ctx.ds.getRepository(Installation).findOne({ where: { id: installationId } });
     authorize(req, 'read', 'Installation', inst, 'installation');
-    authorize(req, 'create', 'Claim', { contractorId: inst.contractorId, manufacturerId: inst.manufacturerId }, 'claim');
+    authorize(
+      req,
+      'create',
+      'Claim',
+      { contractorId: inst.contractorId, manufacturerId: inst.manufacturerId },
+      'claim',
+    );
     const actor = actorFromRequest(req);
     const made = key
       ? await service.createOnce(inst, fields, actor, { key, userId: req.user!.id, body: input })
       : { id: await service.create(inst, fields, actor), status: 201, replayed: false };
     const claim = await service.findById(made.id);
     // The draft was deleted since: the key's answer no longer exists.
-    if (!claim) throw new AppError(404, 'not_found', 'The draft started with this Idempotency-Key has since been deleted.');
+    if (!claim)
+      throw new AppError(
+        404,
+        'not_found',
+        'The draft started with this Idempotency-Key has since been deleted.',
+      );
     if (made.replayed) res.setHeader(REPLAY_HEADER, 'true');
     res.status(made.status).json({ claim: await claimDetail(ctx, req, claim) });
   });
@@ -137,7 +186,9 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
       ownerLabel: 'claim',
       loadOwner: (_req, id) => service.findById(id),
       canRead: (req, c) => req.ability.can('read', asClaim(c)),
-      canWrite: (req, c) => req.ability.can('update', asClaim(c)) && (c.stage === 'draft' || (req.method === 'POST' && c.stage === 'needs_info')),
+      canWrite: (req, c) =>
+        req.ability.can('update', asClaim(c)) &&
+        (c.stage === 'draft' || (req.method === 'POST' && c.stage === 'needs_info')),
     }),
   );
 
@@ -158,9 +209,18 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     const key = idempotencyKeyOf(req);
     const input = parseBody(fileClaimSchema, req);
     const claim = await load(req, 'file');
-    const result = await service.file(claim.id, req.user!, actorFromRequest(req), input, key ? { key } : undefined);
+    const result = await service.file(
+      claim.id,
+      req.user!,
+      actorFromRequest(req),
+      input,
+      key ? { key } : undefined,
+    );
     if (result.replayed) res.setHeader(REPLAY_HEADER, 'true');
-    res.status(200).json({ claim: await claimDetail(ctx, req, (await service.findById(claim.id))!), replayed: result.replayed });
+    res.status(200).json({
+      claim: await claimDetail(ctx, req, (await service.findById(claim.id))!),
+      replayed: result.replayed,
+    });
   });
 
   r.post('/:id/withdraw', async (req, res) => {

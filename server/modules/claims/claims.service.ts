@@ -49,20 +49,57 @@ function refuse(r: Refusal): never {
 
 /** A claims-list row as the page query returns it (TypeORM's raw aliases: table alias, underscore, column). */
 type RawListRow = {
-  c_id: string; c_number: string | null; c_stage: Claim['stage']; c_waiting_on: Claim['waitingOn'];
-  c_contractor_id: string; c_manufacturer_id: string; c_installation_id: string; c_product_model_id: string;
-  c_serials: string[] | string; c_units: number | null; c_failed_on: Date | string | null; c_filed_at: Date | null;
-  c_stage_changed_at: Date; c_verdict: Claim['verdict']; c_engine_version: string | null; c_expected_credit: string | null;
-  c_currency: string | null; c_created_at: Date; c_updated_at: Date; c_version: number;
-  co_name: string; mo_name: string; p_model_number: string; p_name: string; p_family: ProductModel['family'];
-  i_site_name: string; i_site_city: string;
+  c_id: string;
+  c_number: string | null;
+  c_stage: Claim['stage'];
+  c_waiting_on: Claim['waitingOn'];
+  c_contractor_id: string;
+  c_manufacturer_id: string;
+  c_installation_id: string;
+  c_product_model_id: string;
+  c_serials: string[] | string;
+  c_units: number | null;
+  c_failed_on: Date | string | null;
+  c_filed_at: Date | null;
+  c_stage_changed_at: Date;
+  c_verdict: Claim['verdict'];
+  c_engine_version: string | null;
+  c_expected_credit: string | null;
+  c_currency: string | null;
+  c_created_at: Date;
+  c_updated_at: Date;
+  c_version: number;
+  co_name: string;
+  mo_name: string;
+  p_model_number: string;
+  p_name: string;
+  p_family: ProductModel['family'];
+  i_site_name: string;
+  i_site_city: string;
 };
 
 export type ClaimListRow = Pick<
   Claim,
-  | 'id' | 'number' | 'stage' | 'waitingOn' | 'contractorId' | 'manufacturerId' | 'installationId' | 'productModelId' | 'serials'
-  | 'units' | 'failedOn' | 'filedAt' | 'stageChangedAt' | 'verdict' | 'engineVersion' | 'expectedCredit' | 'currency'
-  | 'createdAt' | 'updatedAt' | 'version'
+  | 'id'
+  | 'number'
+  | 'stage'
+  | 'waitingOn'
+  | 'contractorId'
+  | 'manufacturerId'
+  | 'installationId'
+  | 'productModelId'
+  | 'serials'
+  | 'units'
+  | 'failedOn'
+  | 'filedAt'
+  | 'stageChangedAt'
+  | 'verdict'
+  | 'engineVersion'
+  | 'expectedCredit'
+  | 'currency'
+  | 'createdAt'
+  | 'updatedAt'
+  | 'version'
 > & {
   contractor: { name: string };
   manufacturer: { name: string };
@@ -71,17 +108,33 @@ export type ClaimListRow = Pick<
 };
 
 // A DATE column arrives as a Date at UTC midnight (timezone 'Z'), as the entity's string would read it.
-const dateOnly = (v: Date | string | null) => (v === null ? null : typeof v === 'string' ? v.slice(0, 10) : v.toISOString().slice(0, 10));
+const dateOnly = (v: Date | string | null) =>
+  v === null ? null : typeof v === 'string' ? v.slice(0, 10) : v.toISOString().slice(0, 10);
 
 function listRowOf(r: RawListRow): ClaimListRow {
   return {
-    id: r.c_id, number: r.c_number, stage: r.c_stage, waitingOn: r.c_waiting_on, contractorId: r.c_contractor_id,
-    manufacturerId: r.c_manufacturer_id, installationId: r.c_installation_id, productModelId: r.c_product_model_id,
-    serials: typeof r.c_serials === 'string' ? (JSON.parse(r.c_serials) as string[]) : r.c_serials, units: r.c_units,
-    failedOn: dateOnly(r.c_failed_on), filedAt: r.c_filed_at, stageChangedAt: r.c_stage_changed_at, verdict: r.c_verdict,
-    engineVersion: r.c_engine_version, expectedCredit: r.c_expected_credit, currency: r.c_currency, createdAt: r.c_created_at,
-    updatedAt: r.c_updated_at, version: r.c_version,
-    contractor: { name: r.co_name }, manufacturer: { name: r.mo_name },
+    id: r.c_id,
+    number: r.c_number,
+    stage: r.c_stage,
+    waitingOn: r.c_waiting_on,
+    contractorId: r.c_contractor_id,
+    manufacturerId: r.c_manufacturer_id,
+    installationId: r.c_installation_id,
+    productModelId: r.c_product_model_id,
+    serials: typeof r.c_serials === 'string' ? (JSON.parse(r.c_serials) as string[]) : r.c_serials,
+    units: r.c_units,
+    failedOn: dateOnly(r.c_failed_on),
+    filedAt: r.c_filed_at,
+    stageChangedAt: r.c_stage_changed_at,
+    verdict: r.c_verdict,
+    engineVersion: r.c_engine_version,
+    expectedCredit: r.c_expected_credit,
+    currency: r.c_currency,
+    createdAt: r.c_created_at,
+    updatedAt: r.c_updated_at,
+    version: r.c_version,
+    contractor: { name: r.co_name },
+    manufacturer: { name: r.mo_name },
     productModel: { modelNumber: r.p_model_number, name: r.p_name, family: r.p_family },
     installation: { siteName: r.i_site_name, siteCity: r.i_site_city },
   };
@@ -102,7 +155,9 @@ const noEvidence: EvidenceCounter = async () => ({ photos: 0, proofOfPurchase: f
 
 function isDuplicate(err: unknown, index: string) {
   const e = err as { code?: string; driverError?: { code?: string }; message?: string };
-  return (e.code === 'ER_DUP_ENTRY' || e.driverError?.code === 'ER_DUP_ENTRY') && String(e.message).includes(index);
+  return (
+    (e.code === 'ER_DUP_ENTRY' || e.driverError?.code === 'ER_DUP_ENTRY') && String(e.message).includes(index)
+  );
 }
 
 export function claimAuditView(f: ClaimFields) {
@@ -134,18 +189,22 @@ export function currentFilingIssues(c: LoadedClaim): FilingIssue[] {
 }
 
 async function recipientsOf(m: EntityManager, organizationId: string, role: 'reviewer' | 'administrator') {
-  const users = await m.find(User, { where: { organizationId, status: 'active' }, select: { id: true, email: true, name: true, roles: true } });
+  const users = await m.find(User, {
+    where: { organizationId, status: 'active' },
+    select: { id: true, email: true, name: true, roles: true },
+  });
   return users.filter((u) => u.roles.includes(role));
 }
 
-export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path: string) => string; evidence?: EvidenceCounter }) {
+export function createClaimsService(
+  ds: AppDataSource,
+  opts: { publicUrl: (path: string) => string; evidence?: EvidenceCounter },
+) {
   const repo = ds.getRepository(Claim);
   const countEvidence = opts.evidence ?? noEvidence;
 
   const loadWith = (m: EntityManager, id: string, lock = false) => {
-    const qb = m
-      .createQueryBuilder(Claim, 'c')
-      .where('c.id = :id', { id });
+    const qb = m.createQueryBuilder(Claim, 'c').where('c.id = :id', { id });
     if (lock) return qb.setLock('pessimistic_write').getOne();
     return qb.getOne();
   };
@@ -181,18 +240,28 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
   }
 
   /** Filing's work, inside the caller's transaction (see file below). */
-  async function fileIn(m: EntityManager, claimId: string, user: SessionUser, actor: Actor, when: { version?: number }): Promise<{ id: string; replayed: boolean }> {
+  async function fileIn(
+    m: EntityManager,
+    claimId: string,
+    user: SessionUser,
+    actor: Actor,
+    when: { version?: number },
+  ): Promise<{ id: string; replayed: boolean }> {
     // The row lock makes a second, simultaneous request wait here and then see the claim filed.
     const locked = await loadWith(m, claimId, true);
     if (!locked) throw new AppError(404, 'not_found', 'That claim does not exist or is not shared with you.');
     const move = canPerform(locked, toAbilityUser(user), 'file');
     if (!move.ok) {
       // Already filed (and anywhere past it): the same claim again, so a retry or a double tap files once.
-      if (move.code === 'claim.invalid_transition' && locked.stage !== 'withdrawn') return { id: claimId, replayed: true };
+      if (move.code === 'claim.invalid_transition' && locked.stage !== 'withdrawn')
+        return { id: claimId, replayed: true };
       refuse(move);
     }
     if (when.version !== undefined && when.version !== locked.version) {
-      throw conflict('claim.changed', 'This draft was changed elsewhere since you opened it. Reload, check it and file again.');
+      throw conflict(
+        'claim.changed',
+        'This draft was changed elsewhere since you opened it. Reload, check it and file again.',
+      );
     }
     const c = (await findById(claimId, m))!;
     const stored = claimFieldsSchema.safeParse(claimFieldsOf(c));
@@ -200,7 +269,12 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
       ? currentFilingIssues(c)
       : stored.error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
     if (issues.length) {
-      throw new AppError(422, 'claim.incomplete', 'The claim is not ready to file: fill in the fields listed.', issues);
+      throw new AppError(
+        422,
+        'claim.incomplete',
+        'The claim is not ready to file: fill in the fields listed.',
+        issues,
+      );
     }
     const now = clock.now();
     const evaluation: Evaluation = await evaluate(m, c, now.toISOString().slice(0, 10));
@@ -243,7 +317,13 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
       entityType: 'Claim',
       entityId: claimId,
       before: { stage: 'draft' },
-      after: { stage: 'filed', number, verdict: evaluation.verdict, engineVersion: evaluation.engineVersion, expectedCredit: evaluation.computed.credit },
+      after: {
+        stage: 'filed',
+        number,
+        verdict: evaluation.verdict,
+        engineVersion: evaluation.engineVersion,
+        expectedCredit: evaluation.computed.credit,
+      },
     });
     await crashPoint('claim.file.after_audit', m);
     const view = {
@@ -256,15 +336,26 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
       units: c.units ?? c.serials.length,
       serials: c.serials.join(', ') || 'not given',
       failedOn: c.failedOn,
-      verdictText: { covered: 'likely covered', review: 'needs a reviewer', excluded: 'likely excluded' }[evaluation.verdict],
+      verdictText: { covered: 'likely covered', review: 'needs a reviewer', excluded: 'likely excluded' }[
+        evaluation.verdict
+      ],
       credit: `${evaluation.computed.credit} ${evaluation.computed.currency}`,
       link: opts.publicUrl(`/claims/${claimId}`),
       filerName: user.name,
     };
     let reviewers = await recipientsOf(m, c.manufacturerId, 'reviewer');
     if (!reviewers.length) reviewers = await recipientsOf(m, c.manufacturerId, 'administrator');
-    if (reviewers.length) await enqueueEmail(m, { to: reviewers.map((r) => r.email), template: 'claim-filed-manufacturer', view });
-    await enqueueEmail(m, { to: [user.email], template: 'claim-filed-confirmation', view: { ...view, name: user.name } });
+    if (reviewers.length)
+      await enqueueEmail(m, {
+        to: reviewers.map((r) => r.email),
+        template: 'claim-filed-manufacturer',
+        view,
+      });
+    await enqueueEmail(m, {
+      to: [user.email],
+      template: 'claim-filed-confirmation',
+      view: { ...view, name: user.name },
+    });
     await crashPoint('claim.file.before_commit', m);
     return { id: claimId, replayed: false };
   }
@@ -278,10 +369,37 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
       const qb = repo
         .createQueryBuilder('c')
         .select([
-          'c.id', 'c.number', 'c.stage', 'c.waitingOn', 'c.contractorId', 'c.manufacturerId', 'c.installationId', 'c.productModelId',
-          'c.serials', 'c.units', 'c.failedOn', 'c.filedAt', 'c.stageChangedAt', 'c.verdict', 'c.engineVersion', 'c.expectedCredit',
-          'c.currency', 'c.createdAt', 'c.updatedAt', 'c.version',
-          'co.id', 'co.name', 'mo.id', 'mo.name', 'p.id', 'p.modelNumber', 'p.name', 'p.family', 'i.id', 'i.siteName', 'i.siteCity',
+          'c.id',
+          'c.number',
+          'c.stage',
+          'c.waitingOn',
+          'c.contractorId',
+          'c.manufacturerId',
+          'c.installationId',
+          'c.productModelId',
+          'c.serials',
+          'c.units',
+          'c.failedOn',
+          'c.filedAt',
+          'c.stageChangedAt',
+          'c.verdict',
+          'c.engineVersion',
+          'c.expectedCredit',
+          'c.currency',
+          'c.createdAt',
+          'c.updatedAt',
+          'c.version',
+          'co.id',
+          'co.name',
+          'mo.id',
+          'mo.name',
+          'p.id',
+          'p.modelNumber',
+          'p.name',
+          'p.family',
+          'i.id',
+          'i.siteName',
+          'i.siteCity',
         ])
         // Left joins on required keys keep the claims table first in the plan, so the page is read straight off
         // the (organisation, stage, sort column) index; the tie-break runs the same way as the sort so the index
@@ -302,15 +420,18 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
         if (scope.kind === 'contractor') w.andWhere('c.contractor_id = :org', { org: scope.orgId });
         else w.andWhere("c.manufacturer_id = :org AND c.stage <> 'draft'", { org: scope.orgId });
         if (q.stage) w.andWhere('c.stage IN (:...stages)', { stages: q.stage });
-        if (q.open !== undefined) w.andWhere(`c.stage ${q.open ? 'IN' : 'NOT IN'} (:...open)`, { open: OPEN_STAGES });
+        if (q.open !== undefined)
+          w.andWhere(`c.stage ${q.open ? 'IN' : 'NOT IN'} (:...open)`, { open: OPEN_STAGES });
         if (q.manufacturerId) w.andWhere('c.manufacturer_id = :mid', { mid: q.manufacturerId });
         if (q.contractorId) w.andWhere('c.contractor_id = :cid', { cid: q.contractorId });
         if (q.installationId) w.andWhere('c.installation_id = :iid', { iid: q.installationId });
         if (q.batchId) w.andWhere('c.batch_id = :bid', { bid: q.batchId });
         if (q.productModelId) w.andWhere('c.product_model_id = :pm', { pm: q.productModelId });
         if (q.verdict) w.andWhere('c.verdict = :verdict', { verdict: q.verdict });
-        if (q.site) w.andWhere('(i.site_name LIKE :site OR i.site_city LIKE :site)', { site: likeContains(q.site) });
-        if (q.product) w.andWhere('(p.model_number LIKE :prod OR p.name LIKE :prod)', { prod: likeContains(q.product) });
+        if (q.site)
+          w.andWhere('(i.site_name LIKE :site OR i.site_city LIKE :site)', { site: likeContains(q.site) });
+        if (q.product)
+          w.andWhere('(p.model_number LIKE :prod OR p.name LIKE :prod)', { prod: likeContains(q.product) });
         if (q.filedFrom) w.andWhere('c.filed_at >= :from', { from: `${q.filedFrom} 00:00:00` });
         if (q.filedTo) w.andWhere('c.filed_at < DATE_ADD(:to, INTERVAL 1 DAY)', { to: q.filedTo });
         if (q.q) {
@@ -327,11 +448,19 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
         }
       }
       // Raw rows mapped by hand: TypeORM's entity hydration was a third of the list's time in Node.
-      const [rows, count] = await Promise.all([qb.getRawMany<RawListRow>(), counter.getRawOne<{ n: string | number }>()]);
+      const [rows, count] = await Promise.all([
+        qb.getRawMany<RawListRow>(),
+        counter.getRawOne<{ n: string | number }>(),
+      ]);
       return { items: rows.map(listRowOf), total: Number(count?.n ?? 0) };
     },
 
-    async create(installation: Installation, fields: ClaimFields, actor: Actor, extra: { batchId?: string; m?: EntityManager } = {}) {
+    async create(
+      installation: Installation,
+      fields: ClaimFields,
+      actor: Actor,
+      extra: { batchId?: string; m?: EntityManager } = {},
+    ) {
       const run = <T>(fn: (m: EntityManager) => Promise<T>) => (extra.m ? fn(extra.m) : ds.transaction(fn));
       return run(async (m) => {
         const now = clock.now();
@@ -369,7 +498,11 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
           action: 'claim.created',
           entityType: 'Claim',
           entityId: claim.id,
-          after: { stage: 'draft', installationId: installation.id, ...claimAuditView(claim as unknown as ClaimFields) },
+          after: {
+            stage: 'draft',
+            installationId: installation.id,
+            ...claimAuditView(claim as unknown as ClaimFields),
+          },
         });
         return claim.id;
       });
@@ -380,27 +513,54 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
      * request makes the draft and keeps its id under the key; the same key again answers that draft (replayed);
      * the same key with another body is refused (422) and writes nothing. Keys are per user.
      */
-    async createOnce(installation: Installation, fields: ClaimFields, actor: Actor, idem: { key: string; userId: string; body: unknown }) {
+    async createOnce(
+      installation: Installation,
+      fields: ClaimFields,
+      actor: Actor,
+      idem: { key: string; userId: string; body: unknown },
+    ) {
       const answer = await runIdempotent(
         ds,
-        { key: idem.key, userId: idem.userId, route: CREATE_ROUTE, method: 'POST', path: '/api/claims', body: idem.body },
-        async (m) => ({ status: 201, body: { claimId: await this.create(installation, fields, actor, { m }) } }),
+        {
+          key: idem.key,
+          userId: idem.userId,
+          route: CREATE_ROUTE,
+          method: 'POST',
+          path: '/api/claims',
+          body: idem.body,
+        },
+        async (m) => ({
+          status: 201,
+          body: { claimId: await this.create(installation, fields, actor, { m }) },
+        }),
       );
-      return { id: (answer.body as { claimId: string }).claimId, status: answer.status, replayed: answer.replayed };
+      return {
+        id: (answer.body as { claimId: string }).claimId,
+        status: answer.status,
+        replayed: answer.replayed,
+      };
     },
 
     /** Draft autosave, conditional on the version the client last saw. */
     async update(target: LoadedClaim, input: UpdateClaimInput & ClaimFields, actor: Actor) {
       if (target.stage !== 'draft') {
-        throw conflict('claim.not_editable', `This claim is ${CLAIM_STAGE_LABELS[target.stage].toLowerCase()}; only a draft can be changed.`);
+        throw conflict(
+          'claim.not_editable',
+          `This claim is ${CLAIM_STAGE_LABELS[target.stage].toLowerCase()}; only a draft can be changed.`,
+        );
       }
       const { version, ...patch } = input;
       const current = claimAuditView(claimFieldsOf(target));
-      const defined = Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined)) as Partial<ClaimFields>;
+      const defined = Object.fromEntries(
+        Object.entries(patch).filter(([, v]) => v !== undefined),
+      ) as Partial<ClaimFields>;
       const next = { ...current, ...defined };
       const diff = changedFields(current, next);
       if (version !== target.version) {
-        throw conflict('claim.changed', 'This draft was changed elsewhere (another device or tab) since you opened it. Reload to see the latest.');
+        throw conflict(
+          'claim.changed',
+          'This draft was changed elsewhere (another device or tab) since you opened it. Reload to see the latest.',
+        );
       }
       if (!diff.changed) return target.version;
       return ds.transaction(async (m) => {
@@ -420,9 +580,18 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
           .where("id = :id AND version = :v AND stage = 'draft'", { id: target.id, v: version })
           .execute();
         if (!result.affected) {
-          throw conflict('claim.changed', 'This draft was changed elsewhere (another device or tab) since you opened it. Reload to see the latest.');
+          throw conflict(
+            'claim.changed',
+            'This draft was changed elsewhere (another device or tab) since you opened it. Reload to see the latest.',
+          );
         }
-        await recordAudit(m, actor, { action: 'claim.updated', entityType: 'Claim', entityId: target.id, before: diff.before, after: diff.after });
+        await recordAudit(m, actor, {
+          action: 'claim.updated',
+          entityType: 'Claim',
+          entityId: target.id,
+          before: diff.before,
+          after: diff.after,
+        });
         return version + 1;
       });
     },
@@ -434,19 +603,34 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
      * Idempotency-Key the answer is also kept under the key (see server/lib/idempotency.ts): the same key
      * replays it, the same key with another body is refused.
      */
-    async file(claimId: string, user: SessionUser, actor: Actor, when: { version?: number } = {}, idem?: { key: string }) {
+    async file(
+      claimId: string,
+      user: SessionUser,
+      actor: Actor,
+      when: { version?: number } = {},
+      idem?: { key: string },
+    ) {
       if (!idem) return ds.transaction((m) => fileIn(m, claimId, user, actor, when));
       const path = `/api/claims/${claimId}/file`;
-      const answer = await runIdempotent(ds, { key: idem.key, userId: user.id, route: FILE_ROUTE, method: 'POST', path, body: when }, async (m) => {
-        const r = await fileIn(m, claimId, user, actor, when);
-        return { status: 200, body: { claimId: r.id, replayed: r.replayed } };
-      });
+      const answer = await runIdempotent(
+        ds,
+        { key: idem.key, userId: user.id, route: FILE_ROUTE, method: 'POST', path, body: when },
+        async (m) => {
+          const r = await fileIn(m, claimId, user, actor, when);
+          return { status: 200, body: { claimId: r.id, replayed: r.replayed } };
+        },
+      );
       const stored = answer.body as { claimId: string; replayed: boolean };
       return { id: stored.claimId, replayed: answer.replayed || stored.replayed };
     },
 
     async withdraw(target: LoadedClaim, reason: string | undefined, user: SessionUser, actor: Actor) {
-      const move = canPerform(target, toAbilityUser(user), 'withdraw', reason === undefined ? {} : { reason });
+      const move = canPerform(
+        target,
+        toAbilityUser(user),
+        'withdraw',
+        reason === undefined ? {} : { reason },
+      );
       if (!move.ok) refuse(move);
       await ds.transaction(async (m) => {
         const now = clock.now();
@@ -456,7 +640,8 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
           .set({ stage: 'withdrawn', stageChangedAt: now, waitingOn: null, version: () => 'version + 1' })
           .where('id = :id AND stage = :stage', { id: target.id, stage: target.stage })
           .execute();
-        if (!result.affected) throw conflict('claim.changed', 'This claim changed just now. Reload and try again.');
+        if (!result.affected)
+          throw conflict('claim.changed', 'This claim changed just now. Reload and try again.');
         await recordAudit(m, actor, {
           action: 'claim.withdrawn',
           entityType: 'Claim',
@@ -470,7 +655,13 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
             await enqueueEmail(m, {
               to: reviewers.map((r) => r.email),
               template: 'claim-withdrawn',
-              view: { number: target.number, contractor: target.contractor.name, reason: reason || 'No reason given.', by: user.name, link: opts.publicUrl(`/claims/${target.id}`) },
+              view: {
+                number: target.number,
+                contractor: target.contractor.name,
+                reason: reason || 'No reason given.',
+                by: user.name,
+                link: opts.publicUrl(`/claims/${target.id}`),
+              },
             });
           }
         }
@@ -479,14 +670,28 @@ export function createClaimsService(ds: AppDataSource, opts: { publicUrl: (path:
 
     async remove(target: LoadedClaim, actor: Actor) {
       if (target.stage !== 'draft') {
-        throw conflict('claim.not_deletable', 'Only a draft can be deleted; a filed claim can be withdrawn instead.');
+        throw conflict(
+          'claim.not_deletable',
+          'Only a draft can be deleted; a filed claim can be withdrawn instead.',
+        );
       }
       await ds.transaction(async (m) => {
-        const result = await m.createQueryBuilder().delete().from(Claim).where("id = :id AND stage = 'draft'", { id: target.id }).execute();
-        if (!result.affected) throw conflict('claim.changed', 'This claim changed just now. Reload and try again.');
+        const result = await m
+          .createQueryBuilder()
+          .delete()
+          .from(Claim)
+          .where("id = :id AND stage = 'draft'", { id: target.id })
+          .execute();
+        if (!result.affected)
+          throw conflict('claim.changed', 'This claim changed just now. Reload and try again.');
         // The draft's files go with it (marked removed; the bytes stay until a clean-up, as for any removal).
         await m.softDelete(Attachment, { ownerType: 'claim', ownerId: target.id });
-        await recordAudit(m, actor, { action: 'claim.deleted', entityType: 'Claim', entityId: target.id, before: { stage: 'draft', ...claimAuditView(claimFieldsOf(target)) } });
+        await recordAudit(m, actor, {
+          action: 'claim.deleted',
+          entityType: 'Claim',
+          entityId: target.id,
+          before: { stage: 'draft', ...claimAuditView(claimFieldsOf(target)) },
+        });
       });
     },
 

@@ -8,7 +8,11 @@ import type { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-ve
 // The server's side of the engine input: the loaded records into the shared mapping, which the claim form's
 // live evaluation uses too (shared/claims/engine-input.ts). Nothing else builds engine input for a claim.
 
-export function engineContextOf(product: ProductModel, version: WarrantyPolicyVersion | null, installation: Installation): ClaimEngineContext {
+export function engineContextOf(
+  product: ProductModel,
+  version: WarrantyPolicyVersion | null,
+  installation: Installation,
+): ClaimEngineContext {
   return engineContextFrom(product, version, installation);
 }
 
@@ -25,9 +29,18 @@ export function claimFieldsOf(c: Claim): ClaimFields {
 }
 
 export function engineInputOfClaim(
-  c: Claim & { productModel: ProductModel; installation: Installation; policyVersion: WarrantyPolicyVersion | null },
+  c: Claim & {
+    productModel: ProductModel;
+    installation: Installation;
+    policyVersion: WarrantyPolicyVersion | null;
+  },
   evidence: ClaimEvidence,
   filedOn: string,
 ) {
-  return engineInputFor(engineContextOf(c.productModel, c.policyVersion, c.installation), claimFieldsOf(c), evidence, filedOn);
+  return engineInputFor(
+    engineContextOf(c.productModel, c.policyVersion, c.installation),
+    claimFieldsOf(c),
+    evidence,
+    filedOn,
+  );
 }

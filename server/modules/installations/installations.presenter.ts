@@ -1,5 +1,9 @@
 import { checkInstallationFit } from '../../../shared/catalogue/installation-fit';
-import type { InstallationDetailDto, InstallationDto, NOMINAL_SUPPLY_VOLTS } from '../../../shared/schemas/catalogue';
+import type {
+  InstallationDetailDto,
+  InstallationDto,
+  NOMINAL_SUPPLY_VOLTS,
+} from '../../../shared/schemas/catalogue';
 import type { Installation } from '../../db/entities/installation.entity';
 import { orgRef, pick, stamps } from '../../lib/present';
 import { presentProduct } from '../products/products.presenter';
@@ -33,12 +37,23 @@ export function presentInstallation(i: Loaded): InstallationDto {
     id: i.id,
     contractor: orgRef(i.contractorId, i.contractor),
     manufacturer: orgRef(i.manufacturerId, i.manufacturer),
-    product: { id: i.productModelId, modelNumber: i.productModel.modelNumber, name: i.productModel.name, family: i.productModel.family },
+    product: {
+      id: i.productModelId,
+      modelNumber: i.productModel.modelNumber,
+      name: i.productModel.name,
+      family: i.productModel.family,
+    },
     ...pick(i, SITE_FIELDS),
     serialCount: i.serialCount ?? i.units?.length ?? 0,
     nominalSupplyVolts: i.nominalSupplyVolts as (typeof NOMINAL_SUPPLY_VOLTS)[number],
     policyVersion: v
-      ? { id: v.id, policyId: v.policyId, policyName: v.policy?.name ?? '', versionNumber: v.versionNumber, effectiveFrom: v.effectiveFrom }
+      ? {
+          id: v.id,
+          policyId: v.policyId,
+          policyName: v.policy?.name ?? '',
+          versionNumber: v.versionNumber,
+          effectiveFrom: v.effectiveFrom,
+        }
       : null,
     ...stamps(i),
   };

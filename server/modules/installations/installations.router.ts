@@ -14,7 +14,12 @@ import { pageOf } from '../../lib/pagination';
 import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
 import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { presentInstallation, presentInstallationDetail } from './installations.presenter';
-import { createInstallationsService, INSTALLATION_COLUMNS, installationSchemasNow, scopeOf } from './installations.service';
+import {
+  createInstallationsService,
+  INSTALLATION_COLUMNS,
+  installationSchemasNow,
+  scopeOf,
+} from './installations.service';
 
 const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
 
@@ -38,14 +43,20 @@ export function installationsRouter(ctx: AppContext) {
         { path: 'productModelId', message: 'No such product model in the catalogue.' },
       ]);
     }
-    authorizeNew(req, 'create', 'Installation', { contractorId: req.user!.organizationId, manufacturerId: product.manufacturerId });
+    authorizeNew(req, 'create', 'Installation', {
+      contractorId: req.user!.organizationId,
+      manufacturerId: product.manufacturerId,
+    });
     const id = await service.create(req.user!.organizationId, product, input, actorFromRequest(req));
     res.status(201).json({ installation: presentInstallationDetail((await service.findById(id))!) });
   });
 
   r.get('/import-template', (req, res) => {
     authorizeType(req, 'create', 'Installation');
-    res.type('text/csv').attachment('lumenproof-installations-template.csv').send(templateCsv(INSTALLATION_COLUMNS));
+    res
+      .type('text/csv')
+      .attachment('lumenproof-installations-template.csv')
+      .send(templateCsv(INSTALLATION_COLUMNS));
   });
 
   r.post('/import', async (req, res) => {

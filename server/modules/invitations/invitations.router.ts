@@ -12,8 +12,15 @@ import { AppError } from '../../lib/errors';
 import { parseBody, parseWith } from '../../middleware/validate';
 import { hashToken } from '../users/users.service';
 
-const tokenParam = z.strictObject({ token: z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, 'Not a valid link.') });
-const gone = () => new AppError(404, 'invitation.not_found', 'This invitation link is not valid any more. Ask your administrator for a new one.');
+const tokenParam = z.strictObject({
+  token: z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, 'Not a valid link.'),
+});
+const gone = () =>
+  new AppError(
+    404,
+    'invitation.not_found',
+    'This invitation link is not valid any more. Ask your administrator for a new one.',
+  );
 
 // No sign-in: the one-time token is the credential.
 export function invitationsRouter(ctx: AppContext) {
@@ -49,7 +56,11 @@ export function invitationsRouter(ctx: AppContext) {
     await ctx.ds.transaction(async (m) => {
       const used = await m.update(Invitation, { id: inv.id, usedAt: IsNull() }, { usedAt: clock.now() });
       if (!used.affected) throw gone();
-      await m.update(User, { id: inv.userId }, { passwordHash, status: 'active', ...(input.name ? { name: input.name } : {}) });
+      await m.update(
+        User,
+        { id: inv.userId },
+        { passwordHash, status: 'active', ...(input.name ? { name: input.name } : {}) },
+      );
       await recordAudit(
         m,
         { userId: inv.userId, organizationId: inv.user.organizationId, requestId: String(req.id) },

@@ -10,7 +10,9 @@ export function mailboxRouter(ctx: AppContext) {
   r.use(requireUser);
   r.get('/', async (req, res) => {
     authorizeType(req, 'read', 'Mailbox');
-    const members = await ctx.ds.getRepository(User).find({ where: { organizationId: req.user!.organizationId }, select: { email: true } });
+    const members = await ctx.ds
+      .getRepository(User)
+      .find({ where: { organizationId: req.user!.organizationId }, select: { email: true } });
     const emails = new Set(members.map((m) => m.email.toLowerCase()));
     const items = (await readMailbox(ctx.config.mailboxDir)).filter((m) => m.to.some((t) => emails.has(t)));
     res.json({ items, total: items.length, page: 1, pageSize: items.length });

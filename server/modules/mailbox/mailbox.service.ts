@@ -34,7 +34,11 @@ export async function readMailbox(dir: string, limit = 200): Promise<MailboxMess
       subject: parsed.subject ?? '',
       text: parsed.text ?? '',
       html: typeof parsed.html === 'string' ? parsed.html : null,
-      attachments: parsed.attachments.map((a) => ({ filename: a.filename ?? 'attachment', contentType: a.contentType, size: a.size })),
+      attachments: parsed.attachments.map((a) => ({
+        filename: a.filename ?? 'attachment',
+        contentType: a.contentType,
+        size: a.size,
+      })),
     });
   }
   return out;

@@ -47,13 +47,21 @@ export function presentPolicy(p: Loaded, models: PolicyModel[]): PolicyDto {
     latestVersion: p.latest ? presentVersion(p.latest) : null,
     models: models
       .filter((m) => m.policyId === p.id)
-      .map((m) => ({ id: m.productModelId, modelNumber: m.productModel.modelNumber, name: m.productModel.name }))
+      .map((m) => ({
+        id: m.productModelId,
+        modelNumber: m.productModel.modelNumber,
+        name: m.productModel.name,
+      }))
       .sort((a, b) => a.modelNumber.localeCompare(b.modelNumber)),
     ...stamps(p),
   };
 }
 
-export function presentPolicyDetail(p: WarrantyPolicy, versions: WarrantyPolicyVersion[], models: PolicyModel[]): PolicyDetailDto {
+export function presentPolicyDetail(
+  p: WarrantyPolicy,
+  versions: WarrantyPolicyVersion[],
+  models: PolicyModel[],
+): PolicyDetailDto {
   const sorted = [...versions].sort((a, b) => a.versionNumber - b.versionNumber);
   const latest = sorted[sorted.length - 1] ?? null;
   return { ...presentPolicy(Object.assign(p, { latest }), models), versions: sorted.map(presentVersion) };

@@ -1,6 +1,11 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { createPolicySchema, policyListQuerySchema, policyTermsSchema, updatePolicySchema } from '../../../shared/schemas/catalogue';
+import {
+  createPolicySchema,
+  policyListQuerySchema,
+  policyTermsSchema,
+  updatePolicySchema,
+} from '../../../shared/schemas/catalogue';
 import type { AppContext } from '../../context';
 import { actorFromRequest } from '../../lib/audit';
 import { conflict } from '../../lib/errors';
@@ -12,7 +17,10 @@ import { presentPolicy, presentPolicyDetail } from './policies.presenter';
 import { createPoliciesService } from './policies.service';
 
 const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
-const versionParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }), versionId: z.uuid({ error: 'Not a valid id.' }) });
+const versionParam = z.strictObject({
+  id: z.uuid({ error: 'Not a valid id.' }),
+  versionId: z.uuid({ error: 'Not a valid id.' }),
+});
 
 export function policiesRouter(ctx: AppContext) {
   const r = Router();
@@ -29,7 +37,13 @@ export function policiesRouter(ctx: AppContext) {
     authorizeType(req, 'read', 'WarrantyPolicy');
     const q = parseQuery(policyListQuerySchema, req);
     const { items, total, models } = await service.list(q);
-    res.json(pageOf(items.map((p) => presentPolicy(p, models)), total, q));
+    res.json(
+      pageOf(
+        items.map((p) => presentPolicy(p, models)),
+        total,
+        q,
+      ),
+    );
   });
 
   r.post('/', async (req, res) => {
@@ -74,7 +88,10 @@ export function policiesRouter(ctx: AppContext) {
     const version = await service.findVersion(id, versionId);
     authorize(req, 'update', 'WarrantyPolicy', version ? policy : null, 'policy version');
     void res;
-    throw conflict('policy.version_immutable', 'A policy version cannot be changed once written. Add a new version with the new terms instead.');
+    throw conflict(
+      'policy.version_immutable',
+      'A policy version cannot be changed once written. Add a new version with the new terms instead.',
+    );
   });
 
   r.get('/:id/history', async (req, res) => {

@@ -25,7 +25,12 @@ const RATING_FIELDS = [
 ] as const satisfies readonly (keyof ProductDto & keyof ProductModel)[];
 
 export function presentProduct(p: ProductModel): ProductDto {
-  return { id: p.id, manufacturer: orgRef(p.manufacturerId, p.manufacturer), ...pick(p, RATING_FIELDS), ...stamps(p) };
+  return {
+    id: p.id,
+    manufacturer: orgRef(p.manufacturerId, p.manufacturer),
+    ...pick(p, RATING_FIELDS),
+    ...stamps(p),
+  };
 }
 
 /** The ratings as the audit log records them. */

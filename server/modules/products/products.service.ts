@@ -12,7 +12,14 @@ import {
 import type { AppDataSource } from '../../db/data-source';
 import { ProductModel } from '../../db/entities/product-model.entity';
 import { recordAudit, recordAuditMany, type Actor } from '../../lib/audit';
-import { coerceRow, issuesToRowErrors, MAX_LISTED_ERRORS, readRows, tooManyRows, type ColumnSpec } from '../../lib/csv-import';
+import {
+  coerceRow,
+  issuesToRowErrors,
+  MAX_LISTED_ERRORS,
+  readRows,
+  tooManyRows,
+  type ColumnSpec,
+} from '../../lib/csv-import';
 import { AppError, conflict } from '../../lib/errors';
 import { changedFields } from '../../lib/history';
 import { likeContains, parseSort } from '../../lib/pagination';
@@ -40,7 +47,13 @@ export const PRODUCT_COLUMNS: ColumnSpec[] = [
   { column: 'leds_per_string', field: 'ledsPerString', kind: 'number', required: true, example: '16' },
   { column: 'led_forward_volts', field: 'ledForwardVolts', kind: 'number', required: true, example: '3' },
   { column: 'driver_output_amps', field: 'driverOutputAmps', kind: 'number', required: true, example: '2.8' },
-  { column: 'driver_max_output_volts', field: 'driverMaxOutputVolts', kind: 'number', required: false, example: '60' },
+  {
+    column: 'driver_max_output_volts',
+    field: 'driverMaxOutputVolts',
+    kind: 'number',
+    required: false,
+    example: '60',
+  },
   { column: 'location', field: 'location', kind: 'string', required: true, example: 'damp' },
   { column: 'enclosed_rated', field: 'enclosedRated', kind: 'boolean', required: true, example: 'no' },
   { column: 'dimming', field: 'dimming', kind: 'string', required: true, example: '0-10v' },
@@ -51,10 +64,13 @@ export const PRODUCT_COLUMNS: ColumnSpec[] = [
 
 function isDuplicate(err: unknown, index: string) {
   const e = err as { code?: string; driverError?: { code?: string }; message?: string };
-  return (e.code === 'ER_DUP_ENTRY' || e.driverError?.code === 'ER_DUP_ENTRY') && String(e.message).includes(index);
+  return (
+    (e.code === 'ER_DUP_ENTRY' || e.driverError?.code === 'ER_DUP_ENTRY') && String(e.message).includes(index)
+  );
 }
 
-const modelNumberTaken = (n: string) => conflict('product.model_number_taken', `Your catalogue already has a model numbered ${n}.`);
+const modelNumberTaken = (n: string) =>
+  conflict('product.model_number_taken', `Your catalogue already has a model numbered ${n}.`);
 
 export function createProductsService(ds: AppDataSource) {
   const repo = ds.getRepository(ProductModel);
@@ -87,10 +103,16 @@ export function createProductsService(ds: AppDataSource) {
     async create(manufacturerId: string, input: ProductValues, actor: Actor) {
       try {
         return await ds.transaction(async (m) => {
-          if (await m.exists(ProductModel, { where: { manufacturerId, modelNumber: input.modelNumber } })) throw modelNumberTaken(input.modelNumber);
+          if (await m.exists(ProductModel, { where: { manufacturerId, modelNumber: input.modelNumber } }))
+            throw modelNumberTaken(input.modelNumber);
           const p = m.create(ProductModel, { ...input, manufacturerId });
           await m.save(p);
-          await recordAudit(m, actor, { action: 'product.created', entityType: 'ProductModel', entityId: p.id, after: productAuditView(p) });
+          await recordAudit(m, actor, {
+            action: 'product.created',
+            entityType: 'ProductModel',
+            entityId: p.id,
+            after: productAuditView(p),
+          });
           return p.id;
         });
       } catch (err) {
@@ -102,14 +124,22 @@ export function createProductsService(ds: AppDataSource) {
     async update(target: ProductModel, input: UpdateProductInput, actor: Actor) {
       // The patch must leave a product that passes every bound, cross-field ones included.
       const merged = productInputSchema.safeParse({ ...productAuditView(target), ...stripUndefined(input) });
-      if (!merged.success) throw new AppError(400, 'validation.failed', 'The request body has invalid fields.', zodDetails(merged.error));
+      if (!merged.success)
+        throw new AppError(
+          400,
+          'validation.failed',
+          'The request body has invalid fields.',
+          zodDetails(merged.error),
+        );
       const next = merged.data;
       const diff = changedFields(productAuditView(target), productAuditView(next));
       if (!diff.changed) return target.id;
       try {
         return await ds.transaction(async (m) => {
           if (next.modelNumber !== target.modelNumber) {
-            const clash = await m.findOne(ProductModel, { where: { manufacturerId: target.manufacturerId, modelNumber: next.modelNumber } });
+            const clash = await m.findOne(ProductModel, {
+              where: { manufacturerId: target.manufacturerId, modelNumber: next.modelNumber },
+            });
             if (clash && clash.id !== target.id) throw modelNumberTaken(next.modelNumber);
           }
           const result = await m
@@ -118,8 +148,18 @@ export function createProductsService(ds: AppDataSource) {
             .set({ ...next, version: () => 'version + 1' })
             .where('id = :id AND version = :v', { id: target.id, v: target.version })
             .execute();
-          if (!result.affected) throw conflict('product.changed', 'Someone else changed this product just now. Reload and try again.');
-          await recordAudit(m, actor, { action: 'product.updated', entityType: 'ProductModel', entityId: target.id, before: diff.before, after: diff.after });
+          if (!result.affected)
+            throw conflict(
+              'product.changed',
+              'Someone else changed this product just now. Reload and try again.',
+            );
+          await recordAudit(m, actor, {
+            action: 'product.updated',
+            entityType: 'ProductModel',
+            entityId: target.id,
+            before: diff.before,
+            after: diff.after,
+          });
           return target.id;
         });
       } catch (err) {
@@ -129,7 +169,12 @@ export function createProductsService(ds: AppDataSource) {
     },
 
     /** Validates every row; unless dryRun, writes the valid ones in one transaction. */
-    async importRows(manufacturerId: string, input: ImportRequest, dryRun: boolean, actor: Actor): Promise<ImportResult> {
+    async importRows(
+      manufacturerId: string,
+      input: ImportRequest,
+      dryRun: boolean,
+      actor: Actor,
+    ): Promise<ImportResult> {
       const { rows, fileErrors } = readRows(input, PRODUCT_COLUMNS);
       tooManyRows(rows.length, 20_000);
       const errors: ImportRowError[] = [...fileErrors];
@@ -139,9 +184,22 @@ export function createProductsService(ds: AppDataSource) {
         const { values, errors: cellErrors } = coerceRow(raw, PRODUCT_COLUMNS);
         const parsed = productInputSchema.safeParse(values);
         const rowErrors = [...cellErrors];
-        if (!parsed.success) rowErrors.push(...issuesToRowErrors(raw.row, parsed.error, PRODUCT_COLUMNS, new Set(cellErrors.map((e) => e.column))));
+        if (!parsed.success)
+          rowErrors.push(
+            ...issuesToRowErrors(
+              raw.row,
+              parsed.error,
+              PRODUCT_COLUMNS,
+              new Set(cellErrors.map((e) => e.column)),
+            ),
+          );
         const key = typeof values.modelNumber === 'string' ? values.modelNumber.trim().toUpperCase() : '';
-        if (key && seen.has(key)) rowErrors.push({ row: raw.row, column: 'model_number', message: `Model number ${String(values.modelNumber)} is already on row ${seen.get(key)}.` });
+        if (key && seen.has(key))
+          rowErrors.push({
+            row: raw.row,
+            column: 'model_number',
+            message: `Model number ${String(values.modelNumber)} is already on row ${seen.get(key)}.`,
+          });
         else if (key) seen.set(key, raw.row);
         if (rowErrors.length || !parsed.success) errors.push(...rowErrors);
         else good.push({ row: raw.row, value: parsed.data });
@@ -150,12 +208,19 @@ export function createProductsService(ds: AppDataSource) {
       const existing = new Set<string>();
       const numbers = good.map((g) => g.value.modelNumber);
       for (let i = 0; i < numbers.length; i += 1000) {
-        const found = await repo.find({ where: { manufacturerId, modelNumber: In(numbers.slice(i, i + 1000)) }, select: { modelNumber: true } });
+        const found = await repo.find({
+          where: { manufacturerId, modelNumber: In(numbers.slice(i, i + 1000)) },
+          select: { modelNumber: true },
+        });
         for (const f of found) existing.add(f.modelNumber.toUpperCase());
       }
       const valid = good.filter((g) => {
         if (!existing.has(g.value.modelNumber.toUpperCase())) return true;
-        errors.push({ row: g.row, column: 'model_number', message: `Your catalogue already has a model numbered ${g.value.modelNumber}.` });
+        errors.push({
+          row: g.row,
+          column: 'model_number',
+          message: `Your catalogue already has a model numbered ${g.value.modelNumber}.`,
+        });
         return false;
       });
       errors.sort((a, b) => a.row - b.row);
@@ -164,14 +229,30 @@ export function createProductsService(ds: AppDataSource) {
       let imported = 0;
       if (!dryRun && !blocked && valid.length) {
         await ds.transaction(async (m) => {
-          const records = valid.map((g) => ({ id: crypto.randomUUID(), manufacturerId, ...g.value, version: 1 }));
+          const records = valid.map((g) => ({
+            id: crypto.randomUUID(),
+            manufacturerId,
+            ...g.value,
+            version: 1,
+          }));
           for (let i = 0; i < records.length; i += 500) {
-            await m.createQueryBuilder().insert().into(ProductModel).values(records.slice(i, i + 500)).updateEntity(false).execute();
+            await m
+              .createQueryBuilder()
+              .insert()
+              .into(ProductModel)
+              .values(records.slice(i, i + 500))
+              .updateEntity(false)
+              .execute();
           }
           await recordAuditMany(
             m,
             actor,
-            records.map((r) => ({ action: 'product.imported', entityType: 'ProductModel', entityId: r.id, after: productAuditView(r) })),
+            records.map((r) => ({
+              action: 'product.imported',
+              entityType: 'ProductModel',
+              entityId: r.id,
+              after: productAuditView(r),
+            })),
           );
         });
         imported = valid.length;

@@ -16,8 +16,16 @@ function addMonths(isoMonth: string, k: number): string {
   return `${Math.floor(i / 12)}-${String((i % 12) + 1).padStart(2, '0')}`;
 }
 
-export async function buildReserve(service: AnalyticsService, manufacturerId: string, asOf: string, months: number): Promise<ReserveDto> {
-  const [lifeByModel, groups] = await Promise.all([service.lifeDataByModel(manufacturerId, { asOf, midpoint: true }), service.reserveCohorts(manufacturerId, asOf)]);
+export async function buildReserve(
+  service: AnalyticsService,
+  manufacturerId: string,
+  asOf: string,
+  months: number,
+): Promise<ReserveDto> {
+  const [lifeByModel, groups] = await Promise.all([
+    service.lifeDataByModel(manufacturerId, { asOf, midpoint: true }),
+    service.reserveCohorts(manufacturerId, asOf),
+  ]);
 
   const models = new Map<string, { modelNumber: string; family: string }>();
   for (const g of groups) models.set(g.productModelId, { modelNumber: g.modelNumber, family: g.family });
@@ -35,7 +43,9 @@ export async function buildReserve(service: AnalyticsService, manufacturerId: st
     } else {
       if (!familyFits.has(m.family)) {
         // Every model of the family the manufacturer has installed, not only those in cohorts.
-        const lives = [...lifeByModel.entries()].filter(([mid]) => (familyOf.get(m.family) ?? []).includes(mid)).map(([, l]) => l);
+        const lives = [...lifeByModel.entries()]
+          .filter(([mid]) => (familyOf.get(m.family) ?? []).includes(mid))
+          .map(([, l]) => l);
         const fam = lives.length ? service.fit(mergeLife(lives)) : null;
         familyFits.set(m.family, fam?.ok ? fam.fit : null);
       }
@@ -43,17 +53,32 @@ export async function buildReserve(service: AnalyticsService, manufacturerId: st
       if (fam) fits.set(id, { life: fam, from: 'family' });
     }
     const f = fits.get(id);
-    if (f) fitsOut.push({ productModelId: id, modelNumber: m.modelNumber, shape: f.life.shape, scale: f.life.scale, from: f.from });
+    if (f)
+      fitsOut.push({
+        productModelId: id,
+        modelNumber: m.modelNumber,
+        shape: f.life.shape,
+        scale: f.life.scale,
+        from: f.from,
+      });
   }
 
   const cohorts: ReserveCohort[] = [];
-  const meta = new Map<string, Omit<ReserveCohortDto, keyof ReturnType<typeof forecastReserve>['cohorts'][number]>>();
+  const meta = new Map<
+    string,
+    Omit<ReserveCohortDto, keyof ReturnType<typeof forecastReserve>['cohorts'][number]>
+  >();
   const unforecast = new Map<string, ReserveDto['unforecast'][number]>();
   for (const g of groups) {
     if (g.survivors <= 0 || g.ageMonths >= g.termMonths) continue; // nothing left to claim under this term
     const f = fits.get(g.productModelId);
     if (!f) {
-      const u = unforecast.get(g.productModelId) ?? { productModelId: g.productModelId, modelNumber: g.modelNumber, survivors: 0, reason: 'Too few covered failures to fit, for the model and for its family.' };
+      const u = unforecast.get(g.productModelId) ?? {
+        productModelId: g.productModelId,
+        modelNumber: g.modelNumber,
+        survivors: 0,
+        reason: 'Too few covered failures to fit, for the model and for its family.',
+      };
       u.survivors += g.survivors;
       unforecast.set(g.productModelId, u);
       continue;
@@ -99,9 +124,13 @@ export async function buildReserve(service: AnalyticsService, manufacturerId: st
     existing.expectedClaims += row.expectedClaims;
     existing.monthlyClaims = existing.monthlyClaims.map((v, k) => v + row.monthlyClaims[k]);
     existing.amount = formatCents(parseCents(existing.amount) + parseCents(row.amount));
-    existing.monthlyAmounts = existing.monthlyAmounts.map((v, k) => formatCents(parseCents(v) + parseCents(row.monthlyAmounts[k])));
+    existing.monthlyAmounts = existing.monthlyAmounts.map((v, k) =>
+      formatCents(parseCents(v) + parseCents(row.monthlyAmounts[k])),
+    );
   }
-  const rows = [...merged.values()].sort((a, b) => parseCents(b.amount) - parseCents(a.amount) || a.key.localeCompare(b.key));
+  const rows = [...merged.values()].sort(
+    (a, b) => parseCents(b.amount) - parseCents(a.amount) || a.key.localeCompare(b.key),
+  );
   const first = asOf.slice(0, 7);
   return {
     asOf,

@@ -6,4 +6,5 @@ import { pick } from '../../lib/present';
 
 const OPTION_FIELDS = ['id', 'name'] as const;
 
-export const presentDeskOption = (row: { id: string; name: string }): DeskOptionDto => pick(row, OPTION_FIELDS);
+export const presentDeskOption = (row: { id: string; name: string }): DeskOptionDto =>
+  pick(row, OPTION_FIELDS);

@@ -84,7 +84,9 @@ function where(q: QueueQuery, manufacturerId: string, userId: string) {
   } else if (q.q) {
     // A claim number by prefix (as typed, upper-cased); otherwise the site, the contractor, the model or a serial.
     const like = likeContains(q.q);
-    clauses.push("(c.number LIKE ? OR i.site_name LIKE ? OR o.name LIKE ? OR p.model_number LIKE ? OR JSON_SEARCH(c.serials, 'one', ?) IS NOT NULL)");
+    clauses.push(
+      "(c.number LIKE ? OR i.site_name LIKE ? OR o.name LIKE ? OR p.model_number LIKE ? OR JSON_SEARCH(c.serials, 'one', ?) IS NOT NULL)",
+    );
     params.push(`${q.q.toUpperCase().replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`, like, like, like, q.q);
   }
   // The count needs the joined tables only for a free-text search.
@@ -116,7 +118,10 @@ export function reviewRouter(ctx: AppContext) {
           `ORDER BY ${sort.column} ${sort.direction}, c.id ${sort.direction} LIMIT ? OFFSET ?`,
         [...params, q.pageSize, (q.page - 1) * q.pageSize],
       ) as Promise<Row[]>,
-      ctx.ds.query(`SELECT STRAIGHT_JOIN COUNT(*) AS n ${countJoins ? from : 'FROM claims c'} WHERE ${sql}`, params) as Promise<{ n: number | string }[]>,
+      ctx.ds.query(
+        `SELECT STRAIGHT_JOIN COUNT(*) AS n ${countJoins ? from : 'FROM claims c'} WHERE ${sql}`,
+        params,
+      ) as Promise<{ n: number | string }[]>,
     ]);
     const now = clock.now();
     const days = (d: Date) => Math.max(0, Math.floor((now.getTime() - new Date(d).getTime()) / 86_400_000));
@@ -149,23 +154,34 @@ export function reviewRouter(ctx: AppContext) {
     const user = req.user!;
     const repo = ctx.ds.getRepository(Claim);
     const [byStage, mine, unassigned, oldest] = await Promise.all([
-      ctx.ds.query("SELECT stage, COUNT(*) AS n FROM claims WHERE manufacturer_id = ? AND stage <> 'draft' GROUP BY stage", [user.organizationId]) as Promise<{ stage: ClaimStage; n: string | number }[]>,
+      ctx.ds.query(
+        "SELECT stage, COUNT(*) AS n FROM claims WHERE manufacturer_id = ? AND stage <> 'draft' GROUP BY stage",
+        [user.organizationId],
+      ) as Promise<{ stage: ClaimStage; n: string | number }[]>,
       ctx.ds.query(
         "SELECT COUNT(*) AS n FROM claims WHERE assigned_reviewer_id = ? AND stage IN ('filed','in_review','unit_received','return_requested','needs_info')",
         [user.id],
       ) as Promise<{ n: string | number }[]>,
-      ctx.ds.query("SELECT COUNT(*) AS n FROM claims WHERE manufacturer_id = ? AND stage = 'filed' AND assigned_reviewer_id IS NULL", [user.organizationId]) as Promise<{ n: string | number }[]>,
+      ctx.ds.query(
+        "SELECT COUNT(*) AS n FROM claims WHERE manufacturer_id = ? AND stage = 'filed' AND assigned_reviewer_id IS NULL",
+        [user.organizationId],
+      ) as Promise<{ n: string | number }[]>,
       repo
         .createQueryBuilder('c')
         .select('MIN(c.stage_changed_at)', 'at')
-        .where("c.manufacturer_id = :m AND c.waiting_on = 'manufacturer' AND c.stage IN ('filed','in_review','unit_received','return_requested')", { m: user.organizationId })
+        .where(
+          "c.manufacturer_id = :m AND c.waiting_on = 'manufacturer' AND c.stage IN ('filed','in_review','unit_received','return_requested')",
+          { m: user.organizationId },
+        )
         .getRawOne<{ at: Date | null }>(),
     ]);
     const summary: QueueSummaryDto = {
       counts: Object.fromEntries(byStage.map((s) => [s.stage, Number(s.n)])),
       mine: Number(mine[0]?.n ?? 0),
       unassigned: Number(unassigned[0]?.n ?? 0),
-      oldestWaitingDays: oldest?.at ? Math.max(0, Math.floor((clock.nowMs() - new Date(oldest.at).getTime()) / 86_400_000)) : null,
+      oldestWaitingDays: oldest?.at
+        ? Math.max(0, Math.floor((clock.nowMs() - new Date(oldest.at).getTime()) / 86_400_000))
+        : null,
     };
     res.json(summary);
   });
@@ -187,7 +203,10 @@ export function reviewRouter(ctx: AppContext) {
         `${filter} ORDER BY o.name, o.id LIMIT ?`,
       [...params, DESK_OPTIONS_LIMIT + 1],
     )) as { id: string; name: string }[];
-    res.json({ items: rows.slice(0, DESK_OPTIONS_LIMIT).map(presentDeskOption), more: rows.length > DESK_OPTIONS_LIMIT });
+    res.json({
+      items: rows.slice(0, DESK_OPTIONS_LIMIT).map(presentDeskOption),
+      more: rows.length > DESK_OPTIONS_LIMIT,
+    });
   });
 
   // The active reviewers of the signed-in reviewer's own manufacturer: whom a claim can be handed to. The people

@@ -26,7 +26,10 @@ function checkRolesFit(roles: Role[], kind: SessionUser['organization']['kind'])
   const bad = roles.filter((r) => !allowed.includes(r));
   if (bad.length) {
     throw new AppError(400, 'validation.failed', 'The request body has invalid fields.', [
-      { path: 'roles', message: `A ${kind} cannot have the role ${bad.map((r) => ROLE_LABELS[r]).join(', ')}.` },
+      {
+        path: 'roles',
+        message: `A ${kind} cannot have the role ${bad.map((r) => ROLE_LABELS[r]).join(', ')}.`,
+      },
     ]);
   }
 }
@@ -79,7 +82,12 @@ export function createUsersService(ds: AppDataSource, opts: { publicUrl: (path: 
           usedAt: null,
           createdById: inviter.id,
         });
-        await recordAudit(m, actor, { action: 'user.invited', entityType: 'User', entityId: user.id, after: auditView(user) });
+        await recordAudit(m, actor, {
+          action: 'user.invited',
+          entityType: 'User',
+          entityId: user.id,
+          after: auditView(user),
+        });
         await enqueueEmail(m, {
           to: [user.email],
           template: 'invitation',
@@ -117,14 +125,26 @@ export function createUsersService(ds: AppDataSource, opts: { publicUrl: (path: 
           .set({ ...patch, version: () => 'version + 1' })
           .where('id = :id AND version = :v', { id: target.id, v: target.version })
           .execute();
-        if (!result.affected) throw conflict('user.changed', 'Someone else changed this user just now. Reload and try again.');
+        if (!result.affected)
+          throw conflict('user.changed', 'Someone else changed this user just now. Reload and try again.');
         const after = await m.findOneByOrFail(User, { id: target.id });
         if (after.status === 'disabled') {
           // Sessions end at once: the session rows go, and every request re-checks the user's status anyway.
           await m.query('DELETE FROM sessions WHERE data LIKE ?', [`%"user":"${after.id}"%`]);
         }
-        const action = input.status === 'disabled' ? 'user.disabled' : input.status === 'active' ? 'user.enabled' : 'user.updated';
-        await recordAudit(m, actor, { action, entityType: 'User', entityId: after.id, before, after: auditView(after) });
+        const action =
+          input.status === 'disabled'
+            ? 'user.disabled'
+            : input.status === 'active'
+              ? 'user.enabled'
+              : 'user.updated';
+        await recordAudit(m, actor, {
+          action,
+          entityType: 'User',
+          entityId: after.id,
+          before,
+          after: auditView(after),
+        });
         return after;
       });
     },

@@ -47,7 +47,8 @@ export function AppRoot() {
   }
   if (session.isError) throw session.error;
   if (!session.data) {
-    const next = location.pathname === '/' ? '' : `?next=${encodeURIComponent(location.pathname + location.search)}`;
+    const next =
+      location.pathname === '/' ? '' : `?next=${encodeURIComponent(location.pathname + location.search)}`;
     return <Navigate to={`/sign-in${next}`} replace />;
   }
   return (

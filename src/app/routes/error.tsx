@@ -9,14 +9,20 @@ export function ErrorRoute() {
     <main className="grid min-h-dvh place-items-center px-6">
       <div className="max-w-md text-center">
         <Logo className="mb-8 text-lg text-ink-950" />
-        <h1 className="text-2xl font-bold text-ink-950">{notFound ? 'Page not found' : 'Something went wrong'}</h1>
+        <h1 className="text-2xl font-bold text-ink-950">
+          {notFound ? 'Page not found' : 'Something went wrong'}
+        </h1>
         <p className="mt-2 text-ink-600">
           {notFound
             ? 'That address does not lead anywhere in Lumenproof.'
             : 'The screen could not be shown. Reload the page; if it happens again, tell your administrator.'}
         </p>
         <div className="mt-6 flex justify-center gap-2">
-          <button type="button" className={buttonClasses('secondary')} onClick={() => window.location.reload()}>
+          <button
+            type="button"
+            className={buttonClasses('secondary')}
+            onClick={() => window.location.reload()}
+          >
             Reload
           </button>
           <Link to="/" className={buttonClasses('primary')}>

@@ -13,8 +13,15 @@ import { ApiError } from '../../lib/api-client';
 
 export function InvitationRoute() {
   const { token = '' } = useParams();
-  const invitation = useQuery({ queryKey: ['invitations', token], queryFn: () => getInvitation(token), retry: false });
-  const form = useForm<AcceptInvitationInput>({ resolver: zodResolver(acceptInvitationSchema), defaultValues: { password: '' } });
+  const invitation = useQuery({
+    queryKey: ['invitations', token],
+    queryFn: () => getInvitation(token),
+    retry: false,
+  });
+  const form = useForm<AcceptInvitationInput>({
+    resolver: zodResolver(acceptInvitationSchema),
+    defaultValues: { password: '' },
+  });
   const accept = useMutation({ mutationFn: (v: AcceptInvitationInput) => acceptInvitation(token, v) });
 
   return (
@@ -30,22 +37,29 @@ export function InvitationRoute() {
             <div role="alert">
               <h1 className="text-lg font-semibold text-ink-950">This link does not work</h1>
               <p className="mt-2 text-sm text-ink-600">
-                {invitation.error instanceof ApiError ? invitation.error.message : 'The invitation could not be loaded.'}
+                {invitation.error instanceof ApiError
+                  ? invitation.error.message
+                  : 'The invitation could not be loaded.'}
               </p>
             </div>
           ) : accept.isSuccess ? (
             <div role="status">
               <h1 className="text-lg font-semibold text-ink-950">You are in</h1>
-              <p className="mt-2 text-sm text-ink-600">Your password is set. Sign in with {accept.data.email}.</p>
+              <p className="mt-2 text-sm text-ink-600">
+                Your password is set. Sign in with {accept.data.email}.
+              </p>
               <Link to="/sign-in" className={buttonClasses('primary', 'lg', 'mt-5 w-full')}>
                 Sign in
               </Link>
             </div>
           ) : (
             <>
-              <h1 className="text-lg font-semibold text-ink-950">Join {invitation.data.invitation.organization.name}</h1>
+              <h1 className="text-lg font-semibold text-ink-950">
+                Join {invitation.data.invitation.organization.name}
+              </h1>
               <p className="mt-1 mb-4 text-sm text-ink-600">
-                Choose a password for {invitation.data.invitation.email}. Use at least 12 characters; a short sentence works well.
+                Choose a password for {invitation.data.invitation.email}. Use at least 12 characters; a short
+                sentence works well.
               </p>
               <form noValidate className="space-y-4" onSubmit={form.handleSubmit((v) => accept.mutate(v))}>
                 {accept.error ? (

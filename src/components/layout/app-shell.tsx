@@ -19,10 +19,21 @@ type Props = {
  * Desktop: a left rail. Phone: a top bar and a bottom tab bar within thumb reach, so that an installer on a
  * lift can move around with one hand.
  */
-export function AppShell({ nav, userName, organizationName, roleText, onSignOut, signingOut, children }: Props) {
+export function AppShell({
+  nav,
+  userName,
+  organizationName,
+  roleText,
+  onSignOut,
+  signingOut,
+  children,
+}: Props) {
   return (
     <div className="min-h-dvh">
-      <a href="#main" className="sr-only z-50 rounded bg-white px-3 py-2 focus:not-sr-only focus:fixed focus:top-2 focus:left-2">
+      <a
+        href="#main"
+        className="sr-only z-50 rounded bg-white px-3 py-2 focus:not-sr-only focus:fixed focus:top-2 focus:left-2"
+      >
         Skip to content
       </a>
       <aside className="fixed inset-y-0 left-0 hidden w-60 flex-col border-r border-ink-200 bg-white lg:flex">
@@ -88,7 +99,10 @@ export function AppShell({ nav, userName, organizationName, roleText, onSignOut,
 }
 
 const tabClass = (active: boolean) =>
-  cn('flex h-16 w-full flex-col items-center justify-center gap-1 text-xs font-medium', active ? 'text-brand-700' : 'text-ink-600');
+  cn(
+    'flex h-16 w-full flex-col items-center justify-center gap-1 text-xs font-medium',
+    active ? 'text-brand-700' : 'text-ink-600',
+  );
 
 /** The phone's bottom bar: the first four places within thumb reach, the rest behind "More". */
 function PhoneTabs({ nav }: { nav: NavItem[] }) {
@@ -99,7 +113,10 @@ function PhoneTabs({ nav }: { nav: NavItem[] }) {
   const more = nav.length > 5 ? nav.slice(4) : [];
   const moreActive = more.some((i) => location.pathname.startsWith(i.to));
   return (
-    <nav aria-label="Main" className="fixed inset-x-0 bottom-0 z-30 border-t border-ink-200 bg-white pb-[env(safe-area-inset-bottom)] lg:hidden">
+    <nav
+      aria-label="Main"
+      className="fixed inset-x-0 bottom-0 z-30 border-t border-ink-200 bg-white pb-[env(safe-area-inset-bottom)] lg:hidden"
+    >
       {open ? (
         <ul id="more-places" className="border-b border-ink-100 py-1">
           {more.map((item) => (
@@ -107,7 +124,10 @@ function PhoneTabs({ nav }: { nav: NavItem[] }) {
               <NavLink
                 to={item.to}
                 className={({ isActive }) =>
-                  cn('flex h-12 items-center gap-3 px-5 text-sm font-medium', isActive ? 'bg-brand-50 text-brand-800' : 'text-ink-800')
+                  cn(
+                    'flex h-12 items-center gap-3 px-5 text-sm font-medium',
+                    isActive ? 'bg-brand-50 text-brand-800' : 'text-ink-800',
+                  )
                 }
               >
                 <item.icon className="size-5" aria-hidden />
@@ -128,7 +148,13 @@ function PhoneTabs({ nav }: { nav: NavItem[] }) {
         ))}
         {more.length ? (
           <li className="min-w-0 flex-1">
-            <button type="button" aria-expanded={open} aria-controls="more-places" onClick={() => setOpen((o) => !o)} className={tabClass(moreActive || open)}>
+            <button
+              type="button"
+              aria-expanded={open}
+              aria-controls="more-places"
+              onClick={() => setOpen((o) => !o)}
+              className={tabClass(moreActive || open)}
+            >
               <MoreHorizontal className="size-6" aria-hidden />
               More
             </button>

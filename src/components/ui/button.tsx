@@ -7,7 +7,8 @@ type Size = 'sm' | 'md' | 'lg';
 
 const variants: Record<Variant, string> = {
   primary: 'bg-brand-700 text-white hover:bg-brand-800 active:bg-brand-900 disabled:bg-ink-300',
-  secondary: 'border border-ink-300 bg-white text-ink-900 hover:bg-ink-50 active:bg-ink-100 disabled:text-ink-400',
+  secondary:
+    'border border-ink-300 bg-white text-ink-900 hover:bg-ink-50 active:bg-ink-100 disabled:text-ink-400',
   ghost: 'text-ink-700 hover:bg-ink-100 active:bg-ink-200 disabled:text-ink-400',
   danger: 'bg-bad-700 text-white hover:bg-bad-800 active:bg-bad-900 disabled:bg-ink-300',
 };
@@ -34,7 +35,16 @@ export function buttonClasses(variant: Variant = 'primary', size: Size = 'md', e
   );
 }
 
-export function Button({ variant = 'primary', size = 'md', loading, icon, className, children, disabled, ...rest }: ButtonProps) {
+export function Button({
+  variant = 'primary',
+  size = 'md',
+  loading,
+  icon,
+  className,
+  children,
+  disabled,
+  ...rest
+}: ButtonProps) {
   return (
     <button
       type="button"

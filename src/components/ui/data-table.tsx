@@ -33,7 +33,9 @@ export type SortDirection = 'ascending' | 'descending';
 
 /** "-issuedAt" → { key: "issuedAt", direction: "descending" } */
 export function readSort(sort: string): { key: string; direction: SortDirection } {
-  return sort.startsWith('-') ? { key: sort.slice(1), direction: 'descending' } : { key: sort, direction: 'ascending' };
+  return sort.startsWith('-')
+    ? { key: sort.slice(1), direction: 'descending' }
+    : { key: sort, direction: 'ascending' };
 }
 
 /** The sort after pressing a column's header: the other way round if it is the current one, else its first way. */
@@ -59,7 +61,19 @@ type DataTableProps<T> = {
   children?: ReactNode;
 };
 
-export function DataTable<T extends { id: string }>({ caption, columns, result, loadingLabel, empty, errorText, onPage, sort, onSort, toolbar, children }: DataTableProps<T>) {
+export function DataTable<T extends { id: string }>({
+  caption,
+  columns,
+  result,
+  loadingLabel,
+  empty,
+  errorText,
+  onPage,
+  sort,
+  onSort,
+  toolbar,
+  children,
+}: DataTableProps<T>) {
   const { data } = result;
   const current = sort === undefined ? null : readSort(sort);
   let body: ReactNode;
@@ -110,7 +124,10 @@ export function DataTable<T extends { id: string }>({ caption, columns, result, 
                       )}
                     >
                       {c.header}
-                      <Icon className={cn('size-3.5', active ? 'text-brand-700' : 'text-ink-400')} aria-hidden />
+                      <Icon
+                        className={cn('size-3.5', active ? 'text-brand-700' : 'text-ink-400')}
+                        aria-hidden
+                      />
                     </button>
                   </Th>
                 );
@@ -177,7 +194,15 @@ export function SearchField({
 }
 
 /** A select of the list's sorts, for phones, where the table's headers may be scrolled out of view. */
-export function SortSelect({ options, value, onChange }: { options: readonly (readonly [string, string])[]; value: string; onChange: (sort: string) => void }) {
+export function SortSelect({
+  options,
+  value,
+  onChange,
+}: {
+  options: readonly (readonly [string, string])[];
+  value: string;
+  onChange: (sort: string) => void;
+}) {
   return (
     <SelectField label="Sort by" value={value} onChange={(e) => onChange(e.target.value)}>
       {options.map(([v, l]) => (
@@ -222,7 +247,9 @@ export function useListState<F extends Record<string, string>>(initial: F) {
   const [state, setState] = useState<F & { page: number }>({ ...initial, page: 1 });
   const set = (patch: Partial<F>) => setState((s) => ({ ...s, ...patch, page: 1 }));
   const setPage = (page: number) => setState((s) => ({ ...s, page }));
-  const params = Object.fromEntries(Object.entries(state).filter(([, v]) => v !== '')) as Partial<F> & { page: number };
+  const params = Object.fromEntries(Object.entries(state).filter(([, v]) => v !== '')) as Partial<F> & {
+    page: number;
+  };
   /** Spread on the DataTable: its sort headers and its pages drive this state. */
   const tableProps = {
     sort: (state as { sort?: string }).sort,

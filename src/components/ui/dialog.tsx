@@ -48,12 +48,19 @@ export function Dialog({
               </h2>
               {description ? <p className="mt-1 text-sm text-ink-600">{description}</p> : null}
             </div>
-            <button type="button" onClick={onClose} className="-m-1 rounded-md p-2 text-ink-500 hover:bg-ink-100" aria-label="Close">
+            <button
+              type="button"
+              onClick={onClose}
+              className="-m-1 rounded-md p-2 text-ink-500 hover:bg-ink-100"
+              aria-label="Close"
+            >
               <X className="size-5" aria-hidden />
             </button>
           </div>
           <div className="overflow-y-auto px-5 py-4">{children}</div>
-          {footer ? <div className="flex justify-end gap-2 border-t border-ink-100 px-5 py-3">{footer}</div> : null}
+          {footer ? (
+            <div className="flex justify-end gap-2 border-t border-ink-100 px-5 py-3">{footer}</div>
+          ) : null}
         </div>
       ) : null}
     </dialog>

@@ -1,4 +1,10 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, forwardRef } from 'react';
+import {
+  useId,
+  type InputHTMLAttributes,
+  type ReactNode,
+  type SelectHTMLAttributes,
+  forwardRef,
+} from 'react';
 import { cn } from '../../lib/cn';
 
 const control =
@@ -16,7 +22,15 @@ type FieldShellProps = {
 };
 
 /** Label, control, unit, hint and error, wired together for screen readers. */
-export function FieldShell({ label, hint, error, unit, children, className, hideLabel = false }: FieldShellProps) {
+export function FieldShell({
+  label,
+  hint,
+  error,
+  unit,
+  children,
+  className,
+  hideLabel = false,
+}: FieldShellProps) {
   const id = useId();
   const hintId = hint ? `${id}-hint` : undefined;
   const errorId = error ? `${id}-error` : undefined;
@@ -42,14 +56,27 @@ export function FieldShell({ label, hint, error, unit, children, className, hide
   );
 }
 
-type InputFieldProps = InputHTMLAttributes<HTMLInputElement> & { label: string; hint?: ReactNode; error?: string; unit?: string; hideLabel?: boolean };
+type InputFieldProps = InputHTMLAttributes<HTMLInputElement> & {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+  unit?: string;
+  hideLabel?: boolean;
+};
 
 export const InputField = forwardRef<HTMLInputElement, InputFieldProps>(function InputField(
   { label, hint, error, unit, className, hideLabel, ...rest },
   ref,
 ) {
   return (
-    <FieldShell label={label} hint={hint} error={error} unit={unit} className={className} hideLabel={hideLabel}>
+    <FieldShell
+      label={label}
+      hint={hint}
+      error={error}
+      unit={unit}
+      className={className}
+      hideLabel={hideLabel}
+    >
       {({ id, describedBy }) => (
         <input
           ref={ref}
@@ -64,7 +91,11 @@ export const InputField = forwardRef<HTMLInputElement, InputFieldProps>(function
   );
 });
 
-type SelectFieldProps = SelectHTMLAttributes<HTMLSelectElement> & { label: string; hint?: ReactNode; error?: string };
+type SelectFieldProps = SelectHTMLAttributes<HTMLSelectElement> & {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+};
 
 export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(function SelectField(
   { label, hint, error, className, children, ...rest },

@@ -22,7 +22,10 @@ export function ToastProvider({ children }: { children: ReactNode }) {
   return (
     <ToastContext.Provider value={api}>
       {children}
-      <div aria-live="polite" className="pointer-events-none fixed inset-x-0 bottom-20 z-50 flex flex-col items-center gap-2 px-3 sm:bottom-6 sm:items-end sm:px-6">
+      <div
+        aria-live="polite"
+        className="pointer-events-none fixed inset-x-0 bottom-20 z-50 flex flex-col items-center gap-2 px-3 sm:bottom-6 sm:items-end sm:px-6"
+      >
         {toasts.map((t) => (
           <div
             key={t.id}
@@ -38,7 +41,12 @@ export function ToastProvider({ children }: { children: ReactNode }) {
               <AlertTriangle className="mt-0.5 size-4 shrink-0 text-bad-700" aria-hidden />
             )}
             <p className="flex-1 text-ink-900">{t.message}</p>
-            <button type="button" className="-m-1 rounded p-1 text-ink-500 hover:bg-ink-100" onClick={() => dismiss(t.id)} aria-label="Dismiss">
+            <button
+              type="button"
+              className="-m-1 rounded p-1 text-ink-500 hover:bg-ink-100"
+              onClick={() => dismiss(t.id)}
+              aria-label="Dismiss"
+            >
               <X className="size-4" aria-hidden />
             </button>
           </div>

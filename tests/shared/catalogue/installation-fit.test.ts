@@ -4,9 +4,19 @@ import { coverageDate, versionInForce } from '../../../shared/catalogue/policy-v
 import type { InstallationConditions } from '../../../shared/schemas/catalogue';
 import { productPayload } from '../../support/catalogue-factories';
 
-const product = { ...productPayload(), driverMaxOutputVolts: 56 } as Parameters<typeof checkInstallationFit>[0];
-const fits: InstallationConditions = { location: 'dry', enclosure: 'open', dimmer: 'none', nominalSupplyVolts: 277, hoursPerDay: 12, ambientC: 25 };
-const codes = (c: Partial<InstallationConditions>, p = product) => checkInstallationFit(p, { ...fits, ...c }).map((w) => w.code);
+const product = { ...productPayload(), driverMaxOutputVolts: 56 } as Parameters<
+  typeof checkInstallationFit
+>[0];
+const fits: InstallationConditions = {
+  location: 'dry',
+  enclosure: 'open',
+  dimmer: 'none',
+  nominalSupplyVolts: 277,
+  hoursPerDay: 12,
+  ambientC: 25,
+};
+const codes = (c: Partial<InstallationConditions>, p = product) =>
+  checkInstallationFit(p, { ...fits, ...c }).map((w) => w.code);
 
 describe('installation fit (the engine application rules, live in the form)', () => {
   it('says nothing when the conditions fit the ratings', () => {
@@ -29,7 +39,9 @@ describe('installation fit (the engine application rules, live in the form)', ()
   });
 
   it('warns on any dimmer on a non-dimmable product, and on the wrong kind of dimmer', () => {
-    expect(codes({ dimmer: 'phase' }, { ...product, dimming: 'none' })).toEqual(['application.dimmer_on_non_dimmable']);
+    expect(codes({ dimmer: 'phase' }, { ...product, dimming: 'none' })).toEqual([
+      'application.dimmer_on_non_dimmable',
+    ]);
     expect(codes({ dimmer: 'phase' })).toEqual(['application.dimmer_method_mismatch']); // product dims 0-10 V
     expect(codes({ dimmer: '0-10v' })).toEqual([]);
   });

@@ -19,7 +19,13 @@ describe('product model schema', () => {
 
   it('names the field, the bound and the unit for out-of-range values', () => {
     const r = productInputSchema.safeParse(
-      productPayload({ ratedInputWatts: 0, ledStrings: 2.5, ledsPerString: 0, ambientMaxC: 120, ratedLifeHours: 10 }),
+      productPayload({
+        ratedInputWatts: 0,
+        ledStrings: 2.5,
+        ledsPerString: 0,
+        ambientMaxC: 120,
+        ratedLifeHours: 10,
+      }),
     );
     expect(messages(r)).toMatchObject({
       ratedInputWatts: 'The rated input power must be above 0 W.',
@@ -38,7 +44,9 @@ describe('product model schema', () => {
   it('refuses a driver limit below the string voltage (string voltage = n x Vf, LED application-note practice)', () => {
     // 16 LEDs x 3.0 V = 48 V: a 40 V open-circuit limit could never light the string.
     const r = productInputSchema.safeParse(productPayload({ driverMaxOutputVolts: 40 }));
-    expect(messages(r).driverMaxOutputVolts).toBe('The open-circuit limit must be at least the string voltage (16 LEDs x 3 V = 48 V).');
+    expect(messages(r).driverMaxOutputVolts).toBe(
+      'The open-circuit limit must be at least the string voltage (16 LEDs x 3 V = 48 V).',
+    );
   });
 
   it('refuses LEDs that would draw more than the rated input (P = V x I; efficiency is below 1)', () => {
@@ -60,7 +68,14 @@ describe('policy terms schema', () => {
   });
 
   it('refuses a full-coverage period longer than the term, bad money and a zero threshold', () => {
-    const r = policyTermsSchema.safeParse(termsPayload({ fullCoverageMonths: 72, unitCredit: '96.005', darkLedFailurePercent: 0, currency: 'US' }));
+    const r = policyTermsSchema.safeParse(
+      termsPayload({
+        fullCoverageMonths: 72,
+        unitCredit: '96.005',
+        darkLedFailurePercent: 0,
+        currency: 'US',
+      }),
+    );
     expect(messages(r)).toMatchObject({
       fullCoverageMonths: 'The full-coverage period cannot be longer than the term.',
       unitCredit: 'Enter the unit credit as an amount like "96.00" (at most two decimals).',
@@ -70,19 +85,23 @@ describe('policy terms schema', () => {
   });
 
   it('refuses an impossible calendar date', () => {
-    expect(messages(policyTermsSchema.safeParse(termsPayload({ effectiveFrom: '2024-02-30' }))).effectiveFrom).toBe(
-      'The effective date is not a calendar date.',
-    );
+    expect(
+      messages(policyTermsSchema.safeParse(termsPayload({ effectiveFrom: '2024-02-30' }))).effectiveFrom,
+    ).toBe('The effective date is not a calendar date.');
   });
 });
 
 describe('installation schema', () => {
   const id = '11111111-1111-4111-8111-111111111111';
   it('refuses more serials than units and a serial listed twice', () => {
-    expect(messages(installationInputSchema.safeParse(installationPayload(id, { quantity: 1, serials: ['A1', 'B2'] }))).serials).toBe(
-      '2 serial numbers for a quantity of 1: list at most one per unit.',
-    );
-    expect(messages(installationInputSchema.safeParse(installationPayload(id, { serials: ['A1', 'a1'] }))).serials).toBe('Listed twice: a1.');
+    expect(
+      messages(
+        installationInputSchema.safeParse(installationPayload(id, { quantity: 1, serials: ['A1', 'B2'] })),
+      ).serials,
+    ).toBe('2 serial numbers for a quantity of 1: list at most one per unit.');
+    expect(
+      messages(installationInputSchema.safeParse(installationPayload(id, { serials: ['A1', 'a1'] }))).serials,
+    ).toBe('Listed twice: a1.');
   });
 
   it('offers only the nominal supplies the engine knows (120, 208, 240, 277, 347, 480 V)', () => {
@@ -116,6 +135,8 @@ describe('the latest install date', () => {
       installDate: 'The install date is in the future. Enter the day the fixtures were installed.',
     });
     expect(messages(update.safeParse({ installDate: '2027-01-01' })).installDate).toMatch(/in the future/);
-    expect(installationInputSchema.safeParse(installationPayload(id, { installDate: '2099-01-01' })).success).toBe(true);
+    expect(
+      installationInputSchema.safeParse(installationPayload(id, { installDate: '2099-01-01' })).success,
+    ).toBe(true);
   });
 });

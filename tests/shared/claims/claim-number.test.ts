@@ -1,6 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { CLAIM_NUMBER_ALPHABET, CLAIM_NUMBER_PATTERN, isValidClaimNumber, newClaimNumber, normalizeClaimNumber } from '../../../shared/claims/claim-number';
+import {
+  CLAIM_NUMBER_ALPHABET,
+  CLAIM_NUMBER_PATTERN,
+  isValidClaimNumber,
+  newClaimNumber,
+  normalizeClaimNumber,
+} from '../../../shared/claims/claim-number';
 
 describe('claim numbers', () => {
   it('are LP, the filing year and month, and six symbols without look-alikes', () => {
@@ -21,25 +27,30 @@ describe('claim numbers', () => {
 
   it('catch any one wrong symbol and any two swapped neighbours (the check symbol)', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 0, max: 2 ** 31 }), fc.integer({ min: 0, max: 5 }), fc.integer({ min: 1, max: 28 }), (seed, pos, shift) => {
-        let s = seed;
-        const rnd = (k: number) => {
-          s = (s * 1103515245 + 12345) % 2 ** 31;
-          return s % k;
-        };
-        const n = newClaimNumber(new Date('2025-06-01T00:00:00Z'), rnd);
-        expect(isValidClaimNumber(n)).toBe(true);
-        const chars = n.slice(8).replace('-', '').split('');
-        const typo = [...chars];
-        typo[pos] = CLAIM_NUMBER_ALPHABET[(CLAIM_NUMBER_ALPHABET.indexOf(typo[pos]) + shift) % 29];
-        const asNumber = (c: string[]) => `LP-2506-${c.slice(0, 3).join('')}-${c.slice(3).join('')}`;
-        expect(isValidClaimNumber(asNumber(typo))).toBe(false);
-        if (pos < 5 && chars[pos] !== chars[pos + 1]) {
-          const swapped = [...chars];
-          [swapped[pos], swapped[pos + 1]] = [swapped[pos + 1], swapped[pos]];
-          expect(isValidClaimNumber(asNumber(swapped))).toBe(false);
-        }
-      }),
+      fc.property(
+        fc.integer({ min: 0, max: 2 ** 31 }),
+        fc.integer({ min: 0, max: 5 }),
+        fc.integer({ min: 1, max: 28 }),
+        (seed, pos, shift) => {
+          let s = seed;
+          const rnd = (k: number) => {
+            s = (s * 1103515245 + 12345) % 2 ** 31;
+            return s % k;
+          };
+          const n = newClaimNumber(new Date('2025-06-01T00:00:00Z'), rnd);
+          expect(isValidClaimNumber(n)).toBe(true);
+          const chars = n.slice(8).replace('-', '').split('');
+          const typo = [...chars];
+          typo[pos] = CLAIM_NUMBER_ALPHABET[(CLAIM_NUMBER_ALPHABET.indexOf(typo[pos]) + shift) % 29];
+          const asNumber = (c: string[]) => `LP-2506-${c.slice(0, 3).join('')}-${c.slice(3).join('')}`;
+          expect(isValidClaimNumber(asNumber(typo))).toBe(false);
+          if (pos < 5 && chars[pos] !== chars[pos + 1]) {
+            const swapped = [...chars];
+            [swapped[pos], swapped[pos + 1]] = [swapped[pos + 1], swapped[pos]];
+            expect(isValidClaimNumber(asNumber(swapped))).toBe(false);
+          }
+        },
+      ),
     );
   });
 });

@@ -27,7 +27,15 @@ const policy = {
   requiredPhotos: 2,
   proofOfPurchaseRequired: true,
 };
-const installation = { installDate: '2024-01-15', location: 'dry' as const, enclosure: 'open' as const, dimmer: 'none' as const, nominalSupplyVolts: 120, hoursPerDay: 12, ambientC: 30 };
+const installation = {
+  installDate: '2024-01-15',
+  location: 'dry' as const,
+  enclosure: 'open' as const,
+  dimmer: 'none' as const,
+  nominalSupplyVolts: 120,
+  hoursPerDay: 12,
+  ambientC: 30,
+};
 
 describe('one mapping from a claim to the engine input', () => {
   it('maps the catalogue records to the ENGINE.md shape', () => {
@@ -57,7 +65,10 @@ describe('one mapping from a claim to the engine input', () => {
         serials: ['AC-2401-00017'],
         failedOn: '2025-06-10',
         symptoms: ['partly_dark'],
-        measurements: { supplyVolts: 118, strings: [{ volts: 45, amps: 0.037, darkLeds: 1 }, {}, { amps: 0 }, {}, {}] },
+        measurements: {
+          supplyVolts: 118,
+          strings: [{ volts: 45, amps: 0.037, darkLeds: 1 }, {}, { amps: 0 }, {}, {}],
+        },
         observations: { burnMarks: true, waterIngress: false },
         narrative: 'East row dark',
       },
@@ -80,6 +91,7 @@ describe('one mapping from a claim to the engine input', () => {
     const ctx = engineContextFrom(product, null, installation);
     const r = safeEvaluateClaim(engineInputFor(ctx, {}, { photos: 0, proofOfPurchase: false }, '2025-06-20'));
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.issues.map((i) => i.path)).toEqual(expect.arrayContaining(['policy', 'claim.failedOn']));
+    if (!r.ok)
+      expect(r.issues.map((i) => i.path)).toEqual(expect.arrayContaining(['policy', 'claim.failedOn']));
   });
 });

@@ -42,11 +42,15 @@ describe('meter-friendly numbers', () => {
     expect(formatMeterNumber(0.44, 'A')).toBe('0.44');
     expect(formatMeterNumber(undefined, 'A')).toBe('');
     fc.assert(
-      fc.property(fc.integer({ min: 0, max: 10_000_000 }), fc.constantFrom('A', 'mA', 'V') as fc.Arbitrary<'A' | 'mA' | 'V'>, (milli, unit) => {
-        const v = milli / 1000;
-        const back = parseMeterNumber(formatMeterNumber(v, unit), unit);
-        return back.ok && Math.abs(back.value - v) < 1e-9;
-      }),
+      fc.property(
+        fc.integer({ min: 0, max: 10_000_000 }),
+        fc.constantFrom('A', 'mA', 'V') as fc.Arbitrary<'A' | 'mA' | 'V'>,
+        (milli, unit) => {
+          const v = milli / 1000;
+          const back = parseMeterNumber(formatMeterNumber(v, unit), unit);
+          return back.ok && Math.abs(back.value - v) < 1e-9;
+        },
+      ),
     );
   });
 });

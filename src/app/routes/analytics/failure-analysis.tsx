@@ -7,11 +7,27 @@ import { useSession } from '../../../lib/ability';
 
 export function FailureAnalysisRoute() {
   const session = useSession();
-  const models = useQuery(productQueries.list({ page: 1, pageSize: 200, manufacturerId: session.user.organization.id, sort: 'modelNumber' }));
+  const models = useQuery(
+    productQueries.list({
+      page: 1,
+      pageSize: 200,
+      manufacturerId: session.user.organization.id,
+      sort: 'modelNumber',
+    }),
+  );
   return (
     <>
-      <PageHeader title="Failure analysis" description="How long your products last in the field, and where the failures come from. Installed units that still work count as survivors." />
-      {models.data ? <FailureAnalysis models={models.data.items} /> : <div className="flex justify-center py-10"><Spinner label="Loading models" /></div>}
+      <PageHeader
+        title="Failure analysis"
+        description="How long your products last in the field, and where the failures come from. Installed units that still work count as survivors."
+      />
+      {models.data ? (
+        <FailureAnalysis models={models.data.items} />
+      ) : (
+        <div className="flex justify-center py-10">
+          <Spinner label="Loading models" />
+        </div>
+      )}
     </>
   );
 }

@@ -12,7 +12,10 @@ export function InstallationNewRoute() {
   if (!ability.can('create', 'Installation')) return <NotFoundRoute />;
   return (
     <>
-      <PageHeader title="Register an installation" description="The product, the site and the conditions as installed." />
+      <PageHeader
+        title="Register an installation"
+        description="The product, the site and the conditions as installed."
+      />
       <InstallationForm
         onCancel={() => navigate('/installations')}
         onSaved={(i) => {

@@ -15,7 +15,12 @@ export function InstallationRoute() {
   const ability = useAbility();
   const q = useQuery(installationQueries.detail(id));
   if (q.isPending) return <Spinner label="Loading the installation" />;
-  if (q.error) return q.error instanceof ApiError && (q.error.status === 404 || q.error.status === 400) ? <NotFoundRoute /> : <p role="alert">{q.error.message}</p>;
+  if (q.error)
+    return q.error instanceof ApiError && (q.error.status === 404 || q.error.status === 400) ? (
+      <NotFoundRoute />
+    ) : (
+      <p role="alert">{q.error.message}</p>
+    );
   const i = q.data.installation;
   return (
     <>

@@ -10,8 +10,20 @@ export function InstallationsRoute() {
     <>
       <PageHeader
         title="Installations"
-        description={user.organization.kind === 'contractor' ? 'What your crews installed, where and how.' : 'Installations of your products, as the contractors registered them.'}
-        actions={ability.can('create', 'Installation') ? <ImportOrAdd target="installations" addTo="/installations/new" addLabel="Register an installation" /> : null}
+        description={
+          user.organization.kind === 'contractor'
+            ? 'What your crews installed, where and how.'
+            : 'Installations of your products, as the contractors registered them.'
+        }
+        actions={
+          ability.can('create', 'Installation') ? (
+            <ImportOrAdd
+              target="installations"
+              addTo="/installations/new"
+              addLabel="Register an installation"
+            />
+          ) : null
+        }
       />
       <InstallationsTable />
     </>

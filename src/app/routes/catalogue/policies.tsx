@@ -4,7 +4,13 @@ import { Link } from 'react-router-dom';
 import { Plus, ShieldCheck } from 'lucide-react';
 import { Button } from '../../../components/ui/button';
 import type { PolicyDto } from '../../../../shared/schemas/catalogue';
-import { DataTable, SearchField, TableToolbar, useListState, type Column } from '../../../components/ui/data-table';
+import {
+  DataTable,
+  SearchField,
+  TableToolbar,
+  useListState,
+  type Column,
+} from '../../../components/ui/data-table';
 import { PageHeader } from '../../../components/ui/page-header';
 import { policyQueries } from '../../../features/catalogue/api/policy-queries';
 import { PolicyTermsDialog } from '../../../features/catalogue/components/policy-terms-dialog';
@@ -17,18 +23,28 @@ const COLUMNS: Column<PolicyDto>[] = [
     header: 'Policy',
     sortKey: 'name',
     cell: (p) => (
-      <Link to={`/policies/${p.id}`} className="inline-flex min-h-11 items-center font-medium text-brand-800 hover:underline">
+      <Link
+        to={`/policies/${p.id}`}
+        className="inline-flex min-h-11 items-center font-medium text-brand-800 hover:underline"
+      >
         {p.name}
       </Link>
     ),
   },
-  { key: 'manufacturer', header: 'Manufacturer', className: 'whitespace-nowrap', cell: (p) => p.manufacturer.name },
+  {
+    key: 'manufacturer',
+    header: 'Manufacturer',
+    className: 'whitespace-nowrap',
+    cell: (p) => p.manufacturer.name,
+  },
   {
     key: 'terms',
     header: 'Current terms',
     className: 'whitespace-nowrap',
     cell: (p) =>
-      p.latestVersion ? `v${p.latestVersion.versionNumber}: ${p.latestVersion.termMonths} months, ${p.latestVersion.unitCredit} ${p.latestVersion.currency}` : '—',
+      p.latestVersion
+        ? `v${p.latestVersion.versionNumber}: ${p.latestVersion.termMonths} months, ${p.latestVersion.unitCredit} ${p.latestVersion.currency}`
+        : '—',
   },
   { key: 'models', header: 'Models', cell: (p) => p.models.map((m) => m.modelNumber).join(', ') },
 ];
@@ -44,7 +60,13 @@ export function PoliciesRoute() {
       <PageHeader
         title="Catalogue"
         description="Warranty policies and their versions."
-        actions={canCreate ? <Button icon={<Plus className="size-4" aria-hidden />} onClick={() => setCreating(true)}>New policy</Button> : null}
+        actions={
+          canCreate ? (
+            <Button icon={<Plus className="size-4" aria-hidden />} onClick={() => setCreating(true)}>
+              New policy
+            </Button>
+          ) : null
+        }
       />
       <CatalogueTabs />
       <DataTable
@@ -57,7 +79,13 @@ export function PoliciesRoute() {
         {...tableProps}
         toolbar={
           <TableToolbar>
-            <SearchField label="Search" placeholder="Policy name" value={values.q} onChange={(q) => set({ q })} className="sm:max-w-xs" />
+            <SearchField
+              label="Search"
+              placeholder="Policy name"
+              value={values.q}
+              onChange={(q) => set({ q })}
+              className="sm:max-w-xs"
+            />
           </TableToolbar>
         }
       />

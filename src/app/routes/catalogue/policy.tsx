@@ -20,9 +20,17 @@ export function PolicyRoute() {
   const [adding, setAdding] = useState(false);
   const q = useQuery(policyQueries.detail(id));
   if (q.isPending) return <Spinner label="Loading the policy" />;
-  if (q.error) return q.error instanceof ApiError && (q.error.status === 404 || q.error.status === 400) ? <NotFoundRoute /> : <p role="alert">{q.error.message}</p>;
+  if (q.error)
+    return q.error instanceof ApiError && (q.error.status === 404 || q.error.status === 400) ? (
+      <NotFoundRoute />
+    ) : (
+      <p role="alert">{q.error.message}</p>
+    );
   const p = q.data.policy;
-  const canEdit = ability.can('update', subject('WarrantyPolicy', { manufacturerId: p.manufacturer.id } as Record<string, unknown>));
+  const canEdit = ability.can(
+    'update',
+    subject('WarrantyPolicy', { manufacturerId: p.manufacturer.id } as Record<string, unknown>),
+  );
   return (
     <>
       <PageHeader
@@ -32,7 +40,10 @@ export function PolicyRoute() {
       />
       <div className="space-y-5">
         <Card>
-          <CardHeader title="Versions side by side" description="Highlighted values changed from the version before. A claim is judged by the version in force when the units were bought or installed." />
+          <CardHeader
+            title="Versions side by side"
+            description="Highlighted values changed from the version before. A claim is judged by the version in force when the units were bought or installed."
+          />
           <PolicyVersions versions={p.versions} />
         </Card>
         <Card>
@@ -40,7 +51,10 @@ export function PolicyRoute() {
           <ul className="flex flex-wrap gap-2 p-4 sm:p-5">
             {p.models.map((m) => (
               <li key={m.id}>
-                <Link to={`/catalogue/${m.id}`} className="inline-flex min-h-11 items-center rounded-lg border border-ink-200 px-3 text-sm hover:bg-ink-50">
+                <Link
+                  to={`/catalogue/${m.id}`}
+                  className="inline-flex min-h-11 items-center rounded-lg border border-ink-200 px-3 text-sm hover:bg-ink-50"
+                >
                   {m.modelNumber} · {m.name}
                 </Link>
               </li>

@@ -12,7 +12,10 @@ export function ProductNewRoute() {
   if (!ability.can('create', 'ProductModel')) return <NotFoundRoute />;
   return (
     <>
-      <PageHeader title="Add a product model" description="Every rating the claim screening needs, with its unit." />
+      <PageHeader
+        title="Add a product model"
+        description="Every rating the claim screening needs, with its unit."
+      />
       <ProductForm
         onCancel={() => navigate('/catalogue')}
         onSaved={(p) => {

@@ -21,12 +21,24 @@ export function ProductRoute() {
   const [editing, setEditing] = useState(false);
   const q = useQuery(productQueries.detail(id));
   if (q.isPending) return <Spinner label="Loading the model" />;
-  if (q.error) return q.error instanceof ApiError && (q.error.status === 404 || q.error.status === 400) ? <NotFoundRoute /> : <p role="alert">{q.error.message}</p>;
+  if (q.error)
+    return q.error instanceof ApiError && (q.error.status === 404 || q.error.status === 400) ? (
+      <NotFoundRoute />
+    ) : (
+      <p role="alert">{q.error.message}</p>
+    );
   const p = q.data.product;
-  const canEdit = ability.can('update', subject('ProductModel', { manufacturerId: p.manufacturer.id } as Record<string, unknown>));
+  const canEdit = ability.can(
+    'update',
+    subject('ProductModel', { manufacturerId: p.manufacturer.id } as Record<string, unknown>),
+  );
   return (
     <>
-      <PageHeader title={`${p.modelNumber}`} description={p.name} actions={canEdit && !editing ? <Button onClick={() => setEditing(true)}>Edit ratings</Button> : null} />
+      <PageHeader
+        title={`${p.modelNumber}`}
+        description={p.name}
+        actions={canEdit && !editing ? <Button onClick={() => setEditing(true)}>Edit ratings</Button> : null}
+      />
       <div className="space-y-5">
         {editing ? (
           <ProductForm

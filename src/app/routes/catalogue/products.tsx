@@ -11,7 +11,11 @@ export function ProductsRoute() {
       <PageHeader
         title="Catalogue"
         description="Every manufacturer's product models and their ratings."
-        actions={ability.can('create', 'ProductModel') ? <ImportOrAdd target="products" addTo="/catalogue/new" addLabel="Add a model" /> : null}
+        actions={
+          ability.can('create', 'ProductModel') ? (
+            <ImportOrAdd target="products" addTo="/catalogue/new" addLabel="Add a model" />
+          ) : null
+        }
       />
       <CatalogueTabs />
       <ProductsTable />

@@ -8,7 +8,10 @@ export function ClaimNewRoute() {
   if (!ability.can('create', 'Claim')) return <NotFoundRoute />;
   return (
     <>
-      <PageHeader title="New claim" description="A claim starts from the installation the failed units belong to." />
+      <PageHeader
+        title="New claim"
+        description="A claim starts from the installation the failed units belong to."
+      />
       <InstallationPicker />
     </>
   );

@@ -13,7 +13,11 @@ import { ApiError } from '../../../lib/api-client';
 import { useAbility } from '../../../lib/ability';
 import { NotFoundRoute } from '../not-found';
 
-const SUMMARY = { covered: ['ok', 'Likely covered'], review: ['warn', 'Needs a reviewer'], excluded: ['bad', 'Likely excluded'] } as const;
+const SUMMARY = {
+  covered: ['ok', 'Likely covered'],
+  review: ['warn', 'Needs a reviewer'],
+  excluded: ['bad', 'Likely excluded'],
+} as const;
 
 // The claims feature and the evaluation feature meet here: the form hands its engine input to the live panel.
 function LiveEvaluation({ input, variant }: { input: unknown; variant: 'panel' | 'summary' }) {
@@ -37,9 +41,18 @@ export function ClaimRoute() {
   const ability = useAbility();
   const q = useQuery(claimQueries.detail(id));
   if (q.isPending) return <Spinner label="Loading the claim" />;
-  if (q.error) return q.error instanceof ApiError && (q.error.status === 404 || q.error.status === 400) ? <NotFoundRoute /> : <p role="alert">{q.error.message}</p>;
+  if (q.error)
+    return q.error instanceof ApiError && (q.error.status === 404 || q.error.status === 400) ? (
+      <NotFoundRoute />
+    ) : (
+      <p role="alert">{q.error.message}</p>
+    );
   const c = q.data.claim;
-  const asSubject = subject('Claim', { contractorId: c.contractor.id, manufacturerId: c.manufacturer.id, stage: c.stage } as Record<string, unknown>);
+  const asSubject = subject('Claim', {
+    contractorId: c.contractor.id,
+    manufacturerId: c.manufacturer.id,
+    stage: c.stage,
+  } as Record<string, unknown>);
   const editable = c.stage === 'draft' && ability.can('update', asSubject);
   return (
     <>
@@ -48,7 +61,11 @@ export function ClaimRoute() {
         description={`${c.product.modelNumber} · ${c.installationDetail.siteName}, ${c.installationDetail.siteCity} · ${c.manufacturer.name}`}
       />
       {editable ? (
-        <ClaimForm key={c.id} claim={c} renderEvaluation={(input, variant) => <LiveEvaluation input={input} variant={variant} />} />
+        <ClaimForm
+          key={c.id}
+          claim={c}
+          renderEvaluation={(input, variant) => <LiveEvaluation input={input} variant={variant} />}
+        />
       ) : (
         <ClaimView
           claim={c}
@@ -57,7 +74,10 @@ export function ClaimRoute() {
             c.evaluation ? (
               <div className="space-y-1">
                 <EvaluationPanel evaluation={c.evaluation} />
-                <p className="text-xs text-ink-600">Evaluated when filed, {new Date(c.evaluation.evaluatedAt).toLocaleString()}, engine {c.evaluation.engineVersion}.</p>
+                <p className="text-xs text-ink-600">
+                  Evaluated when filed, {new Date(c.evaluation.evaluatedAt).toLocaleString()}, engine{' '}
+                  {c.evaluation.engineVersion}.
+                </p>
               </div>
             ) : (
               <p className="text-sm text-ink-600">Not evaluated: the claim was never filed.</p>

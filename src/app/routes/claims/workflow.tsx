@@ -13,7 +13,10 @@ export function ClaimWorkflowRoute() {
   if (wf.isError) return <p className="text-bad-700">This claim does not exist or is not shared with you.</p>;
   return (
     <>
-      <PageHeader title={`Claim ${wf.data.claim.number ?? ''}`} description="Requests, returns and the decision" />
+      <PageHeader
+        title={`Claim ${wf.data.claim.number ?? ''}`}
+        description="Requests, returns and the decision"
+      />
       <InstallerWorkflow wf={wf.data} />
     </>
   );

@@ -6,7 +6,10 @@ export function ReviewQueueRoute() {
   const manufacturerId = useSession().user.organization.id;
   return (
     <>
-      <PageHeader title="Review desk" description="Every claim on your products, with who it is waiting on and for how long." />
+      <PageHeader
+        title="Review desk"
+        description="Every claim on your products, with who it is waiting on and for how long."
+      />
       <ReviewQueue manufacturerId={manufacturerId} />
     </>
   );

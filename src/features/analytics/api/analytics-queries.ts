@@ -1,5 +1,10 @@
 import { queryOptions, keepPreviousData } from '@tanstack/react-query';
-import type { ClaimsAgeingDto, FailureModesDto, LifeAnalysisDto, ReserveDto } from '../../../../shared/schemas/analytics';
+import type {
+  ClaimsAgeingDto,
+  FailureModesDto,
+  LifeAnalysisDto,
+  ReserveDto,
+} from '../../../../shared/schemas/analytics';
 import { api, toQuery } from '../../../lib/api-client';
 
 export type Population = { productModelId?: string; family?: string; lot?: string };
@@ -23,9 +28,18 @@ export const analyticsQueries = {
       enabled: hasPopulation(p),
       placeholderData: keepPreviousData,
     }),
-  claimsAgeing: () => queryOptions({ queryKey: ['analytics', 'claims-ageing'], queryFn: () => api<ClaimsAgeingDto>('/analytics/claims-ageing') }),
-  reserve: (months: number) => queryOptions({ queryKey: ['reserve', months], queryFn: () => api<ReserveDto>(`/reserve${toQuery({ months })}`) }),
+  claimsAgeing: () =>
+    queryOptions({
+      queryKey: ['analytics', 'claims-ageing'],
+      queryFn: () => api<ClaimsAgeingDto>('/analytics/claims-ageing'),
+    }),
+  reserve: (months: number) =>
+    queryOptions({
+      queryKey: ['reserve', months],
+      queryFn: () => api<ReserveDto>(`/reserve${toQuery({ months })}`),
+    }),
 };
 
 /** The address of a table's CSV: the same query with format=csv and the table's name. */
-export const csvUrl = (path: string, params: Record<string, string | number | undefined>) => `/api${path}${toQuery({ ...params, format: 'csv' })}`;
+export const csvUrl = (path: string, params: Record<string, string | number | undefined>) =>
+  `/api${path}${toQuery({ ...params, format: 'csv' })}`;

@@ -45,7 +45,12 @@ export function ChartCard({
               {showNumbers ? 'Hide numbers' : 'Numbers'}
             </Button>
             {csvHref ? (
-              <a href={csvHref} download className={buttonClasses('secondary', 'sm')} aria-label={`Download CSV: ${title}`}>
+              <a
+                href={csvHref}
+                download
+                className={buttonClasses('secondary', 'sm')}
+                aria-label={`Download CSV: ${title}`}
+              >
                 <Download className="size-4" aria-hidden /> Download CSV
               </a>
             ) : null}
@@ -55,7 +60,14 @@ export function ChartCard({
       <div className="space-y-3 px-4 py-4 sm:px-5">
         <p className="text-sm text-ink-700">{summary}</p>
         <div aria-hidden={decorative ? 'true' : undefined}>{children}</div>
-        <div id={tableId} hidden={!showNumbers} tabIndex={0} role="region" aria-label={`Numbers: ${title}`} className="max-h-96 overflow-auto rounded-lg border border-ink-100">
+        <div
+          id={tableId}
+          hidden={!showNumbers}
+          tabIndex={0}
+          role="region"
+          aria-label={`Numbers: ${title}`}
+          className="max-h-96 overflow-auto rounded-lg border border-ink-100"
+        >
           {showNumbers ? table : null}
         </div>
       </div>
@@ -64,7 +76,15 @@ export function ChartCard({
 }
 
 /** A plain table of numbers for the Numbers toggle. */
-export function NumbersTable({ caption, head, rows }: { caption: string; head: string[]; rows: (string | number)[][] }) {
+export function NumbersTable({
+  caption,
+  head,
+  rows,
+}: {
+  caption: string;
+  head: string[];
+  rows: (string | number)[][];
+}) {
   return (
     <table className="min-w-full divide-y divide-ink-200 text-left text-sm">
       <caption className="sr-only">{caption}</caption>

@@ -10,7 +10,13 @@ import { Spinner } from '../../../components/ui/spinner';
 import { analyticsQueries, csvUrl, type LifeFilters, type Population } from '../api/analytics-queries';
 import { ChartCard, NumbersTable } from './chart-card';
 import { formatLife, formatNumber, formatPercent } from './format';
-import { AgeingHeatTable, MonthlyBars, ProbabilityPlotChart, RankedBars, SurvivalChart } from './reliability-charts';
+import {
+  AgeingHeatTable,
+  MonthlyBars,
+  ProbabilityPlotChart,
+  RankedBars,
+  SurvivalChart,
+} from './reliability-charts';
 
 export type ModelOption = { id: string; modelNumber: string; name: string };
 
@@ -29,22 +35,40 @@ function FitCards({ life }: { life: LifeAnalysisDto }) {
     return (
       <Card className="px-5 py-4">
         <p className="text-sm text-ink-800" role="status">
-          No fit yet: {life.fitError?.message ?? 'not enough failures.'} {formatNumber(life.lifeData.units)} units, {formatNumber(life.lifeData.failed)} failed.
+          No fit yet: {life.fitError?.message ?? 'not enough failures.'} {formatNumber(life.lifeData.units)}{' '}
+          units, {formatNumber(life.lifeData.failed)} failed.
         </p>
       </Card>
     );
   }
   const cards = [
-    { label: 'B10 life', value: formatLife(f.b10, unit), words: `10 % of units fail by ${formatLife(f.b10, unit)}.` },
-    { label: 'B50 life', value: formatLife(f.b50, unit), words: `Half of them by ${formatLife(f.b50, unit)}.` },
+    {
+      label: 'B10 life',
+      value: formatLife(f.b10, unit),
+      words: `10 % of units fail by ${formatLife(f.b10, unit)}.`,
+    },
+    {
+      label: 'B50 life',
+      value: formatLife(f.b50, unit),
+      words: `Half of them by ${formatLife(f.b50, unit)}.`,
+    },
     { label: 'Mean life', value: formatLife(f.meanLife, unit), words: 'The average unit lasts this long.' },
     {
       label: 'Shape (β)',
       value: formatNumber(f.shape, 2),
-      words: f.shape < 0.95 ? 'Below 1: early failures (infant mortality).' : f.shape <= 1.05 ? 'About 1: failures at random.' : 'Above 1: wear-out, failures grow with age.',
+      words:
+        f.shape < 0.95
+          ? 'Below 1: early failures (infant mortality).'
+          : f.shape <= 1.05
+            ? 'About 1: failures at random.'
+            : 'Above 1: wear-out, failures grow with age.',
     },
     { label: 'Scale (η)', value: formatLife(f.scale, unit), words: '63.2 % of units fail by this age.' },
-    { label: 'Units', value: formatNumber(life.lifeData.units), words: `${formatNumber(life.lifeData.failed)} failed, ${formatNumber(life.lifeData.survivors)} still working.` },
+    {
+      label: 'Units',
+      value: formatNumber(life.lifeData.units),
+      words: `${formatNumber(life.lifeData.failed)} failed, ${formatNumber(life.lifeData.survivors)} still working.`,
+    },
   ];
   return (
     <dl className="grid grid-cols-2 gap-3 lg:grid-cols-6" aria-label="Weibull fit">
@@ -70,7 +94,12 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
   const [method, setMethod] = useState<'mle' | 'mrr'>('mle');
   const [factor, setFactor] = useState<string>('enclosure');
 
-  const population: Population = kind === 'model' ? { productModelId: modelId || undefined } : kind === 'family' ? { family } : { lot: lot.trim() || undefined };
+  const population: Population =
+    kind === 'model'
+      ? { productModelId: modelId || undefined }
+      : kind === 'family'
+        ? { family }
+        : { lot: lot.trim() || undefined };
   const filters: LifeFilters = { ...population, ageUnit, method };
   const life = useQuery(analyticsQueries.life(filters));
   const modes = useQuery(analyticsQueries.failureModes({ ...population, factor }));
@@ -80,7 +109,11 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
   return (
     <div className="space-y-5">
       <Card className="px-4 py-4 sm:px-5">
-        <form className="grid gap-4 sm:grid-cols-2 lg:grid-cols-5" onSubmit={(e) => e.preventDefault()} aria-label="What to analyse">
+        <form
+          className="grid gap-4 sm:grid-cols-2 lg:grid-cols-5"
+          onSubmit={(e) => e.preventDefault()}
+          aria-label="What to analyse"
+        >
           <SelectField label="Analyse" value={kind} onChange={(e) => setKind(e.target.value as typeof kind)}>
             <option value="model">A product model</option>
             <option value="family">A product family</option>
@@ -104,7 +137,13 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
             </SelectField>
           ) : (
             <>
-              <InputField label="Lot (date code)" value={lot} onChange={(e) => setLot(e.target.value)} list="lot-options" placeholder="e.g. ACH2502" />
+              <InputField
+                label="Lot (date code)"
+                value={lot}
+                onChange={(e) => setLot(e.target.value)}
+                list="lot-options"
+                placeholder="e.g. ACH2502"
+              />
               <datalist id="lot-options">
                 {lotOptions.map((l) => (
                   <option key={l} value={l} />
@@ -112,11 +151,20 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
               </datalist>
             </>
           )}
-          <SelectField label="Ages in" value={ageUnit} onChange={(e) => setAgeUnit(e.target.value as typeof ageUnit)}>
+          <SelectField
+            label="Ages in"
+            value={ageUnit}
+            onChange={(e) => setAgeUnit(e.target.value as typeof ageUnit)}
+          >
             <option value="months">Months in service</option>
             <option value="hours">Operating hours</option>
           </SelectField>
-          <SelectField label="Fit" value={method} onChange={(e) => setMethod(e.target.value as typeof method)} hint="Maximum likelihood uses the survivors fully.">
+          <SelectField
+            label="Fit"
+            value={method}
+            onChange={(e) => setMethod(e.target.value as typeof method)}
+            hint="Maximum likelihood uses the survivors fully."
+          >
             <option value="mle">Maximum likelihood</option>
             <option value="mrr">Median-rank regression</option>
           </SelectField>
@@ -133,7 +181,13 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
       {life.isError ? (
         <EmptyState title="Nothing to analyse">{(life.error as Error).message}</EmptyState>
       ) : !life.data ? (
-        <div className="flex justify-center py-10">{life.fetchStatus === 'idle' ? <p className="text-sm text-ink-700">Pick what to analyse.</p> : <Spinner label="Fitting" />}</div>
+        <div className="flex justify-center py-10">
+          {life.fetchStatus === 'idle' ? (
+            <p className="text-sm text-ink-700">Pick what to analyse.</p>
+          ) : (
+            <Spinner label="Fitting" />
+          )}
+        </div>
       ) : (
         <LifeSection life={life.data} filters={filters} />
       )}
@@ -143,9 +197,19 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
           <ChartCard
             title="Failure modes"
             description="Covered claims by what failed (symptoms, site observations and the engine's findings)."
-            summary={modes.data.modes.length ? `${formatNumber(modes.data.claims)} covered claims; the most common mode is ${modes.data.modes[0].label} (${formatPercent(modes.data.modes[0].share)}).` : 'No covered claims yet.'}
+            summary={
+              modes.data.modes.length
+                ? `${formatNumber(modes.data.claims)} covered claims; the most common mode is ${modes.data.modes[0].label} (${formatPercent(modes.data.modes[0].share)}).`
+                : 'No covered claims yet.'
+            }
             csvHref={csvUrl('/analytics/failure-modes', { ...population, table: 'modes' })}
-            table={<NumbersTable caption="Failure modes" head={['Failure mode', 'Claims', 'Units', 'Share']} rows={modes.data.modes.map((m) => [m.label, m.claims, m.units, formatPercent(m.share, 1)])} />}
+            table={
+              <NumbersTable
+                caption="Failure modes"
+                head={['Failure mode', 'Claims', 'Units', 'Share']}
+                rows={modes.data.modes.map((m) => [m.label, m.claims, m.units, formatPercent(m.share, 1)])}
+              />
+            }
           >
             <RankedBars rows={modes.data.modes} />
           </ChartCard>
@@ -162,7 +226,11 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
               <NumbersTable
                 caption={`Failure modes by ${factor}`}
                 head={['Failure mode', ...modes.data.crossTable.columns, 'Total']}
-                rows={modes.data.crossTable.rows.map((r, i) => [FAILURE_MODE_LABELS[r] ?? r, ...modes.data.crossTable.counts[i], modes.data.crossTable.rowTotals[i]])}
+                rows={modes.data.crossTable.rows.map((r, i) => [
+                  FAILURE_MODE_LABELS[r] ?? r,
+                  ...modes.data.crossTable.counts[i],
+                  modes.data.crossTable.rowTotals[i],
+                ])}
               />
             }
           >
@@ -170,17 +238,42 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
           </ChartCard>
           <ChartCard
             title="By lot (date code)"
-            summary={modes.data.lots[0] ? `Lot ${modes.data.lots[0].key} has the most claims: ${formatNumber(modes.data.lots[0].claims)} (${formatPercent(modes.data.lots[0].share)}).` : 'No covered claims yet.'}
+            summary={
+              modes.data.lots[0]
+                ? `Lot ${modes.data.lots[0].key} has the most claims: ${formatNumber(modes.data.lots[0].claims)} (${formatPercent(modes.data.lots[0].share)}).`
+                : 'No covered claims yet.'
+            }
             csvHref={csvUrl('/analytics/failure-modes', { ...population, table: 'lot' })}
-            table={<NumbersTable caption="Claims by lot" head={['Lot', 'Claims', 'Units', 'Share']} rows={modes.data.lots.map((m) => [m.key, m.claims, m.units, formatPercent(m.share, 1)])} />}
+            table={
+              <NumbersTable
+                caption="Claims by lot"
+                head={['Lot', 'Claims', 'Units', 'Share']}
+                rows={modes.data.lots.map((m) => [m.key, m.claims, m.units, formatPercent(m.share, 1)])}
+              />
+            }
           >
             <RankedBars rows={modes.data.lots} />
           </ChartCard>
           <ChartCard
             title="By contractor"
-            summary={modes.data.contractors[0] ? `${modes.data.contractors[0].key} filed ${formatPercent(modes.data.contractors[0].share)} of the covered claims.` : 'No covered claims yet.'}
+            summary={
+              modes.data.contractors[0]
+                ? `${modes.data.contractors[0].key} filed ${formatPercent(modes.data.contractors[0].share)} of the covered claims.`
+                : 'No covered claims yet.'
+            }
             csvHref={csvUrl('/analytics/failure-modes', { ...population, table: 'contractor' })}
-            table={<NumbersTable caption="Claims by contractor" head={['Contractor', 'Claims', 'Units', 'Share']} rows={modes.data.contractors.map((m) => [m.key, m.claims, m.units, formatPercent(m.share, 1)])} />}
+            table={
+              <NumbersTable
+                caption="Claims by contractor"
+                head={['Contractor', 'Claims', 'Units', 'Share']}
+                rows={modes.data.contractors.map((m) => [
+                  m.key,
+                  m.claims,
+                  m.units,
+                  formatPercent(m.share, 1),
+                ])}
+              />
+            }
           >
             <RankedBars rows={modes.data.contractors} />
           </ChartCard>
@@ -195,7 +288,11 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
                 <NumbersTable
                   caption="Claims by install month and months in service"
                   head={['Installed', 'Total', ...modes.data.ageing.monthsInService.map((m) => `${m} mo`)]}
-                  rows={modes.data.ageing.installMonths.map((m, i) => [m, modes.data.ageing.rowTotals[i], ...modes.data.ageing.counts[i]])}
+                  rows={modes.data.ageing.installMonths.map((m, i) => [
+                    m,
+                    modes.data.ageing.rowTotals[i],
+                    ...modes.data.ageing.counts[i],
+                  ])}
                 />
               }
             >
@@ -212,10 +309,20 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
             description="Days since filing, and whether the claim waits on you or on the contractor."
             summary={`${formatNumber(ageing.data.open.reduce((n, b) => n + b.total, 0))} open claims; ${formatNumber(ageing.data.open.reduce((n, b) => n + b.manufacturer, 0))} wait on you.`}
             csvHref={csvUrl('/analytics/claims-ageing', { table: 'open' })}
-            table={<NumbersTable caption="Open claims by age" head={['Age', 'Waiting on you', 'Waiting on contractor', 'Total']} rows={ageing.data.open.map((b) => [b.band, b.manufacturer, b.contractor, b.total])} />}
+            table={
+              <NumbersTable
+                caption="Open claims by age"
+                head={['Age', 'Waiting on you', 'Waiting on contractor', 'Total']}
+                rows={ageing.data.open.map((b) => [b.band, b.manufacturer, b.contractor, b.total])}
+              />
+            }
           >
             <MonthlyBars
-              data={ageing.data.open.map((b) => ({ month: b.band, manufacturer: b.manufacturer, contractor: b.contractor }))}
+              data={ageing.data.open.map((b) => ({
+                month: b.band,
+                manufacturer: b.manufacturer,
+                contractor: b.contractor,
+              }))}
               series={[
                 { key: 'manufacturer', label: 'Waiting on you', color: '#0d5c57' },
                 { key: 'contractor', label: 'Waiting on contractor', color: '#c25e06' },
@@ -226,10 +333,20 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
             title="Decisions per week"
             summary={`${formatNumber(ageing.data.throughput.reduce((n, w) => n + w.decided, 0))} claims decided in the last ${ageing.data.throughput.length} weeks.`}
             csvHref={csvUrl('/analytics/claims-ageing', { table: 'throughput' })}
-            table={<NumbersTable caption="Decisions per week" head={['Week of', 'Approved', 'Denied', 'Decided']} rows={ageing.data.throughput.map((w) => [w.week, w.approved, w.denied, w.decided])} />}
+            table={
+              <NumbersTable
+                caption="Decisions per week"
+                head={['Week of', 'Approved', 'Denied', 'Decided']}
+                rows={ageing.data.throughput.map((w) => [w.week, w.approved, w.denied, w.decided])}
+              />
+            }
           >
             <MonthlyBars
-              data={ageing.data.throughput.map((w) => ({ month: w.week.slice(5), approved: w.approved, denied: w.denied }))}
+              data={ageing.data.throughput.map((w) => ({
+                month: w.week.slice(5),
+                approved: w.approved,
+                denied: w.denied,
+              }))}
               series={[
                 { key: 'approved', label: 'Approved', color: '#167b71' },
                 { key: 'denied', label: 'Denied', color: '#ad281a' },
@@ -265,14 +382,24 @@ function LifeSection({ life, filters }: { life: LifeAnalysisDto; filters: LifeFi
               <NumbersTable
                 caption="Probability plot points"
                 head={[`Age (${unit})`, 'Failed', 'Fraction failed F', 'ln t', 'ln(−ln(1−F))']}
-                rows={life.probabilityPlot.points.map((p) => [formatNumber(p.time, 1), p.count, formatPercent(p.F, 2), formatNumber(p.x, 3), formatNumber(p.y, 3)])}
+                rows={life.probabilityPlot.points.map((p) => [
+                  formatNumber(p.time, 1),
+                  p.count,
+                  formatPercent(p.F, 2),
+                  formatNumber(p.x, 3),
+                  formatNumber(p.y, 3),
+                ])}
               />
             ) : (
               <p className="p-3 text-sm">No points.</p>
             )
           }
         >
-          {life.probabilityPlot && life.probabilityPlot.points.length ? <ProbabilityPlotChart plot={life.probabilityPlot} unit={unit} /> : <p className="text-sm text-ink-700">No failures to plot.</p>}
+          {life.probabilityPlot && life.probabilityPlot.points.length ? (
+            <ProbabilityPlotChart plot={life.probabilityPlot} unit={unit} />
+          ) : (
+            <p className="text-sm text-ink-700">No failures to plot.</p>
+          )}
         </ChartCard>
         <ChartCard
           title="Survival (Kaplan-Meier)"
@@ -287,7 +414,17 @@ function LifeSection({ life, filters }: { life: LifeAnalysisDto; filters: LifeFi
             <NumbersTable
               caption="Kaplan-Meier table"
               head={[`Age (${unit})`, 'At risk', 'Failed', 'Censored', 'Survival', 'Lower', 'Upper']}
-              rows={life.kaplanMeier.filter((r) => r.failed > 0).map((r) => [formatNumber(r.time, 1), r.atRisk, r.failed, r.censored, formatPercent(r.survival, 2), formatPercent(r.lower, 2), formatPercent(r.upper, 2)])}
+              rows={life.kaplanMeier
+                .filter((r) => r.failed > 0)
+                .map((r) => [
+                  formatNumber(r.time, 1),
+                  r.atRisk,
+                  r.failed,
+                  r.censored,
+                  formatPercent(r.survival, 2),
+                  formatPercent(r.lower, 2),
+                  formatPercent(r.upper, 2),
+                ])}
             />
           }
         >

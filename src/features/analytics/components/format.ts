@@ -7,13 +7,18 @@ export function formatLife(value: number, unit: 'months' | 'hours'): string {
   return `${value.toLocaleString('en-US', { maximumFractionDigits: 1 })} months`;
 }
 
-export const formatNumber = (v: number, digits = 0) => v.toLocaleString('en-US', { minimumFractionDigits: digits, maximumFractionDigits: digits });
-export const formatPercent = (share: number, digits = 0) => `${(share * 100).toLocaleString('en-US', { maximumFractionDigits: digits })} %`;
+export const formatNumber = (v: number, digits = 0) =>
+  v.toLocaleString('en-US', { minimumFractionDigits: digits, maximumFractionDigits: digits });
+export const formatPercent = (share: number, digits = 0) =>
+  `${(share * 100).toLocaleString('en-US', { maximumFractionDigits: digits })} %`;
 export const formatMoney = (amount: string | number, currency: string) =>
   Number(amount).toLocaleString('en-US', { style: 'currency', currency, maximumFractionDigits: 0 });
 
 /** Compact tick labels for a time axis. */
 export function formatTick(value: number, unit: 'months' | 'hours'): string {
-  if (unit === 'hours') return value >= 1000 ? `${formatNumber(value / 1000, value < 10_000 ? 1 : 0)}k h` : `${formatNumber(value)} h`;
+  if (unit === 'hours')
+    return value >= 1000
+      ? `${formatNumber(value / 1000, value < 10_000 ? 1 : 0)}k h`
+      : `${formatNumber(value)} h`;
   return `${formatNumber(value, value < 1 ? 1 : 0)} mo`;
 }

@@ -43,7 +43,9 @@ export function ProbabilityPlotChart({ plot, unit }: { plot: ProbabilityPlot; un
   const points = plot.points.map((p) => ({ x: p.x, y: p.y, time: p.time, F: p.F }));
   const line = plot.line.map((p) => ({ x: p.x, line: p.y }));
   const times = points.map((p) => p.time);
-  const xTicks = niceTimes(Math.min(...times, plot.line[0].time), Math.max(...times, plot.line[1].time)).map(Math.log);
+  const xTicks = niceTimes(Math.min(...times, plot.line[0].time), Math.max(...times, plot.line[1].time)).map(
+    Math.log,
+  );
   const ys = [...points.map((p) => p.y), ...line.map((l) => l.line)];
   const yMin = Math.min(...ys);
   const yMax = Math.max(...ys);
@@ -60,7 +62,12 @@ export function ProbabilityPlotChart({ plot, unit }: { plot: ProbabilityPlot; un
             ticks={xTicks}
             tickFormatter={(x: number) => formatTick(Math.exp(x), unit)}
             stroke={AXIS}
-            label={{ value: `Age at failure (${unit}, log scale)`, position: 'insideBottom', offset: -12, fill: AXIS }}
+            label={{
+              value: `Age at failure (${unit}, log scale)`,
+              position: 'insideBottom',
+              offset: -12,
+              fill: AXIS,
+            }}
             allowDuplicatedCategory={false}
           />
           <YAxis
@@ -72,10 +79,20 @@ export function ProbabilityPlotChart({ plot, unit }: { plot: ProbabilityPlot; un
             width={52}
           />
           <Tooltip
-            formatter={(value, name) => [name === 'line' ? 'fitted' : formatPercent(-Math.expm1(-Math.exp(Number(value))), 1), name === 'line' ? 'Weibull fit' : 'failed by then']}
+            formatter={(value, name) => [
+              name === 'line' ? 'fitted' : formatPercent(-Math.expm1(-Math.exp(Number(value))), 1),
+              name === 'line' ? 'Weibull fit' : 'failed by then',
+            ]}
             labelFormatter={(x) => formatTick(Math.exp(Number(x)), unit)}
           />
-          <Line data={line} dataKey="line" stroke={LINE} strokeWidth={2} dot={false} isAnimationActive={false} />
+          <Line
+            data={line}
+            dataKey="line"
+            stroke={LINE}
+            strokeWidth={2}
+            dot={false}
+            isAnimationActive={false}
+          />
           <Scatter data={points} dataKey="y" fill={POINT} isAnimationActive={false} />
         </ComposedChart>
       </ResponsiveContainer>
@@ -91,31 +108,91 @@ export function thin<T>(rows: readonly T[], max = 400): T[] {
 }
 
 export function SurvivalChart({ rows, unit }: { rows: readonly KaplanMeierRow[]; unit: 'months' | 'hours' }) {
-  const data = [{ time: 0, survival: 1, band: [1, 1] as [number, number] }, ...thin(rows).map((r) => ({ time: r.time, survival: r.survival, band: [r.lower, r.upper] as [number, number] }))];
+  const data = [
+    { time: 0, survival: 1, band: [1, 1] as [number, number] },
+    ...thin(rows).map((r) => ({
+      time: r.time,
+      survival: r.survival,
+      band: [r.lower, r.upper] as [number, number],
+    })),
+  ];
   const low = Math.min(...data.map((d) => d.band[0]));
   const floor = Math.max(0, Math.floor((low - 0.01) * 100) / 100);
   return (
     <div className="h-72">
       <ResponsiveContainer width="100%" height="100%">
-        <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 20, left: 8 }} accessibilityLayer={false}>
+        <ComposedChart
+          data={data}
+          margin={{ top: 8, right: 16, bottom: 20, left: 8 }}
+          accessibilityLayer={false}
+        >
           <CartesianGrid stroke={GRID} />
-          <XAxis type="number" dataKey="time" domain={[0, 'dataMax']} tickFormatter={(t: number) => formatTick(t, unit)} stroke={AXIS} label={{ value: `Age (${unit})`, position: 'insideBottom', offset: -12, fill: AXIS }} />
-          <YAxis type="number" domain={[floor, 1]} tickFormatter={(v: number) => formatPercent(v, 1)} stroke={AXIS} width={56} />
-          <Tooltip formatter={(v) => (Array.isArray(v) ? `${formatPercent(Number(v[0]), 1)} – ${formatPercent(Number(v[1]), 1)}` : formatPercent(Number(v), 2))} labelFormatter={(t) => formatTick(Number(t), unit)} />
-          <Area type="stepAfter" dataKey="band" stroke="none" fill={BAND} fillOpacity={0.7} isAnimationActive={false} name="95 % band" />
-          <Line type="stepAfter" dataKey="survival" stroke={POINT} strokeWidth={2} dot={false} isAnimationActive={false} name="still working" />
+          <XAxis
+            type="number"
+            dataKey="time"
+            domain={[0, 'dataMax']}
+            tickFormatter={(t: number) => formatTick(t, unit)}
+            stroke={AXIS}
+            label={{ value: `Age (${unit})`, position: 'insideBottom', offset: -12, fill: AXIS }}
+          />
+          <YAxis
+            type="number"
+            domain={[floor, 1]}
+            tickFormatter={(v: number) => formatPercent(v, 1)}
+            stroke={AXIS}
+            width={56}
+          />
+          <Tooltip
+            formatter={(v) =>
+              Array.isArray(v)
+                ? `${formatPercent(Number(v[0]), 1)} – ${formatPercent(Number(v[1]), 1)}`
+                : formatPercent(Number(v), 2)
+            }
+            labelFormatter={(t) => formatTick(Number(t), unit)}
+          />
+          <Area
+            type="stepAfter"
+            dataKey="band"
+            stroke="none"
+            fill={BAND}
+            fillOpacity={0.7}
+            isAnimationActive={false}
+            name="95 % band"
+          />
+          <Line
+            type="stepAfter"
+            dataKey="survival"
+            stroke={POINT}
+            strokeWidth={2}
+            dot={false}
+            isAnimationActive={false}
+            name="still working"
+          />
         </ComposedChart>
       </ResponsiveContainer>
     </div>
   );
 }
 
-export function RankedBars({ rows, label }: { rows: readonly (RankedCount & { label?: string })[]; label?: (key: string) => string }) {
-  const data = rows.slice(0, 10).map((r) => ({ name: r.label ?? (label ? label(r.key) : r.key), claims: r.claims }));
+export function RankedBars({
+  rows,
+  label,
+}: {
+  rows: readonly (RankedCount & { label?: string })[];
+  label?: (key: string) => string;
+}) {
+  const data = rows
+    .slice(0, 10)
+    .map((r) => ({ name: r.label ?? (label ? label(r.key) : r.key), claims: r.claims }));
   return (
     <div style={{ height: Math.max(120, data.length * 34 + 40) }}>
       <ResponsiveContainer width="100%" height="100%">
-        <BarChart data={data} layout="vertical" margin={{ top: 4, right: 24, bottom: 4, left: 8 }} accessibilityLayer={false}>
+        <BarChart
+          data={data}
+          layout="vertical"
+          margin={{ top: 4, right: 24, bottom: 4, left: 8 }}
+          accessibilityLayer={false}
+        >
           <CartesianGrid stroke={GRID} horizontal={false} />
           <XAxis type="number" allowDecimals={false} stroke={AXIS} />
           <YAxis type="category" dataKey="name" width={190} stroke={AXIS} tick={{ fontSize: 12 }} />
@@ -131,9 +208,16 @@ export function RankedBars({ rows, label }: { rows: readonly (RankedCount & { la
 export function AgeingHeatTable({ table }: { table: AgeingTable }) {
   const max = Math.max(1, ...table.counts.flat());
   return (
-    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Claims by install month and months in service">
+    <div
+      className="overflow-x-auto"
+      tabIndex={0}
+      role="region"
+      aria-label="Claims by install month and months in service"
+    >
       <table className="text-xs tabular-nums">
-        <caption className="sr-only">Claims by install month (rows) and whole months in service at failure (columns)</caption>
+        <caption className="sr-only">
+          Claims by install month (rows) and whole months in service at failure (columns)
+        </caption>
         <thead>
           <tr>
             <th scope="col" className="sticky left-0 bg-white px-2 py-1 text-left font-semibold text-ink-700">
@@ -152,7 +236,10 @@ export function AgeingHeatTable({ table }: { table: AgeingTable }) {
         <tbody>
           {table.installMonths.map((month, i) => (
             <tr key={month}>
-              <th scope="row" className="sticky left-0 bg-white px-2 py-0.5 text-left font-medium text-ink-800">
+              <th
+                scope="row"
+                className="sticky left-0 bg-white px-2 py-0.5 text-left font-medium text-ink-800"
+              >
                 {month}
               </th>
               {table.counts[i].map((n, m) => {
@@ -161,7 +248,10 @@ export function AgeingHeatTable({ table }: { table: AgeingTable }) {
                   <td
                     key={m}
                     className="min-w-7 px-1 py-0.5 text-center"
-                    style={{ backgroundColor: n ? `rgba(13, 92, 87, ${level})` : undefined, color: level > 0.5 ? '#ffffff' : '#1b2320' }}
+                    style={{
+                      backgroundColor: n ? `rgba(13, 92, 87, ${level})` : undefined,
+                      color: level > 0.5 ? '#ffffff' : '#1b2320',
+                    }}
                   >
                     {n || ''}
                   </td>
@@ -176,7 +266,13 @@ export function AgeingHeatTable({ table }: { table: AgeingTable }) {
   );
 }
 
-export function MonthlyBars({ data, series }: { data: Record<string, string | number>[]; series: { key: string; label: string; color: string }[] }) {
+export function MonthlyBars({
+  data,
+  series,
+}: {
+  data: Record<string, string | number>[];
+  series: { key: string; label: string; color: string }[];
+}) {
   return (
     <div className="h-72">
       <ResponsiveContainer width="100%" height="100%">

@@ -14,11 +14,21 @@ const COLORS = ['#167b71', '#2850c9', '#c25e06', '#ad281a'];
 export function WarrantyReserve() {
   const reserve = useQuery(analyticsQueries.reserve(12));
   const [allCohorts, setAllCohorts] = useState(false);
-  if (reserve.isError) return <EmptyState title="The reserve could not be computed">{(reserve.error as Error).message}</EmptyState>;
-  if (!reserve.data) return <div className="flex justify-center py-10"><Spinner label="Forecasting" /></div>;
+  if (reserve.isError)
+    return (
+      <EmptyState title="The reserve could not be computed">{(reserve.error as Error).message}</EmptyState>
+    );
+  if (!reserve.data)
+    return (
+      <div className="flex justify-center py-10">
+        <Spinner label="Forecasting" />
+      </div>
+    );
   const r = reserve.data;
   const shown = allCohorts ? r.cohorts : r.cohorts.slice(0, 25);
-  const monthly = r.monthLabels.map((month, k) => Object.fromEntries([['month', month], ...r.totals.map((t) => [t.currency, Number(t.monthlyAmounts[k])])]));
+  const monthly = r.monthLabels.map((month, k) =>
+    Object.fromEntries([['month', month], ...r.totals.map((t) => [t.currency, Number(t.monthlyAmounts[k])])]),
+  );
   return (
     <div className="space-y-5">
       <dl className="grid gap-3 sm:grid-cols-3" aria-label="Reserve totals">
@@ -29,11 +39,18 @@ export function WarrantyReserve() {
         ) : (
           r.totals.map((t) => (
             <Card key={t.currency} className="px-4 py-3">
-              <dt className="text-xs font-semibold tracking-wide text-ink-600 uppercase">Reserve, next {r.months} months ({t.currency})</dt>
-              <dd className="mt-1 text-2xl font-bold text-ink-950 tabular-nums" data-testid={`reserve-total-${t.currency}`}>
+              <dt className="text-xs font-semibold tracking-wide text-ink-600 uppercase">
+                Reserve, next {r.months} months ({t.currency})
+              </dt>
+              <dd
+                className="mt-1 text-2xl font-bold text-ink-950 tabular-nums"
+                data-testid={`reserve-total-${t.currency}`}
+              >
                 {formatMoney(t.amount, t.currency)}
               </dd>
-              <dd className="mt-1 text-xs text-ink-700">About {formatNumber(t.expectedClaims)} claimed units expected, prorated by coverage.</dd>
+              <dd className="mt-1 text-xs text-ink-700">
+                About {formatNumber(t.expectedClaims)} claimed units expected, prorated by coverage.
+              </dd>
             </Card>
           ))
         )}
@@ -41,17 +58,34 @@ export function WarrantyReserve() {
       <ChartCard
         title="Expected credits by month"
         description={`From ${r.monthLabels[0]} to ${r.monthLabels[r.monthLabels.length - 1]}, each currency on its own.`}
-        summary={r.totals.map((t) => `${t.currency}: ${formatMoney(t.amount, t.currency)} over ${r.months} months, ${formatMoney(t.monthlyAmounts[0], t.currency)} in the first.`).join(' ') || 'Nothing to forecast.'}
+        summary={
+          r.totals
+            .map(
+              (t) =>
+                `${t.currency}: ${formatMoney(t.amount, t.currency)} over ${r.months} months, ${formatMoney(t.monthlyAmounts[0], t.currency)} in the first.`,
+            )
+            .join(' ') || 'Nothing to forecast.'
+        }
         csvHref={csvUrl('/reserve', { table: 'months' })}
         table={
           <NumbersTable
             caption="Reserve by month"
             head={['Month', ...r.totals.flatMap((t) => [`Claims (${t.currency})`, `Amount (${t.currency})`])]}
-            rows={r.monthLabels.map((m, k) => [m, ...r.totals.flatMap((t) => [formatNumber(t.monthlyClaims[k], 2), t.monthlyAmounts[k]])])}
+            rows={r.monthLabels.map((m, k) => [
+              m,
+              ...r.totals.flatMap((t) => [formatNumber(t.monthlyClaims[k], 2), t.monthlyAmounts[k]]),
+            ])}
           />
         }
       >
-        <MonthlyBars data={monthly} series={r.totals.map((t, i) => ({ key: t.currency, label: t.currency, color: COLORS[i % COLORS.length] }))} />
+        <MonthlyBars
+          data={monthly}
+          series={r.totals.map((t, i) => ({
+            key: t.currency,
+            label: t.currency,
+            color: COLORS[i % COLORS.length],
+          }))}
+        />
       </ChartCard>
       <ChartCard
         title="By cohort"
@@ -63,7 +97,12 @@ export function WarrantyReserve() {
           <NumbersTable
             caption="Fitted life models"
             head={['Model', 'Shape', 'Scale (months)', 'Fitted from']}
-            rows={r.fits.map((f) => [f.modelNumber, formatNumber(f.shape, 2), formatNumber(f.scale, 1), f.from === 'model' ? 'its own claims' : 'its family'])}
+            rows={r.fits.map((f) => [
+              f.modelNumber,
+              formatNumber(f.shape, 2),
+              formatNumber(f.scale, 1),
+              f.from === 'model' ? 'its own claims' : 'its family',
+            ])}
           />
         }
       >
@@ -72,7 +111,16 @@ export function WarrantyReserve() {
             <caption className="sr-only">Reserve by cohort</caption>
             <thead className="bg-ink-50">
               <tr>
-                {['Model', 'Installed', 'Age (months)', 'Working units', 'Term', 'Unit credit', 'Expected claims', 'Reserve'].map((h) => (
+                {[
+                  'Model',
+                  'Installed',
+                  'Age (months)',
+                  'Working units',
+                  'Term',
+                  'Unit credit',
+                  'Expected claims',
+                  'Reserve',
+                ].map((h) => (
                   <th key={h} scope="col" className="px-3 py-2 text-xs font-semibold text-ink-700">
                     {h}
                   </th>
@@ -89,7 +137,9 @@ export function WarrantyReserve() {
                   <td className="px-3 py-1.5 tabular-nums">{c.termMonths} mo</td>
                   <td className="px-3 py-1.5 tabular-nums">{formatMoney(c.unitCredit, c.currency)}</td>
                   <td className="px-3 py-1.5 tabular-nums">{formatNumber(c.expectedClaims, 2)}</td>
-                  <td className="px-3 py-1.5 font-semibold tabular-nums">{formatMoney(c.amount, c.currency)}</td>
+                  <td className="px-3 py-1.5 font-semibold tabular-nums">
+                    {formatMoney(c.amount, c.currency)}
+                  </td>
                 </tr>
               ))}
             </tbody>

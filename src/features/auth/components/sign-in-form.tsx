@@ -22,7 +22,8 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
       onSignedIn();
     },
   });
-  const error = mutation.error instanceof ApiError ? mutation.error.message : mutation.error ? 'Sign-in failed.' : null;
+  const error =
+    mutation.error instanceof ApiError ? mutation.error.message : mutation.error ? 'Sign-in failed.' : null;
 
   const submit = (e: FormEvent) => {
     e.preventDefault();
@@ -43,7 +44,10 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   return (
     <form noValidate onSubmit={submit} className="space-y-4">
       {error ? (
-        <div role="alert" className="rounded-lg border border-bad-200 bg-bad-50 px-3 py-2.5 text-sm font-medium text-bad-800">
+        <div
+          role="alert"
+          className="rounded-lg border border-bad-200 bg-bad-50 px-3 py-2.5 text-sm font-medium text-bad-800"
+        >
           {error}
         </div>
       ) : null}

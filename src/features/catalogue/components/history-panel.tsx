@@ -16,7 +16,14 @@ const ACTION_TEXT: Record<string, string> = {
   'installation.updated': 'Installation changed',
 };
 
-const show = (v: unknown) => (v === null || v === undefined ? '—' : Array.isArray(v) ? (v.length ? v.map((x) => (typeof x === 'object' ? JSON.stringify(x) : String(x))).join(', ') : 'none') : String(v));
+const show = (v: unknown) =>
+  v === null || v === undefined
+    ? '—'
+    : Array.isArray(v)
+      ? v.length
+        ? v.map((x) => (typeof x === 'object' ? JSON.stringify(x) : String(x))).join(', ')
+        : 'none'
+      : String(v);
 
 /** The append-only audit trail of one record, newest first. */
 /** Takes any of the history query options (products, policies and installations share one shape). */

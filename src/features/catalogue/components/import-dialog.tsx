@@ -25,7 +25,15 @@ const WHAT: Record<ImportTarget, string> = { products: 'product models', install
  * written) with a progress bar, show each bad row, then import the valid rows in one transaction. Cancelling
  * before the import writes nothing.
  */
-export function ImportDialog({ target, open, onClose }: { target: ImportTarget; open: boolean; onClose: () => void }) {
+export function ImportDialog({
+  target,
+  open,
+  onClose,
+}: {
+  target: ImportTarget;
+  open: boolean;
+  onClose: () => void;
+}) {
   const [stage, setStage] = useState<Stage>({ kind: 'pick' });
   const abort = useRef<AbortController | null>(null);
   const qc = useQueryClient();
@@ -62,14 +70,27 @@ export function ImportDialog({ target, open, onClose }: { target: ImportTarget; 
       });
     });
     if (ctl.signal.aborted) return;
-    const merged: ImportResult = { dryRun: true, total: 0, valid: 0, invalid: 0, imported: 0, errors: [], errorsTruncated: false };
+    const merged: ImportResult = {
+      dryRun: true,
+      total: 0,
+      valid: 0,
+      invalid: 0,
+      imported: 0,
+      errors: [],
+      errorsTruncated: false,
+    };
     for (let i = 0; i < Math.max(rows.length, 1); i += CHUNK) {
       setStage({ kind: 'working', label: 'Checking the rows', done: i, total: rows.length });
-      const part = await importRows(target, rows.slice(i, i + CHUNK), { dryRun: true, firstRowNumber: i + 2, signal: ctl.signal });
+      const part = await importRows(target, rows.slice(i, i + CHUNK), {
+        dryRun: true,
+        firstRowNumber: i + 2,
+        signal: ctl.signal,
+      });
       merged.total += part.total;
       merged.valid += part.valid;
       merged.invalid += part.invalid;
-      const rowOne = (e: ImportRowError) => e.row === 1 && merged.errors.some((x) => x.row === 1 && x.message === e.message);
+      const rowOne = (e: ImportRowError) =>
+        e.row === 1 && merged.errors.some((x) => x.row === 1 && x.message === e.message);
       merged.errors.push(...part.errors.filter((e) => !rowOne(e)));
       merged.errorsTruncated ||= part.errorsTruncated;
     }
@@ -115,7 +136,11 @@ export function ImportDialog({ target, open, onClose }: { target: ImportTarget; 
       <div className="space-y-4">
         {stage.kind === 'pick' || stage.kind === 'failed' ? (
           <>
-            <a href={templateUrl(target)} download className={buttonClasses('secondary', 'md', 'w-full sm:w-auto')}>
+            <a
+              href={templateUrl(target)}
+              download
+              className={buttonClasses('secondary', 'md', 'w-full sm:w-auto')}
+            >
               <Download className="size-4" aria-hidden /> Download the template
             </a>
             <label className="block">
@@ -144,11 +169,22 @@ export function ImportDialog({ target, open, onClose }: { target: ImportTarget; 
           <div>
             <p className="mb-1.5 text-sm text-ink-700">{stage.label}…</p>
             {pct !== null ? (
-              <div role="progressbar" aria-label={stage.label} aria-valuemin={0} aria-valuemax={100} aria-valuenow={pct} className="h-3 overflow-hidden rounded-full bg-ink-100">
+              <div
+                role="progressbar"
+                aria-label={stage.label}
+                aria-valuemin={0}
+                aria-valuemax={100}
+                aria-valuenow={pct}
+                className="h-3 overflow-hidden rounded-full bg-ink-100"
+              >
                 <div className="h-full bg-brand-600 transition-[width]" style={{ width: `${pct}%` }} />
               </div>
             ) : (
-              <div role="progressbar" aria-label={stage.label} className="h-3 animate-pulse rounded-full bg-brand-200" />
+              <div
+                role="progressbar"
+                aria-label={stage.label}
+                className="h-3 animate-pulse rounded-full bg-brand-200"
+              />
             )}
           </div>
         ) : null}
@@ -188,7 +224,9 @@ function Summary({ result }: { result: ImportResult }) {
           </Table>
         </div>
       ) : null}
-      {result.errorsTruncated ? <p className="text-xs text-ink-600">Only the first problems are listed; fix those and check again.</p> : null}
+      {result.errorsTruncated ? (
+        <p className="text-xs text-ink-600">Only the first problems are listed; fix those and check again.</p>
+      ) : null}
     </>
   );
 }

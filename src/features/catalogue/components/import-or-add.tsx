@@ -6,11 +6,23 @@ import type { ImportTarget } from '../api/import-rows';
 import { ImportDialog } from './import-dialog';
 
 /** The header actions of a catalogue list: import a spreadsheet (with its dialog), or add one record by hand. */
-export function ImportOrAdd({ target, addTo, addLabel }: { target: ImportTarget; addTo: string; addLabel: string }) {
+export function ImportOrAdd({
+  target,
+  addTo,
+  addLabel,
+}: {
+  target: ImportTarget;
+  addTo: string;
+  addLabel: string;
+}) {
   const [importing, setImporting] = useState(false);
   return (
     <>
-      <Button variant="secondary" icon={<FileUp className="size-4" aria-hidden />} onClick={() => setImporting(true)}>
+      <Button
+        variant="secondary"
+        icon={<FileUp className="size-4" aria-hidden />}
+        onClick={() => setImporting(true)}
+      >
         Import CSV
       </Button>
       <Link to={addTo} className={buttonClasses('primary')}>

@@ -1,5 +1,10 @@
 import { Link } from 'react-router-dom';
-import { DIMMER_LABELS, ENCLOSURE_LABELS, LOCATION_LABELS, type InstallationDetailDto } from '../../../../shared/schemas/catalogue';
+import {
+  DIMMER_LABELS,
+  ENCLOSURE_LABELS,
+  LOCATION_LABELS,
+  type InstallationDetailDto,
+} from '../../../../shared/schemas/catalogue';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { FitWarnings } from './fit-warnings';
 import { n } from './format';
@@ -50,10 +55,14 @@ export function InstallationDetail({ installation: i }: { installation: Installa
             {i.policyVersion ? (
               <>
                 Judged by{' '}
-                <Link to={`/policies/${i.policyVersion.policyId}`} className="font-medium text-brand-800 underline">
+                <Link
+                  to={`/policies/${i.policyVersion.policyId}`}
+                  className="font-medium text-brand-800 underline"
+                >
                   {i.policyVersion.policyName}, version {i.policyVersion.versionNumber}
                 </Link>{' '}
-                (in force from {i.policyVersion.effectiveFrom}, on the {i.purchaseDate ? 'purchase' : 'install'} date).
+                (in force from {i.policyVersion.effectiveFrom}, on the{' '}
+                {i.purchaseDate ? 'purchase' : 'install'} date).
               </>
             ) : (
               'No warranty policy was in force for this model on the purchase or install date.'

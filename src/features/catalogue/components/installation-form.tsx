@@ -32,7 +32,13 @@ const orNull = (v: unknown) => (v === '' || v === undefined ? null : v);
 const splitSerials = (s: string) => s.split(/[\s,;]+/).filter(Boolean);
 
 /** Register an installation; the fit against the product's ratings is shown as the conditions are chosen. */
-export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: InstallationDetailDto) => void; onCancel: () => void }) {
+export function InstallationForm({
+  onSaved,
+  onCancel,
+}: {
+  onSaved: (i: InstallationDetailDto) => void;
+  onCancel: () => void;
+}) {
   const qc = useQueryClient();
   const [productSearch, setProductSearch] = useState('');
   const products = useQuery(productQueries.list({ page: 1, pageSize: 100, q: productSearch || undefined }));
@@ -42,7 +48,14 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
   const form = useForm<InstallationInput, unknown, InstallationValues>({
     resolver: zodResolver(schema),
     mode: 'onTouched',
-    defaultValues: { serials: [], location: 'dry', enclosure: 'open', dimmer: 'none', nominalSupplyVolts: 277, purchaseDate: null } as unknown as InstallationInput,
+    defaultValues: {
+      serials: [],
+      location: 'dry',
+      enclosure: 'open',
+      dimmer: 'none',
+      nominalSupplyVolts: 277,
+      purchaseDate: null,
+    } as unknown as InstallationInput,
   });
   const watched = useWatch({ control: form.control });
   const deferred = useDeferredValue(watched);
@@ -66,7 +79,8 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
       onSaved(installation);
     },
     onError: (e) => {
-      if (e instanceof ApiError) for (const d of e.details) form.setError(d.path as keyof InstallationInput, { message: d.message });
+      if (e instanceof ApiError)
+        for (const d of e.details) form.setError(d.path as keyof InstallationInput, { message: d.message });
     },
   });
   const err = (k: keyof InstallationInput) => form.formState.errors[k]?.message as string | undefined;
@@ -82,8 +96,18 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
       <Card>
         <CardHeader title="Product" />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5">
-          <InputField label="Find a model" type="search" placeholder="Model number or name" value={productSearch} onChange={(e) => setProductSearch(e.target.value)} />
-          <SelectField label="Product model" error={err('productModelId')} {...form.register('productModelId')}>
+          <InputField
+            label="Find a model"
+            type="search"
+            placeholder="Model number or name"
+            value={productSearch}
+            onChange={(e) => setProductSearch(e.target.value)}
+          />
+          <SelectField
+            label="Product model"
+            error={err('productModelId')}
+            {...form.register('productModelId')}
+          >
             <option value="">Choose a model</option>
             {(products.data?.items ?? []).map((p) => (
               <option key={p.id} value={p.id}>
@@ -91,12 +115,24 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
               </option>
             ))}
           </SelectField>
-          <InputField label="Quantity" unit="units" type="number" inputMode="numeric" step="1" error={err('quantity')} {...form.register('quantity', { setValueAs: numberOrUndefined })} />
+          <InputField
+            label="Quantity"
+            unit="units"
+            type="number"
+            inputMode="numeric"
+            step="1"
+            error={err('quantity')}
+            {...form.register('quantity', { setValueAs: numberOrUndefined })}
+          />
           <Controller
             control={form.control}
             name="serials"
             render={({ field, fieldState }) => (
-              <FieldShell label="Serial numbers or date codes" hint="One per unit, separated by spaces, commas or new lines." error={fieldState.error?.message}>
+              <FieldShell
+                label="Serial numbers or date codes"
+                hint="One per unit, separated by spaces, commas or new lines."
+                error={fieldState.error?.message}
+              >
                 {({ id, describedBy }) => (
                   <textarea
                     id={id}
@@ -122,23 +158,54 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
         <CardHeader title="Site" />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5">
           <InputField label="Site name" error={err('siteName')} {...form.register('siteName')} />
-          <InputField label="Street address" autoComplete="street-address" error={err('siteAddress')} {...form.register('siteAddress')} />
+          <InputField
+            label="Street address"
+            autoComplete="street-address"
+            error={err('siteAddress')}
+            {...form.register('siteAddress')}
+          />
           <InputField label="City" error={err('siteCity')} {...form.register('siteCity')} />
           <InputField label="State or province" error={err('siteRegion')} {...form.register('siteRegion')} />
-          <InputField label="Postal code" error={err('sitePostalCode')} {...form.register('sitePostalCode')} />
+          <InputField
+            label="Postal code"
+            error={err('sitePostalCode')}
+            {...form.register('sitePostalCode')}
+          />
         </div>
       </Card>
       <Card>
         <CardHeader title="Purchase" />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5">
-          <InputField label="Install date" type="date" max={latest} error={err('installDate')} {...form.register('installDate')} />
-          <InputField label="Purchase date (optional)" type="date" error={err('purchaseDate')} {...form.register('purchaseDate', { setValueAs: orNull })} />
-          <InputField label="Distributor (optional)" error={err('distributor')} {...form.register('distributor', { setValueAs: orNull })} />
-          <InputField label="Invoice number (optional)" error={err('invoiceNumber')} {...form.register('invoiceNumber', { setValueAs: orNull })} />
+          <InputField
+            label="Install date"
+            type="date"
+            max={latest}
+            error={err('installDate')}
+            {...form.register('installDate')}
+          />
+          <InputField
+            label="Purchase date (optional)"
+            type="date"
+            error={err('purchaseDate')}
+            {...form.register('purchaseDate', { setValueAs: orNull })}
+          />
+          <InputField
+            label="Distributor (optional)"
+            error={err('distributor')}
+            {...form.register('distributor', { setValueAs: orNull })}
+          />
+          <InputField
+            label="Invoice number (optional)"
+            error={err('invoiceNumber')}
+            {...form.register('invoiceNumber', { setValueAs: orNull })}
+          />
         </div>
       </Card>
       <Card>
-        <CardHeader title="Conditions as installed" description="Checked against the product's ratings as you choose." />
+        <CardHeader
+          title="Conditions as installed"
+          description="Checked against the product's ratings as you choose."
+        />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5 lg:grid-cols-3">
           <SelectField label="Location" error={err('location')} {...form.register('location')}>
             {optionsOf(LOCATIONS, (l) => LOCATION_LABELS[l])}
@@ -149,14 +216,40 @@ export function InstallationForm({ onSaved, onCancel }: { onSaved: (i: Installat
           <SelectField label="Dimmer" error={err('dimmer')} {...form.register('dimmer')}>
             {optionsOf(DIMMERS, (d) => DIMMER_LABELS[d])}
           </SelectField>
-          <SelectField label="Nominal supply (V)" error={err('nominalSupplyVolts')} {...form.register('nominalSupplyVolts', { setValueAs: Number })}>
+          <SelectField
+            label="Nominal supply (V)"
+            error={err('nominalSupplyVolts')}
+            {...form.register('nominalSupplyVolts', { setValueAs: Number })}
+          >
             {optionsOf(NOMINAL_SUPPLY_VOLTS, (v) => `${v} V`)}
           </SelectField>
-          <InputField label="Hours of use a day" unit="h" type="number" inputMode="decimal" step="any" error={err('hoursPerDay')} {...form.register('hoursPerDay', { setValueAs: numberOrUndefined })} />
-          <InputField label="Ambient temperature" unit="°C" type="number" inputMode="decimal" step="any" error={err('ambientC')} {...form.register('ambientC', { setValueAs: numberOrUndefined })} />
+          <InputField
+            label="Hours of use a day"
+            unit="h"
+            type="number"
+            inputMode="decimal"
+            step="any"
+            error={err('hoursPerDay')}
+            {...form.register('hoursPerDay', { setValueAs: numberOrUndefined })}
+          />
+          <InputField
+            label="Ambient temperature"
+            unit="°C"
+            type="number"
+            inputMode="decimal"
+            step="any"
+            error={err('ambientC')}
+            {...form.register('ambientC', { setValueAs: numberOrUndefined })}
+          />
         </div>
         <div className="px-4 pb-4 sm:px-5" aria-live="polite">
-          {warnings ? <FitWarnings warnings={warnings} live /> : <p className="text-sm text-ink-600">Choose a model to check the conditions against its ratings.</p>}
+          {warnings ? (
+            <FitWarnings warnings={warnings} live />
+          ) : (
+            <p className="text-sm text-ink-600">
+              Choose a model to check the conditions against its ratings.
+            </p>
+          )}
         </div>
       </Card>
       <div className="flex flex-wrap justify-end gap-2">

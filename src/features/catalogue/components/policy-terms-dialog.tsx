@@ -41,14 +41,29 @@ const parseReasons = (s: string): DenialReason[] =>
       return i === -1 ? { code: l, label: '' } : { code: l.slice(0, i).trim(), label: l.slice(i + 1).trim() };
     });
 
-export function PolicyTermsDialog({ open, onClose, policy }: { open: boolean; onClose: () => void; policy?: PolicyDetailDto }) {
+export function PolicyTermsDialog({
+  open,
+  onClose,
+  policy,
+}: {
+  open: boolean;
+  onClose: () => void;
+  policy?: PolicyDetailDto;
+}) {
   const qc = useQueryClient();
   const { notify } = useToast();
   const { user } = useSession();
   const latest = policy?.versions.at(-1);
-  const models = useQuery({ ...productQueries.list({ page: 1, pageSize: 200, manufacturerId: user.organization.id }), enabled: open && !policy });
+  const models = useQuery({
+    ...productQueries.list({ page: 1, pageSize: 200, manufacturerId: user.organization.id }),
+    enabled: open && !policy,
+  });
   const form = useForm<FormValues>({
-    resolver: zodResolver(policy ? z.object({ name: z.string(), productModelIds: z.array(z.string()), terms: policyTermsSchema }) : newPolicySchema) as never,
+    resolver: zodResolver(
+      policy
+        ? z.object({ name: z.string(), productModelIds: z.array(z.string()), terms: policyTermsSchema })
+        : newPolicySchema,
+    ) as never,
     defaultValues: {
       name: policy?.name ?? '',
       productModelIds: [],
@@ -68,7 +83,15 @@ export function PolicyTermsDialog({ open, onClose, policy }: { open: boolean; on
             denialReasons: latest.denialReasons,
             changeNote: '',
           }
-        : { effectiveFrom: '', currency: 'USD', exclusions: [], denialReasons: [], proofOfPurchaseRequired: true, unitCredit: '', labourAllowance: '0.00' } as unknown as PolicyTermsInput,
+        : ({
+            effectiveFrom: '',
+            currency: 'USD',
+            exclusions: [],
+            denialReasons: [],
+            proofOfPurchaseRequired: true,
+            unitCredit: '',
+            labourAllowance: '0.00',
+          } as unknown as PolicyTermsInput),
     },
   });
   const save = useMutation({
@@ -79,13 +102,23 @@ export function PolicyTermsDialog({ open, onClose, policy }: { open: boolean; on
       await qc.invalidateQueries({ queryKey: policyQueries.all });
     },
     onError: (e) => {
-      if (e instanceof ApiError) for (const d of e.details) form.setError((policy ? `terms.${d.path}` : d.path) as never, { message: d.message });
+      if (e instanceof ApiError)
+        for (const d of e.details)
+          form.setError((policy ? `terms.${d.path}` : d.path) as never, { message: d.message });
     },
   });
   const te = form.formState.errors.terms;
   const formError = save.error instanceof ApiError && !save.error.details.length ? save.error.message : null;
   const num = (k: keyof PolicyTermsInput, label: string, unit?: string) => (
-    <InputField label={label} unit={unit} type="number" inputMode="decimal" step="any" error={te?.[k]?.message as string | undefined} {...form.register(`terms.${k}` as const, { setValueAs: numberOrUndefined })} />
+    <InputField
+      label={label}
+      unit={unit}
+      type="number"
+      inputMode="decimal"
+      step="any"
+      error={te?.[k]?.message as string | undefined}
+      {...form.register(`terms.${k}` as const, { setValueAs: numberOrUndefined })}
+    />
   );
 
   return (
@@ -93,7 +126,11 @@ export function PolicyTermsDialog({ open, onClose, policy }: { open: boolean; on
       open={open}
       onClose={onClose}
       title={policy ? `New version of ${policy.name}` : 'New warranty policy'}
-      description={policy ? 'Versions are never edited: the new terms apply to units bought (or installed) from the effective date on.' : undefined}
+      description={
+        policy
+          ? 'Versions are never edited: the new terms apply to units bought (or installed) from the effective date on.'
+          : undefined
+      }
       footer={
         <>
           <Button variant="secondary" onClick={onClose}>
@@ -105,7 +142,12 @@ export function PolicyTermsDialog({ open, onClose, policy }: { open: boolean; on
         </>
       }
     >
-      <form id="policy-terms" noValidate className="space-y-4" onSubmit={form.handleSubmit((v) => save.mutate(v))}>
+      <form
+        id="policy-terms"
+        noValidate
+        className="space-y-4"
+        onSubmit={form.handleSubmit((v) => save.mutate(v))}
+      >
         {formError ? (
           <p role="alert" className="rounded-lg bg-bad-50 px-3 py-2 text-sm text-bad-800">
             {formError}
@@ -113,34 +155,71 @@ export function PolicyTermsDialog({ open, onClose, policy }: { open: boolean; on
         ) : null}
         {!policy ? (
           <>
-            <InputField label="Policy name" error={form.formState.errors.name?.message} {...form.register('name')} />
+            <InputField
+              label="Policy name"
+              error={form.formState.errors.name?.message}
+              {...form.register('name')}
+            />
             <fieldset>
               <legend className="text-sm font-medium text-ink-800">Product models covered</legend>
               <div className="mt-1 max-h-40 space-y-1 overflow-y-auto rounded-lg border border-ink-200 p-2">
                 {(models.data?.items ?? []).map((p) => (
                   <label key={p.id} className="flex min-h-11 items-center gap-3 text-sm">
-                    <input type="checkbox" value={p.id} className="size-5" {...form.register('productModelIds')} />
+                    <input
+                      type="checkbox"
+                      value={p.id}
+                      className="size-5"
+                      {...form.register('productModelIds')}
+                    />
                     {p.modelNumber} · {p.name}
                   </label>
                 ))}
               </div>
-              {form.formState.errors.productModelIds ? <p className="mt-1 text-sm font-medium text-bad-700">{form.formState.errors.productModelIds.message}</p> : null}
+              {form.formState.errors.productModelIds ? (
+                <p className="mt-1 text-sm font-medium text-bad-700">
+                  {form.formState.errors.productModelIds.message}
+                </p>
+              ) : null}
             </fieldset>
           </>
         ) : null}
-        <InputField label="In force from" type="date" error={te?.effectiveFrom?.message} {...form.register('terms.effectiveFrom')} />
+        <InputField
+          label="In force from"
+          type="date"
+          error={te?.effectiveFrom?.message}
+          {...form.register('terms.effectiveFrom')}
+        />
         <div className="grid gap-4 sm:grid-cols-2">
           {num('termMonths', 'Term', 'months')}
           {num('fullCoverageMonths', 'Full coverage', 'months')}
           {num('filingWindowDays', 'Filing window', 'days')}
           {num('darkLedFailurePercent', 'Failure threshold', '% of LEDs dark')}
-          <InputField label="Unit credit" unit="amount" inputMode="decimal" error={te?.unitCredit?.message} {...form.register('terms.unitCredit')} />
-          <InputField label="Currency" unit="ISO 4217" maxLength={3} error={te?.currency?.message} {...form.register('terms.currency')} />
-          <InputField label="Labour allowance" unit="amount per unit" inputMode="decimal" error={te?.labourAllowance?.message} {...form.register('terms.labourAllowance')} />
+          <InputField
+            label="Unit credit"
+            unit="amount"
+            inputMode="decimal"
+            error={te?.unitCredit?.message}
+            {...form.register('terms.unitCredit')}
+          />
+          <InputField
+            label="Currency"
+            unit="ISO 4217"
+            maxLength={3}
+            error={te?.currency?.message}
+            {...form.register('terms.currency')}
+          />
+          <InputField
+            label="Labour allowance"
+            unit="amount per unit"
+            inputMode="decimal"
+            error={te?.labourAllowance?.message}
+            {...form.register('terms.labourAllowance')}
+          />
           {num('requiredPhotos', 'Required photos', 'count')}
         </div>
         <label className="flex min-h-11 items-center gap-3 text-sm font-medium text-ink-800">
-          <input type="checkbox" className="size-5" {...form.register('terms.proofOfPurchaseRequired')} /> Proof of purchase required
+          <input type="checkbox" className="size-5" {...form.register('terms.proofOfPurchaseRequired')} />{' '}
+          Proof of purchase required
         </label>
         <fieldset>
           <legend className="text-sm font-medium text-ink-800">Exclusions in force</legend>
@@ -157,7 +236,13 @@ export function PolicyTermsDialog({ open, onClose, policy }: { open: boolean; on
           control={form.control}
           name="terms.denialReasons"
           render={({ field, fieldState }) => (
-            <FieldShell label="Denial reason codes" hint='One a line, as "CODE: reason in words".' error={fieldState.error?.message ?? (te?.denialReasons as { message?: string } | undefined)?.message}>
+            <FieldShell
+              label="Denial reason codes"
+              hint='One a line, as "CODE: reason in words".'
+              error={
+                fieldState.error?.message ?? (te?.denialReasons as { message?: string } | undefined)?.message
+              }
+            >
               {({ id, describedBy }) => (
                 <textarea
                   id={id}
@@ -171,7 +256,11 @@ export function PolicyTermsDialog({ open, onClose, policy }: { open: boolean; on
             </FieldShell>
           )}
         />
-        <InputField label="What changed (optional)" error={te?.changeNote?.message} {...form.register('terms.changeNote')} />
+        <InputField
+          label="What changed (optional)"
+          error={te?.changeNote?.message}
+          {...form.register('terms.changeNote')}
+        />
       </form>
     </Dialog>
   );

@@ -14,8 +14,14 @@ const ROWS: Row[] = [
   { label: 'Labour allowance', value: (v) => `${v.labourAllowance} ${v.currency}` },
   { label: 'Required photos', value: (v) => String(v.requiredPhotos) },
   { label: 'Proof of purchase', value: (v) => (v.proofOfPurchaseRequired ? 'Required' : 'Not required') },
-  { label: 'Exclusions', value: (v) => (v.exclusions.length ? v.exclusions.map((x) => EXCLUSION_LABELS[x]).join('; ') : 'None') },
-  { label: 'Denial reasons', value: (v) => (v.denialReasons.length ? v.denialReasons.map((r) => r.code).join(', ') : 'None') },
+  {
+    label: 'Exclusions',
+    value: (v) => (v.exclusions.length ? v.exclusions.map((x) => EXCLUSION_LABELS[x]).join('; ') : 'None'),
+  },
+  {
+    label: 'Denial reasons',
+    value: (v) => (v.denialReasons.length ? v.denialReasons.map((r) => r.code).join(', ') : 'None'),
+  },
   { label: 'Change note', value: (v) => v.changeNote ?? '—' },
 ];
 
@@ -38,11 +44,20 @@ export function PolicyVersions({ versions }: { versions: PolicyVersionDto[] }) {
               {row.label}
             </Th>
             {versions.map((v, i) => {
-              const changed = i > 0 && row.label !== 'Change note' && row.label !== 'In force from' && row.value(v) !== row.value(versions[i - 1]);
+              const changed =
+                i > 0 &&
+                row.label !== 'Change note' &&
+                row.label !== 'In force from' &&
+                row.value(v) !== row.value(versions[i - 1]);
               return (
-                <Td key={v.id} className={cn('min-w-44 align-top', changed && 'bg-warn-50 font-semibold text-warn-900')}>
+                <Td
+                  key={v.id}
+                  className={cn('min-w-44 align-top', changed && 'bg-warn-50 font-semibold text-warn-900')}
+                >
                   {row.value(v)}
-                  {changed ? <span className="sr-only"> (changed from version {versions[i - 1].versionNumber})</span> : null}
+                  {changed ? (
+                    <span className="sr-only"> (changed from version {versions[i - 1].versionNumber})</span>
+                  ) : null}
                 </Td>
               );
             })}

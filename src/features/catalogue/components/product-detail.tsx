@@ -32,8 +32,9 @@ export function ProductRatings({ product }: { product: ProductDto }) {
               </Link>
               {covering.latestVersion ? (
                 <p className="mt-1 text-ink-700">
-                  Version {covering.latestVersion.versionNumber}, from {covering.latestVersion.effectiveFrom}: {covering.latestVersion.termMonths} months,{' '}
-                  {covering.latestVersion.fullCoverageMonths} at full coverage.
+                  Version {covering.latestVersion.versionNumber}, from {covering.latestVersion.effectiveFrom}:{' '}
+                  {covering.latestVersion.termMonths} months, {covering.latestVersion.fullCoverageMonths} at
+                  full coverage.
                 </p>
               ) : null}
             </>

@@ -23,16 +23,34 @@ import { createProduct, updateProduct } from '../api/save-product';
 const numberOrUndefined = (v: unknown) => (v === '' || v === null || v === undefined ? undefined : Number(v));
 const numberOrNull = (v: unknown) => (v === '' || v === null || v === undefined ? null : Number(v));
 
-const EMPTY: Partial<ProductInput> = { family: 'high_bay', location: 'dry', dimming: 'none', enclosedRated: false, activeCooling: false };
+const EMPTY: Partial<ProductInput> = {
+  family: 'high_bay',
+  location: 'dry',
+  dimming: 'none',
+  enclosedRated: false,
+  activeCooling: false,
+};
 
 /** Create or edit a product model. The same schema as the server checks every bound as the user types. */
-export function ProductForm({ product, onSaved, onCancel }: { product?: ProductDto; onSaved: (p: ProductDto) => void; onCancel: () => void }) {
+export function ProductForm({
+  product,
+  onSaved,
+  onCancel,
+}: {
+  product?: ProductDto;
+  onSaved: (p: ProductDto) => void;
+  onCancel: () => void;
+}) {
   const qc = useQueryClient();
   const form = useForm<ProductInput, unknown, ProductValues>({
     resolver: zodResolver(productInputSchema),
     mode: 'onTouched',
     defaultValues: product
-      ? (Object.fromEntries(Object.entries(product).filter(([k]) => !['id', 'manufacturer', 'createdAt', 'updatedAt', 'version'].includes(k))) as ProductInput)
+      ? (Object.fromEntries(
+          Object.entries(product).filter(
+            ([k]) => !['id', 'manufacturer', 'createdAt', 'updatedAt', 'version'].includes(k),
+          ),
+        ) as ProductInput)
       : (EMPTY as ProductInput),
   });
   const save = useMutation({
@@ -49,7 +67,13 @@ export function ProductForm({ product, onSaved, onCancel }: { product?: ProductD
     },
   });
   const err = (k: keyof ProductInput) => form.formState.errors[k]?.message;
-  const num = (k: keyof ProductInput, label: string, unit: string | undefined, step = 'any', optional = false) => (
+  const num = (
+    k: keyof ProductInput,
+    label: string,
+    unit: string | undefined,
+    step = 'any',
+    optional = false,
+  ) => (
     <InputField
       label={label}
       unit={unit}
@@ -60,7 +84,12 @@ export function ProductForm({ product, onSaved, onCancel }: { product?: ProductD
       {...form.register(k, { setValueAs: optional ? numberOrNull : numberOrUndefined })}
     />
   );
-  const formError = save.error instanceof ApiError && !save.error.details.length && save.error.code !== 'product.model_number_taken' ? save.error.message : null;
+  const formError =
+    save.error instanceof ApiError &&
+    !save.error.details.length &&
+    save.error.code !== 'product.model_number_taken'
+      ? save.error.message
+      : null;
 
   return (
     <form noValidate onSubmit={form.handleSubmit((v) => save.mutate(v))} className="space-y-5">
@@ -72,7 +101,12 @@ export function ProductForm({ product, onSaved, onCancel }: { product?: ProductD
       <Card>
         <CardHeader title="Identity" />
         <div className="grid gap-4 p-4 sm:grid-cols-2 sm:p-5">
-          <InputField label="Model number" autoComplete="off" error={err('modelNumber')} {...form.register('modelNumber')} />
+          <InputField
+            label="Model number"
+            autoComplete="off"
+            error={err('modelNumber')}
+            {...form.register('modelNumber')}
+          />
           <InputField label="Name" autoComplete="off" error={err('name')} {...form.register('name')} />
           <SelectField label="Family" error={err('family')} {...form.register('family')}>
             {optionsOf(PRODUCT_FAMILIES, (f) => FAMILY_LABELS[f])}
@@ -105,11 +139,19 @@ export function ProductForm({ product, onSaved, onCancel }: { product?: ProductD
           {num('ambientMaxC', 'Rated ambient maximum', '°C')}
           {num('ratedLifeHours', 'Rated life', 'h', '1')}
           <label className="flex min-h-11 items-center gap-3 text-sm font-medium text-ink-800">
-            <input type="checkbox" className="size-5 rounded border-ink-300" {...form.register('enclosedRated')} />
+            <input
+              type="checkbox"
+              className="size-5 rounded border-ink-300"
+              {...form.register('enclosedRated')}
+            />
             Rated for totally enclosed luminaires
           </label>
           <label className="flex min-h-11 items-center gap-3 text-sm font-medium text-ink-800">
-            <input type="checkbox" className="size-5 rounded border-ink-300" {...form.register('activeCooling')} />
+            <input
+              type="checkbox"
+              className="size-5 rounded border-ink-300"
+              {...form.register('activeCooling')}
+            />
             Active cooling (fan)
           </label>
         </div>

@@ -31,10 +31,17 @@ export function uploadClaimFile(
         onProgress(1);
         resolve(body.attachment);
       } else {
-        reject(new ApiError(xhr.status, body?.error?.code ?? 'http.error', body?.error?.message ?? `The server answered ${xhr.status}.`));
+        reject(
+          new ApiError(
+            xhr.status,
+            body?.error?.code ?? 'http.error',
+            body?.error?.message ?? `The server answered ${xhr.status}.`,
+          ),
+        );
       }
     };
-    xhr.onerror = () => reject(new ApiError(0, 'network.offline', 'The upload was cut off. Check the connection and retry.'));
+    xhr.onerror = () =>
+      reject(new ApiError(0, 'network.offline', 'The upload was cut off. Check the connection and retry.'));
     xhr.onabort = () => reject(new ApiError(0, 'upload.aborted', 'Upload cancelled.'));
     signal?.addEventListener('abort', () => xhr.abort());
     const form = new FormData();
@@ -45,4 +52,6 @@ export function uploadClaimFile(
 }
 
 export const removeClaimFile = (claimId: string, attachmentId: string) =>
-  api<void>(`/claims/${encodeURIComponent(claimId)}/attachments/${encodeURIComponent(attachmentId)}`, { method: 'DELETE' });
+  api<void>(`/claims/${encodeURIComponent(claimId)}/attachments/${encodeURIComponent(attachmentId)}`, {
+    method: 'DELETE',
+  });

@@ -10,7 +10,10 @@ export const createClaim = (installationId: string, idempotencyKey: string, fiel
   });
 
 export const updateClaim = (id: string, version: number, fields: ClaimFieldsInput) =>
-  api<{ claim: ClaimDetailDto }>(`/claims/${encodeURIComponent(id)}`, { method: 'PATCH', json: { version, ...fields } });
+  api<{ claim: ClaimDetailDto }>(`/claims/${encodeURIComponent(id)}`, {
+    method: 'PATCH',
+    json: { version, ...fields },
+  });
 
 /** Files a draft; keep one idempotencyKey for the retries of one filing (the server replays its answer). */
 export const fileClaim = (id: string, idempotencyKey: string, version?: number) =>
@@ -21,9 +24,16 @@ export const fileClaim = (id: string, idempotencyKey: string, version?: number) 
   });
 
 export const withdrawClaim = (id: string, reason?: string) =>
-  api<{ claim: ClaimDetailDto }>(`/claims/${encodeURIComponent(id)}/withdraw`, { method: 'POST', json: reason ? { reason } : {} });
+  api<{ claim: ClaimDetailDto }>(`/claims/${encodeURIComponent(id)}/withdraw`, {
+    method: 'POST',
+    json: reason ? { reason } : {},
+  });
 
-export const deleteClaim = (id: string) => api<void>(`/claims/${encodeURIComponent(id)}`, { method: 'DELETE' });
+export const deleteClaim = (id: string) =>
+  api<void>(`/claims/${encodeURIComponent(id)}`, { method: 'DELETE' });
 
 export const importClaimBatch = (csv: string, filename: string, dryRun: boolean) =>
-  api<ClaimBatchResult>(`/claims/batches${dryRun ? '?dryRun=true' : ''}`, { method: 'POST', json: { csv, filename } });
+  api<ClaimBatchResult>(`/claims/batches${dryRun ? '?dryRun=true' : ''}`, {
+    method: 'POST',
+    json: { csv, filename },
+  });

@@ -34,7 +34,10 @@ export const claimQueries = {
   installations: (q: string) =>
     queryOptions({
       queryKey: ['claims', 'installations', q],
-      queryFn: () => api<Paginated<InstallationDto>>(`/installations${toQuery({ q, pageSize: 20, sort: '-installDate' })}`),
+      queryFn: () =>
+        api<Paginated<InstallationDto>>(
+          `/installations${toQuery({ q, pageSize: 20, sort: '-installDate' })}`,
+        ),
       placeholderData: keepPreviousData,
     }),
 };

@@ -13,9 +13,17 @@ import { Button } from '../../../components/ui/button';
 import { cn } from '../../../lib/cn';
 import { removeClaimFile, uploadClaimFile } from '../api/attachments';
 
-type Upload = { key: string; file: File; purpose: AttachmentPurpose; progress: number; state: 'uploading' | 'failed'; error?: string };
+type Upload = {
+  key: string;
+  file: File;
+  purpose: AttachmentPurpose;
+  progress: number;
+  state: 'uploading' | 'failed';
+  error?: string;
+};
 
-const sizeText = (b: number) => (b >= 1024 * 1024 ? `${(b / 1024 / 1024).toFixed(1)} MB` : `${Math.max(1, Math.round(b / 1024))} KB`);
+const sizeText = (b: number) =>
+  b >= 1024 * 1024 ? `${(b / 1024 / 1024).toFixed(1)} MB` : `${Math.max(1, Math.round(b / 1024))} KB`;
 
 /**
  * The claim's photos and documents. On a phone the camera opens straight from the form; on a desk files can be
@@ -45,14 +53,23 @@ export function AttachmentsPanel({
 
   const start = useCallback(
     (u: Upload) => {
-      setUploads((list) => [...list.filter((x) => x.key !== u.key), { ...u, state: 'uploading', progress: 0, error: undefined }]);
-      uploadClaimFile(claimId, u.file, u.purpose, (p) => setUploads((list) => list.map((x) => (x.key === u.key ? { ...x, progress: p } : x))))
+      setUploads((list) => [
+        ...list.filter((x) => x.key !== u.key),
+        { ...u, state: 'uploading', progress: 0, error: undefined },
+      ]);
+      uploadClaimFile(claimId, u.file, u.purpose, (p) =>
+        setUploads((list) => list.map((x) => (x.key === u.key ? { ...x, progress: p } : x))),
+      )
         .then((a) => {
           setUploads((list) => list.filter((x) => x.key !== u.key));
           latest.current = [...latest.current, a];
           onChange(latest.current);
         })
-        .catch((err: Error) => setUploads((list) => list.map((x) => (x.key === u.key ? { ...x, state: 'failed', error: err.message } : x))));
+        .catch((err: Error) =>
+          setUploads((list) =>
+            list.map((x) => (x.key === u.key ? { ...x, state: 'failed', error: err.message } : x)),
+          ),
+        );
     },
     [claimId, onChange],
   );
@@ -61,14 +78,24 @@ export function AttachmentsPanel({
     setMessage(null);
     const list = [...(files ?? [])];
     const room = MAX_ATTACHMENTS_PER_OWNER - attachments.length - uploads.length;
-    if (list.length > room) setMessage(`A claim takes at most ${MAX_ATTACHMENTS_PER_OWNER} files; ${room <= 0 ? 'remove one first' : `only ${room} more can be added`}.`);
+    if (list.length > room)
+      setMessage(
+        `A claim takes at most ${MAX_ATTACHMENTS_PER_OWNER} files; ${room <= 0 ? 'remove one first' : `only ${room} more can be added`}.`,
+      );
     for (const file of list.slice(0, Math.max(0, room))) {
       if (file.size > MAX_ATTACHMENT_MB * 1024 * 1024) {
         setMessage(`${file.name} is ${sizeText(file.size)}; a file can be at most ${MAX_ATTACHMENT_MB} MB.`);
         continue;
       }
-      const p: AttachmentPurpose = file.type === 'application/pdf' && purpose !== 'proof_of_purchase' ? 'proof_of_purchase' : purpose;
-      start({ key: `${file.name}-${file.size}-${crypto.randomUUID()}`, file, purpose: p, progress: 0, state: 'uploading' });
+      const p: AttachmentPurpose =
+        file.type === 'application/pdf' && purpose !== 'proof_of_purchase' ? 'proof_of_purchase' : purpose;
+      start({
+        key: `${file.name}-${file.size}-${crypto.randomUUID()}`,
+        file,
+        purpose: p,
+        progress: 0,
+        state: 'uploading',
+      });
     }
   };
 
@@ -94,7 +121,8 @@ export function AttachmentsPanel({
         Photos and documents
       </h3>
       <p className="text-sm text-ink-600">
-        The nameplate, the failure and the site, and proof of purchase. Up to {MAX_ATTACHMENTS_PER_OWNER} files of at most {MAX_ATTACHMENT_MB} MB each. Locations are removed from photos when stored.
+        The nameplate, the failure and the site, and proof of purchase. Up to {MAX_ATTACHMENTS_PER_OWNER}{' '}
+        files of at most {MAX_ATTACHMENT_MB} MB each. Locations are removed from photos when stored.
       </p>
       {editable ? (
         <div
@@ -104,7 +132,10 @@ export function AttachmentsPanel({
           }}
           onDragLeave={() => setDragging(false)}
           onDrop={onDrop}
-          className={cn('space-y-3 rounded-lg border-2 border-dashed p-3', dragging ? 'border-brand-600 bg-brand-50' : 'border-ink-300')}
+          className={cn(
+            'space-y-3 rounded-lg border-2 border-dashed p-3',
+            dragging ? 'border-brand-600 bg-brand-50' : 'border-ink-300',
+          )}
         >
           <div className="space-y-1">
             <label htmlFor={purposeId} className="block text-sm font-medium text-ink-800">
@@ -126,7 +157,16 @@ export function AttachmentsPanel({
           <div className="grid grid-cols-1 gap-2 sm:grid-cols-2">
             <label className="inline-flex h-12 cursor-pointer items-center justify-center gap-2 rounded-lg bg-brand-700 px-4 font-semibold text-white hover:bg-brand-800">
               <Camera className="size-5" aria-hidden /> Take a photo
-              <input type="file" accept="image/*" capture="environment" className="sr-only" onChange={(e) => { add(e.target.files); e.target.value = ''; }} />
+              <input
+                type="file"
+                accept="image/*"
+                capture="environment"
+                className="sr-only"
+                onChange={(e) => {
+                  add(e.target.files);
+                  e.target.value = '';
+                }}
+              />
             </label>
             <label className="inline-flex h-12 cursor-pointer items-center justify-center gap-2 rounded-lg border border-ink-300 bg-white px-4 font-semibold text-ink-900 hover:bg-ink-50">
               <ImagePlus className="size-5" aria-hidden /> Choose files
@@ -167,7 +207,13 @@ export function AttachmentsPanel({
               </p>
             </div>
             {removable ? (
-              <Button variant="ghost" size="md" aria-label={`Remove ${a.name}`} onClick={() => void remove(a)} icon={<Trash2 className="size-4" aria-hidden />} />
+              <Button
+                variant="ghost"
+                size="md"
+                aria-label={`Remove ${a.name}`}
+                onClick={() => void remove(a)}
+                icon={<Trash2 className="size-4" aria-hidden />}
+              />
             ) : null}
           </li>
         ))}
@@ -177,10 +223,21 @@ export function AttachmentsPanel({
               <p className="min-w-0 flex-1 truncate text-sm font-medium">{u.file.name}</p>
               {u.state === 'failed' ? (
                 <>
-                  <Button variant="secondary" size="md" onClick={() => start(u)} icon={<RotateCcw className="size-4" aria-hidden />}>
+                  <Button
+                    variant="secondary"
+                    size="md"
+                    onClick={() => start(u)}
+                    icon={<RotateCcw className="size-4" aria-hidden />}
+                  >
                     Retry
                   </Button>
-                  <Button variant="ghost" size="md" aria-label={`Drop ${u.file.name}`} onClick={() => setUploads((l) => l.filter((x) => x.key !== u.key))} icon={<X className="size-4" aria-hidden />} />
+                  <Button
+                    variant="ghost"
+                    size="md"
+                    aria-label={`Drop ${u.file.name}`}
+                    onClick={() => setUploads((l) => l.filter((x) => x.key !== u.key))}
+                    icon={<X className="size-4" aria-hidden />}
+                  />
                 </>
               ) : null}
             </div>
@@ -190,7 +247,11 @@ export function AttachmentsPanel({
               value={Math.round(u.progress * 100)}
               aria-label={`Uploading ${u.file.name}`}
             />
-            {u.state === 'failed' ? <p className="text-sm text-bad-700">{u.error}</p> : <p className="text-xs text-ink-600">{Math.round(u.progress * 100)} %</p>}
+            {u.state === 'failed' ? (
+              <p className="text-sm text-bad-700">{u.error}</p>
+            ) : (
+              <p className="text-xs text-ink-600">{Math.round(u.progress * 100)} %</p>
+            )}
           </li>
         ))}
       </ul>

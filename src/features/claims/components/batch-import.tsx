@@ -11,14 +11,22 @@ import { newIdempotencyKey } from '../../../lib/api-client';
 import { fileClaim, importClaimBatch } from '../api/claim-mutations';
 import { claimQueries } from '../api/claim-queries';
 
-const VERDICT = { covered: 'Likely covered', review: 'Needs a reviewer', excluded: 'Likely excluded' } as const;
+const VERDICT = {
+  covered: 'Likely covered',
+  review: 'Needs a reviewer',
+  excluded: 'Likely excluded',
+} as const;
 
 /** A spreadsheet of failed units: preview every row, make drafts of the good ones, file them together. */
 export function BatchImport() {
   const qc = useQueryClient();
   const [file, setFile] = useState<{ name: string; text: string } | null>(null);
   const [result, setResult] = useState<ClaimBatchResult | null>(null);
-  const [progress, setProgress] = useState<{ done: number; total: number; failed: { id: string; message: string }[] } | null>(null);
+  const [progress, setProgress] = useState<{
+    done: number;
+    total: number;
+    failed: { id: string; message: string }[];
+  } | null>(null);
   const run = useMutation({
     mutationFn: (dryRun: boolean) => importClaimBatch(file!.text, file!.name, dryRun),
     onSuccess: (r) => setResult(r),
@@ -54,7 +62,10 @@ export function BatchImport() {
         }
       />
       <Card>
-        <CardHeader title="1. The file" description="CSV with a header row; readings may use a decimal comma and a unit (350 mA)." />
+        <CardHeader
+          title="1. The file"
+          description="CSV with a header row; readings may use a decimal comma and a unit (350 mA)."
+        />
         <div className="flex flex-wrap items-end gap-3 p-4 sm:p-5">
           <label className={buttonClasses('secondary', 'md', 'cursor-pointer')}>
             <FileSpreadsheet className="size-4" aria-hidden /> {file ? file.name : 'Choose a CSV file'}
@@ -71,11 +82,19 @@ export function BatchImport() {
               }}
             />
           </label>
-          <Button disabled={!file} loading={run.isPending && run.variables === true} onClick={() => run.mutate(true)}>
+          <Button
+            disabled={!file}
+            loading={run.isPending && run.variables === true}
+            onClick={() => run.mutate(true)}
+          >
             Check the rows
           </Button>
         </div>
-        {run.error ? <p role="alert" className="px-5 pb-4 text-sm text-bad-700">{run.error.message}</p> : null}
+        {run.error ? (
+          <p role="alert" className="px-5 pb-4 text-sm text-bad-700">
+            {run.error.message}
+          </p>
+        ) : null}
       </Card>
       {result ? (
         <Card className="mt-5">
@@ -84,11 +103,18 @@ export function BatchImport() {
             description={`${result.total} rows: ${result.valid} good, ${result.invalid} with problems${result.dryRun ? '' : `; ${result.created} drafts made`}.`}
             actions={
               result.dryRun ? (
-                <Button disabled={!result.valid} loading={run.isPending && run.variables === false} onClick={() => run.mutate(false)}>
+                <Button
+                  disabled={!result.valid}
+                  loading={run.isPending && run.variables === false}
+                  onClick={() => run.mutate(false)}
+                >
                   Make {result.valid} drafts
                 </Button>
               ) : (
-                <Button disabled={!result.created || (progress !== null && progress.done < progress.total)} onClick={() => void fileAll()}>
+                <Button
+                  disabled={!result.created || (progress !== null && progress.done < progress.total)}
+                  onClick={() => void fileAll()}
+                >
                   File all {result.created}
                 </Button>
               )
@@ -96,7 +122,12 @@ export function BatchImport() {
           />
           {progress ? (
             <div className="space-y-1 border-b border-ink-100 p-4">
-              <progress className="h-2 w-full accent-brand-700" max={progress.total} value={progress.done} aria-label="Filing the batch" />
+              <progress
+                className="h-2 w-full accent-brand-700"
+                max={progress.total}
+                value={progress.done}
+                aria-label="Filing the batch"
+              />
               <p className="text-sm" role="status">
                 Filed {progress.done - progress.failed.length} of {progress.total}
                 {progress.failed.length ? `; ${progress.failed.length} refused (open them to see why)` : ''}.
@@ -105,21 +136,48 @@ export function BatchImport() {
           ) : null}
           {result.errors.length ? (
             <Table caption="Rows with problems">
-              <thead><tr><Th>Row</Th><Th>Column</Th><Th>Problem</Th></tr></thead>
+              <thead>
+                <tr>
+                  <Th>Row</Th>
+                  <Th>Column</Th>
+                  <Th>Problem</Th>
+                </tr>
+              </thead>
               <tbody className="divide-y divide-ink-100">
                 {result.errors.map((e, i) => (
-                  <tr key={i}><Td className="tabular-nums">{e.row}</Td><Td className="font-mono text-xs">{e.column}</Td><Td>{e.message}</Td></tr>
+                  <tr key={i}>
+                    <Td className="tabular-nums">{e.row}</Td>
+                    <Td className="font-mono text-xs">{e.column}</Td>
+                    <Td>{e.message}</Td>
+                  </tr>
                 ))}
               </tbody>
             </Table>
           ) : null}
           <Table caption="Good rows">
-            <thead><tr><Th>Row</Th><Th>Site and model</Th><Th>Serials</Th><Th>Failed</Th><Th>Engine</Th></tr></thead>
+            <thead>
+              <tr>
+                <Th>Row</Th>
+                <Th>Site and model</Th>
+                <Th>Serials</Th>
+                <Th>Failed</Th>
+                <Th>Engine</Th>
+              </tr>
+            </thead>
             <tbody className="divide-y divide-ink-100">
               {result.rows.map((r) => (
                 <tr key={r.row}>
                   <Td className="tabular-nums">{r.row}</Td>
-                  <Td>{r.claimId ? <Link className="text-brand-800 underline" to={`/claims/${r.claimId}`}>{r.siteName}</Link> : r.siteName} · {r.modelNumber}</Td>
+                  <Td>
+                    {r.claimId ? (
+                      <Link className="text-brand-800 underline" to={`/claims/${r.claimId}`}>
+                        {r.siteName}
+                      </Link>
+                    ) : (
+                      r.siteName
+                    )}{' '}
+                    · {r.modelNumber}
+                  </Td>
                   <Td className="font-mono text-xs">{r.serials.join(', ')}</Td>
                   <Td>{r.failedOn}</Td>
                   <Td>{r.verdict ? VERDICT[r.verdict] : '—'}</Td>

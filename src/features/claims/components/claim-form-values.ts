@@ -52,16 +52,26 @@ export function valuesFromClaim(c: ClaimDetailDto, units: ReadingUnits): ClaimFo
       driverOutputAmps: formatMeterNumber(m.driverOutputAmps, units.driverOutputAmps),
       strings: Array.from({ length: rows }, (_, i) => {
         const s = m.strings?.[i] ?? {};
-        return { volts: formatMeterNumber(s.volts, 'V'), amps: formatMeterNumber(s.amps, units.stringAmps), darkLeds: s.darkLeds === undefined ? '' : String(s.darkLeds) };
+        return {
+          volts: formatMeterNumber(s.volts, 'V'),
+          amps: formatMeterNumber(s.amps, units.stringAmps),
+          darkLeds: s.darkLeds === undefined ? '' : String(s.darkLeds),
+        };
       }),
     },
-    observations: Object.fromEntries(OBSERVATIONS.map((k) => [k, c.observations?.[k] ?? false])) as Record<ObservationKey, boolean>,
+    observations: Object.fromEntries(OBSERVATIONS.map((k) => [k, c.observations?.[k] ?? false])) as Record<
+      ObservationKey,
+      boolean
+    >,
     narrative: c.narrative,
   };
 }
 
 /** Typed text to API fields. Text that is not a number is left out of the fields and reported by path. */
-export function fieldsFromValues(v: ClaimFormValues, units: ReadingUnits): { fields: ClaimFieldsInput; issues: FilingIssue[] } {
+export function fieldsFromValues(
+  v: ClaimFormValues,
+  units: ReadingUnits,
+): { fields: ClaimFieldsInput; issues: FilingIssue[] } {
   const issues: FilingIssue[] = [];
   const num = (path: string, text: string, unit: Parameters<typeof parseMeterNumber>[1] = '') => {
     const r = parseMeterNumber(text, unit);
@@ -82,7 +92,10 @@ export function fieldsFromValues(v: ClaimFormValues, units: ReadingUnits): { fie
   });
   while (strings.length && Object.keys(strings[strings.length - 1]).length === 0) strings.pop();
   const measurements: NonNullable<ClaimFieldsInput['measurements']> = {};
-  const put = (k: 'supplyVolts' | 'inputWatts' | 'powerFactor' | 'driverOutputVolts' | 'driverOutputAmps', unit: Parameters<typeof parseMeterNumber>[1]) => {
+  const put = (
+    k: 'supplyVolts' | 'inputWatts' | 'powerFactor' | 'driverOutputVolts' | 'driverOutputAmps',
+    unit: Parameters<typeof parseMeterNumber>[1],
+  ) => {
     const x = num(`measurements.${k}`, v.measurements[k], unit);
     if (x !== undefined) measurements[k] = x;
   };
@@ -108,10 +121,16 @@ export function fieldsFromValues(v: ClaimFormValues, units: ReadingUnits): { fie
 }
 
 /** The fields checked by the shared schema: the typed-text problems first, then the schema's, each by path. */
-export function checkValues(v: ClaimFormValues, units: ReadingUnits): { fields: ClaimFields | null; input: ClaimFieldsInput; issues: FilingIssue[] } {
+export function checkValues(
+  v: ClaimFormValues,
+  units: ReadingUnits,
+): { fields: ClaimFields | null; input: ClaimFieldsInput; issues: FilingIssue[] } {
   const { fields, issues } = fieldsFromValues(v, units);
   const parsed = claimFieldsSchema.safeParse(fields);
   if (parsed.success) return { fields: parsed.data, input: fields, issues };
-  const schemaIssues = parsed.error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
+  const schemaIssues = parsed.error.issues.map((i) => ({
+    path: i.path.map(String).join('.'),
+    message: i.message,
+  }));
   return { fields: null, input: fields, issues: [...issues, ...schemaIssues] };
 }

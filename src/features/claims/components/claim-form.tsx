@@ -23,7 +23,14 @@ import { fileClaim } from '../api/claim-mutations';
 import { claimQueries } from '../api/claim-queries';
 import { readLocalDraft, useDraftSync, type SyncStatus } from '../hooks/use-draft-sync';
 import { AttachmentsPanel } from './attachments-panel';
-import { checkValues, DEFAULT_UNITS, fieldsFromValues, valuesFromClaim, type ClaimFormValues, type ReadingUnits } from './claim-form-values';
+import {
+  checkValues,
+  DEFAULT_UNITS,
+  fieldsFromValues,
+  valuesFromClaim,
+  type ClaimFormValues,
+  type ReadingUnits,
+} from './claim-form-values';
 import { MeterField } from './meter-field';
 import { SafetyCallout } from './safety-callout';
 
@@ -32,7 +39,10 @@ const todayIso = () => new Date().toISOString().slice(0, 10);
 
 function loadUnits(): ReadingUnits {
   try {
-    return { ...DEFAULT_UNITS, ...(JSON.parse(localStorage.getItem(UNITS_KEY) ?? '{}') as Partial<ReadingUnits>) };
+    return {
+      ...DEFAULT_UNITS,
+      ...(JSON.parse(localStorage.getItem(UNITS_KEY) ?? '{}') as Partial<ReadingUnits>),
+    };
   } catch {
     return DEFAULT_UNITS;
   }
@@ -48,9 +58,21 @@ function setPath(target: Record<string, unknown>, path: string, message: string)
 
 const STATUS_TEXT: Record<SyncStatus, { text: string; icon: ReactNode; className: string }> = {
   saved: { text: 'Saved', icon: <Check className="size-4" aria-hidden />, className: 'text-ok-800' },
-  saving: { text: 'Saving…', icon: <CloudUpload className="size-4" aria-hidden />, className: 'text-ink-700' },
-  offline: { text: 'Offline — changes kept on this device', icon: <CloudOff className="size-4" aria-hidden />, className: 'text-warn-900' },
-  conflict: { text: 'Changed elsewhere', icon: <CloudOff className="size-4" aria-hidden />, className: 'text-bad-800' },
+  saving: {
+    text: 'Saving…',
+    icon: <CloudUpload className="size-4" aria-hidden />,
+    className: 'text-ink-700',
+  },
+  offline: {
+    text: 'Offline — changes kept on this device',
+    icon: <CloudOff className="size-4" aria-hidden />,
+    className: 'text-warn-900',
+  },
+  conflict: {
+    text: 'Changed elsewhere',
+    icon: <CloudOff className="size-4" aria-hidden />,
+    className: 'text-bad-800',
+  },
   error: { text: 'Not saved', icon: <CloudOff className="size-4" aria-hidden />, className: 'text-bad-800' },
 };
 
@@ -70,7 +92,13 @@ function Section({ n, title, children, id }: { n: number; title: string; childre
  */
 export type RenderEvaluation = (input: unknown, variant: 'panel' | 'summary') => ReactNode;
 
-export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; renderEvaluation: RenderEvaluation }) {
+export function ClaimForm({
+  claim,
+  renderEvaluation,
+}: {
+  claim: ClaimDetailDto;
+  renderEvaluation: RenderEvaluation;
+}) {
   const qc = useQueryClient();
   const [units, setUnitsState] = useState<ReadingUnits>(loadUnits);
   const unitsRef = useRef(units);
@@ -89,7 +117,8 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
   };
 
   const form = useForm<ClaimFormValues>({
-    defaultValues: local && local.baseVersion === claim.version ? local.values : valuesFromClaim(claim, units),
+    defaultValues:
+      local && local.baseVersion === claim.version ? local.values : valuesFromClaim(claim, units),
     resolver,
     mode: 'onTouched',
   });
@@ -114,13 +143,22 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
     // Keep the typed value's meaning: 0.35 in A becomes 350 in mA.
     const v = getValues();
     const conv = (text: string, from: string, to: string) => {
-      const f = fieldsFromValues({ ...v, measurements: { ...v.measurements, driverOutputAmps: text, strings: [] } }, { ...unitsRef.current, driverOutputAmps: from as 'A' }).fields.measurements?.driverOutputAmps;
+      const f = fieldsFromValues(
+        { ...v, measurements: { ...v.measurements, driverOutputAmps: text, strings: [] } },
+        { ...unitsRef.current, driverOutputAmps: from as 'A' },
+      ).fields.measurements?.driverOutputAmps;
       if (f === undefined) return text;
       return String(Number((to === 'mA' ? f * 1000 : f).toPrecision(12)));
     };
-    if (next.driverOutputAmps !== units.driverOutputAmps) setValue('measurements.driverOutputAmps', conv(v.measurements.driverOutputAmps, units.driverOutputAmps, next.driverOutputAmps));
+    if (next.driverOutputAmps !== units.driverOutputAmps)
+      setValue(
+        'measurements.driverOutputAmps',
+        conv(v.measurements.driverOutputAmps, units.driverOutputAmps, next.driverOutputAmps),
+      );
     if (next.stringAmps !== units.stringAmps) {
-      v.measurements.strings.forEach((s, i) => setValue(`measurements.strings.${i}.amps`, conv(s.amps, units.stringAmps, next.stringAmps)));
+      v.measurements.strings.forEach((s, i) =>
+        setValue(`measurements.strings.${i}.amps`, conv(s.amps, units.stringAmps, next.stringAmps)),
+      );
     }
     unitsRef.current = next;
     setUnitsState(next);
@@ -131,11 +169,20 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
   const key = JSON.stringify(values) + JSON.stringify(units);
   const checked = useMemo(() => checkValues(values, units), [key]); // eslint-disable-line react-hooks/exhaustive-deps
   const evidence = useMemo(
-    () => ({ photos: attachments.filter((a) => a.kind === 'photo').length, proofOfPurchase: attachments.some((a) => a.purpose === 'proof_of_purchase') }),
+    () => ({
+      photos: attachments.filter((a) => a.kind === 'photo').length,
+      proofOfPurchase: attachments.some((a) => a.purpose === 'proof_of_purchase'),
+    }),
     [attachments],
   );
   const liveInput = useMemo(
-    () => engineInputFor(claim.engineContext, fieldsFromValues(values, units).fields as ClaimFields, evidence, todayIso()),
+    () =>
+      engineInputFor(
+        claim.engineContext,
+        fieldsFromValues(values, units).fields as ClaimFields,
+        evidence,
+        todayIso(),
+      ),
     [key, evidence, claim.engineContext], // eslint-disable-line react-hooks/exhaustive-deps
   );
   const inst = claim.installationDetail;
@@ -159,7 +206,12 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
   const file = useMutation({
     mutationFn: async () => {
       const ok = await sync.flush();
-      if (!ok) throw new ApiError(0, 'network.offline', 'The draft could not be saved, so it was not filed. Check the connection and try again.');
+      if (!ok)
+        throw new ApiError(
+          0,
+          'network.offline',
+          'The draft could not be saved, so it was not filed. Check the connection and try again.',
+        );
       return fileClaim(claim.id, fileKey, sync.version.current);
     },
     onSuccess: async (r) => {
@@ -168,7 +220,9 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
     },
   });
 
-  const serialsShown = inst.serials.filter((s) => !serialFilter || s.toLowerCase().includes(serialFilter.toLowerCase())).slice(0, 60);
+  const serialsShown = inst.serials
+    .filter((s) => !serialFilter || s.toLowerCase().includes(serialFilter.toLowerCase()))
+    .slice(0, 60);
   const selectedSerials = values.serials ?? [];
   const err = (path: string) => {
     let o: unknown = errors;
@@ -190,7 +244,11 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
         }}
       >
         <div className="sticky top-0 z-10 -mx-1 flex items-center justify-between gap-2 rounded-lg bg-white/95 px-2 py-2 shadow-sm backdrop-blur">
-          <p role="status" aria-live="polite" className={cn('flex items-center gap-1.5 text-sm font-medium', status.className)}>
+          <p
+            role="status"
+            aria-live="polite"
+            className={cn('flex items-center gap-1.5 text-sm font-medium', status.className)}
+          >
             {status.icon}
             {status.text}
           </p>
@@ -200,7 +258,10 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
           </a>
         </div>
         {sync.status === 'conflict' || staleLocal ? (
-          <div role="alert" className="space-y-2 rounded-lg border border-bad-300 bg-bad-50 p-3 text-sm text-bad-900">
+          <div
+            role="alert"
+            className="space-y-2 rounded-lg border border-bad-300 bg-bad-50 p-3 text-sm text-bad-900"
+          >
             <p>This draft was changed on another device or tab since these changes were made here.</p>
             <div className="flex flex-wrap gap-2">
               <Button
@@ -229,16 +290,29 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
             </div>
           </div>
         ) : null}
-        {sync.status === 'error' && sync.error ? <p role="alert" className="text-sm text-bad-700">{sync.error}</p> : null}
+        {sync.status === 'error' && sync.error ? (
+          <p role="alert" className="text-sm text-bad-700">
+            {sync.error}
+          </p>
+        ) : null}
 
         <Section n={1} title="The failed units">
           {inst.serials.length ? (
             <fieldset className="space-y-2">
               <legend className="text-sm font-medium text-ink-800">Serial numbers of the failed units</legend>
-              {inst.serials.length > 8 ? <InputField label="Find a serial" value={serialFilter} onChange={(e) => setSerialFilter(e.target.value)} /> : null}
+              {inst.serials.length > 8 ? (
+                <InputField
+                  label="Find a serial"
+                  value={serialFilter}
+                  onChange={(e) => setSerialFilter(e.target.value)}
+                />
+              ) : null}
               <div className="grid grid-cols-1 gap-2 sm:grid-cols-2">
                 {serialsShown.map((s) => (
-                  <label key={s} className="flex min-h-11 items-center gap-3 rounded-lg border border-ink-200 px-3">
+                  <label
+                    key={s}
+                    className="flex min-h-11 items-center gap-3 rounded-lg border border-ink-200 px-3"
+                  >
                     <input type="checkbox" value={s} className="size-5" {...register('serials')} />
                     <span className="font-mono text-sm">{s}</span>
                   </label>
@@ -251,7 +325,9 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
               label="Serial numbers or date codes"
               hint="Separate several with commas."
               defaultValue={selectedSerials.join(', ')}
-              onChange={(e) => setValue('serials', e.target.value.split(/[,;\s]+/).filter(Boolean), { shouldDirty: true })}
+              onChange={(e) =>
+                setValue('serials', e.target.value.split(/[,;\s]+/).filter(Boolean), { shouldDirty: true })
+              }
               error={err('serials')}
             />
           )}
@@ -264,45 +340,90 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
               error={err('units')}
               {...register('units')}
             />
-            <InputField label="Failure date" type="date" max={todayIso()} error={err('failedOn')} {...register('failedOn')} />
+            <InputField
+              label="Failure date"
+              type="date"
+              max={todayIso()}
+              error={err('failedOn')}
+              {...register('failedOn')}
+            />
           </div>
           <fieldset>
             <legend className="mb-2 text-sm font-medium text-ink-800">What the fixture does</legend>
             <div className="grid grid-cols-1 gap-2 sm:grid-cols-2">
               {SYMPTOMS.map((s) => (
-                <label key={s} className="flex min-h-11 items-center gap-3 rounded-lg border border-ink-200 px-3 text-sm">
+                <label
+                  key={s}
+                  className="flex min-h-11 items-center gap-3 rounded-lg border border-ink-200 px-3 text-sm"
+                >
                   <input type="checkbox" value={s} className="size-5" {...register('symptoms')} />
                   {SYMPTOM_LABELS[s]}
                 </label>
               ))}
             </div>
-            {err('symptoms') ? <p className="mt-1 text-sm font-medium text-bad-700">{err('symptoms')}</p> : null}
+            {err('symptoms') ? (
+              <p className="mt-1 text-sm font-medium text-bad-700">{err('symptoms')}</p>
+            ) : null}
           </fieldset>
         </Section>
 
         <SafetyCallout />
 
         <Section n={2} title="Readings" id="readings">
-          <p className="text-sm text-ink-600">Type what the meter shows; a decimal comma works too. Leave out what you did not measure.</p>
+          <p className="text-sm text-ink-600">
+            Type what the meter shows; a decimal comma works too. Leave out what you did not measure.
+          </p>
           <div className="grid gap-4 sm:grid-cols-2">
-            <MeterField label="Supply voltage" unit="V" error={err('measurements.supplyVolts')} {...register('measurements.supplyVolts')} />
-            <MeterField label="Input power" unit="W" error={err('measurements.inputWatts')} {...register('measurements.inputWatts')} />
-            <MeterField label="Power factor" unit="0–1" hint="0.93, not 93 %." error={err('measurements.powerFactor')} {...register('measurements.powerFactor')} />
-            <MeterField label="Driver output voltage" unit="V DC" error={err('measurements.driverOutputVolts')} {...register('measurements.driverOutputVolts')} />
+            <MeterField
+              label="Supply voltage"
+              unit="V"
+              error={err('measurements.supplyVolts')}
+              {...register('measurements.supplyVolts')}
+            />
+            <MeterField
+              label="Input power"
+              unit="W"
+              error={err('measurements.inputWatts')}
+              {...register('measurements.inputWatts')}
+            />
+            <MeterField
+              label="Power factor"
+              unit="0–1"
+              hint="0.93, not 93 %."
+              error={err('measurements.powerFactor')}
+              {...register('measurements.powerFactor')}
+            />
+            <MeterField
+              label="Driver output voltage"
+              unit="V DC"
+              error={err('measurements.driverOutputVolts')}
+              {...register('measurements.driverOutputVolts')}
+            />
             <MeterField
               label="Driver output current"
               unit="A"
-              ampUnit={{ value: units.driverOutputAmps, onChange: (u) => setUnits({ ...units, driverOutputAmps: u }) }}
+              ampUnit={{
+                value: units.driverOutputAmps,
+                onChange: (u) => setUnits({ ...units, driverOutputAmps: u }),
+              }}
               error={err('measurements.driverOutputAmps')}
               {...register('measurements.driverOutputAmps')}
             />
           </div>
           <fieldset className="space-y-2">
             <legend className="text-sm font-medium text-ink-800">
-              Each LED string ({claim.engineContext.product.ledStrings} strings of {claim.engineContext.product.ledsPerString} LEDs; expected{' '}
-              {(claim.engineContext.product.ledsPerString * claim.engineContext.product.ledForwardVolts).toFixed(1)} V each)
+              Each LED string ({claim.engineContext.product.ledStrings} strings of{' '}
+              {claim.engineContext.product.ledsPerString} LEDs; expected{' '}
+              {(
+                claim.engineContext.product.ledsPerString * claim.engineContext.product.ledForwardVolts
+              ).toFixed(1)}{' '}
+              V each)
             </legend>
-            <div role="group" aria-label="Unit for string current" className="flex items-center gap-2 text-sm">
+            <div
+              role="group"
+              aria-label="Unit for string current"
+              className="flex items-center gap-2 text-sm"
+            >
               <span className="text-ink-700">String current in</span>
               {(['A', 'mA'] as const).map((u) => (
                 <button
@@ -310,7 +431,12 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
                   type="button"
                   aria-pressed={units.stringAmps === u}
                   onClick={() => setUnits({ ...units, stringAmps: u })}
-                  className={cn('h-11 min-w-11 rounded-lg border px-3 font-semibold', units.stringAmps === u ? 'border-brand-700 bg-brand-700 text-white' : 'border-ink-300 bg-white')}
+                  className={cn(
+                    'h-11 min-w-11 rounded-lg border px-3 font-semibold',
+                    units.stringAmps === u
+                      ? 'border-brand-700 bg-brand-700 text-white'
+                      : 'border-ink-300 bg-white',
+                  )}
                 >
                   {u}
                 </button>
@@ -320,9 +446,25 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
               {strings.map((_, i) => (
                 <li key={i} className="grid grid-cols-[2.5rem_repeat(3,minmax(0,1fr))] items-start gap-2">
                   <span className="pt-8 text-sm font-semibold text-ink-700">#{i + 1}</span>
-                  <MeterField label={`String ${i + 1} voltage`} unit="V" error={err(`measurements.strings.${i}.volts`)} {...register(`measurements.strings.${i}.volts`)} />
-                  <MeterField label={`String ${i + 1} current`} unit={units.stringAmps} error={err(`measurements.strings.${i}.amps`)} {...register(`measurements.strings.${i}.amps`)} />
-                  <MeterField label={`String ${i + 1} dark LEDs`} unit="count" inputMode="numeric" error={err(`measurements.strings.${i}.darkLeds`)} {...register(`measurements.strings.${i}.darkLeds`)} />
+                  <MeterField
+                    label={`String ${i + 1} voltage`}
+                    unit="V"
+                    error={err(`measurements.strings.${i}.volts`)}
+                    {...register(`measurements.strings.${i}.volts`)}
+                  />
+                  <MeterField
+                    label={`String ${i + 1} current`}
+                    unit={units.stringAmps}
+                    error={err(`measurements.strings.${i}.amps`)}
+                    {...register(`measurements.strings.${i}.amps`)}
+                  />
+                  <MeterField
+                    label={`String ${i + 1} dark LEDs`}
+                    unit="count"
+                    inputMode="numeric"
+                    error={err(`measurements.strings.${i}.darkLeds`)}
+                    {...register(`measurements.strings.${i}.darkLeds`)}
+                  />
                 </li>
               ))}
             </ol>
@@ -331,10 +473,15 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
 
         <Section n={3} title="What you saw">
           <fieldset>
-            <legend className="mb-2 text-sm font-medium text-ink-800">Tick what you found at the fixture</legend>
+            <legend className="mb-2 text-sm font-medium text-ink-800">
+              Tick what you found at the fixture
+            </legend>
             <div className="grid grid-cols-1 gap-2 sm:grid-cols-2">
               {OBSERVATIONS.map((k) => (
-                <label key={k} className="flex min-h-11 items-center gap-3 rounded-lg border border-ink-200 px-3 text-sm">
+                <label
+                  key={k}
+                  className="flex min-h-11 items-center gap-3 rounded-lg border border-ink-200 px-3 text-sm"
+                >
                   <input type="checkbox" className="size-5" {...register(`observations.${k}`)} />
                   {OBSERVATION_LABELS[k]}
                 </label>
@@ -358,7 +505,13 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
         </Section>
 
         <Section n={4} title="Photos and proof of purchase">
-          <AttachmentsPanel claimId={claim.id} attachments={attachments} editable removable onChange={setAttachments} />
+          <AttachmentsPanel
+            claimId={claim.id}
+            attachments={attachments}
+            editable
+            removable
+            onChange={setAttachments}
+          />
         </Section>
 
         <Card className="p-4 sm:p-5">
@@ -372,7 +525,13 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
               </ul>
             </div>
           ) : (
-            <p className="mb-3 text-sm text-ink-700">Ready to file with {inst.policyVersion ? `${inst.policyVersion.policyName}, version ${inst.policyVersion.versionNumber}` : 'the manufacturer'}.</p>
+            <p className="mb-3 text-sm text-ink-700">
+              Ready to file with{' '}
+              {inst.policyVersion
+                ? `${inst.policyVersion.policyName}, version ${inst.policyVersion.versionNumber}`
+                : 'the manufacturer'}
+              .
+            </p>
           )}
           {file.error ? (
             <div role="alert" className="mb-3 text-sm font-medium text-bad-700">
@@ -386,7 +545,14 @@ export function ClaimForm({ claim, renderEvaluation }: { claim: ClaimDetailDto; 
               ) : null}
             </div>
           ) : null}
-          <Button type="submit" size="lg" className="w-full sm:w-auto" loading={file.isPending} disabled={missing.length > 0} icon={<Send className="size-5" aria-hidden />}>
+          <Button
+            type="submit"
+            size="lg"
+            className="w-full sm:w-auto"
+            loading={file.isPending}
+            disabled={missing.length > 0}
+            icon={<Send className="size-5" aria-hidden />}
+          >
             File claim
           </Button>
         </Card>

@@ -13,7 +13,11 @@ import { Pagination } from '../../../components/ui/table';
 import { claimQueries, type ClaimFilters } from '../api/claim-queries';
 import { StageBadge, waitingText } from './stage-badge';
 
-const VERDICT_TEXT = { covered: 'Likely covered', review: 'Needs a reviewer', excluded: 'Likely excluded' } as const;
+const VERDICT_TEXT = {
+  covered: 'Likely covered',
+  review: 'Needs a reviewer',
+  excluded: 'Likely excluded',
+} as const;
 const FILTER_KEYS = ['q', 'stage', 'site', 'product', 'filedFrom', 'filedTo'] as const;
 
 /** The claims this user may see, with filters kept in the address (so a filtered list can be shared). */
@@ -62,12 +66,22 @@ export function ClaimsList({ canCreate }: { canCreate: boolean }) {
           }}
         >
           <div className="flex items-end gap-2 sm:col-span-2">
-            <InputField className="flex-1" label="Claim number or serial" value={q} onChange={(e) => setQ(e.target.value)} placeholder="LP-2612-7K4-QXM" />
+            <InputField
+              className="flex-1"
+              label="Claim number or serial"
+              value={q}
+              onChange={(e) => setQ(e.target.value)}
+              placeholder="LP-2612-7K4-QXM"
+            />
             <button type="submit" className={buttonClasses('secondary', 'md')} aria-label="Search">
               <Search className="size-4" aria-hidden />
             </button>
           </div>
-          <SelectField label="Stage" value={filters.stage ?? ''} onChange={(e) => set('stage', e.target.value)}>
+          <SelectField
+            label="Stage"
+            value={filters.stage ?? ''}
+            onChange={(e) => set('stage', e.target.value)}
+          >
             <option value="">Any stage</option>
             {CLAIM_STAGES.map((s) => (
               <option key={s} value={s}>
@@ -75,44 +89,91 @@ export function ClaimsList({ canCreate }: { canCreate: boolean }) {
               </option>
             ))}
           </SelectField>
-          <InputField label="Site" defaultValue={filters.site} onBlur={(e) => set('site', e.target.value.trim())} />
-          <InputField label="Product" defaultValue={filters.product} onBlur={(e) => set('product', e.target.value.trim())} />
+          <InputField
+            label="Site"
+            defaultValue={filters.site}
+            onBlur={(e) => set('site', e.target.value.trim())}
+          />
+          <InputField
+            label="Product"
+            defaultValue={filters.product}
+            onBlur={(e) => set('product', e.target.value.trim())}
+          />
           <div className="grid grid-cols-2 gap-2">
-            <InputField label="Filed from" type="date" defaultValue={filters.filedFrom} onChange={(e) => set('filedFrom', e.target.value)} />
-            <InputField label="to" type="date" defaultValue={filters.filedTo} onChange={(e) => set('filedTo', e.target.value)} />
+            <InputField
+              label="Filed from"
+              type="date"
+              defaultValue={filters.filedFrom}
+              onChange={(e) => set('filedFrom', e.target.value)}
+            />
+            <InputField
+              label="to"
+              type="date"
+              defaultValue={filters.filedTo}
+              onChange={(e) => set('filedTo', e.target.value)}
+            />
           </div>
         </form>
         {list.isPending ? (
-          <div className="p-6"><Spinner label="Loading claims" /></div>
+          <div className="p-6">
+            <Spinner label="Loading claims" />
+          </div>
         ) : list.error ? (
-          <p role="alert" className="p-4 text-bad-700">{list.error.message}</p>
+          <p role="alert" className="p-4 text-bad-700">
+            {list.error.message}
+          </p>
         ) : list.data.items.length === 0 ? (
-          <EmptyState icon={<Files className="size-6" />} title="No claims match">Change the filters, or start a claim from an installation.</EmptyState>
+          <EmptyState icon={<Files className="size-6" />} title="No claims match">
+            Change the filters, or start a claim from an installation.
+          </EmptyState>
         ) : (
           <>
             <ul className="divide-y divide-ink-100" aria-label="Claims">
               {list.data.items.map((c) => (
                 <li key={c.id}>
-                  <Link to={`/claims/${c.id}`} className="grid min-w-0 grid-cols-1 gap-1 px-4 py-3 hover:bg-ink-50 sm:grid-cols-[12rem_minmax(0,1fr)_12rem] sm:items-center sm:gap-4">
+                  <Link
+                    to={`/claims/${c.id}`}
+                    className="grid min-w-0 grid-cols-1 gap-1 px-4 py-3 hover:bg-ink-50 sm:grid-cols-[12rem_minmax(0,1fr)_12rem] sm:items-center sm:gap-4"
+                  >
                     <span className="flex flex-wrap items-center gap-2">
-                      <span className="font-mono text-sm font-semibold text-ink-900">{c.number ?? 'Draft'}</span>
+                      <span className="font-mono text-sm font-semibold text-ink-900">
+                        {c.number ?? 'Draft'}
+                      </span>
                       <StageBadge stage={c.stage} />
                     </span>
                     <span className="min-w-0 text-sm">
-                      <span className="block truncate font-medium text-ink-900">{c.product.modelNumber} · {c.installation.siteName}</span>
+                      <span className="block truncate font-medium text-ink-900">
+                        {c.product.modelNumber} · {c.installation.siteName}
+                      </span>
                       <span className="block truncate text-ink-600">
-                        {c.manufacturer.name} · {c.units} unit{c.units === 1 ? '' : 's'}{c.serials.length ? ` · ${c.serials.slice(0, 3).join(', ')}${c.serials.length > 3 ? '…' : ''}` : ''}
+                        {c.manufacturer.name} · {c.units} unit{c.units === 1 ? '' : 's'}
+                        {c.serials.length
+                          ? ` · ${c.serials.slice(0, 3).join(', ')}${c.serials.length > 3 ? '…' : ''}`
+                          : ''}
                       </span>
                     </span>
                     <span className="text-sm text-ink-700">
                       {c.evaluation ? VERDICT_TEXT[c.evaluation.verdict] : waitingText(c.stage, c.waitingOn)}
-                      <span className="block text-xs text-ink-500">{c.filedAt ? `Filed ${c.filedAt.slice(0, 10)}` : `Changed ${c.updatedAt.slice(0, 10)}`}</span>
+                      <span className="block text-xs text-ink-500">
+                        {c.filedAt
+                          ? `Filed ${c.filedAt.slice(0, 10)}`
+                          : `Changed ${c.updatedAt.slice(0, 10)}`}
+                      </span>
                     </span>
                   </Link>
                 </li>
               ))}
             </ul>
-            <Pagination page={list.data.page} pageSize={list.data.pageSize} total={list.data.total} onPage={(p) => { const n = new URLSearchParams(params); n.set('page', String(p)); setParams(n); }} />
+            <Pagination
+              page={list.data.page}
+              pageSize={list.data.pageSize}
+              total={list.data.total}
+              onPage={(p) => {
+                const n = new URLSearchParams(params);
+                n.set('page', String(p));
+                setParams(n);
+              }}
+            />
           </>
         )}
       </Card>

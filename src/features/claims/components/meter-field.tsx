@@ -37,14 +37,21 @@ export function MeterField({ label, unit, error, hint, ampUnit, className, ...re
           {...rest}
         />
         {ampUnit ? (
-          <div role="group" aria-label={`Unit for ${label.toLowerCase()}`} className="flex shrink-0 overflow-hidden rounded-lg border border-ink-300">
+          <div
+            role="group"
+            aria-label={`Unit for ${label.toLowerCase()}`}
+            className="flex shrink-0 overflow-hidden rounded-lg border border-ink-300"
+          >
             {(['A', 'mA'] as const).map((u) => (
               <button
                 key={u}
                 type="button"
                 aria-pressed={ampUnit.value === u}
                 onClick={() => ampUnit.onChange(u)}
-                className={cn('h-11 min-w-11 px-2 text-sm font-semibold', ampUnit.value === u ? 'bg-brand-700 text-white' : 'bg-white text-ink-700')}
+                className={cn(
+                  'h-11 min-w-11 px-2 text-sm font-semibold',
+                  ampUnit.value === u ? 'bg-brand-700 text-white' : 'bg-white text-ink-700',
+                )}
               >
                 {u}
               </button>

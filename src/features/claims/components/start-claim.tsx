@@ -11,7 +11,13 @@ import { createClaim } from '../api/claim-mutations';
 import { claimQueries } from '../api/claim-queries';
 
 /** Starts a draft from an installation and opens it. */
-export function StartClaimButton({ installationId, label = 'File a claim' }: { installationId: string; label?: string }) {
+export function StartClaimButton({
+  installationId,
+  label = 'File a claim',
+}: {
+  installationId: string;
+  label?: string;
+}) {
   const navigate = useNavigate();
   const qc = useQueryClient();
   // One key per form start: a second tap before the first answer (or a retry after a lost one) sends the same
@@ -27,10 +33,19 @@ export function StartClaimButton({ installationId, label = 'File a claim' }: { i
   });
   return (
     <>
-      <Button size="md" loading={start.isPending} onClick={() => !start.isPending && start.mutate()} icon={<FilePlus2 className="size-4" aria-hidden />}>
+      <Button
+        size="md"
+        loading={start.isPending}
+        onClick={() => !start.isPending && start.mutate()}
+        icon={<FilePlus2 className="size-4" aria-hidden />}
+      >
         {label}
       </Button>
-      {start.error ? <p role="alert" className="text-sm text-bad-700">{start.error.message}</p> : null}
+      {start.error ? (
+        <p role="alert" className="text-sm text-bad-700">
+          {start.error.message}
+        </p>
+      ) : null}
     </>
   );
 }
@@ -41,26 +56,39 @@ export function InstallationPicker() {
   const list = useQuery(claimQueries.installations(q));
   return (
     <Card>
-      <CardHeader title="Which installation?" description="Search by site, city, model or a serial number on the label." />
+      <CardHeader
+        title="Which installation?"
+        description="Search by site, city, model or a serial number on the label."
+      />
       <div className="p-4 sm:p-5">
         <InputField label="Search installations" value={q} onChange={(e) => setQ(e.target.value)} autoFocus />
       </div>
       {list.isPending ? (
-        <div className="p-5"><Spinner label="Loading installations" /></div>
+        <div className="p-5">
+          <Spinner label="Loading installations" />
+        </div>
       ) : list.error ? (
-        <p role="alert" className="p-5 text-bad-700">{list.error.message}</p>
+        <p role="alert" className="p-5 text-bad-700">
+          {list.error.message}
+        </p>
       ) : (
         <ul className="divide-y divide-ink-100" aria-label="Installations">
           {list.data.items.map((i) => (
             <li key={i.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3 sm:px-5">
               <div className="min-w-0">
                 <p className="font-medium text-ink-900">{i.siteName}</p>
-                <p className="text-sm text-ink-600">{i.quantity} × {i.product.modelNumber} · {i.manufacturer.name} · installed {i.installDate}</p>
+                <p className="text-sm text-ink-600">
+                  {i.quantity} × {i.product.modelNumber} · {i.manufacturer.name} · installed {i.installDate}
+                </p>
               </div>
               <StartClaimButton installationId={i.id} label={`Claim on ${i.siteName}`} />
             </li>
           ))}
-          {!list.data.items.length ? <li className="p-5 text-sm text-ink-600">No installation matches. Register it under Sites first.</li> : null}
+          {!list.data.items.length ? (
+            <li className="p-5 text-sm text-ink-600">
+              No installation matches. Register it under Sites first.
+            </li>
+          ) : null}
         </ul>
       )}
     </Card>

@@ -37,7 +37,11 @@ export function clearLocalDraft(claimId: string) {
   }
 }
 
-export function useDraftSync<V>(claim: ClaimDetailDto, toFields: (values: V) => ClaimFieldsInput, delayMs = 700) {
+export function useDraftSync<V>(
+  claim: ClaimDetailDto,
+  toFields: (values: V) => ClaimFieldsInput,
+  delayMs = 700,
+) {
   const qc = useQueryClient();
   const version = useRef(claim.version);
   const pending = useRef<V | null>(null);
@@ -72,7 +76,12 @@ export function useDraftSync<V>(claim: ClaimDetailDto, toFields: (values: V) => 
           setStatus('saved');
           setError(null);
         } else {
-          writeLocalDraft({ claimId: claim.id, baseVersion: saved.version, values: pending.current, savedAt: new Date().toISOString() });
+          writeLocalDraft({
+            claimId: claim.id,
+            baseVersion: saved.version,
+            values: pending.current,
+            savedAt: new Date().toISOString(),
+          });
         }
       } catch (err) {
         pending.current ??= values;
@@ -87,7 +96,8 @@ export function useDraftSync<V>(claim: ClaimDetailDto, toFields: (values: V) => 
     inFlight.current = run;
     await run;
     inFlight.current = null;
-    if (pending.current !== null && statusRef.current !== 'conflict' && statusRef.current !== 'offline') scheduleRef.current();
+    if (pending.current !== null && statusRef.current !== 'conflict' && statusRef.current !== 'offline')
+      scheduleRef.current();
   }, [claim.id, qc, setStatus]);
   const scheduleRef = useRef<() => void>(() => {});
 
@@ -108,7 +118,12 @@ export function useDraftSync<V>(claim: ClaimDetailDto, toFields: (values: V) => 
   const change = useCallback(
     (values: V) => {
       pending.current = values;
-      writeLocalDraft({ claimId: claim.id, baseVersion: version.current, values, savedAt: new Date().toISOString() });
+      writeLocalDraft({
+        claimId: claim.id,
+        baseVersion: version.current,
+        values,
+        savedAt: new Date().toISOString(),
+      });
       if (navigator.onLine === false) setStatus('offline');
       else setStatus((s) => (s === 'conflict' ? s : 'saving'));
       schedule();

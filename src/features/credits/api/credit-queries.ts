@@ -8,7 +8,14 @@ import type {
 } from '../../../../shared/schemas/credits';
 import { api, toQuery } from '../../../lib/api-client';
 
-export type CreditFilters = { page: number; q?: string; kind?: string; from?: string; to?: string; sort?: string };
+export type CreditFilters = {
+  page: number;
+  q?: string;
+  kind?: string;
+  from?: string;
+  to?: string;
+  sort?: string;
+};
 export type QueueFilters = { page: number; q?: string; currency?: string; minAgeDays?: string };
 export type QueuePage = Paginated<QueueItemDto> & {
   totals: { currency: string; amount: string; claims: number }[];

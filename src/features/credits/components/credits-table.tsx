@@ -18,7 +18,13 @@ export function CreditsTable({
   canVoid: boolean;
   partyLabel: 'Contractor' | 'Manufacturer';
 }) {
-  const { values, params, set, tableProps } = useListState({ q: '', kind: '', from: '', to: '', sort: '-issuedAt' });
+  const { values, params, set, tableProps } = useListState({
+    q: '',
+    kind: '',
+    from: '',
+    to: '',
+    sort: '-issuedAt',
+  });
   const list = useQuery(creditQueries.list(params));
   const [voiding, setVoiding] = useState<CreditMemoDto | null>(null);
   const columns: Column<CreditMemoDto>[] = [
@@ -37,12 +43,24 @@ export function CreditsTable({
           ) : (
             <Badge tone="ok">Standing</Badge>
           )}
-          {m.reason ? <p className="mt-1 max-w-xs text-xs whitespace-normal text-ink-600">{m.reason}</p> : null}
+          {m.reason ? (
+            <p className="mt-1 max-w-xs text-xs whitespace-normal text-ink-600">{m.reason}</p>
+          ) : null}
         </>
       ),
     },
-    { key: 'claim', header: 'Claim', className: 'font-mono text-xs whitespace-nowrap', headerClassName: '', cell: (m) => m.claim.number },
-    { key: 'party', header: partyLabel, cell: (m) => (partyLabel === 'Contractor' ? m.contractor.name : m.manufacturer.name) },
+    {
+      key: 'claim',
+      header: 'Claim',
+      className: 'font-mono text-xs whitespace-nowrap',
+      headerClassName: '',
+      cell: (m) => m.claim.number,
+    },
+    {
+      key: 'party',
+      header: partyLabel,
+      cell: (m) => (partyLabel === 'Contractor' ? m.contractor.name : m.manufacturer.name),
+    },
     {
       key: 'amount',
       header: 'Amount',
@@ -52,7 +70,14 @@ export function CreditsTable({
       headerClassName: 'text-right',
       cell: (m) => <Money amount={m.kind === 'reversal' ? `-${m.amount}` : m.amount} currency={m.currency} />,
     },
-    { key: 'issued', header: 'Issued', sortKey: 'issuedAt', firstSort: 'descending', className: 'whitespace-nowrap', cell: (m) => shortDate(m.issuedAt) },
+    {
+      key: 'issued',
+      header: 'Issued',
+      sortKey: 'issuedAt',
+      firstSort: 'descending',
+      className: 'whitespace-nowrap',
+      cell: (m) => shortDate(m.issuedAt),
+    },
     {
       key: 'actions',
       // relative: an absolutely placed sr-only label would otherwise widen the page past the table's scroll box
@@ -61,7 +86,12 @@ export function CreditsTable({
       className: 'whitespace-nowrap text-right',
       cell: (m) => (
         <>
-          <a className={buttonClasses('secondary', 'sm')} href={creditPdfUrl(m.id)} download aria-label={`Download PDF of ${m.number}`}>
+          <a
+            className={buttonClasses('secondary', 'sm')}
+            href={creditPdfUrl(m.id)}
+            download
+            aria-label={`Download PDF of ${m.number}`}
+          >
             <Download className="size-4" aria-hidden /> PDF
           </a>{' '}
           {canVoid && m.kind === 'credit' && !m.reversedBy ? (
@@ -79,19 +109,42 @@ export function CreditsTable({
       columns={columns}
       result={list}
       loadingLabel="Loading credit memos"
-      empty={{ icon: <Receipt className="size-6" />, title: 'No credit memos', children: 'Memos appear here once they are issued.' }}
+      empty={{
+        icon: <Receipt className="size-6" />,
+        title: 'No credit memos',
+        children: 'Memos appear here once they are issued.',
+      }}
       errorText="Could not load credit memos."
       {...tableProps}
       toolbar={
-        <form role="search" className="grid gap-3 border-b border-ink-100 px-4 py-3 sm:grid-cols-4 sm:px-5" onSubmit={(e) => e.preventDefault()}>
-          <InputField label="Search memos" placeholder="Memo or claim number" value={values.q} onChange={(e) => set({ q: e.target.value })} />
+        <form
+          role="search"
+          className="grid gap-3 border-b border-ink-100 px-4 py-3 sm:grid-cols-4 sm:px-5"
+          onSubmit={(e) => e.preventDefault()}
+        >
+          <InputField
+            label="Search memos"
+            placeholder="Memo or claim number"
+            value={values.q}
+            onChange={(e) => set({ q: e.target.value })}
+          />
           <SelectField label="Kind" value={values.kind} onChange={(e) => set({ kind: e.target.value })}>
             <option value="">Memos and reversals</option>
             <option value="credit">Credit memos</option>
             <option value="reversal">Reversals</option>
           </SelectField>
-          <InputField label="Issued from" type="date" value={values.from} onChange={(e) => set({ from: e.target.value })} />
-          <InputField label="Issued to" type="date" value={values.to} onChange={(e) => set({ to: e.target.value })} />
+          <InputField
+            label="Issued from"
+            type="date"
+            value={values.from}
+            onChange={(e) => set({ from: e.target.value })}
+          />
+          <InputField
+            label="Issued to"
+            type="date"
+            value={values.to}
+            onChange={(e) => set({ to: e.target.value })}
+          />
         </form>
       }
     >

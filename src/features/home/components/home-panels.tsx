@@ -25,7 +25,15 @@ function Step({ n, title, children }: { n: number; title: string; children: Reac
   );
 }
 
-export function InstallerHome({ name, organization, openClaims }: { name: string; organization: string; openClaims?: ReactNode }) {
+export function InstallerHome({
+  name,
+  organization,
+  openClaims,
+}: {
+  name: string;
+  organization: string;
+  openClaims?: ReactNode;
+}) {
   return (
     <>
       <PageHeader title="Field claims" description={`${organization} · signed in as ${name}`} />
@@ -42,8 +50,8 @@ export function InstallerHome({ name, organization, openClaims }: { name: string
           />
           {openClaims ?? (
             <EmptyState icon={<HardHat className="size-6" />} title="No open claims">
-              When a fixture fails on site, file a claim from its installation with readings and photos; it shows up here
-              with what the manufacturer asks of you.
+              When a fixture fails on site, file a claim from its installation with readings and photos; it
+              shows up here with what the manufacturer asks of you.
             </EmptyState>
           )}
         </Card>

@@ -8,7 +8,8 @@ import { Spinner } from '../../../components/ui/spinner';
 import { cn } from '../../../lib/cn';
 import { mailboxQueries } from '../api/mailbox-queries';
 
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = (iso: string) =>
+  new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
 /** Demo mode only: the messages the local fake SMTP server received for people of this organisation. */
 export function MailboxList() {
@@ -18,7 +19,10 @@ export function MailboxList() {
   const open = items.find((m) => m.id === openId) ?? items[0];
   return (
     <>
-      <PageHeader title="Demo mailbox" description="E-mail Lumenproof sent to your organisation. In the demo nothing leaves this machine." />
+      <PageHeader
+        title="Demo mailbox"
+        description="E-mail Lumenproof sent to your organisation. In the demo nothing leaves this machine."
+      />
       {list.isPending ? (
         <Spinner label="Loading messages" />
       ) : items.length === 0 ? (
@@ -37,7 +41,10 @@ export function MailboxList() {
                     type="button"
                     onClick={() => setOpenId(m.id)}
                     aria-current={open?.id === m.id}
-                    className={cn('block w-full px-4 py-3 text-left hover:bg-ink-50', open?.id === m.id && 'bg-brand-50')}
+                    className={cn(
+                      'block w-full px-4 py-3 text-left hover:bg-ink-50',
+                      open?.id === m.id && 'bg-brand-50',
+                    )}
                   >
                     <p className="truncate text-sm font-semibold text-ink-950">{m.subject}</p>
                     <p className="truncate text-xs text-ink-600">
@@ -57,13 +64,18 @@ export function MailboxList() {
               {open.attachments.length ? (
                 <ul className="mt-3 flex flex-wrap gap-2">
                   {open.attachments.map((a) => (
-                    <li key={a.filename} className="inline-flex items-center gap-1 rounded-md bg-ink-100 px-2 py-1 text-xs text-ink-800">
+                    <li
+                      key={a.filename}
+                      className="inline-flex items-center gap-1 rounded-md bg-ink-100 px-2 py-1 text-xs text-ink-800"
+                    >
                       <Paperclip className="size-3.5" aria-hidden /> {a.filename}
                     </li>
                   ))}
                 </ul>
               ) : null}
-              <pre className="mt-4 font-sans text-sm break-words whitespace-pre-wrap text-ink-900">{open.text}</pre>
+              <pre className="mt-4 font-sans text-sm break-words whitespace-pre-wrap text-ink-900">
+                {open.text}
+              </pre>
             </Card>
           ) : null}
         </div>

@@ -1,5 +1,10 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { ClaimWorkflowDto, DeskOptionDto, QueueItemDto, QueueSummaryDto } from '../../../../shared/claims/workflow';
+import type {
+  ClaimWorkflowDto,
+  DeskOptionDto,
+  QueueItemDto,
+  QueueSummaryDto,
+} from '../../../../shared/claims/workflow';
 import type { ProductDto } from '../../../../shared/schemas/catalogue';
 import type { ClaimDetailDto } from '../../../../shared/schemas/claims';
 import type { Paginated } from '../../../../shared/schemas/users';
@@ -33,7 +38,10 @@ export const reviewQueries = {
   products: (manufacturerId: string) =>
     queryOptions({
       queryKey: ['products', 'list', { manufacturerId, picker: true }],
-      queryFn: () => api<Paginated<ProductDto>>(`/products${toQuery({ manufacturerId, pageSize: PRODUCT_PICKER_LIMIT, sort: 'modelNumber' })}`),
+      queryFn: () =>
+        api<Paginated<ProductDto>>(
+          `/products${toQuery({ manufacturerId, pageSize: PRODUCT_PICKER_LIMIT, sort: 'modelNumber' })}`,
+        ),
       staleTime: 60_000,
     }),
   /** The contractors with claims on this manufacturer, for the queue's contractor filter. */
@@ -45,10 +53,21 @@ export const reviewQueries = {
     }),
   /** The organisation's active reviewers: whom a claim can be handed to. */
   reviewers: () =>
-    queryOptions({ queryKey: ['users', 'reviewers'], queryFn: () => api<{ items: DeskOptionDto[] }>('/review/reviewers'), staleTime: 60_000 }),
-  summary: () => queryOptions({ queryKey: ['claims', 'summary'], queryFn: () => api<QueueSummaryDto>('/review/summary') }),
+    queryOptions({
+      queryKey: ['users', 'reviewers'],
+      queryFn: () => api<{ items: DeskOptionDto[] }>('/review/reviewers'),
+      staleTime: 60_000,
+    }),
+  summary: () =>
+    queryOptions({ queryKey: ['claims', 'summary'], queryFn: () => api<QueueSummaryDto>('/review/summary') }),
   workflow: (id: string) =>
-    queryOptions({ queryKey: ['claims', 'workflow', id], queryFn: () => api<ClaimWorkflowDto>(`/claims/${id}/workflow`) }),
+    queryOptions({
+      queryKey: ['claims', 'workflow', id],
+      queryFn: () => api<ClaimWorkflowDto>(`/claims/${id}/workflow`),
+    }),
   detail: (id: string) =>
-    queryOptions({ queryKey: ['claims', 'detail', id], queryFn: () => api<{ claim: ClaimDetailDto }>(`/claims/${id}`).then((r) => r.claim) }),
+    queryOptions({
+      queryKey: ['claims', 'detail', id],
+      queryFn: () => api<{ claim: ClaimDetailDto }>(`/claims/${id}`).then((r) => r.claim),
+    }),
 };

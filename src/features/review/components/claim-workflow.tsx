@@ -1,6 +1,13 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent, type ReactNode } from 'react';
-import { DENIAL_CODE_LABELS, DENIAL_CODES, RESOLUTION_LABELS, RESOLUTIONS, type DenialCode, type Resolution } from '../../../../shared/claims/actions.schema';
+import {
+  DENIAL_CODE_LABELS,
+  DENIAL_CODES,
+  RESOLUTION_LABELS,
+  RESOLUTIONS,
+  type DenialCode,
+  type Resolution,
+} from '../../../../shared/claims/actions.schema';
 import { overrideReasonsFor, STAGE_LABELS, type ClaimActionName } from '../../../../shared/claims/stages';
 import type { ClaimDocumentDto, ClaimWorkflowDto } from '../../../../shared/claims/workflow';
 import type { Evaluation } from '../../../../shared/engine/schema';
@@ -22,19 +29,38 @@ const REPAIR_CAUTION =
 function DocLink({ doc, label }: { doc: ClaimDocumentDto; label: string }) {
   return (
     <a className="font-medium text-brand-700 underline" href={doc.url} download>
-      {label} <span className="text-xs text-ink-600">(PDF, {Math.ceil(doc.byteSize / 1024)} KB, SHA-256 {doc.sha256.slice(0, 12)}…)</span>
+      {label}{' '}
+      <span className="text-xs text-ink-600">
+        (PDF, {Math.ceil(doc.byteSize / 1024)} KB, SHA-256 {doc.sha256.slice(0, 12)}…)
+      </span>
     </a>
   );
 }
 
-function TextArea({ label, value, onChange, hint }: { label: string; value: string; onChange: (v: string) => void; hint?: ReactNode }) {
+function TextArea({
+  label,
+  value,
+  onChange,
+  hint,
+}: {
+  label: string;
+  value: string;
+  onChange: (v: string) => void;
+  hint?: ReactNode;
+}) {
   const id = `ta-${label.replace(/\W+/g, '-').toLowerCase()}`;
   return (
     <div className="space-y-1.5">
       <label htmlFor={id} className="block text-sm font-medium text-ink-800">
         {label}
       </label>
-      <textarea id={id} rows={3} value={value} onChange={(e) => onChange(e.target.value)} className="block w-full rounded-lg border border-ink-300 px-3 py-2 text-base focus:border-brand-600 focus:outline-none focus:ring-2 focus:ring-brand-600/30 sm:text-sm" />
+      <textarea
+        id={id}
+        rows={3}
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        className="block w-full rounded-lg border border-ink-300 px-3 py-2 text-base focus:border-brand-600 focus:outline-none focus:ring-2 focus:ring-brand-600/30 sm:text-sm"
+      />
       {hint ? <p className="text-xs text-ink-600">{hint}</p> : null}
     </div>
   );
@@ -44,14 +70,19 @@ function useMove(claimId: string, version: number) {
   const qc = useQueryClient();
   const [error, setError] = useState<ApiError | null>(null);
   const m = useMutation({
-    mutationFn: ({ action, payload }: { action: ClaimActionName; payload: unknown }) => performClaimAction(claimId, action, payload, version),
+    mutationFn: ({ action, payload }: { action: ClaimActionName; payload: unknown }) =>
+      performClaimAction(claimId, action, payload, version),
     onSuccess: () => {
       setError(null);
       return qc.invalidateQueries({ queryKey: ['claims'] });
     },
     onError: (e) => setError(e instanceof ApiError ? e : new ApiError(0, 'unknown', 'Something went wrong.')),
   });
-  return { run: (action: ClaimActionName, payload: unknown) => m.mutate({ action, payload }), pending: m.isPending, error };
+  return {
+    run: (action: ClaimActionName, payload: unknown) => m.mutate({ action, payload }),
+    pending: m.isPending,
+    error,
+  };
 }
 
 function ErrorText({ error }: { error: ApiError | null }) {
@@ -73,9 +104,15 @@ export function Thread({ wf }: { wf: ClaimWorkflowDto }) {
       <CardHeader title="Questions and answers" />
       <ol className="space-y-3 px-4 py-4 sm:px-5">
         {wf.messages.map((m) => (
-          <li key={m.id} className={m.author.side === 'manufacturer' ? 'rounded-lg bg-ink-50 p-3' : 'rounded-lg bg-brand-50 p-3'}>
+          <li
+            key={m.id}
+            className={
+              m.author.side === 'manufacturer' ? 'rounded-lg bg-ink-50 p-3' : 'rounded-lg bg-brand-50 p-3'
+            }
+          >
             <p className="text-xs text-ink-600">
-              {m.kind === 'info_request' ? 'Asked' : 'Answered'} by {m.author.name} ({m.author.organization}) on {m.createdAt.slice(0, 10)}
+              {m.kind === 'info_request' ? 'Asked' : 'Answered'} by {m.author.name} ({m.author.organization})
+              on {m.createdAt.slice(0, 10)}
               {m.dueOn ? ` · answer due ${m.dueOn}` : ''}
             </p>
             <p className="whitespace-pre-wrap text-sm text-ink-900">{m.body}</p>
@@ -85,7 +122,11 @@ export function Thread({ wf }: { wf: ClaimWorkflowDto }) {
                   <li key={a.id}>
                     {a.kind === 'photo' ? (
                       <a href={a.url} download={a.name}>
-                        <img src={a.thumbnailUrl ?? a.url} alt={`Photo sent with the answer: ${a.name}`} className="h-24 rounded border border-ink-200 object-cover" />
+                        <img
+                          src={a.thumbnailUrl ?? a.url}
+                          alt={`Photo sent with the answer: ${a.name}`}
+                          className="h-24 rounded border border-ink-200 object-cover"
+                        />
                       </a>
                     ) : (
                       <a className="text-brand-700 underline" href={a.url}>
@@ -111,7 +152,11 @@ export function DecisionCard({ wf }: { wf: ClaimWorkflowDto }) {
       <CardHeader title="Decision" description={`${d.decidedBy}, ${d.decidedAt.slice(0, 10)}`} />
       <div className="space-y-2 px-4 py-4 text-sm sm:px-5">
         <p className="text-base font-semibold">
-          {d.outcome === 'denied' ? 'Denied' : d.outcome === 'partly_approved' ? 'Partly approved' : 'Approved'}
+          {d.outcome === 'denied'
+            ? 'Denied'
+            : d.outcome === 'partly_approved'
+              ? 'Partly approved'
+              : 'Approved'}
           {d.resolution ? ` · ${RESOLUTION_LABELS[d.resolution]} · ${d.amount} ${d.currency}` : ''}
         </p>
         {d.reasonCodes.length ? (
@@ -122,7 +167,9 @@ export function DecisionCard({ wf }: { wf: ClaimWorkflowDto }) {
           </ul>
         ) : null}
         {d.note ? <p className="whitespace-pre-wrap">{d.note}</p> : null}
-        {d.overrideReason ? <p className="text-ink-700">Why it departs from the screening: {d.overrideReason}</p> : null}
+        {d.overrideReason ? (
+          <p className="text-ink-700">Why it departs from the screening: {d.overrideReason}</p>
+        ) : null}
         {d.resolution === 'repair_allowance' ? (
           <p role="note" className="rounded-lg border border-warn-300 bg-warn-50 p-3 text-warn-900">
             {REPAIR_CAUTION}
@@ -144,7 +191,8 @@ export function Returns({ wf }: { wf: ClaimWorkflowDto }) {
           <li key={r.id} className="space-y-1">
             <p className="font-mono font-semibold">{r.number}</p>
             <p>
-              Ship to {r.shipTo.name}, {r.shipTo.line1}, {r.shipTo.city} {r.shipTo.postalCode} {r.shipTo.country} by {r.shipBy}
+              Ship to {r.shipTo.name}, {r.shipTo.line1}, {r.shipTo.city} {r.shipTo.postalCode}{' '}
+              {r.shipTo.country} by {r.shipBy}
             </p>
             {r.shippedOn ? (
               <p>
@@ -153,7 +201,11 @@ export function Returns({ wf }: { wf: ClaimWorkflowDto }) {
             ) : (
               <p className="text-ink-600">Not shipped yet.</p>
             )}
-            {r.receivedOn ? <p>Received {r.receivedOn} ({r.receivedCondition?.replace(/_/g, ' ')})</p> : null}
+            {r.receivedOn ? (
+              <p>
+                Received {r.receivedOn} ({r.receivedCondition?.replace(/_/g, ' ')})
+              </p>
+            ) : null}
             {r.packingSlip ? <DocLink doc={r.packingSlip} label="Download the packing slip" /> : null}
           </li>
         ))}
@@ -168,7 +220,11 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
   const [message, setMessage] = useState('');
   const [files, setFiles] = useState<File[]>([]);
   const [uploading, setUploading] = useState(false);
-  const [ship, setShip] = useState({ carrier: '', trackingNumber: '', shippedOn: new Date().toISOString().slice(0, 10) });
+  const [ship, setShip] = useState({
+    carrier: '',
+    trackingNumber: '',
+    shippedOn: new Date().toISOString().slice(0, 10),
+  });
   const [uploadError, setUploadError] = useState<ApiError | null>(null);
   async function answer(e: FormEvent) {
     e.preventDefault();
@@ -180,7 +236,9 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
       move.run('answer_info', { message, ...(ids.length ? { attachmentIds: ids } : {}) });
     } catch (err) {
       // A refused file (not a photo or PDF, too large, …) stops the answer: nothing is sent without it.
-      setUploadError(err instanceof ApiError ? err : new ApiError(0, 'unknown', 'The file could not be uploaded.'));
+      setUploadError(
+        err instanceof ApiError ? err : new ApiError(0, 'unknown', 'The file could not be uploaded.'),
+      );
     } finally {
       setUploading(false);
     }
@@ -188,7 +246,10 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
   return (
     <div className="space-y-4">
       <Card>
-        <CardHeader title="Where the claim stands" description={`${STAGE_LABELS[wf.claim.stage]}${wf.claim.waitingOn === 'contractor' ? ' — waiting on you' : ''}`} />
+        <CardHeader
+          title="Where the claim stands"
+          description={`${STAGE_LABELS[wf.claim.stage]}${wf.claim.waitingOn === 'contractor' ? ' — waiting on you' : ''}`}
+        />
         <div className="space-y-4 px-4 py-4 sm:px-5">
           <ErrorText error={move.error} />
           <ErrorText error={uploadError} />
@@ -197,9 +258,17 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
               <p className="text-sm">
                 <strong>The manufacturer asks</strong> (answer by {wf.openRequest.dueOn}):
               </p>
-              <blockquote className="rounded-lg bg-ink-50 p-3 text-sm whitespace-pre-wrap">{wf.openRequest.body}</blockquote>
+              <blockquote className="rounded-lg bg-ink-50 p-3 text-sm whitespace-pre-wrap">
+                {wf.openRequest.body}
+              </blockquote>
               <TextArea label="Your answer" value={message} onChange={setMessage} />
-              <InputField label="Photos or documents" type="file" multiple accept="image/jpeg,image/png,image/webp,application/pdf" onChange={(e) => setFiles([...(e.target.files ?? [])])} />
+              <InputField
+                label="Photos or documents"
+                type="file"
+                multiple
+                accept="image/jpeg,image/png,image/webp,application/pdf"
+                onChange={(e) => setFiles([...(e.target.files ?? [])])}
+              />
               <Button type="submit" loading={move.pending || uploading}>
                 Send answer
               </Button>
@@ -213,9 +282,22 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
                 move.run('record_shipment', ship);
               }}
             >
-              <InputField label="Carrier" value={ship.carrier} onChange={(e) => setShip({ ...ship, carrier: e.target.value })} />
-              <InputField label="Tracking number" value={ship.trackingNumber} onChange={(e) => setShip({ ...ship, trackingNumber: e.target.value })} />
-              <InputField label="Shipped on" type="date" value={ship.shippedOn} onChange={(e) => setShip({ ...ship, shippedOn: e.target.value })} />
+              <InputField
+                label="Carrier"
+                value={ship.carrier}
+                onChange={(e) => setShip({ ...ship, carrier: e.target.value })}
+              />
+              <InputField
+                label="Tracking number"
+                value={ship.trackingNumber}
+                onChange={(e) => setShip({ ...ship, trackingNumber: e.target.value })}
+              />
+              <InputField
+                label="Shipped on"
+                type="date"
+                value={ship.shippedOn}
+                onChange={(e) => setShip({ ...ship, shippedOn: e.target.value })}
+              />
               <Button type="submit" loading={move.pending} className="sm:col-span-3 sm:w-fit">
                 Record shipment
               </Button>
@@ -267,7 +349,13 @@ export function Assignment({ wf, meId }: { wf: ClaimWorkflowDto; meId: string })
 
   return (
     <div className="space-y-2" role="group" aria-label="Assignment">
-      <p className="text-sm text-ink-700">{who ? (who.id === meId ? 'Assigned to you' : `Assigned to ${who.name}`) : 'Not assigned to anyone yet'}</p>
+      <p className="text-sm text-ink-700">
+        {who
+          ? who.id === meId
+            ? 'Assigned to you'
+            : `Assigned to ${who.name}`
+          : 'Not assigned to anyone yet'}
+      </p>
       <div className="flex flex-wrap gap-2">
         {who?.id !== meId ? (
           <Button variant="secondary" loading={m.isPending} onClick={() => m.mutate(meId)}>
@@ -337,7 +425,15 @@ export function Assignment({ wf, meId }: { wf: ClaimWorkflowDto; meId: string })
 }
 
 /** The reviewer's moves, each a small form; approve and deny say when a written reason is needed and why. */
-export function ReviewActions({ wf, evaluation, units }: { wf: ClaimWorkflowDto; evaluation: Evaluation | null; units: number }) {
+export function ReviewActions({
+  wf,
+  evaluation,
+  units,
+}: {
+  wf: ClaimWorkflowDto;
+  evaluation: Evaluation | null;
+  units: number;
+}) {
   const move = useMove(wf.claim.id, wf.claim.version);
   const [open, setOpen] = useState<ClaimActionName | null>(null);
   const [text, setText] = useState('');
@@ -346,10 +442,25 @@ export function ReviewActions({ wf, evaluation, units }: { wf: ClaimWorkflowDto;
   const [reason, setReason] = useState('');
   const [codes, setCodes] = useState<DenialCode[]>([]);
   const [addr, setAddr] = useState({ name: '', line1: '', city: '', postalCode: '', country: 'US' });
-  const [bench, setBench] = useState({ supplyVolts: '', inputWatts: '', driverOutputVolts: '', driverOutputAmps: '' });
+  const [bench, setBench] = useState({
+    supplyVolts: '',
+    inputWatts: '',
+    driverOutputVolts: '',
+    driverOutputAmps: '',
+  });
   const today = new Date().toISOString().slice(0, 10);
-  const view = { stage: wf.claim.stage, contractorId: '', manufacturerId: '', evaluation: evaluation ? { verdict: evaluation.verdict, computed: evaluation.computed } : null };
-  const why = open === 'approve' ? overrideReasonsFor(view, { action: 'approve', amount }) : open === 'deny' ? overrideReasonsFor(view, { action: 'deny' }) : [];
+  const view = {
+    stage: wf.claim.stage,
+    contractorId: '',
+    manufacturerId: '',
+    evaluation: evaluation ? { verdict: evaluation.verdict, computed: evaluation.computed } : null,
+  };
+  const why =
+    open === 'approve'
+      ? overrideReasonsFor(view, { action: 'approve', amount })
+      : open === 'deny'
+        ? overrideReasonsFor(view, { action: 'deny' })
+        : [];
   const offered = wf.actions;
   const num = (s: string) => (s.trim() === '' ? undefined : Number(s));
 
@@ -365,7 +476,11 @@ export function ReviewActions({ wf, evaluation, units }: { wf: ClaimWorkflowDto;
       record_bench_test: {
         testedOn: today,
         result: 'failure_confirmed',
-        readings: Object.fromEntries(Object.entries(bench).map(([k, v]) => [k, num(v)]).filter(([, v]) => v !== undefined)),
+        readings: Object.fromEntries(
+          Object.entries(bench)
+            .map(([k, v]) => [k, num(v)])
+            .filter(([, v]) => v !== undefined),
+        ),
         ...(text.trim() ? { note: text } : {}),
       },
       approve: { resolution, amount, ...(text.trim() ? { note: text } : {}), ...r },
@@ -378,22 +493,36 @@ export function ReviewActions({ wf, evaluation, units }: { wf: ClaimWorkflowDto;
 
   return (
     <Card>
-      <CardHeader title="Decide or ask" description={`${STAGE_LABELS[wf.claim.stage]} · ${units} ${units === 1 ? 'unit' : 'units'}`} />
+      <CardHeader
+        title="Decide or ask"
+        description={`${STAGE_LABELS[wf.claim.stage]} · ${units} ${units === 1 ? 'unit' : 'units'}`}
+      />
       <div className="space-y-4 px-4 py-4 sm:px-5">
         <div className="flex flex-wrap gap-2" role="group" aria-label="Moves">
           {offered.map((a) => (
-            <Button key={a} variant={open === a ? 'primary' : 'secondary'} onClick={() => setOpen(a)} aria-pressed={open === a}>
+            <Button
+              key={a}
+              variant={open === a ? 'primary' : 'secondary'}
+              onClick={() => setOpen(a)}
+              aria-pressed={open === a}
+            >
               {ACTION_LABEL[a] ?? a}
             </Button>
           ))}
-          {offered.length === 0 ? <p className="text-sm text-ink-600">Nothing for you to do at this stage.</p> : null}
+          {offered.length === 0 ? (
+            <p className="text-sm text-ink-600">Nothing for you to do at this stage.</p>
+          ) : null}
         </div>
         <ErrorText error={move.error} />
         {open ? (
           <form className="space-y-3" onSubmit={submit} aria-label={ACTION_LABEL[open]}>
             {open === 'approve' ? (
               <>
-                <SelectField label="Resolution" value={resolution} onChange={(e) => setResolution(e.target.value as Resolution)}>
+                <SelectField
+                  label="Resolution"
+                  value={resolution}
+                  onChange={(e) => setResolution(e.target.value as Resolution)}
+                >
                   {RESOLUTIONS.map((r) => (
                     <option key={r} value={r}>
                       {RESOLUTION_LABELS[r]}
@@ -401,11 +530,20 @@ export function ReviewActions({ wf, evaluation, units }: { wf: ClaimWorkflowDto;
                   ))}
                 </SelectField>
                 {resolution === 'repair_allowance' ? (
-                  <p role="note" className="rounded-lg border border-warn-300 bg-warn-50 p-3 text-sm text-warn-900">
+                  <p
+                    role="note"
+                    className="rounded-lg border border-warn-300 bg-warn-50 p-3 text-sm text-warn-900"
+                  >
                     {REPAIR_CAUTION}
                   </p>
                 ) : null}
-                <InputField label="Amount" unit={evaluation?.computed.currency} value={amount} onChange={(e) => setAmount(e.target.value)} hint={`The engine's credit: ${evaluation?.computed.credit ?? 'none'}`} />
+                <InputField
+                  label="Amount"
+                  unit={evaluation?.computed.currency}
+                  value={amount}
+                  onChange={(e) => setAmount(e.target.value)}
+                  hint={`The engine's credit: ${evaluation?.computed.credit ?? 'none'}`}
+                />
               </>
             ) : null}
             {open === 'deny' ? (
@@ -413,7 +551,13 @@ export function ReviewActions({ wf, evaluation, units }: { wf: ClaimWorkflowDto;
                 <legend className="text-sm font-medium">Reasons from the policy</legend>
                 {DENIAL_CODES.map((c) => (
                   <label key={c} className="flex min-h-11 items-center gap-2 text-sm">
-                    <input type="checkbox" checked={codes.includes(c)} onChange={(e) => setCodes(e.target.checked ? [...codes, c] : codes.filter((x) => x !== c))} />
+                    <input
+                      type="checkbox"
+                      checked={codes.includes(c)}
+                      onChange={(e) =>
+                        setCodes(e.target.checked ? [...codes, c] : codes.filter((x) => x !== c))
+                      }
+                    />
                     {DENIAL_CODE_LABELS[c]}
                   </label>
                 ))}
@@ -421,26 +565,73 @@ export function ReviewActions({ wf, evaluation, units }: { wf: ClaimWorkflowDto;
             ) : null}
             {open === 'request_return' ? (
               <div className="grid gap-3 sm:grid-cols-2">
-                <InputField label="Ship to (name)" value={addr.name} onChange={(e) => setAddr({ ...addr, name: e.target.value })} />
-                <InputField label="Street" value={addr.line1} onChange={(e) => setAddr({ ...addr, line1: e.target.value })} />
-                <InputField label="City" value={addr.city} onChange={(e) => setAddr({ ...addr, city: e.target.value })} />
-                <InputField label="Postal code" value={addr.postalCode} onChange={(e) => setAddr({ ...addr, postalCode: e.target.value })} />
-                <InputField label="Country" value={addr.country} onChange={(e) => setAddr({ ...addr, country: e.target.value.toUpperCase() })} />
+                <InputField
+                  label="Ship to (name)"
+                  value={addr.name}
+                  onChange={(e) => setAddr({ ...addr, name: e.target.value })}
+                />
+                <InputField
+                  label="Street"
+                  value={addr.line1}
+                  onChange={(e) => setAddr({ ...addr, line1: e.target.value })}
+                />
+                <InputField
+                  label="City"
+                  value={addr.city}
+                  onChange={(e) => setAddr({ ...addr, city: e.target.value })}
+                />
+                <InputField
+                  label="Postal code"
+                  value={addr.postalCode}
+                  onChange={(e) => setAddr({ ...addr, postalCode: e.target.value })}
+                />
+                <InputField
+                  label="Country"
+                  value={addr.country}
+                  onChange={(e) => setAddr({ ...addr, country: e.target.value.toUpperCase() })}
+                />
               </div>
             ) : null}
             {open === 'record_bench_test' ? (
               <div className="grid gap-3 sm:grid-cols-2">
-                <InputField label="Supply" unit="V" inputMode="decimal" value={bench.supplyVolts} onChange={(e) => setBench({ ...bench, supplyVolts: e.target.value })} />
-                <InputField label="Input power" unit="W" inputMode="decimal" value={bench.inputWatts} onChange={(e) => setBench({ ...bench, inputWatts: e.target.value })} />
-                <InputField label="Driver output voltage" unit="V" inputMode="decimal" value={bench.driverOutputVolts} onChange={(e) => setBench({ ...bench, driverOutputVolts: e.target.value })} />
-                <InputField label="Driver output current" unit="A" inputMode="decimal" value={bench.driverOutputAmps} onChange={(e) => setBench({ ...bench, driverOutputAmps: e.target.value })} />
+                <InputField
+                  label="Supply"
+                  unit="V"
+                  inputMode="decimal"
+                  value={bench.supplyVolts}
+                  onChange={(e) => setBench({ ...bench, supplyVolts: e.target.value })}
+                />
+                <InputField
+                  label="Input power"
+                  unit="W"
+                  inputMode="decimal"
+                  value={bench.inputWatts}
+                  onChange={(e) => setBench({ ...bench, inputWatts: e.target.value })}
+                />
+                <InputField
+                  label="Driver output voltage"
+                  unit="V"
+                  inputMode="decimal"
+                  value={bench.driverOutputVolts}
+                  onChange={(e) => setBench({ ...bench, driverOutputVolts: e.target.value })}
+                />
+                <InputField
+                  label="Driver output current"
+                  unit="A"
+                  inputMode="decimal"
+                  value={bench.driverOutputAmps}
+                  onChange={(e) => setBench({ ...bench, driverOutputAmps: e.target.value })}
+                />
               </div>
             ) : null}
             {open !== 'start_review' && open !== 'close' ? (
               <TextArea label={TEXT_LABEL[open] ?? 'Note'} value={text} onChange={setText} />
             ) : null}
             {why.length ? (
-              <div role="alert" className="space-y-2 rounded-lg border border-warn-300 bg-warn-50 p-3 text-sm text-warn-900">
+              <div
+                role="alert"
+                className="space-y-2 rounded-lg border border-warn-300 bg-warn-50 p-3 text-sm text-warn-900"
+              >
                 <p className="font-medium">This decision needs a written reason: {why.join(' ')}</p>
                 <TextArea label="Reason for departing from the engine" value={reason} onChange={setReason} />
               </div>

@@ -25,7 +25,19 @@ const DAYS = /^(?:\d{1,3}|[0-2]\d{3}|3[0-5]\d{2}|36[0-4]\d|3650)$/;
 const MONEY = /^\d{1,10}(\.\d{1,2})?$/;
 
 /** A typed filter: applied once the text matches (undefined when cleared); until then it says what it needs. */
-function TypedFilter({ label, inputMode, pattern, hint, onValue }: { label: string; inputMode: 'numeric' | 'decimal'; pattern: RegExp; hint: string; onValue: (v: string | undefined) => void }) {
+function TypedFilter({
+  label,
+  inputMode,
+  pattern,
+  hint,
+  onValue,
+}: {
+  label: string;
+  inputMode: 'numeric' | 'decimal';
+  pattern: RegExp;
+  hint: string;
+  onValue: (v: string | undefined) => void;
+}) {
   const [text, setText] = useState('');
   const ok = text.trim() === '' || pattern.test(text.trim());
   return (
@@ -47,9 +59,26 @@ function TypedFilter({ label, inputMode, pattern, hint, onValue }: { label: stri
 type PickerProps = { value: string; onValue: (v: string | undefined) => void };
 
 /** A filter chosen from a list the server gives; the first option (empty) leaves the filter out. */
-function ListPicker({ label, anyLabel, options, hint, value, onValue }: PickerProps & { label: string; anyLabel: string; options: { id: string; label: string }[]; hint?: string }) {
+function ListPicker({
+  label,
+  anyLabel,
+  options,
+  hint,
+  value,
+  onValue,
+}: PickerProps & {
+  label: string;
+  anyLabel: string;
+  options: { id: string; label: string }[];
+  hint?: string;
+}) {
   return (
-    <SelectField label={label} value={value} hint={hint} onChange={(e) => onValue(e.target.value || undefined)}>
+    <SelectField
+      label={label}
+      value={value}
+      hint={hint}
+      onChange={(e) => onValue(e.target.value || undefined)}
+    >
       <option value="">{anyLabel}</option>
       {options.map((o) => (
         <option key={o.id} value={o.id}>
@@ -86,7 +115,10 @@ function ContractorPicker(pick: PickerProps) {
 
 /** The reviewer's queue: filters, a keyboard-driven list (j/k or arrows, Enter opens), ageing in plain words. */
 export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
-  const [filters, setFilters] = useState<QueueFilters>({ stage: 'filed,in_review,unit_received,return_requested,needs_info', sort: 'stageChangedAt' });
+  const [filters, setFilters] = useState<QueueFilters>({
+    stage: 'filed,in_review,unit_received,return_requested,needs_info',
+    sort: 'stageChangedAt',
+  });
   const { data, isPending, isError } = useQuery(reviewQueries.queue(filters));
   const [active, setActive] = useState(0);
   const [announce, setAnnounce] = useState('');
@@ -100,12 +132,20 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
 
   useEffect(() => {
     const item = items[active];
-    if (item) setAnnounce(`${active + 1} of ${items.length}: claim ${item.number}, ${STAGE_LABELS[item.stage]}, ${item.daysInStage} days`);
+    if (item)
+      setAnnounce(
+        `${active + 1} of ${items.length}: claim ${item.number}, ${STAGE_LABELS[item.stage]}, ${item.daysInStage} days`,
+      );
   }, [active, items]);
 
   function onKey(e: KeyboardEvent<HTMLUListElement>) {
     if (!items.length) return;
-    const next = e.key === 'j' || e.key === 'ArrowDown' ? active + 1 : e.key === 'k' || e.key === 'ArrowUp' ? active - 1 : null;
+    const next =
+      e.key === 'j' || e.key === 'ArrowDown'
+        ? active + 1
+        : e.key === 'k' || e.key === 'ArrowUp'
+          ? active - 1
+          : null;
     if (next !== null) {
       e.preventDefault();
       const i = Math.max(0, Math.min(items.length - 1, next));
@@ -119,10 +159,22 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
 
   return (
     <Card>
-      <CardHeader title="Claims on your desk" description="j / k or the arrow keys move, Enter opens. Oldest in its stage first." />
+      <CardHeader
+        title="Claims on your desk"
+        description="j / k or the arrow keys move, Enter opens. Oldest in its stage first."
+      />
       <div className="grid gap-3 border-b border-ink-200 px-4 py-3 sm:grid-cols-2 sm:px-5 lg:grid-cols-4">
-        <InputField label="Search" placeholder="Claim number, site, contractor, model, serial" value={filters.q ?? ''} onChange={(e) => set({ q: e.target.value })} />
-        <SelectField label="Stage" value={filters.stage ?? ''} onChange={(e) => set({ stage: e.target.value || undefined })}>
+        <InputField
+          label="Search"
+          placeholder="Claim number, site, contractor, model, serial"
+          value={filters.q ?? ''}
+          onChange={(e) => set({ q: e.target.value })}
+        />
+        <SelectField
+          label="Stage"
+          value={filters.stage ?? ''}
+          onChange={(e) => set({ stage: e.target.value || undefined })}
+        >
           <option value="filed,in_review,unit_received,return_requested,needs_info">All open</option>
           <option value="filed">{STAGE_LABELS.filed}</option>
           <option value="in_review">{STAGE_LABELS.in_review}</option>
@@ -132,22 +184,50 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
           <option value="approved,denied">Decided</option>
           <option value="">Every stage</option>
         </SelectField>
-        <SelectField label="Engine verdict" value={filters.verdict ?? ''} onChange={(e) => set({ verdict: e.target.value || undefined })}>
+        <SelectField
+          label="Engine verdict"
+          value={filters.verdict ?? ''}
+          onChange={(e) => set({ verdict: e.target.value || undefined })}
+        >
           <option value="">Any</option>
           <option value="covered">Likely covered</option>
           <option value="review">Needs a person</option>
           <option value="excluded">Likely excluded</option>
         </SelectField>
-        <SelectField label="Assigned" value={filters.assignee ?? ''} onChange={(e) => set({ assignee: e.target.value || undefined })}>
+        <SelectField
+          label="Assigned"
+          value={filters.assignee ?? ''}
+          onChange={(e) => set({ assignee: e.target.value || undefined })}
+        >
           <option value="">Anyone</option>
           <option value="me">Me</option>
           <option value="none">Nobody yet</option>
         </SelectField>
-        <ProductPicker manufacturerId={manufacturerId} value={filters.productModelId ?? ''} onValue={(v) => set({ productModelId: v })} />
+        <ProductPicker
+          manufacturerId={manufacturerId}
+          value={filters.productModelId ?? ''}
+          onValue={(v) => set({ productModelId: v })}
+        />
         <ContractorPicker value={filters.contractorId ?? ''} onValue={(v) => set({ contractorId: v })} />
-        <TypedFilter label="Filed at least (days ago)" inputMode="numeric" pattern={DAYS} hint="Whole days, 0 to 3650." onValue={(v) => set({ minAgeDays: v === undefined ? undefined : Number(v) })} />
-        <TypedFilter label="Amount at least" inputMode="decimal" pattern={MONEY} hint="An amount like 96.00." onValue={(v) => set({ minAmount: v })} />
-        <SelectField label="Sort" value={filters.sort ?? 'stageChangedAt'} onChange={(e) => set({ sort: e.target.value })}>
+        <TypedFilter
+          label="Filed at least (days ago)"
+          inputMode="numeric"
+          pattern={DAYS}
+          hint="Whole days, 0 to 3650."
+          onValue={(v) => set({ minAgeDays: v === undefined ? undefined : Number(v) })}
+        />
+        <TypedFilter
+          label="Amount at least"
+          inputMode="decimal"
+          pattern={MONEY}
+          hint="An amount like 96.00."
+          onValue={(v) => set({ minAmount: v })}
+        />
+        <SelectField
+          label="Sort"
+          value={filters.sort ?? 'stageChangedAt'}
+          onChange={(e) => set({ sort: e.target.value })}
+        >
           <option value="stageChangedAt">Waiting longest</option>
           <option value="-filedAt">Newest filed</option>
           <option value="-amount">Largest amount</option>
@@ -165,7 +245,8 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
         <p className="p-6 text-bad-700">The queue could not be loaded. Try again in a moment.</p>
       ) : items.length === 0 ? (
         <EmptyState icon={<ClipboardCheck className="size-6" />} title="Nothing matches">
-          No claims with these filters. Filed claims on your products arrive here after the automatic screening.
+          No claims with these filters. Filed claims on your products arrive here after the automatic
+          screening.
         </EmptyState>
       ) : (
         <>
@@ -197,7 +278,9 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
                     </span>
                   </span>
                   <span className="flex flex-wrap items-center gap-2">
-                    {c.verdict ? <Badge tone={VERDICT[c.verdict].tone}>{VERDICT[c.verdict].label}</Badge> : null}
+                    {c.verdict ? (
+                      <Badge tone={VERDICT[c.verdict].tone}>{VERDICT[c.verdict].label}</Badge>
+                    ) : null}
                     {c.expectedCredit ? (
                       <span className="text-sm tabular-nums text-ink-700">
                         {c.expectedCredit} {c.currency}
@@ -208,7 +291,12 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
               </li>
             ))}
           </ul>
-          <Pagination page={data.page} pageSize={data.pageSize} total={data.total} onPage={(p) => setFilters((f) => ({ ...f, page: p }))} />
+          <Pagination
+            page={data.page}
+            pageSize={data.pageSize}
+            total={data.total}
+            onPage={(p) => setFilters((f) => ({ ...f, page: p }))}
+          />
         </>
       )}
     </Card>
@@ -221,7 +309,15 @@ export function ReviewDeskSummary() {
   const open = (s: keyof NonNullable<typeof data>['counts']) => data?.counts[s] ?? 0;
   return (
     <Card>
-      <CardHeader title="Claims waiting for a decision" description="The engine's findings sit beside the evidence on every claim." actions={<Link className={buttonClasses('primary', 'md')} to="/review">Open the review desk</Link>} />
+      <CardHeader
+        title="Claims waiting for a decision"
+        description="The engine's findings sit beside the evidence on every claim."
+        actions={
+          <Link className={buttonClasses('primary', 'md')} to="/review">
+            Open the review desk
+          </Link>
+        }
+      />
       <dl className="grid grid-cols-2 gap-4 px-4 py-4 sm:grid-cols-4 sm:px-5">
         {[
           ['Filed, not yet taken', open('filed')],
@@ -236,7 +332,9 @@ export function ReviewDeskSummary() {
         ))}
       </dl>
       {data?.oldestWaitingDays != null ? (
-        <p className="px-4 pb-4 text-sm text-ink-600 sm:px-5">The oldest claim waiting on your team has waited {data.oldestWaitingDays} days.</p>
+        <p className="px-4 pb-4 text-sm text-ink-600 sm:px-5">
+          The oldest claim waiting on your team has waited {data.oldestWaitingDays} days.
+        </p>
       ) : null}
     </Card>
   );

@@ -10,7 +10,15 @@ import { updateUser } from '../api/update-user';
 import { userQueries } from '../api/user-queries';
 import { RoleCheckboxes } from './role-checkboxes';
 
-export function EditUserDialog({ user, onClose, allowedRoles }: { user: UserDto; onClose: () => void; allowedRoles: readonly Role[] }) {
+export function EditUserDialog({
+  user,
+  onClose,
+  allowedRoles,
+}: {
+  user: UserDto;
+  onClose: () => void;
+  allowedRoles: readonly Role[];
+}) {
   const qc = useQueryClient();
   const { notify } = useToast();
   const [roles, setRoles] = useState<Role[]>(user.roles);
@@ -34,7 +42,11 @@ export function EditUserDialog({ user, onClose, allowedRoles }: { user: UserDto;
           <Button variant="secondary" onClick={onClose}>
             Cancel
           </Button>
-          <Button onClick={() => mutation.mutate()} loading={mutation.isPending} disabled={roles.length === 0}>
+          <Button
+            onClick={() => mutation.mutate()}
+            loading={mutation.isPending}
+            disabled={roles.length === 0}
+          >
             Save roles
           </Button>
         </>
@@ -45,7 +57,12 @@ export function EditUserDialog({ user, onClose, allowedRoles }: { user: UserDto;
           {err.details[0]?.message ?? err.message}
         </p>
       ) : null}
-      <RoleCheckboxes allowed={allowedRoles} value={roles} onChange={setRoles} error={roles.length === 0 ? 'Give the user at least one role.' : undefined} />
+      <RoleCheckboxes
+        allowed={allowedRoles}
+        value={roles}
+        onChange={setRoles}
+        error={roles.length === 0 ? 'Give the user at least one role.' : undefined}
+      />
     </Dialog>
   );
 }

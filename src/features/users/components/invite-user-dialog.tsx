@@ -12,7 +12,15 @@ import { inviteUser } from '../api/invite-user';
 import { userQueries } from '../api/user-queries';
 import { RoleCheckboxes } from './role-checkboxes';
 
-export function InviteUserDialog({ open, onClose, allowedRoles }: { open: boolean; onClose: () => void; allowedRoles: readonly Role[] }) {
+export function InviteUserDialog({
+  open,
+  onClose,
+  allowedRoles,
+}: {
+  open: boolean;
+  onClose: () => void;
+  allowedRoles: readonly Role[];
+}) {
   const qc = useQueryClient();
   const { notify } = useToast();
   const form = useForm<InviteUserInput>({
@@ -34,7 +42,12 @@ export function InviteUserDialog({ open, onClose, allowedRoles }: { open: boolea
       }
     },
   });
-  const formError = mutation.error instanceof ApiError && !mutation.error.details.length && mutation.error.code !== 'user.email_taken' ? mutation.error.message : null;
+  const formError =
+    mutation.error instanceof ApiError &&
+    !mutation.error.details.length &&
+    mutation.error.code !== 'user.email_taken'
+      ? mutation.error.message
+      : null;
 
   return (
     <Dialog
@@ -53,13 +66,23 @@ export function InviteUserDialog({ open, onClose, allowedRoles }: { open: boolea
         </>
       }
     >
-      <form id="invite-user" noValidate className="space-y-4" onSubmit={form.handleSubmit((v) => mutation.mutate(v))}>
+      <form
+        id="invite-user"
+        noValidate
+        className="space-y-4"
+        onSubmit={form.handleSubmit((v) => mutation.mutate(v))}
+      >
         {formError ? (
           <p role="alert" className="rounded-lg bg-bad-50 px-3 py-2 text-sm text-bad-800">
             {formError}
           </p>
         ) : null}
-        <InputField label="Name" autoComplete="off" error={form.formState.errors.name?.message} {...form.register('name')} />
+        <InputField
+          label="Name"
+          autoComplete="off"
+          error={form.formState.errors.name?.message}
+          {...form.register('name')}
+        />
         <InputField
           label="E-mail"
           type="email"
@@ -71,7 +94,12 @@ export function InviteUserDialog({ open, onClose, allowedRoles }: { open: boolea
           control={form.control}
           name="roles"
           render={({ field, fieldState }) => (
-            <RoleCheckboxes allowed={allowedRoles} value={field.value} onChange={field.onChange} error={fieldState.error?.message} />
+            <RoleCheckboxes
+              allowed={allowedRoles}
+              value={field.value}
+              onChange={field.onChange}
+              error={fieldState.error?.message}
+            />
           )}
         />
       </form>

@@ -5,7 +5,13 @@ import { ROLES_BY_KIND, ROLE_LABELS } from '../../../../shared/roles';
 import type { UserDto } from '../../../../shared/schemas/users';
 import { Badge } from '../../../components/ui/badge';
 import { Button } from '../../../components/ui/button';
-import { DataTable, SearchField, TableToolbar, useListState, type Column } from '../../../components/ui/data-table';
+import {
+  DataTable,
+  SearchField,
+  TableToolbar,
+  useListState,
+  type Column,
+} from '../../../components/ui/data-table';
 import { PageHeader } from '../../../components/ui/page-header';
 import { useToast } from '../../../components/ui/toast';
 import { ApiError } from '../../../lib/api-client';
@@ -28,9 +34,14 @@ export function UsersAdmin() {
   const { notify } = useToast();
   const list = useQuery(userQueries.list(params));
   const setStatus = useMutation({
-    mutationFn: (v: { user: UserDto; status: 'active' | 'disabled' }) => updateUser(v.user.id, { status: v.status }),
+    mutationFn: (v: { user: UserDto; status: 'active' | 'disabled' }) =>
+      updateUser(v.user.id, { status: v.status }),
     onSuccess: async ({ user }) => {
-      notify(user.status === 'disabled' ? `${user.name} can no longer sign in.` : `${user.name} can sign in again.`);
+      notify(
+        user.status === 'disabled'
+          ? `${user.name} can no longer sign in.`
+          : `${user.name} can sign in again.`,
+      );
       await qc.invalidateQueries({ queryKey: userQueries.all });
     },
     onError: (e) => notify(e instanceof ApiError ? e.message : 'Could not change the account.', 'bad'),
@@ -52,7 +63,11 @@ export function UsersAdmin() {
       ),
     },
     { key: 'roles', header: 'Roles', cell: (u) => u.roles.map((r) => ROLE_LABELS[r]).join(', ') },
-    { key: 'status', header: 'Status', cell: (u) => <Badge tone={STATUS_TONE[u.status]}>{STATUS_TEXT[u.status]}</Badge> },
+    {
+      key: 'status',
+      header: 'Status',
+      cell: (u) => <Badge tone={STATUS_TONE[u.status]}>{STATUS_TEXT[u.status]}</Badge>,
+    },
     {
       key: 'actions',
       header: 'Actions',
@@ -60,16 +75,32 @@ export function UsersAdmin() {
       headerClassName: 'text-right',
       cell: (u) => (
         <>
-          <Button variant="ghost" size="sm" onClick={() => setEditing(u)} aria-label={`Change roles of ${u.name}`}>
+          <Button
+            variant="ghost"
+            size="sm"
+            onClick={() => setEditing(u)}
+            aria-label={`Change roles of ${u.name}`}
+          >
             Roles
           </Button>
           {u.id !== me.id && u.status === 'active' ? (
-            <Button variant="ghost" size="sm" className="text-bad-700" onClick={() => setStatus.mutate({ user: u, status: 'disabled' })} aria-label={`Disable ${u.name}`}>
+            <Button
+              variant="ghost"
+              size="sm"
+              className="text-bad-700"
+              onClick={() => setStatus.mutate({ user: u, status: 'disabled' })}
+              aria-label={`Disable ${u.name}`}
+            >
               Disable
             </Button>
           ) : null}
           {u.status === 'disabled' ? (
-            <Button variant="ghost" size="sm" onClick={() => setStatus.mutate({ user: u, status: 'active' })} aria-label={`Enable ${u.name}`}>
+            <Button
+              variant="ghost"
+              size="sm"
+              onClick={() => setStatus.mutate({ user: u, status: 'active' })}
+              aria-label={`Enable ${u.name}`}
+            >
               Enable
             </Button>
           ) : null}
@@ -94,17 +125,30 @@ export function UsersAdmin() {
         columns={columns}
         result={list}
         loadingLabel="Loading people"
-        empty={{ icon: <Users className="size-6" />, title: 'Nobody matches', children: 'Try another name or e-mail.' }}
+        empty={{
+          icon: <Users className="size-6" />,
+          title: 'Nobody matches',
+          children: 'Try another name or e-mail.',
+        }}
         errorText="Could not load people."
         {...tableProps}
         toolbar={
           <TableToolbar>
-            <SearchField label="Search people" hideLabel placeholder="Search by name or e-mail" value={values.q} onChange={(q) => set({ q })} className="sm:max-w-xs" />
+            <SearchField
+              label="Search people"
+              hideLabel
+              placeholder="Search by name or e-mail"
+              value={values.q}
+              onChange={(q) => set({ q })}
+              className="sm:max-w-xs"
+            />
           </TableToolbar>
         }
       />
       <InviteUserDialog open={inviting} onClose={() => setInviting(false)} allowedRoles={allowed} />
-      {editing ? <EditUserDialog user={editing} allowedRoles={allowed} onClose={() => setEditing(null)} /> : null}
+      {editing ? (
+        <EditUserDialog user={editing} allowedRoles={allowed} onClose={() => setEditing(null)} />
+      ) : null}
     </>
   );
 }
