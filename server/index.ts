@@ -8,6 +8,7 @@ import { createLogger } from './lib/logger';
 import { startOutboxWorker } from './lib/outbox';
 import { createStorage } from './lib/storage';
 import { startStorageSweeper } from './lib/storage-sweep';
+import { startIdempotencyKeyPurge } from './lib/idempotency';
 
 export async function startServer(config: AppConfig, databaseUrl: string) {
   const logger = createLogger(config.logLevel);
@@ -24,6 +25,8 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
     : null;
   // Objects a killed process wrote without committing their rows: swept now and then periodically.
   const sweeper = startStorageSweeper(ds, storage, logger, config.storage.sweep);
+  // Idempotency keys are kept IDEMPOTENCY_KEY_DAYS, then purged daily.
+  const keyPurge = startIdempotencyKeyPurge(ds, logger);
 
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 passes the listen error (EADDRINUSE and the like) to the callback.
@@ -41,6 +44,7 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
       server.closeAllConnections?.();
       await worker?.stop();
       await sweeper.stop();
+      keyPurge.stop();
       await app.close();
       await ds.destroy();
     },

@@ -90,3 +90,37 @@ export async function retryOnDeadlock<T>(fn: () => Promise<T>, attempts = 8): Pr
     }
   }
 }
+
+/**
+ * How long an answer stays replayable under its key. A retry later than this is judged afresh, which is safe: a
+ * claim already credited refuses a second memo (409) whatever the key, and a second draft is only a draft.
+ */
+export const IDEMPOTENCY_KEY_DAYS = 30;
+
+/** Deletes keys older than IDEMPOTENCY_KEY_DAYS (by the server's clock), in batches; returns how many went. */
+export async function purgeIdempotencyKeys(ds: AppDataSource, now: Date = clock.now()): Promise<number> {
+  const before = new Date(now.getTime() - IDEMPOTENCY_KEY_DAYS * 86_400_000);
+  let total = 0;
+  for (;;) {
+    const r = (await ds.query('DELETE FROM idempotency_keys WHERE created_at < ? LIMIT 5000', [before])) as {
+      affectedRows: number;
+    };
+    total += r.affectedRows;
+    if (r.affectedRows < 5000) return total;
+  }
+}
+
+/** Purges old keys at start and then daily (a timer that does not keep the process alive). */
+export function startIdempotencyKeyPurge(
+  ds: AppDataSource,
+  logger: { error: (o: object, m: string) => void },
+) {
+  const run = () =>
+    void purgeIdempotencyKeys(ds).catch((err: unknown) =>
+      logger.error({ err }, 'could not purge old idempotency keys'),
+    );
+  run();
+  const timer = setInterval(run, 24 * 60 * 60 * 1000);
+  timer.unref();
+  return { stop: () => clearInterval(timer) };
+}
