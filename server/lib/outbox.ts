@@ -52,13 +52,17 @@ export async function deliverDue(
     batch?: number;
     leaseMs?: number;
     loadAttachment?: (a: OutboxAttachment) => Promise<Buffer>;
+    /** Only these messages (a resend of chosen ones; tests that share the queue with other workers). */
+    ids?: string[];
   },
 ) {
   const leaseMs = opts.leaseMs ?? 120_000;
   const claimed = await ds.transaction(async (m) => {
-    const rows = await m
+    const qb = m
       .createQueryBuilder(OutboxMessage, 'o')
-      .where('o.status = :s AND o.next_attempt_at <= :now', { s: 'pending', now: clock.now() })
+      .where('o.status = :s AND o.next_attempt_at <= :now', { s: 'pending', now: clock.now() });
+    if (opts.ids) qb.andWhere('o.id IN (:...ids)', { ids: opts.ids.length ? opts.ids : ['none'] });
+    const rows = await qb
       .orderBy('o.id', 'ASC')
       .limit(opts.batch ?? 20)
       .setLock('pessimistic_write')
