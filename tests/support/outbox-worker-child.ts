@@ -1,7 +1,8 @@
-// A stand-alone outbox worker for the crash test: sends slowly (so that it can be killed mid-batch) and, with
-// UNTIL_SENT_FROM, exits once every message from that id on has been sent.
+// A stand-alone outbox worker for the crash test: sends slowly (so that it can be killed mid-batch), takes only the
+// messages in ONLY_IDS when given, and, with UNTIL_SENT_FROM, exits once every message from that id on (of those)
+// has been sent.
 import type { Transporter } from 'nodemailer';
-import { MoreThanOrEqual } from 'typeorm';
+import { In, MoreThanOrEqual } from 'typeorm';
 import { loadConfig } from '../../server/config/env';
 import { createDataSource } from '../../server/db/data-source';
 import { OutboxMessage } from '../../server/db/entities/outbox-message.entity';
@@ -20,16 +21,18 @@ const slow = {
   },
 } as unknown as Transporter;
 const from = process.env.UNTIL_SENT_FROM;
+const only = process.env.ONLY_IDS ? process.env.ONLY_IDS.split(',') : undefined;
 for (;;) {
   await deliverDue(ds, slow, {
     from: config.smtp.from,
     batch: 10,
     leaseMs: Number(process.env.LEASE_MS ?? 2000),
+    ids: only,
   });
   if (from) {
     const left = await ds
       .getRepository(OutboxMessage)
-      .count({ where: { id: MoreThanOrEqual(from), status: 'pending' } });
+      .count({ where: { id: only ? In(only) : MoreThanOrEqual(from), status: 'pending' } });
     if (left === 0) break;
   }
   await sleep(200);
