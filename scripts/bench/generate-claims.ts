@@ -4,6 +4,9 @@
 // installations and BENCH_CLAIMS claims (100,000 by default) over every stage, by multi-row INSERTs straight
 // into the tables (no services: this is set-up, not the thing measured). Prints rows per second.
 import crypto from 'node:crypto';
+import { CLAIM_NUMBER_ALPHABET } from '../../shared/claims/claim-number';
+import { STAGES } from '../../shared/claims/stages';
+import { WAITING_ON_BY_STAGE } from '../../shared/claims/workflow';
 import { hashPassword } from '../../server/auth/passwords';
 import type { AppDataSource } from '../../server/db/data-source';
 import { Organization } from '../../server/db/entities/organization.entity';
@@ -222,34 +225,6 @@ export async function generate(ds: AppDataSource, opts: { claims: number }): Pro
   return { manufacturers: MANUFACTURERS, contractors: CONTRACTORS, installations: installationCount, claims };
 }
 
-const STAGES = [
-  'draft',
-  'filed',
-  'in_review',
-  'needs_info',
-  'return_requested',
-  'unit_received',
-  'approved',
-  'denied',
-  'credited',
-  'closed',
-  'withdrawn',
-];
-const WAITING: Record<string, string | null> = {
-  draft: 'contractor',
-  filed: 'manufacturer',
-  in_review: 'manufacturer',
-  needs_info: 'contractor',
-  return_requested: 'contractor',
-  unit_received: 'manufacturer',
-  approved: 'manufacturer',
-  denied: null,
-  credited: null,
-  closed: null,
-  withdrawn: null,
-};
-const NUMBER_ALPHABET = '23456789ABCDEFGHJKMNPQRSTWXYZ';
-
 /** Claims spread over every stage, with numbers, verdicts and amounts; 1,000 rows a statement. */
 async function generateClaims(
   ds: AppDataSource,
@@ -302,7 +277,8 @@ async function generateClaims(
     if (stage !== 'draft') {
       do {
         let body = '';
-        for (let i = 0; i < 7; i++) body += NUMBER_ALPHABET[Math.floor(rand() * NUMBER_ALPHABET.length)];
+        for (let i = 0; i < 7; i++)
+          body += CLAIM_NUMBER_ALPHABET[Math.floor(rand() * CLAIM_NUMBER_ALPHABET.length)];
         number = `LP-${String(d.getUTCFullYear() % 100).padStart(2, '0')}${String(d.getUTCMonth() + 1).padStart(2, '0')}-${body.slice(0, 3)}-${body.slice(3)}`;
       } while (used.has(number));
       used.add(number);
@@ -316,7 +292,7 @@ async function generateClaims(
       inst.productId,
       stage,
       stamp(filedMs),
-      WAITING[stage],
+      WAITING_ON_BY_STAGE[stage],
       1 + (k % 3),
       JSON.stringify([`SN-${k}`]),
       iso(filedMs - 5 * 86_400_000),
