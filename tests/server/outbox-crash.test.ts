@@ -21,7 +21,7 @@ afterAll(async () => {
 });
 
 function worker(env: Record<string, string>): ChildProcess {
-  return spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'tests/support/outbox-worker-child.ts'], {
+  return spawn(process.execPath, ['--import', 'tsx', 'tests/support/outbox-worker-child.ts'], {
     env: {
       ...process.env,
       DATABASE_URL: inject('databaseUrl'),
@@ -65,12 +65,16 @@ describe('the outbox worker, killed mid-send', () => {
       smtp.received.map((m) => outboxIdOf(m.raw)).filter((id): id is string => !!id && ourIds.has(id));
 
     // The workers take only these messages: other files share this test database's queue and enqueue as we go.
-    const first = worker({ SEND_DELAY_MS: '250', LEASE_MS: '3000', ONLY_IDS: ids.join(',') });
-    const exited = new Promise((r) => first.on('exit', r));
-    const deadline = Date.now() + 60_000;
-    while (delivered().length < 3 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
-    first.kill('SIGKILL');
-    await exited;
+    // The first one kills itself (SIGKILL) right after its third message went out, before marking it sent: the
+    // kill lands inside its leased batch however slow the machine is.
+    const first = worker({
+      SEND_DELAY_MS: '50',
+      LEASE_MS: '3000',
+      ONLY_IDS: ids.join(','),
+      KILL_AFTER_SENDS: '3',
+    });
+    const signal = await new Promise((r) => first.on('exit', (_code, sig) => r(sig)));
+    expect(signal).toBe('SIGKILL');
     const beforeSecond = delivered().length;
     expect(beforeSecond).toBeGreaterThanOrEqual(3);
     expect(beforeSecond).toBeLessThan(30);
