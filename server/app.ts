@@ -60,6 +60,9 @@ export function createApp(opts: CreateAppOptions): App {
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy ? 1 : false);
   app.set('query parser', 'simple');
+  // No ETags: every API answer is Cache-Control: no-store, so hashing each body bought nothing; the built client's
+  // files are served with their own validators (express.static).
+  app.set('etag', false);
 
   app.use(
     pinoHttp({

@@ -61,14 +61,20 @@ if (import.meta.url === `file://${process.argv[1]}`) {
     process.exit(2);
   }
   const databaseUrl = config.databaseUrl;
+  // The signal handlers come first: a SIGTERM while workers are still starting stops them once they are up.
+  let stopRequested = false;
+  let stop = () => {
+    stopRequested = true;
+  };
+  process.on('SIGINT', () => stop());
+  process.on('SIGTERM', () => stop());
   (config.workers > 1
     ? startCluster({ count: config.workers, databaseUrl })
     : startServer(config, databaseUrl)
   )
     .then((srv) => {
-      const stop = () => srv.stop().then(() => process.exit(0));
-      process.on('SIGINT', stop);
-      process.on('SIGTERM', stop);
+      stop = () => void srv.stop().then(() => process.exit(0));
+      if (stopRequested) stop();
     })
     .catch((err) => {
       console.error(err instanceof Error ? err.message : err);

@@ -3,6 +3,7 @@ import { Strategy as LocalStrategy } from 'passport-local';
 import type { AppDataSource } from '../db/data-source';
 import { User } from '../db/entities/user.entity';
 import { verifyPassword } from './passwords';
+import { loadedSessionUser } from './session';
 
 export type SessionUser = User & { organization: NonNullable<User['organization']> };
 
@@ -39,21 +40,27 @@ export function createPassport(ds: AppDataSource) {
 
   instance.serializeUser((user, done) => done(null, (user as SessionUser).id));
 
-  // Loaded on every request: a disabled or deleted user's sessions stop working at once.
-  instance.deserializeUser(async (id: string, done) => {
-    try {
-      // One query (findOne with relations would add a DISTINCT pre-query): this runs on every request.
-      const user = await users
-        .createQueryBuilder('u')
-        .innerJoinAndSelect('u.organization', 'o')
-        .where('u.id = :id', { id })
-        .getOne();
-      if (!user || user.status !== 'active') return done(null, false);
-      return done(null, user as SessionUser);
-    } catch (err) {
-      return done(err as Error);
-    }
-  });
+  // Loaded on every request: a disabled or deleted user's sessions stop working at once. The session store reads
+  // the user in the same query as the session (server/auth/session.ts); the query here is for any other store.
+  instance.deserializeUser(
+    async (req: object, id: string, done: (err: unknown, user?: false | SessionUser) => void) => {
+      try {
+        const loaded = loadedSessionUser(req, id);
+        const user =
+          loaded !== undefined
+            ? loaded
+            : await users
+                .createQueryBuilder('u')
+                .innerJoinAndSelect('u.organization', 'o')
+                .where('u.id = :id', { id })
+                .getOne();
+        if (!user || user.status !== 'active') return done(null, false);
+        return done(null, user as SessionUser);
+      } catch (err) {
+        return done(err as Error);
+      }
+    },
+  );
 
   return instance;
 }

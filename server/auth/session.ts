@@ -1,6 +1,10 @@
+import type { Request } from 'express';
 import session from 'express-session';
 import MySQLStoreFactory from 'express-mysql-session';
+import mysql from 'mysql2';
 import type { AppConfig } from '../config/env';
+import { Organization } from '../db/entities/organization.entity';
+import { User } from '../db/entities/user.entity';
 
 export const SESSION_COOKIE = 'lp.sid';
 export const IDLE_TIMEOUT_MS = 30 * 60 * 1000;
@@ -21,6 +25,7 @@ declare module 'express-session' {
 
 const MySQLStore = MySQLStoreFactory(session as never) as unknown as new (
   options: Record<string, unknown>,
+  connection?: unknown,
 ) => session.Store & { close(): Promise<void>; onReady(): Promise<void> };
 
 function parseUrl(url: string) {
@@ -34,20 +39,140 @@ function parseUrl(url: string) {
   };
 }
 
-export function createSessionStore(databaseUrl: string) {
-  return new MySQLStore({
-    ...parseUrl(databaseUrl),
-    createDatabaseTable: false, // the table comes from a migration
-    clearExpired: true,
-    checkExpirationInterval: 15 * 60 * 1000,
-    expiration: IDLE_TIMEOUT_MS,
-    disableTouch: true, // the row is written when lastSeenAt moves (sessionPolicy), not on every request
-    connectionLimit: 10, // every authenticated request reads its session first: enough for 16 at once without queueing long
-    schema: {
-      tableName: 'sessions',
-      columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' },
-    },
+/** Where the store leaves the user it read with the session, for passport's deserializer (server/auth/passport.ts). */
+const LOADED_USER = Symbol('lumenproof.sessionUser');
+type Loaded = { id: string; user: User | null };
+
+/**
+ * The session's row and its signed-in user with the user's organisation, in one round trip: every authenticated
+ * request needs all three, and reading them one after the other cost a query and TypeORM's hydration each time.
+ * The user comes fresh from the database on every request, so a disabled user or a changed role counts at once.
+ */
+const SESSION_SQL = `SELECT s.data, s.expires, u.id AS u_id, u.organization_id, u.email, u.name, u.roles, u.status,
+       u.last_sign_in_at, u.created_at, u.updated_at, u.version, o.name AS o_name, o.kind AS o_kind,
+       o.created_at AS o_created_at
+  FROM sessions s
+  LEFT JOIN users u ON u.id = JSON_VALUE(s.data, '$.passport.user')
+  LEFT JOIN organizations o ON o.id = u.organization_id
+ WHERE s.session_id = ?`;
+
+type SessionRow = {
+  data: string;
+  expires: number;
+  u_id: string | null;
+  organization_id: string;
+  email: string;
+  name: string;
+  roles: string;
+  status: User['status'];
+  last_sign_in_at: Date | null;
+  created_at: Date;
+  updated_at: Date;
+  version: number;
+  o_name: string;
+  o_kind: Organization['kind'];
+  o_created_at: Date;
+};
+
+function userOf(r: SessionRow): User {
+  const organization = Object.assign(new Organization(), {
+    id: r.organization_id,
+    name: r.o_name,
+    kind: r.o_kind,
+    createdAt: r.o_created_at,
   });
+  return Object.assign(new User(), {
+    id: r.u_id!,
+    organizationId: r.organization_id,
+    organization,
+    email: r.email,
+    name: r.name,
+    // Not read on every request: only signing in needs the hash, and it loads the user itself.
+    passwordHash: null,
+    roles: (r.roles ? r.roles.split(',') : []) as User['roles'],
+    status: r.status,
+    lastSignInAt: r.last_sign_in_at,
+    createdAt: r.created_at,
+    updatedAt: r.updated_at,
+    version: r.version,
+  });
+}
+
+/** The user the session store read with this request's session, if it did (and null when that user is gone). */
+export function loadedSessionUser(req: object, id: string): User | null | undefined {
+  const loaded = (req as unknown as { [LOADED_USER]?: Loaded })[LOADED_USER];
+  return loaded && loaded.id === id ? loaded.user : undefined;
+}
+
+export class SessionStore extends MySQLStore {
+  private readonly pool: mysql.Pool;
+  // Written by express-mysql-session (its prototype), declared for TypeScript.
+  declare set: session.Store['set'];
+  declare destroy: session.Store['destroy'];
+
+  constructor(databaseUrl: string) {
+    // A callback pool of its own, with TypeORM's date handling (UTC, Date objects).
+    const pool = mysql.createPool({
+      ...parseUrl(databaseUrl),
+      timezone: 'Z',
+      dateStrings: false,
+      charset: 'utf8mb4_bin',
+      connectionLimit: 10, // every authenticated request reads its session first: enough for 16 at once
+    });
+    super(
+      {
+        createDatabaseTable: false, // the table comes from a migration
+        clearExpired: true,
+        checkExpirationInterval: 15 * 60 * 1000,
+        expiration: IDLE_TIMEOUT_MS,
+        disableTouch: true, // the row is written when lastSeenAt moves (sessionPolicy), not on every request
+        endConnectionOnClose: false, // close() below ends the pool
+        schema: {
+          tableName: 'sessions',
+          columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' },
+        },
+      },
+      pool,
+    );
+    this.pool = pool;
+  }
+
+  override get(sid: string, cb: (err: unknown, data?: session.SessionData | null) => void) {
+    this.pool.query<(SessionRow & mysql.RowDataPacket)[]>(SESSION_SQL, [sid], (err, rows) => {
+      if (err) return cb(err);
+      const row = rows[0];
+      if (!row || row.expires < Math.round(Date.now() / 1000)) return cb(null, null);
+      let data: session.SessionData & { passport?: { user?: string } };
+      try {
+        data = JSON.parse(row.data);
+      } catch (e) {
+        return cb(e);
+      }
+      const id = data.passport?.user;
+      // A symbol key: express-session copies and hashes only the session's own string keys, so it never saves this.
+      if (id)
+        (data as unknown as { [LOADED_USER]: Loaded })[LOADED_USER] = {
+          id,
+          user: row.u_id ? userOf(row) : null,
+        };
+      cb(null, data);
+    });
+  }
+
+  override createSession(req: Request, data: session.SessionData) {
+    const loaded = (data as unknown as { [LOADED_USER]?: Loaded })[LOADED_USER];
+    if (loaded) (req as unknown as { [LOADED_USER]: Loaded })[LOADED_USER] = loaded;
+    return super.createSession(req, data);
+  }
+
+  override async close() {
+    await super.close();
+    await new Promise<void>((resolve) => this.pool.end(() => resolve()));
+  }
+}
+
+export function createSessionStore(databaseUrl: string) {
+  return new SessionStore(databaseUrl);
 }
 
 export function sessionMiddleware(config: AppConfig, store: session.Store) {

@@ -591,6 +591,17 @@ describe('the list', () => {
     expect(await ids(`product=${encodeURIComponent(w.product.modelNumber)}`)).toHaveLength(2);
     expect(await ids(`filedFrom=${daysAgo(1)}&filedTo=${daysAgo(-1)}`)).toEqual([filed.id]);
     expect(await ids('filedTo=2020-01-01')).toEqual([]);
+    expect(await ids('verdict=review')).toEqual([filed.id]);
+    expect(await ids('verdict=covered')).toEqual([]);
+    expect(await ids(`manufacturerId=${w.mfrA.id}`)).toHaveLength(2);
+    expect(await ids('open=false')).toEqual([]);
+    expect(await ids('open=true')).toHaveLength(2);
+    // Search text is matched as text: LIKE's wildcards in it match only themselves.
+    expect(await ids('q=%25')).toEqual([]);
+    expect(await ids('site=_')).toEqual([]);
+    // Pages: the second of two one-row pages holds the other claim, and the total counts both.
+    const second = await w.installer.agent.get('/api/claims?pageSize=1&page=2&sort=-createdAt');
+    expect(second.body).toMatchObject({ total: 2, page: 2, items: [{ id: filed.id }] });
 
     const item = (await w.installer.agent.get('/api/claims?stage=filed')).body.items[0];
     expect(item).toMatchObject({
