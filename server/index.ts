@@ -9,6 +9,7 @@ import { startOutboxWorker } from './lib/outbox';
 import { createStorage } from './lib/storage';
 import { startStorageSweeper } from './lib/storage-sweep';
 import { startIdempotencyKeyPurge } from './lib/idempotency';
+import { startClaimCountsCompaction } from './lib/claim-counts';
 
 export async function startServer(config: AppConfig, databaseUrl: string) {
   const logger = createLogger(config.logLevel);
@@ -27,6 +28,8 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
   const sweeper = startStorageSweeper(ds, storage, logger, config.storage.sweep);
   // Idempotency keys are kept IDEMPOTENCY_KEY_DAYS, then purged daily.
   const keyPurge = startIdempotencyKeyPurge(ds, logger);
+  // The claim counts' appended rows folded into one per organisation and stage, every minute.
+  const counts = startClaimCountsCompaction(ds, logger);
 
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 passes the listen error (EADDRINUSE and the like) to the callback.
@@ -45,6 +48,7 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
       await worker?.stop();
       await sweeper.stop();
       keyPurge.stop();
+      await counts.stop();
       await app.close();
       await ds.destroy();
     },

@@ -1,9 +1,6 @@
-import { In } from 'typeorm';
 import type { HistoryEventDto } from '../../shared/schemas/catalogue';
 import type { AppDataSource } from '../db/data-source';
-import { AuditEvent } from '../db/entities/audit-event.entity';
-import { Organization } from '../db/entities/organization.entity';
-import { User } from '../db/entities/user.entity';
+import { readRows } from '../db/read';
 
 /**
  * The audit trail of one record, oldest first. The caller has already authorised reading the record. People
@@ -15,35 +12,43 @@ export async function loadHistory(
   entityId: string,
   viewerOrgId: string,
 ): Promise<HistoryEventDto[]> {
-  const events = await ds
-    .getRepository(AuditEvent)
-    .find({ where: { entityType, entityId }, order: { id: 'ASC' }, take: 500 });
-  const userIds = [...new Set(events.map((e) => e.actorUserId).filter((x): x is string => !!x))];
-  const users = userIds.length
-    ? await ds
-        .getRepository(User)
-        .find({ where: { id: In(userIds) }, select: { id: true, name: true, organizationId: true } })
-    : [];
-  const orgIds = [...new Set(users.map((u) => u.organizationId))];
-  const orgs = orgIds.length ? await ds.getRepository(Organization).find({ where: { id: In(orgIds) } }) : [];
-  const userById = new Map(users.map((u) => [u.id, u]));
-  const orgById = new Map(orgs.map((o) => [o.id, o]));
-  return events.map((e) => {
-    const u = e.actorUserId ? userById.get(e.actorUserId) : undefined;
-    const org = u ? orgById.get(u.organizationId) : undefined;
-    return {
-      id: e.id,
-      occurredAt: e.occurredAt.toISOString(),
-      action: e.action,
-      actor:
-        u && org
-          ? { name: u.organizationId === viewerOrgId ? u.name : org.name, organization: org.name }
-          : null,
-      before: e.before,
-      after: e.after,
-    };
-  });
+  // One statement: the events with their actors and the actors' organisations (every record page reads this).
+  const rows = await readRows<{
+    id: string;
+    occurred_at: Date;
+    action: string;
+    before_state: string | Record<string, unknown> | null;
+    after_state: string | Record<string, unknown> | null;
+    user_name: string | null;
+    user_org_id: string | null;
+    org_name: string | null;
+  }>(
+    ds,
+    `SELECT e.id, e.occurred_at, e.action, e.before_state, e.after_state,
+            u.name AS user_name, u.organization_id AS user_org_id, o.name AS org_name
+       FROM audit_events e
+       LEFT JOIN users u ON u.id = e.actor_user_id
+       LEFT JOIN organizations o ON o.id = u.organization_id
+      WHERE e.entity_type = ? AND e.entity_id = ?
+      ORDER BY e.id ASC
+      LIMIT 500`,
+    [entityType, entityId],
+  );
+  return rows.map((e) => ({
+    id: e.id,
+    occurredAt: e.occurred_at.toISOString(),
+    action: e.action,
+    actor:
+      e.user_org_id && e.org_name !== null
+        ? { name: e.user_org_id === viewerOrgId ? e.user_name! : e.org_name, organization: e.org_name }
+        : null,
+    before: jsonOf(e.before_state),
+    after: jsonOf(e.after_state),
+  }));
 }
+
+const jsonOf = (v: string | Record<string, unknown> | null) =>
+  typeof v === 'string' ? (JSON.parse(v) as Record<string, unknown>) : v;
 
 /** Only the fields that changed, for an audit row's before and after. */
 export function changedFields(before: Record<string, unknown>, after: Record<string, unknown>) {

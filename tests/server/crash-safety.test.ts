@@ -7,6 +7,7 @@ import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { Attachment } from '../../server/db/entities/attachment.entity';
 import { Invitation } from '../../server/db/entities/invitation.entity';
 import { User } from '../../server/db/entities/user.entity';
+import { claimCountsDrift } from '../../server/lib/claim-counts';
 import { Claim } from '../../server/db/entities/claim.entity';
 import { CreditMemo } from '../../server/db/entities/credit-memo.entity';
 import { Decision } from '../../server/db/entities/decision.entity';
@@ -226,6 +227,8 @@ async function claimAgreesWithAudit(claimId: string, created: { stage: string; v
   const last = moves.at(-1);
   expect(c.stage).toBe(last ? (last.after as { stage: string }).stage : created.stage);
   expect(c.version).toBe(created.version + moves.length);
+  // The claim counts the triggers keep agree with the claims (a killed transaction appended nothing).
+  expect(await claimCountsDrift(t.ds)).toEqual([]);
   return c;
 }
 

@@ -2,6 +2,7 @@ import { Attachment } from './attachment.entity';
 import { AuditEvent } from './audit-event.entity';
 import { BenchTest } from './bench-test.entity';
 import { ClaimBatch } from './claim-batch.entity';
+import { ClaimCount } from './claim-count.entity';
 import { ClaimDocument } from './claim-document.entity';
 import { ClaimMessage } from './claim-message.entity';
 import { Claim } from './claim.entity';
@@ -38,6 +39,7 @@ export const entities = [
   Installation,
   InstallationUnit,
   Claim,
+  ClaimCount,
   ClaimBatch,
   Attachment,
   ClaimMessage,

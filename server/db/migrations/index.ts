@@ -12,6 +12,7 @@ import { InstallationLot1796167600000 } from './1796167600000-InstallationLot';
 import { ReviewQueueIndexes1796168302753 } from './1796168302753-ReviewQueueIndexes';
 import { ReviewQueueCountIndex1796178256332 } from './1796178256332-ReviewQueueCountIndex';
 import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexes';
+import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
 
 export const migrations = [
   Foundation1796165467051,
@@ -27,4 +28,5 @@ export const migrations = [
   ReviewQueueIndexes1796168302753,
   ReviewQueueCountIndex1796178256332,
   StorageKeyIndexes1796179613559,
+  ClaimCounts1796188776668,
 ];

@@ -4,6 +4,7 @@ import type { ClaimEvidence } from '../../../shared/claims/engine-input';
 import { safeEvaluateClaim, type Evaluation } from '../../../shared/engine';
 import {
   CLAIM_STAGE_LABELS,
+  CLAIM_STAGES,
   claimFieldsSchema,
   filingIssues,
   OPEN_STAGES,
@@ -23,6 +24,7 @@ import type { Installation } from '../../db/entities/installation.entity';
 import type { ProductModel } from '../../db/entities/product-model.entity';
 import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
+import { stageTotal } from '../../lib/claim-counts';
 import { clock } from '../../lib/clock';
 import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict } from '../../lib/errors';
@@ -43,6 +45,16 @@ const SORTS = {
   failedOn: 'c.failed_on',
   number: 'c.number',
 };
+
+const CLOSED_STAGES = CLAIM_STAGES.filter((st) => !OPEN_STAGES.includes(st));
+
+/**
+ * Whether a list asks for no more than its organisation's claims at some stages, so that its total is a sum over
+ * the claim counts. Any other filter given, including one added later, makes it a count.
+ */
+const STAGE_ONLY_KEYS = new Set(['page', 'pageSize', 'sort', 'stage', 'open']);
+const byStageOnly = (q: ClaimListQuery) =>
+  Object.entries(q).every(([k, v]) => STAGE_ONLY_KEYS.has(k) || v === undefined || v === '');
 
 function refuse(r: Refusal): never {
   throw new AppError(REFUSAL_STATUS[r.code], r.code, r.message, r.details);
@@ -423,8 +435,10 @@ export function createClaimsService(
         if (exact) w.and('(c.number = ? OR CAST(c.serials AS CHAR) LIKE ?)', exact, like);
         else w.and('(c.number LIKE ? OR CAST(c.serials AS CHAR) LIKE ?)', like, like);
       }
-      // Two statements whatever the page size, run side by side: the page with its joins, and the count, which
-      // joins a table only for a filter on it. Left joins on required keys keep the claims table first in the
+      // Two statements whatever the page size, run side by side: the page with its joins, and the total. Filtered by
+      // stage alone (the usual list), the total is a sum over the claim counts the triggers keep
+      // (server/lib/claim-counts.ts); with any other filter it is a count, which joins a table only for a filter on
+      // it. Left joins on required keys keep the claims table first in the
       // plan, so the page is read straight off the (organisation, stage, sort column) index; the tie-break runs
       // the same way as the sort so the index can serve both. The SQL is written out (server/db/read.ts).
       const page = `SELECT ${LIST_COLUMNS}
@@ -436,13 +450,25 @@ export function createClaimsService(
           ${w.sql}
          ORDER BY ${sort.column} ${sort.direction}, c.id ${sort.direction}
          LIMIT ? OFFSET ?`;
-      const count = `SELECT COUNT(*) AS n FROM claims c
-          ${q.site ? 'LEFT JOIN installations i ON i.id = c.installation_id' : ''}
-          ${q.product ? 'LEFT JOIN product_models p ON p.id = c.product_model_id' : ''}
-          ${w.sql}`;
+      const count = byStageOnly(q)
+        ? stageTotal({
+            organizationId: scope.orgId,
+            stagesIn: q.stage,
+            stagesNotIn: [
+              ...(scope.kind === 'manufacturer' ? (['draft'] as const) : []),
+              ...(q.open === undefined ? [] : q.open ? CLOSED_STAGES : OPEN_STAGES),
+            ],
+          })
+        : {
+            sql: `SELECT COUNT(*) AS n FROM claims c
+                    ${q.site ? 'LEFT JOIN installations i ON i.id = c.installation_id' : ''}
+                    ${q.product ? 'LEFT JOIN product_models p ON p.id = c.product_model_id' : ''}
+                    ${w.sql}`,
+            params: w.params,
+          };
       const [rows, [counted]] = await Promise.all([
         readRows<RawListRow>(ds, page, [...w.params, q.pageSize, (q.page - 1) * q.pageSize]),
-        readRows<{ n: string | number }>(ds, count, w.params),
+        readRows<{ n: string | number }>(ds, count.sql, count.params),
       ]);
       return { items: rows.map(listRowOf), total: Number(counted?.n ?? 0) };
     },
