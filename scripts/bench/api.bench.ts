@@ -166,7 +166,8 @@ async function installationsTarget(
     ids,
     async raw(conn) {
       const [rows] = await conn.query(
-        `SELECT i.*, p.model_number, p.name AS product_name, c.name AS contractor_name, m.name AS manufacturer_name, v.version_number, pol.name AS policy_name
+        `SELECT i.*, p.model_number, p.name AS product_name, c.name AS contractor_name, m.name AS manufacturer_name, v.version_number, pol.name AS policy_name,
+                (SELECT COUNT(*) FROM installation_units u WHERE u.installation_id = i.id) AS serial_count
            FROM installations i
            LEFT JOIN product_models p ON p.id = i.product_model_id
            LEFT JOIN organizations c ON c.id = i.contractor_id

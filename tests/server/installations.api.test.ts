@@ -265,6 +265,85 @@ describe('installations', () => {
     expect(bySerial.body.items.map((i: { siteName: string }) => i.siteName)).toEqual(['Depot 07']);
     expect((await installer.agent.get('/api/installations?nominalSupplyVolts=230')).status).toBe(400);
   });
+
+  it("lists by each filter, pages with the total, counts serials, matches wildcards literally, and never lists another organisation's", async () => {
+    const { mfr, product, installer } = await world();
+    const other = await createProduct(t.ds, mfr);
+    const otherMfr = await createOrganization(t.ds, 'manufacturer');
+    const foreign = await createProduct(t.ds, otherMfr);
+    const add = async (
+      who: typeof installer,
+      productModelId: string,
+      extra: Parameters<typeof installationPayload>[1],
+    ) => {
+      const r = await who.agent.post('/api/installations').send(installationPayload(productModelId, extra));
+      expect(r.status).toBe(201);
+      return r.body.installation.id as string;
+    };
+    const a = await add(installer, product.id, {
+      siteName: '100% LED hall',
+      location: 'damp',
+      enclosure: 'enclosed',
+      nominalSupplyVolts: 120,
+      installDate: '2024-01-03',
+      serials: [],
+    });
+    const b = await add(installer, other.id, {
+      siteName: 'Bay_2 store',
+      location: 'wet',
+      enclosure: 'open',
+      nominalSupplyVolts: 277,
+      installDate: '2024-01-02',
+      serials: ['BQ-1', 'BQ-2', 'BQ-3'],
+    });
+    const c = await add(installer, foreign.id, {
+      siteName: 'Bay 2 yard',
+      location: 'dry',
+      enclosure: 'enclosed_ventilated',
+      nominalSupplyVolts: 347,
+      installDate: '2024-01-01',
+      serials: ['CQ-1'],
+    });
+    // Another contractor's installation of the same model: never in this installer's list.
+    const rival = await member('contractor', ['installer']);
+    const d = await add(rival, product.id, { siteName: '100% rival site', location: 'damp' });
+
+    const ids = async (who: typeof installer, query: string) => {
+      const r = await who.agent.get(`/api/installations?${query}`);
+      expect(r.status).toBe(200);
+      return { ids: r.body.items.map((i: { id: string }) => i.id), total: r.body.total, items: r.body.items };
+    };
+    expect((await ids(installer, '')).ids).toEqual([a, b, c]);
+    expect((await ids(installer, `productModelId=${other.id}`)).ids).toEqual([b]);
+    expect((await ids(installer, `manufacturerId=${otherMfr.id}`)).ids).toEqual([c]);
+    expect((await ids(installer, `contractorId=${installer.org.id}`)).ids).toEqual([a, b, c]);
+    expect((await ids(installer, `contractorId=${rival.org.id}`)).total).toBe(0);
+    expect((await ids(installer, 'location=wet')).ids).toEqual([b]);
+    expect((await ids(installer, 'enclosure=enclosed_ventilated')).ids).toEqual([c]);
+    expect((await ids(installer, 'nominalSupplyVolts=120')).ids).toEqual([a]);
+    // Paging: the total is of all matches, whatever the page.
+    const page2 = await ids(installer, 'pageSize=2&page=2');
+    expect(page2).toMatchObject({ ids: [c], total: 3 });
+    expect((await ids(installer, 'pageSize=2&page=3')).ids).toEqual([]);
+    expect((await ids(installer, 'pageSize=2&page=3')).total).toBe(3);
+    // % and _ in the search are the characters themselves, not LIKE wildcards.
+    expect((await ids(installer, `q=${encodeURIComponent('100%')}`)).ids).toEqual([a]);
+    expect((await ids(installer, 'q=Bay_2')).ids).toEqual([b]);
+    expect((await ids(installer, `q=${encodeURIComponent('%')}`)).ids).toEqual([a]);
+    // The serial count of each listed installation.
+    const all = await ids(installer, 'sort=siteName');
+    expect(all.items.map((i: { id: string; serialCount: number }) => [i.id, i.serialCount])).toEqual([
+      [a, 0],
+      [c, 1],
+      [b, 3],
+    ]);
+    // The manufacturer lists its own products' installations only, from every contractor.
+    const reviewer = await member('manufacturer', ['reviewer'], mfr);
+    expect((await ids(reviewer, 'sort=siteName')).ids).toEqual([a, d, b]);
+    expect((await ids(reviewer, `q=${encodeURIComponent('100%')}&contractorId=${rival.org.id}`)).ids).toEqual(
+      [d],
+    );
+  });
 });
 
 describe('spreadsheet import', () => {

@@ -5,10 +5,38 @@ import type {
   NOMINAL_SUPPLY_VOLTS,
 } from '../../../shared/schemas/catalogue';
 import type { Installation } from '../../db/entities/installation.entity';
+import type { ProductModel } from '../../db/entities/product-model.entity';
+import type { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-version.entity';
 import { orgRef, pick, stamps } from '../../lib/present';
 import { presentProduct } from '../products/products.presenter';
 
-type Loaded = Installation & { serialCount?: number };
+/**
+ * What presentInstallation reads: a loaded entity (its units counted), or a list row read by hand with its serial
+ * count (installations.service.ts).
+ */
+export type InstallationListRow = Pick<
+  Installation,
+  | SiteField
+  | 'id'
+  | 'contractorId'
+  | 'manufacturerId'
+  | 'productModelId'
+  | 'nominalSupplyVolts'
+  | 'createdAt'
+  | 'updatedAt'
+  | 'version'
+> & {
+  contractor: { name: string } | null;
+  manufacturer: { name: string } | null;
+  productModel: Pick<ProductModel, 'modelNumber' | 'name' | 'family'>;
+  policyVersion:
+    | (Pick<WarrantyPolicyVersion, 'id' | 'policyId' | 'versionNumber' | 'effectiveFrom'> & {
+        policy: { name: string } | null;
+      })
+    | null;
+  serialCount?: number;
+  units?: readonly unknown[];
+};
 
 /** The site, the purchase and the conditions: what the answers show and the audit log records. */
 const SITE_FIELDS = [
@@ -31,7 +59,7 @@ const SITE_FIELDS = [
 ] as const satisfies readonly (keyof InstallationDto & keyof Installation)[];
 type SiteField = (typeof SITE_FIELDS)[number];
 
-export function presentInstallation(i: Loaded): InstallationDto {
+export function presentInstallation(i: InstallationListRow): InstallationDto {
   const v = i.policyVersion;
   return {
     id: i.id,

@@ -1,5 +1,5 @@
 import crypto from 'node:crypto';
-import { Brackets, In, type EntityManager, type SelectQueryBuilder } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import { coverageDate, versionInForce } from '../../../shared/catalogue/policy-version';
 import {
   installationSchemas,
@@ -13,6 +13,7 @@ import {
 } from '../../../shared/schemas/catalogue';
 import type { SessionUser } from '../../auth/passport';
 import type { AppDataSource } from '../../db/data-source';
+import { Conditions, readRows as readDbRows } from '../../db/read';
 import { InstallationUnit } from '../../db/entities/installation-unit.entity';
 import { Installation } from '../../db/entities/installation.entity';
 import { PolicyModel } from '../../db/entities/policy-model.entity';
@@ -31,7 +32,7 @@ import { clock } from '../../lib/clock';
 import { AppError, conflict } from '../../lib/errors';
 import { changedFields } from '../../lib/history';
 import { likeContains, parseSort } from '../../lib/pagination';
-import { installationAuditView } from './installations.presenter';
+import { installationAuditView, type InstallationListRow } from './installations.presenter';
 
 const SORTS = {
   installDate: 'i.install_date',
@@ -39,6 +40,136 @@ const SORTS = {
   quantity: 'i.quantity',
   createdAt: 'i.created_at',
 };
+
+/** What an installations-list row reads, each under its table alias, an underscore and its column. */
+const LIST_COLUMNS = [
+  ...[
+    'id',
+    'contractor_id',
+    'manufacturer_id',
+    'product_model_id',
+    'site_name',
+    'site_address',
+    'site_city',
+    'site_region',
+    'site_postal_code',
+    'quantity',
+    'install_date',
+    'purchase_date',
+    'distributor',
+    'invoice_number',
+    'lot',
+    'location',
+    'enclosure',
+    'dimmer',
+    'nominal_supply_volts',
+    'hours_per_day',
+    'ambient_c',
+    'created_at',
+    'updated_at',
+    'version',
+  ].map((col) => `i.${col} AS i_${col}`),
+  'c.name AS c_name',
+  'm.name AS m_name',
+  'p.model_number AS p_model_number',
+  'p.name AS p_name',
+  'p.family AS p_family',
+  'v.id AS v_id',
+  'v.policy_id AS v_policy_id',
+  'v.version_number AS v_version_number',
+  'v.effective_from AS v_effective_from',
+  'pol.name AS pol_name',
+].join(', ');
+
+/** An installations-list row as the page query returns it. */
+type RawListRow = {
+  i_id: string;
+  i_contractor_id: string;
+  i_manufacturer_id: string;
+  i_product_model_id: string;
+  i_site_name: string;
+  i_site_address: string;
+  i_site_city: string;
+  i_site_region: string;
+  i_site_postal_code: string;
+  i_quantity: number;
+  i_install_date: Date | string;
+  i_purchase_date: Date | string | null;
+  i_distributor: string | null;
+  i_invoice_number: string | null;
+  i_lot: string | null;
+  i_location: Installation['location'];
+  i_enclosure: Installation['enclosure'];
+  i_dimmer: Installation['dimmer'];
+  i_nominal_supply_volts: number;
+  i_hours_per_day: number;
+  i_ambient_c: number;
+  i_created_at: Date;
+  i_updated_at: Date;
+  i_version: number;
+  c_name: string | null;
+  m_name: string | null;
+  p_model_number: string;
+  p_name: string;
+  p_family: ProductModel['family'];
+  v_id: string | null;
+  v_policy_id: string;
+  v_version_number: number;
+  v_effective_from: Date | string;
+  pol_name: string | null;
+  /** COUNT(*): a BIGINT, so a string (bigNumberStrings). */
+  serial_count: string | number;
+};
+
+// A DATE column arrives as a Date at UTC midnight (timezone 'Z'), as the entity's string would read it.
+function dateOnly(v: Date | string): string;
+function dateOnly(v: Date | string | null): string | null;
+function dateOnly(v: Date | string | null) {
+  return v === null ? null : typeof v === 'string' ? v.slice(0, 10) : v.toISOString().slice(0, 10);
+}
+
+function listRowOf(r: RawListRow): InstallationListRow {
+  return {
+    id: r.i_id,
+    contractorId: r.i_contractor_id,
+    manufacturerId: r.i_manufacturer_id,
+    productModelId: r.i_product_model_id,
+    siteName: r.i_site_name,
+    siteAddress: r.i_site_address,
+    siteCity: r.i_site_city,
+    siteRegion: r.i_site_region,
+    sitePostalCode: r.i_site_postal_code,
+    quantity: r.i_quantity,
+    installDate: dateOnly(r.i_install_date),
+    purchaseDate: dateOnly(r.i_purchase_date),
+    distributor: r.i_distributor,
+    invoiceNumber: r.i_invoice_number,
+    lot: r.i_lot,
+    location: r.i_location,
+    enclosure: r.i_enclosure,
+    dimmer: r.i_dimmer,
+    nominalSupplyVolts: r.i_nominal_supply_volts,
+    hoursPerDay: r.i_hours_per_day,
+    ambientC: r.i_ambient_c,
+    createdAt: r.i_created_at,
+    updatedAt: r.i_updated_at,
+    version: r.i_version,
+    contractor: r.c_name === null ? null : { name: r.c_name },
+    manufacturer: r.m_name === null ? null : { name: r.m_name },
+    productModel: { modelNumber: r.p_model_number, name: r.p_name, family: r.p_family },
+    policyVersion:
+      r.v_id === null
+        ? null
+        : {
+            id: r.v_id,
+            policyId: r.v_policy_id,
+            versionNumber: r.v_version_number,
+            effectiveFrom: dateOnly(r.v_effective_from),
+            policy: r.pol_name === null ? null : { name: r.pol_name },
+          },
+    serialCount: Number(r.serial_count),
+  };
+}
 
 export const INSTALLATION_COLUMNS: ColumnSpec[] = [
   {
@@ -93,10 +224,10 @@ export const installationSchemasNow = () => installationSchemas(latestInstallDat
 type Scope = { kind: 'contractor' | 'manufacturer'; orgId: string };
 export const scopeOf = (u: SessionUser): Scope => ({ kind: u.organization.kind, orgId: u.organization.id });
 
-function applyScope(qb: SelectQueryBuilder<Installation>, s: Scope) {
+function applyScope(w: Conditions, s: Scope) {
   return s.kind === 'contractor'
-    ? qb.andWhere('i.contractor_id = :org', { org: s.orgId })
-    : qb.andWhere('i.manufacturer_id = :org', { org: s.orgId });
+    ? w.and('i.contractor_id = ?', s.orgId)
+    : w.and('i.manufacturer_id = ?', s.orgId);
 }
 
 function dupError(serials: string[]) {
@@ -198,66 +329,51 @@ export function createInstallationsService(ds: AppDataSource) {
   const repo = ds.getRepository(Installation);
 
   return {
-    /** Three queries whatever the page size: the page with its joins, the count, the serial counts. */
     async list(scope: Scope, q: InstallationListQuery) {
       const sort = parseSort(q.sort, SORTS)!;
-      const qb = repo
-        .createQueryBuilder('i')
-        // Left joins on required keys keep installations first in the plan (see the claims list); of the joined
-        // records, only what a list row shows.
-        .leftJoin('i.productModel', 'p')
-        .leftJoin('i.contractor', 'c')
-        .leftJoin('i.manufacturer', 'm')
-        .leftJoin('i.policyVersion', 'v')
-        .leftJoin('v.policy', 'pol')
-        .addSelect(['p.id', 'p.modelNumber', 'p.name', 'p.family', 'c.id', 'c.name', 'm.id', 'm.name'])
-        .addSelect(['v.id', 'v.policyId', 'v.versionNumber', 'v.effectiveFrom', 'pol.id', 'pol.name'])
-        .orderBy(sort.column, sort.direction)
-        .addOrderBy('i.id', sort.direction)
-        .offset((q.page - 1) * q.pageSize)
-        .limit(q.pageSize);
-      // The count joins only what the search needs.
-      const counter = repo.createQueryBuilder('i').select('COUNT(*)', 'n');
-      if (q.q) counter.leftJoin('i.productModel', 'p');
-      for (const w of [qb, counter]) {
-        applyScope(w, scope);
-        if (q.productModelId) w.andWhere('i.product_model_id = :pm', { pm: q.productModelId });
-        if (q.manufacturerId) w.andWhere('i.manufacturer_id = :mid', { mid: q.manufacturerId });
-        if (q.contractorId) w.andWhere('i.contractor_id = :cid', { cid: q.contractorId });
-        if (q.location) w.andWhere('i.location = :loc', { loc: q.location });
-        if (q.enclosure) w.andWhere('i.enclosure = :enc', { enc: q.enclosure });
-        if (q.nominalSupplyVolts) w.andWhere('i.nominal_supply_volts = :nsv', { nsv: q.nominalSupplyVolts });
-        if (q.q) {
-          const like = likeContains(q.q);
-          w.andWhere(
-            new Brackets((b) =>
-              b
-                .where('i.site_name LIKE :q', { q: like })
-                .orWhere('i.site_city LIKE :q')
-                .orWhere('i.invoice_number LIKE :q')
-                .orWhere('p.model_number LIKE :q')
-                .orWhere(
-                  'EXISTS (SELECT 1 FROM installation_units su WHERE su.installation_id = i.id AND su.serial LIKE :q)',
-                ),
-            ),
-          );
-        }
+      const w = applyScope(new Conditions(), scope);
+      if (q.productModelId) w.and('i.product_model_id = ?', q.productModelId);
+      if (q.manufacturerId) w.and('i.manufacturer_id = ?', q.manufacturerId);
+      if (q.contractorId) w.and('i.contractor_id = ?', q.contractorId);
+      if (q.location) w.and('i.location = ?', q.location);
+      if (q.enclosure) w.and('i.enclosure = ?', q.enclosure);
+      if (q.nominalSupplyVolts) w.and('i.nominal_supply_volts = ?', q.nominalSupplyVolts);
+      if (q.q) {
+        const like = likeContains(q.q);
+        w.and(
+          `(i.site_name LIKE ? OR i.site_city LIKE ? OR i.invoice_number LIKE ? OR p.model_number LIKE ?
+            OR EXISTS (SELECT 1 FROM installation_units su WHERE su.installation_id = i.id AND su.serial LIKE ?))`,
+          like,
+          like,
+          like,
+          like,
+          like,
+        );
       }
-      const [items, count] = await Promise.all([qb.getMany(), counter.getRawOne<{ n: string | number }>()]);
-      const total = Number(count?.n ?? 0);
-      const counts = new Map<string, number>();
-      if (items.length) {
-        const raw = await ds
-          .getRepository(InstallationUnit)
-          .createQueryBuilder('u')
-          .select('u.installation_id', 'id')
-          .addSelect('COUNT(*)', 'n')
-          .where('u.installation_id IN (:...ids)', { ids: items.map((i) => i.id) })
-          .groupBy('u.installation_id')
-          .getRawMany<{ id: string; n: string }>();
-        for (const r of raw) counts.set(r.id, Number(r.n));
-      }
-      return { items: items.map((i) => Object.assign(i, { serialCount: counts.get(i.id) ?? 0 })), total };
+      // Two statements whatever the page size, run side by side: the page with its joins and each listed
+      // installation's serial count, and the count, which joins product_models only for the search. Left joins on
+      // required keys keep installations first in the plan (see the claims list); the tie-break runs the same way
+      // as the sort so the (organisation, sort column) index can serve both. The SQL is written out
+      // (server/db/read.ts).
+      const page = `SELECT ${LIST_COLUMNS},
+                (SELECT COUNT(*) FROM installation_units u WHERE u.installation_id = i.id) AS serial_count
+           FROM installations i
+           LEFT JOIN product_models p ON p.id = i.product_model_id
+           LEFT JOIN organizations c ON c.id = i.contractor_id
+           LEFT JOIN organizations m ON m.id = i.manufacturer_id
+           LEFT JOIN warranty_policy_versions v ON v.id = i.policy_version_id
+           LEFT JOIN warranty_policies pol ON pol.id = v.policy_id
+           ${w.sql}
+          ORDER BY ${sort.column} ${sort.direction}, i.id ${sort.direction}
+          LIMIT ? OFFSET ?`;
+      const count = `SELECT COUNT(*) AS n FROM installations i
+           ${q.q ? 'LEFT JOIN product_models p ON p.id = i.product_model_id' : ''}
+           ${w.sql}`;
+      const [rows, [counted]] = await Promise.all([
+        readDbRows<RawListRow>(ds, page, [...w.params, q.pageSize, (q.page - 1) * q.pageSize]),
+        readDbRows<{ n: string | number }>(ds, count, w.params),
+      ]);
+      return { items: rows.map(listRowOf), total: Number(counted?.n ?? 0) };
     },
 
     findById(id: string) {
