@@ -4,6 +4,8 @@ import { In, IsNull, type EntityManager } from 'typeorm';
 import { MAX_ATTACHMENTS_PER_OWNER, type AttachmentPurpose } from '../../../shared/schemas/attachments';
 import type { AppContext } from '../../context';
 import { Attachment } from '../../db/entities/attachment.entity';
+import { hydrate, selectColumns } from '../../db/hydrate';
+import { Conditions, readRows } from '../../db/read';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
 import { crashPoint } from '../../lib/crash-point';
@@ -228,12 +230,19 @@ async function withOwnerLock<T>(
   }
 }
 
-export function listAttachments(ctx: AttachmentsContext, owner: AttachmentOwner, uploaderId?: string) {
+export async function listAttachments(ctx: AttachmentsContext, owner: AttachmentOwner, uploaderId?: string) {
   checkOwner(owner);
-  return ctx.ds.manager.find(Attachment, {
-    where: ownerWhere(owner, uploaderId),
-    order: { createdAt: 'ASC', id: 'ASC' },
-  });
+  // Written out (server/db/read.ts): every claim page lists its files. Removed files (deleted_at) are left out, as
+  // TypeORM's find leaves them out.
+  const w = new Conditions().and('a.owner_type = ?', owner.type).and('a.deleted_at IS NULL');
+  if (owner.id) w.and('a.owner_id = ?', owner.id);
+  else w.and('a.owner_id IS NULL AND a.uploaded_by_id = ?', uploaderId ?? '');
+  const rows = await readRows<Record<string, unknown>>(
+    ctx.ds,
+    `SELECT ${selectColumns(ctx.ds, Attachment, 'a')} FROM attachments a ${w.sql} ORDER BY a.created_at, a.id`,
+    w.params,
+  );
+  return rows.map((r) => hydrate(ctx.ds, Attachment, r, 'a')!);
 }
 
 /** One attachment of an owner (not removed), or null: another owner's id is as missing as a made-up one. */

@@ -13,7 +13,7 @@ import { withdrawSchema } from '../../../shared/claims/actions.schema';
 import type { AppContext } from '../../context';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { Installation } from '../../db/entities/installation.entity';
-import { User } from '../../db/entities/user.entity';
+import { readRows } from '../../db/read';
 import { actorFromRequest } from '../../lib/audit';
 import { templateCsv } from '../../lib/csv-import';
 import { AppError } from '../../lib/errors';
@@ -61,9 +61,11 @@ export async function claimDetail(ctx: AppContext, req: Request, c: LoadedClaim)
   // Three independent reads, side by side.
   const [createdBy, history, attachments] = await Promise.all([
     c.createdById
-      ? ctx.ds
-          .getRepository(User)
-          .findOne({ where: { id: c.createdById }, select: { id: true, name: true, organizationId: true } })
+      ? readRows<{ id: string; name: string; organizationId: string }>(
+          ctx.ds,
+          'SELECT id, name, organization_id AS organizationId FROM users WHERE id = ?',
+          [c.createdById],
+        ).then((r) => r[0] ?? null)
       : null,
     loadHistory(ctx.ds, 'Claim', c.id, req.user!.organizationId),
     listAttachments(ctx, { type: 'claim', id: c.id }),

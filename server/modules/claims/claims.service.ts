@@ -17,11 +17,16 @@ import { canPerform, REFUSAL_STATUS, type Refusal } from '../../../shared/claims
 import type { SessionUser } from '../../auth/passport';
 import { toAbilityUser } from '../../middleware/auth';
 import type { AppDataSource } from '../../db/data-source';
+import { hydrate, selectColumns } from '../../db/hydrate';
 import { Conditions, readRows } from '../../db/read';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { Claim } from '../../db/entities/claim.entity';
-import type { Installation } from '../../db/entities/installation.entity';
-import type { ProductModel } from '../../db/entities/product-model.entity';
+import { InstallationUnit } from '../../db/entities/installation-unit.entity';
+import { Installation } from '../../db/entities/installation.entity';
+import { Organization } from '../../db/entities/organization.entity';
+import { ProductModel } from '../../db/entities/product-model.entity';
+import { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-version.entity';
+import { WarrantyPolicy } from '../../db/entities/warranty-policy.entity';
 import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { stageTotal } from '../../lib/claim-counts';
@@ -255,19 +260,51 @@ export function createClaimsService(
     return qb.getOne();
   };
 
+  // A claim with everything its page and its checks read, in one statement (server/db/hydrate.ts): its parties,
+  // product, installation with the installation's units, and policy version with the policy. One row per unit.
+  let detailSql: string | null = null;
+  const detailSqlOf = () =>
+    (detailSql ??= `SELECT ${[
+      selectColumns(ds, Claim, 'c'),
+      selectColumns(ds, Organization, 'co'),
+      selectColumns(ds, Organization, 'mo'),
+      selectColumns(ds, ProductModel, 'p'),
+      selectColumns(ds, Installation, 'i'),
+      selectColumns(ds, InstallationUnit, 'u'),
+      selectColumns(ds, WarrantyPolicyVersion, 'v'),
+      selectColumns(ds, WarrantyPolicy, 'pol'),
+    ].join(', ')}
+       FROM claims c
+       LEFT JOIN organizations co ON co.id = c.contractor_id
+       LEFT JOIN organizations mo ON mo.id = c.manufacturer_id
+       LEFT JOIN product_models p ON p.id = c.product_model_id
+       LEFT JOIN installations i ON i.id = c.installation_id
+       LEFT JOIN installation_units u ON u.installation_id = i.id
+       LEFT JOIN warranty_policy_versions v ON v.id = c.policy_version_id
+       LEFT JOIN warranty_policies pol ON pol.id = v.policy_id
+      WHERE c.id = ?
+      ORDER BY u.id`);
+
   async function findById(id: string, m: EntityManager = ds.manager): Promise<LoadedClaim | null> {
-    // One query: findOne with a to-many relation would first run a DISTINCT query for the id it was given.
-    return ((await m
-      .createQueryBuilder(Claim, 'c')
-      .leftJoinAndSelect('c.contractor', 'co')
-      .leftJoinAndSelect('c.manufacturer', 'mo')
-      .leftJoinAndSelect('c.productModel', 'p')
-      .leftJoinAndSelect('c.installation', 'i')
-      .leftJoinAndSelect('i.units', 'u')
-      .leftJoinAndSelect('c.policyVersion', 'v')
-      .leftJoinAndSelect('v.policy', 'pol')
-      .where('c.id = :id', { id })
-      .getOne()) ?? null) as LoadedClaim | null;
+    // Inside a transaction the statement runs on the transaction's connection; outside, straight on the pool.
+    const rows = (
+      m === ds.manager ? await readRows(ds, detailSqlOf(), [id]) : await m.query(detailSqlOf(), [id])
+    ) as Record<string, unknown>[];
+    if (!rows.length) return null;
+    const [first] = rows;
+    const claim = hydrate(ds, Claim, first, 'c')!;
+    const installation = hydrate(ds, Installation, first, 'i');
+    const version = hydrate(ds, WarrantyPolicyVersion, first, 'v');
+    if (version) version.policy = hydrate(ds, WarrantyPolicy, first, 'pol')!;
+    if (installation)
+      installation.units = rows.map((r) => hydrate(ds, InstallationUnit, r, 'u')).filter((u) => u !== null);
+    return Object.assign(claim, {
+      contractor: hydrate(ds, Organization, first, 'co')!,
+      manufacturer: hydrate(ds, Organization, first, 'mo')!,
+      productModel: hydrate(ds, ProductModel, first, 'p')!,
+      installation: installation!,
+      policyVersion: version,
+    }) as LoadedClaim;
   }
 
   /** Evaluates a claim now, as it stands: the same input the form's live view builds. */
