@@ -9,6 +9,7 @@ import mysql from 'mysql2/promise';
 import { compactClaimCounts } from '../../server/lib/claim-counts';
 import { benchEmail, generate } from './generate-claims';
 import { hasTable, openBenchDb, report } from './lib/bench-db';
+import { createBenchClient } from './lib/http-client';
 import { median, runLoad } from './lib/load';
 import { startServerProcess } from './lib/server-process';
 import { signInBench } from './lib/sign-in';
@@ -55,6 +56,7 @@ async function main() {
     }
     targets.push(await installationsTarget(bench.ds, mfr.id));
 
+    const client = createBenchClient(base, cookie);
     for (const tg of targets) {
       const apiMs: number[] = [];
       const rawMs: number[] = [];
@@ -62,8 +64,8 @@ async function main() {
       let rawRows = 0;
       for (let i = 0; i < ROUNDS + 10; i++) {
         let t0 = performance.now();
-        const r = await fetch(`${base}${tg.listPath}`, { headers: { cookie } });
-        const body = (await r.json()) as { items: unknown[] };
+        const r = await client.getJson<{ items: unknown[] }>(tg.listPath);
+        const body = r.body;
         if (r.status !== 200) throw new Error(`${tg.listPath}: ${r.status} ${JSON.stringify(body)}`);
         const a = performance.now() - t0;
         t0 = performance.now();
@@ -96,6 +98,7 @@ async function main() {
         unit: 'ms',
       });
     }
+    client.close();
     await loadRuns(base, cookie, targets, 1);
     await server.stop();
     // The same load against a cluster with a process per core (WEB_CONCURRENCY), as production would run it.

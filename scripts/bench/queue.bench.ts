@@ -11,6 +11,7 @@ import { loadConfig } from '../../server/config/env';
 import { createLogger } from '../../server/lib/logger';
 import { benchEmail, generate } from './generate-claims';
 import { openBenchDb, report } from './lib/bench-db';
+import { createBenchClient } from './lib/http-client';
 import { median } from './lib/load';
 import { signInBench } from './lib/sign-in';
 
@@ -86,6 +87,7 @@ async function main() {
   const server = app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
   const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  let client: ReturnType<typeof createBenchClient> | undefined;
   try {
     const [mfr] = (await bench.ds.query("SELECT id FROM organizations WHERE name = 'Bench Lighting 0'")) as {
       id: string;
@@ -98,13 +100,13 @@ async function main() {
       `${Number(n).toLocaleString()} claims, ${Number(total).toLocaleString()} of them on this reviewer's desk`,
     );
     const cookie = await signInBench(base, benchEmail('m', 0, 'reviewer'));
+    client = createBenchClient(base, cookie);
 
     // What any signed-in request costs here (session from MariaDB, user, abilities): the floor under the queue.
     const meMs: number[] = [];
     for (let i = 0; i < ROUNDS + WARM_UP; i++) {
       const t0 = performance.now();
-      const r = await fetch(`${base}/api/auth/me`, { headers: { cookie } });
-      await r.arrayBuffer();
+      await client.getJson('/api/auth/me');
       if (i >= WARM_UP) meMs.push(performance.now() - t0);
     }
     const me = median(meMs);
@@ -136,8 +138,8 @@ async function main() {
       let shown = { rows: 0, total: 0 };
       for (let i = 0; i < ROUNDS + WARM_UP; i++) {
         let t0 = performance.now();
-        const r = await fetch(`${base}${tc.path}`, { headers: { cookie } });
-        const body = (await r.json()) as { items: { id: string }[]; total: number };
+        const r = await client.getJson<{ items: { id: string }[]; total: number }>(tc.path);
+        const body = r.body;
         if (r.status !== 200) throw new Error(`${tc.path}: ${r.status} ${JSON.stringify(body)}`);
         const a = performance.now() - t0;
         t0 = performance.now();
@@ -192,6 +194,7 @@ async function main() {
         report({ part: 'queue', figure: `${tc.name}: rows differ from the raw query`, value: NaN, unit: '' });
     }
   } finally {
+    client?.close();
     await new Promise((r) => server.close(r));
     await app.close();
     await conn.end();

@@ -6,18 +6,28 @@ import { QueryFailedError, type DataSource } from 'typeorm';
  * hot lists read this way: for a 50-row page and its count, TypeORM's query builder and query runner cost more time
  * in Node than MariaDB took to answer both. Writes and transactions stay with TypeORM.
  *
- * Placeholders are `?`, filled in by mysql2's escaping; an array fills an `IN (?)` list.
+ * Placeholders are `?`, filled in by mysql2's escaping; an array fills an `IN (?)` list. With `dateStrings`, DATE
+ * and DATETIME columns arrive as MariaDB writes them (`2026-12-02`, `2026-12-02 05:41:59.123`, UTC as stored): a
+ * list that only prints them skips making a Date of each (see isoOfDateTime).
  */
-export function readRows<T>(ds: DataSource, sql: string, params: unknown[] = []): Promise<T[]> {
+export function readRows<T>(
+  ds: DataSource,
+  sql: string,
+  params: unknown[] = [],
+  opts: { dateStrings?: boolean } = {},
+): Promise<T[]> {
   // Through TypeORM's logger, so that tests counting a route's statements see these too.
   ds.logger.logQuery(sql, params);
   const { pool } = ds.driver as unknown as {
     pool: {
-      query(o: { sql: string; values: unknown[] }, cb: (err: Error | null, rows: unknown) => void): void;
+      query(
+        o: { sql: string; values: unknown[]; dateStrings?: boolean },
+        cb: (err: Error | null, rows: unknown) => void,
+      ): void;
     };
   };
   return new Promise((resolve, reject) =>
-    pool.query({ sql, values: params }, (err, rows) =>
+    pool.query({ sql, values: params, dateStrings: opts.dateStrings }, (err, rows) =>
       err ? reject(new QueryFailedError(sql, params, err)) : resolve(rows as T[]),
     ),
   );
@@ -39,3 +49,6 @@ export class Conditions {
     return this.parts.length ? `WHERE ${this.parts.join(' AND ')}` : '';
   }
 }
+
+/** A DATETIME(3) as MariaDB writes it (UTC, as the app stores it) in ISO 8601, as Date.toISOString would give it. */
+export const isoOfDateTime = (v: string) => `${v.slice(0, 10)}T${v.slice(11, 23)}Z`;

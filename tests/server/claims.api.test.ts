@@ -609,6 +609,11 @@ describe('the list', () => {
       filedAt: expect.any(String),
       evaluation: { verdict: 'review', engineVersion: ENGINE_VERSION },
     });
+    // The list reads its times as text and the claim's page as Dates: both print them the same way.
+    const detail = (await w.installer.agent.get(`/api/claims/${filed.id}`)).body.claim;
+    for (const k of ['filedAt', 'stageChangedAt', 'createdAt', 'updatedAt', 'failedOn'] as const)
+      expect(item[k], k).toBe(detail[k]);
+    expect(item.filedAt).toBe(new Date(item.filedAt).toISOString());
 
     // The manufacturer sees the filed claim and never the draft; the other contractor sees neither.
     expect((await w.reviewer.agent.get('/api/claims')).body.items.map((i: { id: string }) => i.id)).toEqual([

@@ -4,7 +4,10 @@ import type { HistoryEventDto } from '../../../shared/schemas/catalogue';
 import type { ClaimListRow, LoadedClaim } from './claims.service';
 import { engineContextOf } from './engine-input';
 
-export function presentClaimListItem(c: ClaimListRow): ClaimListItemDto {
+const iso = (v: Date | string) => (typeof v === 'string' ? v : v.toISOString());
+
+/** A row of the list (its times already ISO strings) or a loaded claim (Dates). */
+export function presentClaimListItem(c: ClaimListRow | LoadedClaim): ClaimListItemDto {
   return {
     id: c.id,
     number: c.number,
@@ -26,13 +29,13 @@ export function presentClaimListItem(c: ClaimListRow): ClaimListItemDto {
     serials: c.serials,
     units: c.units ?? c.serials.length,
     failedOn: c.failedOn,
-    filedAt: c.filedAt ? c.filedAt.toISOString() : null,
-    stageChangedAt: c.stageChangedAt.toISOString(),
+    filedAt: c.filedAt ? iso(c.filedAt) : null,
+    stageChangedAt: iso(c.stageChangedAt),
     evaluation: c.verdict && c.engineVersion ? { verdict: c.verdict, engineVersion: c.engineVersion } : null,
     expectedCredit: c.expectedCredit,
     currency: c.currency,
-    createdAt: c.createdAt.toISOString(),
-    updatedAt: c.updatedAt.toISOString(),
+    createdAt: iso(c.createdAt),
+    updatedAt: iso(c.updatedAt),
     version: c.version,
   };
 }

@@ -18,7 +18,7 @@ import type { SessionUser } from '../../auth/passport';
 import { toAbilityUser } from '../../middleware/auth';
 import type { AppDataSource } from '../../db/data-source';
 import { hydrate, selectColumns } from '../../db/hydrate';
-import { Conditions, readRows } from '../../db/read';
+import { Conditions, isoOfDateTime, readRows } from '../../db/read';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { Claim } from '../../db/entities/claim.entity';
 import { InstallationUnit } from '../../db/entities/installation-unit.entity';
@@ -110,15 +110,15 @@ type RawListRow = {
   c_product_model_id: string;
   c_serials: string[] | string;
   c_units: number | null;
-  c_failed_on: Date | string | null;
-  c_filed_at: Date | null;
-  c_stage_changed_at: Date;
+  c_failed_on: string | null;
+  c_filed_at: string | null;
+  c_stage_changed_at: string;
   c_verdict: Claim['verdict'];
   c_engine_version: string | null;
   c_expected_credit: string | null;
   c_currency: string | null;
-  c_created_at: Date;
-  c_updated_at: Date;
+  c_created_at: string;
+  c_updated_at: string;
   c_version: number;
   co_name: string;
   mo_name: string;
@@ -129,38 +129,42 @@ type RawListRow = {
   i_site_city: string;
 };
 
-export type ClaimListRow = Pick<
-  Claim,
-  | 'id'
-  | 'number'
-  | 'stage'
-  | 'waitingOn'
-  | 'contractorId'
-  | 'manufacturerId'
-  | 'installationId'
-  | 'productModelId'
-  | 'serials'
-  | 'units'
-  | 'failedOn'
-  | 'filedAt'
-  | 'stageChangedAt'
-  | 'verdict'
-  | 'engineVersion'
-  | 'expectedCredit'
-  | 'currency'
-  | 'createdAt'
-  | 'updatedAt'
-  | 'version'
+export type ClaimListRow = Omit<
+  Pick<
+    Claim,
+    | 'id'
+    | 'number'
+    | 'stage'
+    | 'waitingOn'
+    | 'contractorId'
+    | 'manufacturerId'
+    | 'installationId'
+    | 'productModelId'
+    | 'serials'
+    | 'units'
+    | 'failedOn'
+    | 'filedAt'
+    | 'stageChangedAt'
+    | 'verdict'
+    | 'engineVersion'
+    | 'expectedCredit'
+    | 'currency'
+    | 'createdAt'
+    | 'updatedAt'
+    | 'version'
+  >,
+  'filedAt' | 'stageChangedAt' | 'createdAt' | 'updatedAt'
 > & {
+  /** ISO 8601 (the list reads its times as MariaDB writes them and never makes Dates of them). */
+  filedAt: string | null;
+  stageChangedAt: string;
+  createdAt: string;
+  updatedAt: string;
   contractor: { name: string };
   manufacturer: { name: string };
   productModel: { modelNumber: string; name: string; family: ProductModel['family'] };
   installation: { siteName: string; siteCity: string };
 };
-
-// A DATE column arrives as a Date at UTC midnight (timezone 'Z'), as the entity's string would read it.
-const dateOnly = (v: Date | string | null) =>
-  v === null ? null : typeof v === 'string' ? v.slice(0, 10) : v.toISOString().slice(0, 10);
 
 function listRowOf(r: RawListRow): ClaimListRow {
   return {
@@ -174,15 +178,15 @@ function listRowOf(r: RawListRow): ClaimListRow {
     productModelId: r.c_product_model_id,
     serials: typeof r.c_serials === 'string' ? (JSON.parse(r.c_serials) as string[]) : r.c_serials,
     units: r.c_units,
-    failedOn: dateOnly(r.c_failed_on),
-    filedAt: r.c_filed_at,
-    stageChangedAt: r.c_stage_changed_at,
+    failedOn: r.c_failed_on,
+    filedAt: r.c_filed_at === null ? null : isoOfDateTime(r.c_filed_at),
+    stageChangedAt: isoOfDateTime(r.c_stage_changed_at),
     verdict: r.c_verdict,
     engineVersion: r.c_engine_version,
     expectedCredit: r.c_expected_credit,
     currency: r.c_currency,
-    createdAt: r.c_created_at,
-    updatedAt: r.c_updated_at,
+    createdAt: isoOfDateTime(r.c_created_at),
+    updatedAt: isoOfDateTime(r.c_updated_at),
     version: r.c_version,
     contractor: { name: r.co_name },
     manufacturer: { name: r.mo_name },
@@ -504,7 +508,9 @@ export function createClaimsService(
             params: w.params,
           };
       const [rows, [counted]] = await Promise.all([
-        readRows<RawListRow>(ds, page, [...w.params, q.pageSize, (q.page - 1) * q.pageSize]),
+        readRows<RawListRow>(ds, page, [...w.params, q.pageSize, (q.page - 1) * q.pageSize], {
+          dateStrings: true,
+        }),
         readRows<{ n: string | number }>(ds, count.sql, count.params),
       ]);
       return { items: rows.map(listRowOf), total: Number(counted?.n ?? 0) };
