@@ -60,13 +60,15 @@ export const claimEvidence: EvidenceCounter = async (m, claimId) => {
 export async function claimDetail(ctx: AppContext, req: Request, c: LoadedClaim) {
   // Three independent reads, side by side.
   const [createdBy, history, attachments] = await Promise.all([
-    c.createdById
-      ? readRows<{ id: string; name: string; organizationId: string }>(
-          ctx.ds,
-          'SELECT id, name, organization_id AS organizationId FROM users WHERE id = ?',
-          [c.createdById],
-        ).then((r) => r[0] ?? null)
-      : null,
+    c.creator !== undefined
+      ? c.creator
+      : c.createdById
+        ? readRows<{ id: string; name: string; organizationId: string }>(
+            ctx.ds,
+            'SELECT id, name, organization_id AS organizationId FROM users WHERE id = ?',
+            [c.createdById],
+          ).then((r) => r[0] ?? null)
+        : null,
     loadHistory(ctx.ds, 'Claim', c.id, req.user!.organizationId),
     listAttachments(ctx, { type: 'claim', id: c.id }),
   ]);

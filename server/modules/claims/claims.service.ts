@@ -197,6 +197,8 @@ function listRowOf(r: RawListRow): ClaimListRow {
 
 export type LoadedClaim = Claim & {
   installation: Installation & { units: { serial: string }[] };
+  /** Who started the claim, read with it (null when nobody is recorded). */
+  creator?: { id: string; name: string; organizationId: string } | null;
 };
 
 type Scope = { kind: 'contractor' | 'manufacturer'; orgId: string };
@@ -277,6 +279,7 @@ export function createClaimsService(
       selectColumns(ds, InstallationUnit, 'u'),
       selectColumns(ds, WarrantyPolicyVersion, 'v'),
       selectColumns(ds, WarrantyPolicy, 'pol'),
+      'cb.name AS cb_name, cb.organization_id AS cb_organization_id',
     ].join(', ')}
        FROM claims c
        LEFT JOIN organizations co ON co.id = c.contractor_id
@@ -286,6 +289,7 @@ export function createClaimsService(
        LEFT JOIN installation_units u ON u.installation_id = i.id
        LEFT JOIN warranty_policy_versions v ON v.id = c.policy_version_id
        LEFT JOIN warranty_policies pol ON pol.id = v.policy_id
+       LEFT JOIN users cb ON cb.id = c.created_by_id
       WHERE c.id = ?
       ORDER BY u.id`);
 
@@ -308,6 +312,14 @@ export function createClaimsService(
       productModel: hydrate(ds, ProductModel, first, 'p')!,
       installation: installation!,
       policyVersion: version,
+      creator:
+        claim.createdById && first.cb_organization_id
+          ? {
+              id: claim.createdById,
+              name: first.cb_name as string,
+              organizationId: first.cb_organization_id as string,
+            }
+          : null,
     }) as LoadedClaim;
   }
 
