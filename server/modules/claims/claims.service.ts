@@ -266,8 +266,10 @@ export function createClaimsService(
     return qb.getOne();
   };
 
-  // A claim with everything its page and its checks read, in one statement (server/db/hydrate.ts): its parties,
-  // product, installation with the installation's units, and policy version with the policy. One row per unit.
+  // A claim with everything its page and its checks read (server/db/hydrate.ts): one statement for the claim with
+  // its parties, product, installation, policy version and policy and who started it, one beside it for the
+  // installation's units (a row each: joined into the first, an installation of 200 fixtures would repeat the whole
+  // claim 200 times).
   let detailSql: string | null = null;
   const detailSqlOf = () =>
     (detailSql ??= `SELECT ${[
@@ -276,7 +278,6 @@ export function createClaimsService(
       selectColumns(ds, Organization, 'mo'),
       selectColumns(ds, ProductModel, 'p'),
       selectColumns(ds, Installation, 'i'),
-      selectColumns(ds, InstallationUnit, 'u'),
       selectColumns(ds, WarrantyPolicyVersion, 'v'),
       selectColumns(ds, WarrantyPolicy, 'pol'),
       'cb.name AS cb_name, cb.organization_id AS cb_organization_id',
@@ -286,38 +287,40 @@ export function createClaimsService(
        LEFT JOIN organizations mo ON mo.id = c.manufacturer_id
        LEFT JOIN product_models p ON p.id = c.product_model_id
        LEFT JOIN installations i ON i.id = c.installation_id
-       LEFT JOIN installation_units u ON u.installation_id = i.id
        LEFT JOIN warranty_policy_versions v ON v.id = c.policy_version_id
        LEFT JOIN warranty_policies pol ON pol.id = v.policy_id
        LEFT JOIN users cb ON cb.id = c.created_by_id
+      WHERE c.id = ?`);
+  let unitsSql: string | null = null;
+  const unitsSqlOf = () =>
+    (unitsSql ??= `SELECT ${selectColumns(ds, InstallationUnit, 'u')}
+       FROM claims c JOIN installation_units u ON u.installation_id = c.installation_id
       WHERE c.id = ?
       ORDER BY u.id`);
 
   async function findById(id: string, m: EntityManager = ds.manager): Promise<LoadedClaim | null> {
-    // Inside a transaction the statement runs on the transaction's connection; outside, straight on the pool.
-    const rows = (
-      m === ds.manager ? await readRows(ds, detailSqlOf(), [id]) : await m.query(detailSqlOf(), [id])
-    ) as Record<string, unknown>[];
-    if (!rows.length) return null;
-    const [first] = rows;
-    const claim = hydrate(ds, Claim, first, 'c')!;
-    const installation = hydrate(ds, Installation, first, 'i');
-    const version = hydrate(ds, WarrantyPolicyVersion, first, 'v');
-    if (version) version.policy = hydrate(ds, WarrantyPolicy, first, 'pol')!;
-    if (installation)
-      installation.units = rows.map((r) => hydrate(ds, InstallationUnit, r, 'u')).filter((u) => u !== null);
+    // Inside a transaction the statements run on the transaction's connection; outside, straight on the pool.
+    const read = (sql: string) =>
+      (m === ds.manager ? readRows(ds, sql, [id]) : m.query(sql, [id])) as Promise<Record<string, unknown>[]>;
+    const [[row], unitRows] = await Promise.all([read(detailSqlOf()), read(unitsSqlOf())]);
+    if (!row) return null;
+    const claim = hydrate(ds, Claim, row, 'c')!;
+    const installation = hydrate(ds, Installation, row, 'i');
+    const version = hydrate(ds, WarrantyPolicyVersion, row, 'v');
+    if (version) version.policy = hydrate(ds, WarrantyPolicy, row, 'pol')!;
+    if (installation) installation.units = unitRows.map((r) => hydrate(ds, InstallationUnit, r, 'u')!);
     return Object.assign(claim, {
-      contractor: hydrate(ds, Organization, first, 'co')!,
-      manufacturer: hydrate(ds, Organization, first, 'mo')!,
-      productModel: hydrate(ds, ProductModel, first, 'p')!,
+      contractor: hydrate(ds, Organization, row, 'co')!,
+      manufacturer: hydrate(ds, Organization, row, 'mo')!,
+      productModel: hydrate(ds, ProductModel, row, 'p')!,
       installation: installation!,
       policyVersion: version,
       creator:
-        claim.createdById && first.cb_organization_id
+        claim.createdById && row.cb_organization_id
           ? {
               id: claim.createdById,
-              name: first.cb_name as string,
-              organizationId: first.cb_organization_id as string,
+              name: row.cb_name as string,
+              organizationId: row.cb_organization_id as string,
             }
           : null,
     }) as LoadedClaim;
