@@ -560,6 +560,28 @@ describe('who may see, edit and file what', () => {
   });
 });
 
+describe('statements per request', () => {
+  it('the list runs two whatever the page size (page and total), a claim page four whatever it holds', async () => {
+    const w = await claimWorld(t);
+    const [s1, s2] = w.installation.serials;
+    const a = await createDraft(w.installer.agent, w.installation.id, goodClaimFields(s1));
+    await w.installer.agent.post(`/api/claims/${a.id}/file`).send({});
+    const b = await createDraft(w.installer.agent, w.installation.id, goodClaimFields(s2));
+    const run = (path: string) => t.ds.countQueries(() => w.installer.agent.get(path));
+    for (const qs of ['pageSize=1', 'pageSize=50', 'pageSize=50&stage=draft', 'pageSize=50&q=SN']) {
+      const r = await run(`/api/claims?${qs}`);
+      expect(r.result.status).toBe(200);
+      expect(r.counter.count, qs).toBe(2);
+    }
+    // The filed claim has a history and an evaluation, the draft hardly anything: the same statements.
+    const filed = await run(`/api/claims/${a.id}`);
+    const draft = await run(`/api/claims/${b.id}`);
+    expect(filed.result.body.claim.history.length).toBeGreaterThan(draft.result.body.claim.history.length);
+    expect(filed.counter.count).toBe(4); // the claim, its installation's units, its history, its files
+    expect(draft.counter.count).toBe(4);
+  });
+});
+
 describe('the list', () => {
   it('filters by stage, site, product and date, finds by claim number (any case and spacing) or serial, and pages', async () => {
     const w = await claimWorld(t);
