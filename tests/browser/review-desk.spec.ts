@@ -2,9 +2,9 @@ import { expect, test } from '@playwright/test';
 import { seriousA11yViolations, signInAs } from './support';
 
 // The review desk's pickers on the demo scenario: the queue filtered by one of the manufacturer's product models
-// and by a contractor that files with it, and the review screen's form for handing a claim to a colleague.
+// and by a contractor that files with it, then a claim handed to a colleague from the review screen.
 
-test('a reviewer narrows the queue by product and by contractor, then opens the hand-over form on a claim', async ({
+test('a reviewer narrows the queue by product and by contractor, then hands a claim to a colleague', async ({
   page,
 }) => {
   await signInAs(page, 'rhea@aldercrest.test');
@@ -46,10 +46,13 @@ test('a reviewer narrows the queue by product and by contractor, then opens the 
   await assignment.getByRole('button', { name: 'Hand to a colleague' }).click();
   const colleague = assignment.getByRole('combobox', { name: 'Colleague' });
   await expect(colleague).toBeVisible();
-  // Rhea is her team's only reviewer in the demo: nobody else to hand it to, and the form says so.
-  await expect(assignment.getByText('No other active reviewer on your team.')).toBeVisible();
-  await expect(assignment.getByRole('button', { name: 'Hand over' })).toBeDisabled();
+  // Noor is Rhea's colleague on the desk: choosing nobody is refused with a message, choosing Noor hands it over.
+  await expect(assignment.getByText('Active reviewers of your team.', { exact: false })).toBeVisible();
+  await assignment.getByRole('button', { name: 'Hand over' }).click();
+  await expect(assignment.getByText('Choose a colleague to hand the claim to.')).toBeVisible();
   expect(await seriousA11yViolations(page)).toEqual([]);
-  await assignment.getByRole('button', { name: 'Cancel' }).click();
+  await colleague.selectOption({ label: 'Noor Ashby' });
+  await assignment.getByRole('button', { name: 'Hand over' }).click();
+  await expect(assignment.getByText('Assigned to Noor Ashby')).toBeVisible();
   await expect(colleague).toBeHidden();
 });
