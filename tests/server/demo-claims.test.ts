@@ -68,6 +68,26 @@ describe('the demo claims (API.md demo data)', () => {
     }
   });
 
+  it('read like their story in time: started before filing, last changed at their last stage move', async () => {
+    // `claims` was read before this ran; read the times again (the seed settles them at its end).
+    const rows = await t.ds.getRepository(Claim).findBy({ id: In(claims.map((c) => c.id)) });
+    for (const c of rows) {
+      if (c.filedAt) expect(c.createdAt.getTime(), c.id).toBeLessThanOrEqual(c.filedAt.getTime());
+      expect(c.updatedAt.getTime(), c.id).toBe(
+        Math.max(c.stageChangedAt.getTime(), c.filedAt?.getTime() ?? 0),
+      );
+    }
+    // So an installer's "newest change first" begins with claims that moved lately, not three-year-old history.
+    const ines = await signIn(t.request(), 'ines@harborview.test', DEMO_PASSWORD);
+    const first = (await ines.get('/api/claims?pageSize=10&sort=-updatedAt')).body.items as {
+      updatedAt: string;
+    }[];
+    const oldest = rows.map((c) => c.updatedAt.getTime()).sort((a, b) => b - a)[
+      Math.min(40, rows.length - 1)
+    ];
+    for (const c of first) expect(new Date(c.updatedAt).getTime()).toBeGreaterThanOrEqual(oldest);
+  });
+
   it('have at least 5 approved and not yet credited claims for each manufacturer', () => {
     for (const m of ['Aldercrest Lighting', 'Veltra Luminaires']) {
       expect(
