@@ -27,6 +27,33 @@ export function selectColumns(ds: DataSource, target: EntityTarget<ObjectLiteral
     .join(', ');
 }
 
+const JSON_SAFE = new Set([
+  'uuid',
+  'varchar',
+  'char',
+  'text',
+  'int',
+  'integer',
+  'smallint',
+  'tinyint',
+  'enum',
+]);
+
+/**
+ * A JSON object of an entity's columns under the keys `selectColumns` uses, for `JSON_ARRAYAGG` of a to-many
+ * relation inside the parent's own statement (one row for the parent, not one per child). Only for entities of text
+ * and whole-number columns: JSON would lose a date's type and a decimal's digits, so any other column refuses.
+ */
+export function jsonObjectOf(ds: DataSource, target: EntityTarget<ObjectLiteral>, alias: string) {
+  const { metadata, columns } = mappingOf(ds, target);
+  const unsafe = columns.filter((c) => !JSON_SAFE.has(String(c.type)));
+  if (unsafe.length)
+    throw new Error(
+      `${metadata.name}: ${unsafe.map((c) => c.propertyName).join(', ')} cannot travel as JSON`,
+    );
+  return `JSON_OBJECT(${columns.map((c) => `'${alias}_${c.databaseName}', ${alias}.\`${c.databaseName}\``).join(', ')})`;
+}
+
 /**
  * The entity an alias's columns hold in a row, or null when they are all null (a left join that found nothing).
  * Relations are not set: the caller puts the joined entities in place.

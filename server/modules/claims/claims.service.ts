@@ -17,7 +17,7 @@ import { canPerform, REFUSAL_STATUS, type Refusal } from '../../../shared/claims
 import type { SessionUser } from '../../auth/passport';
 import { toAbilityUser } from '../../middleware/auth';
 import type { AppDataSource } from '../../db/data-source';
-import { hydrate, selectColumns } from '../../db/hydrate';
+import { hydrate, jsonObjectOf, selectColumns } from '../../db/hydrate';
 import { Conditions, isoOfDateTime, readRows } from '../../db/read';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { Claim } from '../../db/entities/claim.entity';
@@ -266,10 +266,9 @@ export function createClaimsService(
     return qb.getOne();
   };
 
-  // A claim with everything its page and its checks read (server/db/hydrate.ts): one statement for the claim with
-  // its parties, product, installation, policy version and policy and who started it, one beside it for the
-  // installation's units (a row each: joined into the first, an installation of 200 fixtures would repeat the whole
-  // claim 200 times).
+  // A claim with everything its page and its checks read, in one statement (server/db/hydrate.ts): its parties,
+  // product, installation, policy version and policy, who started it, and the installation's units as one JSON
+  // array (joined, an installation of 200 fixtures would repeat the whole claim 200 times).
   let detailSql: string | null = null;
   const detailSqlOf = () =>
     (detailSql ??= `SELECT ${[
@@ -281,6 +280,8 @@ export function createClaimsService(
       selectColumns(ds, WarrantyPolicyVersion, 'v'),
       selectColumns(ds, WarrantyPolicy, 'pol'),
       'cb.name AS cb_name, cb.organization_id AS cb_organization_id',
+      `(SELECT JSON_ARRAYAGG(${jsonObjectOf(ds, InstallationUnit, 'u')} ORDER BY u.id)
+          FROM installation_units u WHERE u.installation_id = c.installation_id) AS units_json`,
     ].join(', ')}
        FROM claims c
        LEFT JOIN organizations co ON co.id = c.contractor_id
@@ -291,24 +292,22 @@ export function createClaimsService(
        LEFT JOIN warranty_policies pol ON pol.id = v.policy_id
        LEFT JOIN users cb ON cb.id = c.created_by_id
       WHERE c.id = ?`);
-  let unitsSql: string | null = null;
-  const unitsSqlOf = () =>
-    (unitsSql ??= `SELECT ${selectColumns(ds, InstallationUnit, 'u')}
-       FROM claims c JOIN installation_units u ON u.installation_id = c.installation_id
-      WHERE c.id = ?
-      ORDER BY u.id`);
 
   async function findById(id: string, m: EntityManager = ds.manager): Promise<LoadedClaim | null> {
-    // Inside a transaction the statements run on the transaction's connection; outside, straight on the pool.
-    const read = (sql: string) =>
-      (m === ds.manager ? readRows(ds, sql, [id]) : m.query(sql, [id])) as Promise<Record<string, unknown>[]>;
-    const [[row], unitRows] = await Promise.all([read(detailSqlOf()), read(unitsSqlOf())]);
+    // Inside a transaction the statement runs on the transaction's connection; outside, straight on the pool.
+    const [row] = (
+      m === ds.manager ? await readRows(ds, detailSqlOf(), [id]) : await m.query(detailSqlOf(), [id])
+    ) as Record<string, unknown>[];
     if (!row) return null;
     const claim = hydrate(ds, Claim, row, 'c')!;
     const installation = hydrate(ds, Installation, row, 'i');
     const version = hydrate(ds, WarrantyPolicyVersion, row, 'v');
     if (version) version.policy = hydrate(ds, WarrantyPolicy, row, 'pol')!;
-    if (installation) installation.units = unitRows.map((r) => hydrate(ds, InstallationUnit, r, 'u')!);
+    if (installation) {
+      const json = row.units_json ?? [];
+      const units = (typeof json === 'string' ? JSON.parse(json) : json) as Record<string, unknown>[];
+      installation.units = units.map((u) => hydrate(ds, InstallationUnit, u, 'u')!);
+    }
     return Object.assign(claim, {
       contractor: hydrate(ds, Organization, row, 'co')!,
       manufacturer: hydrate(ds, Organization, row, 'mo')!,
