@@ -27,32 +27,57 @@ export function selectColumns(ds: DataSource, target: EntityTarget<ObjectLiteral
     .join(', ');
 }
 
-const JSON_SAFE = new Set([
-  'uuid',
-  'varchar',
-  'char',
-  'text',
-  'int',
-  'integer',
-  'smallint',
-  'tinyint',
-  'enum',
-]);
-
 /**
  * A JSON object of an entity's columns under the keys `selectColumns` uses, for `JSON_ARRAYAGG` of a to-many
- * relation inside the parent's own statement (one row for the parent, not one per child). Only for entities of text
- * and whole-number columns: JSON would lose a date's type and a decimal's digits, so any other column refuses.
+ * relation inside the parent's own statement (one row for the parent, not one per child); `extra` adds keys of
+ * other expressions. JSON has no dates and no exact big numbers, so those travel as text: times as MariaDB writes
+ * them (UTC, as stored), big integers and decimals as their digits. Turn each object back with `hydrateJson`.
  */
-export function jsonObjectOf(ds: DataSource, target: EntityTarget<ObjectLiteral>, alias: string) {
-  const { metadata, columns } = mappingOf(ds, target);
-  const unsafe = columns.filter((c) => !JSON_SAFE.has(String(c.type)));
-  if (unsafe.length)
-    throw new Error(
-      `${metadata.name}: ${unsafe.map((c) => c.propertyName).join(', ')} cannot travel as JSON`,
-    );
-  return `JSON_OBJECT(${columns.map((c) => `'${alias}_${c.databaseName}', ${alias}.\`${c.databaseName}\``).join(', ')})`;
+export function jsonObjectOf(
+  ds: DataSource,
+  target: EntityTarget<ObjectLiteral>,
+  alias: string,
+  extra: Record<string, string> = {},
+) {
+  const pairs = mappingOf(ds, target).columns.map((c) => {
+    const col = `${alias}.\`${c.databaseName}\``;
+    const type = String(c.type);
+    const value =
+      type === 'datetime' || type === 'timestamp'
+        ? `DATE_FORMAT(${col}, '%Y-%m-%d %H:%i:%s.%f')`
+        : type === 'date'
+          ? `DATE_FORMAT(${col}, '%Y-%m-%d')`
+          : type === 'bigint' || type === 'decimal'
+            ? `CAST(${col} AS CHAR)`
+            : type === 'json'
+              ? `JSON_EXTRACT(${col}, '$')`
+              : col;
+    return `'${alias}_${c.databaseName}', ${value}`;
+  });
+  for (const [key, expr] of Object.entries(extra)) pairs.push(`'${key}', ${expr}`);
+  return `JSON_OBJECT(${pairs.join(', ')})`;
 }
+
+/** An entity from one object of a `jsonObjectOf` array (its times read as UTC). */
+export function hydrateJson<T extends ObjectLiteral>(
+  ds: DataSource,
+  target: EntityTarget<T>,
+  obj: Record<string, unknown>,
+  alias: string,
+): T | null {
+  const row: Record<string, unknown> = { ...obj };
+  for (const c of mappingOf(ds, target as EntityTarget<ObjectLiteral>).columns) {
+    const key = `${alias}_${c.databaseName}`;
+    const type = String(c.type);
+    if ((type === 'datetime' || type === 'timestamp') && typeof row[key] === 'string')
+      row[key] = new Date(`${(row[key] as string).slice(0, 10)}T${(row[key] as string).slice(11, 23)}Z`);
+  }
+  return hydrate(ds, target, row, alias);
+}
+
+/** A JSON array a statement returned (mysql2 parses JSON columns itself, or leaves them as text). */
+export const jsonArrayOf = (v: unknown) =>
+  (v == null ? [] : typeof v === 'string' ? JSON.parse(v) : v) as Record<string, unknown>[];
 
 /**
  * The entity an alias's columns hold in a row, or null when they are all null (a left join that found nothing).

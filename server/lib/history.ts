@@ -1,6 +1,32 @@
 import type { HistoryEventDto } from '../../shared/schemas/catalogue';
 import type { AppDataSource } from '../db/data-source';
+import type { AuditEvent } from '../db/entities/audit-event.entity';
 import { readRows } from '../db/read';
+
+/** How many events a record's history shows at most (the oldest first). */
+export const HISTORY_LIMIT = 500;
+
+/** One event as the viewer sees it: people are named to their own organisation, others see the organisation. */
+export function historyEventOf(
+  e: Pick<AuditEvent, 'id' | 'occurredAt' | 'action' | 'before' | 'after'>,
+  actor: { userName: string | null; userOrgId: string | null; orgName: string | null },
+  viewerOrgId: string,
+): HistoryEventDto {
+  return {
+    id: e.id,
+    occurredAt: e.occurredAt.toISOString(),
+    action: e.action,
+    actor:
+      actor.userOrgId && actor.orgName !== null
+        ? {
+            name: actor.userOrgId === viewerOrgId ? actor.userName! : actor.orgName,
+            organization: actor.orgName,
+          }
+        : null,
+    before: e.before,
+    after: e.after,
+  };
+}
 
 /**
  * The audit trail of one record, oldest first. The caller has already authorised reading the record. People
@@ -31,20 +57,22 @@ export async function loadHistory(
        LEFT JOIN organizations o ON o.id = u.organization_id
       WHERE e.entity_type = ? AND e.entity_id = ?
       ORDER BY e.id ASC
-      LIMIT 500`,
+      LIMIT ${HISTORY_LIMIT}`,
     [entityType, entityId],
   );
-  return rows.map((e) => ({
-    id: e.id,
-    occurredAt: e.occurred_at.toISOString(),
-    action: e.action,
-    actor:
-      e.user_org_id && e.org_name !== null
-        ? { name: e.user_org_id === viewerOrgId ? e.user_name! : e.org_name, organization: e.org_name }
-        : null,
-    before: jsonOf(e.before_state),
-    after: jsonOf(e.after_state),
-  }));
+  return rows.map((e) =>
+    historyEventOf(
+      {
+        id: e.id,
+        occurredAt: e.occurred_at,
+        action: e.action,
+        before: jsonOf(e.before_state),
+        after: jsonOf(e.after_state),
+      },
+      { userName: e.user_name, userOrgId: e.user_org_id, orgName: e.org_name },
+      viewerOrgId,
+    ),
+  );
 }
 
 const jsonOf = (v: string | Record<string, unknown> | null) =>

@@ -1,7 +1,12 @@
+import crypto from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { Attachment } from '../../server/db/entities/attachment.entity';
 import { Claim } from '../../server/db/entities/claim.entity';
 import { InstallationUnit } from '../../server/db/entities/installation-unit.entity';
 import { User } from '../../server/db/entities/user.entity';
+import { recordAudit } from '../../server/lib/audit';
+import { historyEventOf, loadHistory } from '../../server/lib/history';
+import { listAttachments } from '../../server/modules/attachments/attachments.service';
 import { createClaimsService } from '../../server/modules/claims/claims.service';
 import { createOrganization, createUser } from '../support/factories';
 import { createClaimAt, createReviewWorld } from '../support/review-factories';
@@ -88,5 +93,97 @@ describe('reading a claim for its page', () => {
     }
     expect((await service.findById(claims[2].id))!.policyVersion).toBeNull();
     expect(await service.findById('00000000-0000-4000-8000-000000000000')).toBeNull();
+  });
+
+  it('gives its page the same history and files as reading them one by one', async () => {
+    const w = await createReviewWorld(
+      t.ds,
+      await createOrganization(t.ds, 'contractor'),
+      await createOrganization(t.ds, 'manufacturer'),
+    );
+    const installer = await createUser(t.ds, w.contractor, ['installer']);
+    const reviewer = await createUser(t.ds, w.manufacturer, ['reviewer']);
+    const service = createClaimsService(t.ds, { publicUrl: (p) => p });
+    const c = await createClaimAt(t.ds, w, 'in_review', { filedById: installer.id });
+    // Events by both sides (one by nobody), with before and after states; files with and without a capture time,
+    // a removed one (never shown) and one of another claim.
+    await t.ds.transaction(async (m) => {
+      await recordAudit(
+        m,
+        { userId: installer.id, organizationId: w.contractor.id },
+        {
+          action: 'claim.updated',
+          entityType: 'Claim',
+          entityId: c.id,
+          before: { narrative: 'Dark.' },
+          after: { narrative: 'Dark since Monday; "strings" 3 & 4 out.', units: 2 },
+        },
+      );
+      await recordAudit(
+        m,
+        { userId: reviewer.id, organizationId: w.manufacturer.id },
+        {
+          action: 'claim.review_started',
+          entityType: 'Claim',
+          entityId: c.id,
+        },
+      );
+      await recordAudit(
+        m,
+        { userId: null, organizationId: null },
+        {
+          action: 'claim.reminder_sent',
+          entityType: 'Claim',
+          entityId: c.id,
+        },
+      );
+    });
+    const files = t.ds.getRepository(Attachment);
+    const file = (over: Partial<Attachment>) =>
+      files.save(
+        files.create({
+          ownerType: 'claim',
+          ownerId: c.id,
+          organizationId: w.contractor.id,
+          uploadedById: installer.id,
+          kind: 'photo',
+          purpose: 'nameplate',
+          contentType: 'image/webp',
+          byteSize: 123_456,
+          sha256: 'a'.repeat(64),
+          storageKey: `test/${crypto.randomUUID()}`,
+          thumbnailKey: null,
+          originalName: 'nameplate.jpg',
+          width: 1600,
+          height: 1200,
+          capturedAt: new Date('2026-11-30T08:15:42.123Z'),
+          ...over,
+        } as Partial<Attachment>),
+      );
+    await file({});
+    await file({
+      kind: 'document',
+      purpose: 'proof_of_purchase',
+      contentType: 'application/pdf',
+      width: null,
+      height: null,
+      capturedAt: null,
+      originalName: 'invoice.pdf',
+    });
+    await file({ deletedAt: new Date() });
+    await file({ ownerId: crypto.randomUUID() });
+
+    const page = await service.findForPage(c.id);
+    expect(withoutCreator(page!.claim)).toEqual(withoutCreator(await service.findById(c.id)));
+    for (const viewer of [w.contractor.id, w.manufacturer.id]) {
+      const one = page!.history.map((h) => historyEventOf(h.event, h, viewer));
+      expect(one).toEqual(await loadHistory(t.ds, 'Claim', c.id, viewer));
+    }
+    expect(page!.history.length).toBeGreaterThanOrEqual(3);
+    const listed = await listAttachments({ ds: t.ds } as never, { type: 'claim', id: c.id });
+    expect(listed).toHaveLength(2);
+    expect(page!.attachments).toEqual(listed);
+    expect(page!.attachments[0].capturedAt).toEqual(new Date('2026-11-30T08:15:42.123Z'));
+    expect(await service.findForPage(crypto.randomUUID())).toBeNull();
   });
 });

@@ -17,7 +17,7 @@ import { readRows } from '../../db/read';
 import { actorFromRequest } from '../../lib/audit';
 import { templateCsv } from '../../lib/csv-import';
 import { AppError } from '../../lib/errors';
-import { loadHistory } from '../../lib/history';
+import { historyEventOf, loadHistory } from '../../lib/history';
 import { REPLAY_HEADER } from '../../lib/idempotency';
 import { pageOf } from '../../lib/pagination';
 import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
@@ -57,8 +57,17 @@ export const claimEvidence: EvidenceCounter = async (m, claimId) => {
   };
 };
 
-export async function claimDetail(ctx: AppContext, req: Request, c: LoadedClaim) {
-  // Three independent reads, side by side.
+type PageHistory = NonNullable<Awaited<ReturnType<ClaimsService['findForPage']>>>['history'];
+
+export async function claimDetail(
+  ctx: AppContext,
+  req: Request,
+  c: LoadedClaim,
+  /** What the claim's page statement read with it (ClaimsService.findForPage); read here when not given. */
+  read?: { history: PageHistory; attachments: Attachment[] },
+) {
+  const viewer = req.user!.organizationId;
+  // Three independent reads, side by side, unless they came with the claim.
   const [createdBy, history, attachments] = await Promise.all([
     c.creator !== undefined
       ? c.creator
@@ -69,8 +78,10 @@ export async function claimDetail(ctx: AppContext, req: Request, c: LoadedClaim)
             [c.createdById],
           ).then((r) => r[0] ?? null)
         : null,
-    loadHistory(ctx.ds, 'Claim', c.id, req.user!.organizationId),
-    listAttachments(ctx, { type: 'claim', id: c.id }),
+    read
+      ? read.history.map((h) => historyEventOf(h.event, h, viewer))
+      : loadHistory(ctx.ds, 'Claim', c.id, viewer),
+    read ? read.attachments : listAttachments(ctx, { type: 'claim', id: c.id }),
   ]);
   return presentClaimDetail(c, {
     history,
@@ -196,9 +207,13 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     }),
   );
 
+  // The claim's page: the claim, its history and its files in one statement, authorised on the claim before any of
+  // it is shown.
   r.get('/:id', async (req, res) => {
-    const claim = await load(req, 'read');
-    res.json({ claim: await claimDetail(ctx, req, claim) });
+    const { id } = parseWith(idParam, req.params, 'address');
+    const page = await service.findForPage(id);
+    authorize(req, 'read', 'Claim', page?.claim, 'claim');
+    res.json({ claim: await claimDetail(ctx, req, page!.claim, page!) });
   });
 
   r.patch('/:id', async (req, res) => {

@@ -17,9 +17,10 @@ import { canPerform, REFUSAL_STATUS, type Refusal } from '../../../shared/claims
 import type { SessionUser } from '../../auth/passport';
 import { toAbilityUser } from '../../middleware/auth';
 import type { AppDataSource } from '../../db/data-source';
-import { hydrate, jsonObjectOf, selectColumns } from '../../db/hydrate';
+import { hydrate, hydrateJson, jsonArrayOf, jsonObjectOf, selectColumns } from '../../db/hydrate';
 import { Conditions, isoOfDateTime, readRows } from '../../db/read';
 import { Attachment } from '../../db/entities/attachment.entity';
+import { AuditEvent } from '../../db/entities/audit-event.entity';
 import { Claim } from '../../db/entities/claim.entity';
 import { InstallationUnit } from '../../db/entities/installation-unit.entity';
 import { Installation } from '../../db/entities/installation.entity';
@@ -33,7 +34,7 @@ import { stageTotal } from '../../lib/claim-counts';
 import { clock } from '../../lib/clock';
 import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict } from '../../lib/errors';
-import { changedFields } from '../../lib/history';
+import { changedFields, HISTORY_LIMIT } from '../../lib/history';
 import { runIdempotent } from '../../lib/idempotency';
 import { enqueueEmail } from '../../lib/outbox';
 import { likeContains, parseSort } from '../../lib/pagination';
@@ -266,48 +267,64 @@ export function createClaimsService(
     return qb.getOne();
   };
 
-  // A claim with everything its page and its checks read, in one statement (server/db/hydrate.ts): its parties,
-  // product, installation, policy version and policy, who started it, and the installation's units as one JSON
-  // array (joined, an installation of 200 fixtures would repeat the whole claim 200 times).
-  let detailSql: string | null = null;
-  const detailSqlOf = () =>
-    (detailSql ??= `SELECT ${[
-      selectColumns(ds, Claim, 'c'),
-      selectColumns(ds, Organization, 'co'),
-      selectColumns(ds, Organization, 'mo'),
-      selectColumns(ds, ProductModel, 'p'),
-      selectColumns(ds, Installation, 'i'),
-      selectColumns(ds, WarrantyPolicyVersion, 'v'),
-      selectColumns(ds, WarrantyPolicy, 'pol'),
-      'cb.name AS cb_name, cb.organization_id AS cb_organization_id',
-      `(SELECT JSON_ARRAYAGG(${jsonObjectOf(ds, InstallationUnit, 'u')} ORDER BY u.id)
-          FROM installation_units u WHERE u.installation_id = c.installation_id) AS units_json`,
-    ].join(', ')}
-       FROM claims c
-       LEFT JOIN organizations co ON co.id = c.contractor_id
-       LEFT JOIN organizations mo ON mo.id = c.manufacturer_id
-       LEFT JOIN product_models p ON p.id = c.product_model_id
-       LEFT JOIN installations i ON i.id = c.installation_id
-       LEFT JOIN warranty_policy_versions v ON v.id = c.policy_version_id
-       LEFT JOIN warranty_policies pol ON pol.id = v.policy_id
-       LEFT JOIN users cb ON cb.id = c.created_by_id
-      WHERE c.id = ?`);
+  // A claim with everything its checks read, in one statement (server/db/hydrate.ts): its parties, product,
+  // installation, policy version and policy, who started it, and the installation's units as one JSON array
+  // (joined, an installation of 200 fixtures would repeat the whole claim 200 times). Its page adds its history and
+  // its files the same way, so that a claim's page is one statement after the session.
+  const detailSql = new Map<boolean, string>();
+  const detailSqlOf = (withPage: boolean) => {
+    let sql = detailSql.get(withPage);
+    if (!sql) {
+      const page = withPage
+        ? [
+            `(SELECT JSON_ARRAYAGG(${jsonObjectOf(ds, AuditEvent, 'e', {
+              user_name: 'u.name',
+              user_org_id: 'u.organization_id',
+              org_name: 'o.name',
+            })} ORDER BY e.id LIMIT ${HISTORY_LIMIT})
+                FROM audit_events e
+                LEFT JOIN users u ON u.id = e.actor_user_id
+                LEFT JOIN organizations o ON o.id = u.organization_id
+               WHERE e.entity_type = 'Claim' AND e.entity_id = ?) AS history_json`,
+            `(SELECT JSON_ARRAYAGG(${jsonObjectOf(ds, Attachment, 'a')} ORDER BY a.created_at, a.id)
+                FROM attachments a
+               WHERE a.owner_type = 'claim' AND a.owner_id = ? AND a.deleted_at IS NULL) AS files_json`,
+          ]
+        : [];
+      sql = `SELECT ${[
+        selectColumns(ds, Claim, 'c'),
+        selectColumns(ds, Organization, 'co'),
+        selectColumns(ds, Organization, 'mo'),
+        selectColumns(ds, ProductModel, 'p'),
+        selectColumns(ds, Installation, 'i'),
+        selectColumns(ds, WarrantyPolicyVersion, 'v'),
+        selectColumns(ds, WarrantyPolicy, 'pol'),
+        'cb.name AS cb_name, cb.organization_id AS cb_organization_id',
+        `(SELECT JSON_ARRAYAGG(${jsonObjectOf(ds, InstallationUnit, 'u')} ORDER BY u.id)
+            FROM installation_units u WHERE u.installation_id = c.installation_id) AS units_json`,
+        ...page,
+      ].join(', ')}
+         FROM claims c
+         LEFT JOIN organizations co ON co.id = c.contractor_id
+         LEFT JOIN organizations mo ON mo.id = c.manufacturer_id
+         LEFT JOIN product_models p ON p.id = c.product_model_id
+         LEFT JOIN installations i ON i.id = c.installation_id
+         LEFT JOIN warranty_policy_versions v ON v.id = c.policy_version_id
+         LEFT JOIN warranty_policies pol ON pol.id = v.policy_id
+         LEFT JOIN users cb ON cb.id = c.created_by_id
+        WHERE c.id = ?`;
+      detailSql.set(withPage, sql);
+    }
+    return sql;
+  };
 
-  async function findById(id: string, m: EntityManager = ds.manager): Promise<LoadedClaim | null> {
-    // Inside a transaction the statement runs on the transaction's connection; outside, straight on the pool.
-    const [row] = (
-      m === ds.manager ? await readRows(ds, detailSqlOf(), [id]) : await m.query(detailSqlOf(), [id])
-    ) as Record<string, unknown>[];
-    if (!row) return null;
+  function loadedClaimOf(row: Record<string, unknown>): LoadedClaim {
     const claim = hydrate(ds, Claim, row, 'c')!;
     const installation = hydrate(ds, Installation, row, 'i');
     const version = hydrate(ds, WarrantyPolicyVersion, row, 'v');
     if (version) version.policy = hydrate(ds, WarrantyPolicy, row, 'pol')!;
-    if (installation) {
-      const json = row.units_json ?? [];
-      const units = (typeof json === 'string' ? JSON.parse(json) : json) as Record<string, unknown>[];
-      installation.units = units.map((u) => hydrate(ds, InstallationUnit, u, 'u')!);
-    }
+    if (installation)
+      installation.units = jsonArrayOf(row.units_json).map((u) => hydrateJson(ds, InstallationUnit, u, 'u')!);
     return Object.assign(claim, {
       contractor: hydrate(ds, Organization, row, 'co')!,
       manufacturer: hydrate(ds, Organization, row, 'mo')!,
@@ -323,6 +340,35 @@ export function createClaimsService(
             }
           : null,
     }) as LoadedClaim;
+  }
+
+  async function findById(id: string, m: EntityManager = ds.manager): Promise<LoadedClaim | null> {
+    // Inside a transaction the statement runs on the transaction's connection; outside, straight on the pool.
+    const sql = detailSqlOf(false);
+    const [row] = (m === ds.manager ? await readRows(ds, sql, [id]) : await m.query(sql, [id])) as Record<
+      string,
+      unknown
+    >[];
+    return row ? loadedClaimOf(row) : null;
+  }
+
+  /**
+   * A claim with its history (with the actors' names and organisations) and its files, for its page: one
+   * statement. The caller authorises on the claim before it shows any of it.
+   */
+  async function findForPage(id: string) {
+    const [row] = await readRows<Record<string, unknown>>(ds, detailSqlOf(true), [id, id, id]);
+    if (!row) return null;
+    return {
+      claim: loadedClaimOf(row),
+      history: jsonArrayOf(row.history_json).map((e) => ({
+        event: hydrateJson(ds, AuditEvent, e, 'e')!,
+        userName: e.user_name as string | null,
+        userOrgId: e.user_org_id as string | null,
+        orgName: e.org_name as string | null,
+      })),
+      attachments: jsonArrayOf(row.files_json).map((a) => hydrateJson(ds, Attachment, a, 'a')!),
+    };
   }
 
   /** Evaluates a claim now, as it stands: the same input the form's live view builds. */
@@ -463,6 +509,7 @@ export function createClaimsService(
 
   return {
     findById,
+    findForPage,
 
     async list(scope: Scope, q: ClaimListQuery) {
       const sort = parseSort(q.sort, SORTS)!;
