@@ -540,9 +540,9 @@ export function createClaimsService(
       // Two statements whatever the page size, run side by side: the page with its joins, and the total. Filtered by
       // stage alone (the usual list), the total is a sum over the claim counts the triggers keep
       // (server/lib/claim-counts.ts); with any other filter it is a count, which joins a table only for a filter on
-      // it. Left joins on required keys keep the claims table first in the
-      // plan, so the page is read straight off the (organisation, stage, sort column) index; the tie-break runs
-      // the same way as the sort so the index can serve both. The SQL is written out (server/db/read.ts).
+      // it. Left joins on required keys keep the claims table first in the plan, so the page is read straight off
+      // the (organisation, stage, sort column) index; the tie-break runs the same way as the sort so the index can
+      // serve both. The SQL is written out (server/db/read.ts).
       const page = `SELECT ${LIST_COLUMNS}
           FROM claims c
           LEFT JOIN organizations co ON co.id = c.contractor_id
