@@ -46,13 +46,13 @@ test('a reviewer narrows the queue by product and by contractor, then hands a cl
   await assignment.getByRole('button', { name: 'Hand to a colleague' }).click();
   const colleague = assignment.getByRole('combobox', { name: 'Colleague' });
   await expect(colleague).toBeVisible();
-  // Noor is Rhea's colleague on the desk: choosing nobody is refused with a message, choosing Noor hands it over.
+  // Sunniva is Rhea's colleague on the desk: choosing nobody is refused with a message; choosing her hands it over.
   await expect(assignment.getByText('Active reviewers of your team.', { exact: false })).toBeVisible();
   await assignment.getByRole('button', { name: 'Hand over' }).click();
   await expect(assignment.getByText('Choose a colleague to hand the claim to.')).toBeVisible();
   expect(await seriousA11yViolations(page)).toEqual([]);
-  await colleague.selectOption({ label: 'Noor Ashby' });
+  await colleague.selectOption({ label: 'Sunniva Pell' });
   await assignment.getByRole('button', { name: 'Hand over' }).click();
-  await expect(assignment.getByText('Assigned to Noor Ashby')).toBeVisible();
+  await expect(assignment.getByText('Assigned to Sunniva Pell')).toBeVisible();
   await expect(colleague).toBeHidden();
 });

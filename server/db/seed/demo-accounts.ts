@@ -16,7 +16,7 @@ export const DEMO_ACCOUNTS: { email: string; name: string; roles: Role[]; org: s
   { email: 'omar@copperline.test', name: 'Omar Lindqvist', roles: ['installer'], org: 'copperline' },
   { email: 'rhea@aldercrest.test', name: 'Rhea Castellano', roles: ['reviewer'], org: 'aldercrest' },
   // Rhea's colleague on the warranty desk: someone to hand a claim to.
-  { email: 'noor@aldercrest.test', name: 'Noor Ashby', roles: ['reviewer'], org: 'aldercrest' },
+  { email: 'sunniva@aldercrest.test', name: 'Sunniva Pell', roles: ['reviewer'], org: 'aldercrest' },
   { email: 'ada@aldercrest.test', name: 'Ada Brennock', roles: ['accountant'], org: 'aldercrest' },
   { email: 'max@aldercrest.test', name: 'Max Oduya', roles: ['administrator'], org: 'aldercrest' },
   { email: 'theo@veltra.test', name: 'Theo Varga', roles: ['reviewer'], org: 'veltra' },
