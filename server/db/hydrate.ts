@@ -1,4 +1,5 @@
 import type { DataSource, EntityMetadata, EntityTarget, ObjectLiteral } from 'typeorm';
+import { isoOfDateTime } from './read';
 
 // Entities out of written-out SQL (server/db/read.ts), with TypeORM's own metadata and value conversion: the
 // columns an entity maps, selected under `<alias>_<column>`, and turned back into an instance the way TypeORM's
@@ -70,7 +71,7 @@ export function hydrateJson<T extends ObjectLiteral>(
     const key = `${alias}_${c.databaseName}`;
     const type = String(c.type);
     if ((type === 'datetime' || type === 'timestamp') && typeof row[key] === 'string')
-      row[key] = new Date(`${(row[key] as string).slice(0, 10)}T${(row[key] as string).slice(11, 23)}Z`);
+      row[key] = new Date(isoOfDateTime(row[key] as string));
   }
   return hydrate(ds, target, row, alias);
 }
