@@ -8,6 +8,8 @@ const baseURL = `http://127.0.0.1:${port}`;
 
 export default defineConfig({
   testDir: 'tests/browser',
+  // Stops the e2e database however the web server ended (see scripts/e2e-server.ts).
+  globalTeardown: './tests/setup/e2e.global-teardown.ts',
   fullyParallel: false,
   workers: 1,
   retries: 0,
@@ -44,5 +46,7 @@ export default defineConfig({
     timeout: 120_000,
     stdout: 'pipe',
     stderr: 'pipe',
+    // The default is SIGKILL, which would leave the database the server started running.
+    gracefulShutdown: { signal: 'SIGTERM', timeout: 15_000 },
   },
 });

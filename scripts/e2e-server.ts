@@ -8,6 +8,7 @@ import { seedDemo } from '../server/db/seed/demo';
 import { createStorage } from '../server/lib/storage';
 import { startServer } from '../server/index';
 import { startFakeSmtp } from './fake-smtp';
+import { e2eServerPidFile, stopStaleProfiles } from './lib/db-processes';
 import { resetDatabase, startLocalDb } from './lib/mariadb';
 
 async function main() {
@@ -26,6 +27,8 @@ async function main() {
     STORAGE_DIR: path.join(base.dataDir, 'e2e', 'uploads'),
     LOG_LEVEL: 'warn',
   });
+  // A server left by a killed run would be reused and so never stopped by this one: stop it first.
+  await stopStaleProfiles(config.dataDir, ['e2e']);
   const db = await startLocalDb({
     dataDir: config.dataDir,
     profile: 'e2e',
@@ -40,11 +43,24 @@ async function main() {
   await ds.destroy();
   const server = await startServer(config, db.url);
   console.log(`e2e server on ${server.url}`);
+  // Playwright runs its global teardown before it ends this process: the teardown ends it by this pid first.
+  const pidFile = e2eServerPidFile(config.dataDir);
+  fs.writeFileSync(pidFile, String(process.pid));
+  // The global teardown (or Playwright, gracefulShutdown in playwright.config.ts) ends this process with SIGTERM;
+  // the database was started detached, in a process group of its own, so it is stopped here. The teardown
+  // stops it too, should this process not get the chance.
+  let stopping = false;
   const stop = async () => {
-    await server.stop();
-    await smtp.close();
-    await db.stop();
-    process.exit(0);
+    if (stopping) return;
+    stopping = true;
+    try {
+      await server.stop();
+      await smtp.close();
+    } finally {
+      await db.stop();
+      fs.rmSync(pidFile, { force: true });
+      process.exit(0);
+    }
   };
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);

@@ -1,10 +1,13 @@
 // npm test: lint, formatting (Prettier), typecheck, unit and component tests, API tests against the real test database, then the
 // browser tests in Debian's Chromium on the freshly built client. Stops at the first failing step and exits
-// non-zero; prints one closing line "Tests: N passed, N failed".
-import { execFileSync, spawnSync } from 'node:child_process';
+// non-zero; prints one closing line "Tests: N passed, N failed". Every database server the run starts is
+// stopped when it ends, passed, failed or interrupted; one still running at the end fails the run.
+import { type ChildProcess, execFileSync, spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
+import { loadConfig } from '../server/config/env';
 import { buildClientIfNeeded } from './lib/build-client';
+import { type DbServerProcess, dbServersOf, stopLeftovers, stopStaleProfiles } from './lib/db-processes';
 import { ensureMariadbInstalled } from './lib/mariadb';
 
 const bin = (name: string) => path.resolve('node_modules/.bin', name);
@@ -12,14 +15,29 @@ const results = { passed: 0, failed: 0, skipped: 0 };
 const reportDir = path.resolve('.data/test-reports');
 fs.mkdirSync(reportDir, { recursive: true });
 
-function step(title: string, cmd: string, args: string[], env: NodeJS.ProcessEnv = {}) {
+const { dataDir } = loadConfig();
+// The profiles whose servers this run starts: the API tests' (and the migration check's), the browser tests',
+// the restore test's.
+const PROFILES = ['test', 'e2e', 'restore'] as const;
+let before: DbServerProcess[] = [];
+let current: ChildProcess | null = null;
+let interrupted = false;
+
+async function step(title: string, cmd: string, args: string[], env: NodeJS.ProcessEnv = {}) {
+  if (interrupted) return false;
   console.log(`\n=== ${title} ===`);
   const started = Date.now();
-  const r = spawnSync(cmd, args, { stdio: 'inherit', env: { ...process.env, ...env } });
+  const child = spawn(cmd, args, { stdio: 'inherit', env: { ...process.env, ...env } });
+  current = child;
+  const status = await new Promise<number | null>((resolve) => {
+    child.on('error', () => resolve(null));
+    child.on('exit', (code) => resolve(code));
+  });
+  current = null;
   console.log(
-    `--- ${title}: ${r.status === 0 ? 'ok' : 'FAILED'} in ${((Date.now() - started) / 1000).toFixed(1)} s`,
+    `--- ${title}: ${status === 0 ? 'ok' : 'FAILED'} in ${((Date.now() - started) / 1000).toFixed(1)} s`,
   );
-  return r.status === 0;
+  return status === 0 && !interrupted;
 }
 
 function ensureChromium() {
@@ -55,11 +73,38 @@ function countPlaywright(file: string) {
   results.skipped += s.skipped ?? 0;
 }
 
-function finish(ok: boolean): never {
+let finishing: Promise<never> | null = null;
+function finish(ok: boolean): Promise<never> {
+  finishing ??= end(ok);
+  return finishing;
+}
+
+async function end(ok: boolean): Promise<never> {
+  const left = await stopLeftovers(dataDir, before);
+  if (left.length) {
+    ok = false;
+    results.failed += 1;
+    console.error(
+      `\nFAILED: the run left ${left.length} MariaDB server(s) of ${dataDir} running (now stopped): ` +
+        left.map((p) => `${p.profile} (pid ${p.pid})`).join(', '),
+    );
+  }
   console.log(
     `\nTests: ${results.passed} passed, ${results.failed} failed${results.skipped ? `, ${results.skipped} skipped` : ''}`,
   );
   process.exit(ok ? 0 : 1);
+}
+
+// Ctrl-C reaches the running step too (same process group); SIGTERM is passed on. Either way the step is let
+// end, its servers are stopped, and the run fails.
+for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+  process.on(signal, () => {
+    if (interrupted) return;
+    interrupted = true;
+    console.error(`\n${signal}: stopping the tests`);
+    if (signal === 'SIGTERM') current?.kill('SIGTERM');
+    if (!current) void finish(false);
+  });
 }
 
 try {
@@ -70,26 +115,30 @@ try {
   process.exit(1);
 }
 
+// A server left by an earlier killed run would be reused, and then never stopped by this one.
+await stopStaleProfiles(dataDir, [...PROFILES]);
+before = dbServersOf(dataDir);
+
 const vitestJson = path.join(reportDir, 'vitest.json');
 const playwrightJson = path.join(reportDir, 'playwright.json');
 fs.rmSync(vitestJson, { force: true });
 fs.rmSync(playwrightJson, { force: true });
 
-if (!step('lint', bin('eslint'), ['.', '--max-warnings=0'])) finish(false);
-if (!step('format', bin('prettier'), ['--check', '--log-level=warn', '.'])) finish(false);
-if (!step('typecheck', bin('tsc'), ['--noEmit', '-p', 'tsconfig.json'])) finish(false);
-const unitOk = step('unit, component and API tests (vitest)', bin('vitest'), [
+if (!(await step('lint', bin('eslint'), ['.', '--max-warnings=0']))) await finish(false);
+if (!(await step('format', bin('prettier'), ['--check', '--log-level=warn', '.']))) await finish(false);
+if (!(await step('typecheck', bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']))) await finish(false);
+const unitOk = await step('unit, component and API tests (vitest)', bin('vitest'), [
   'run',
   '--reporter=default',
   '--reporter=json',
   `--outputFile.json=${vitestJson}`,
 ]);
 countVitest(vitestJson);
-if (!unitOk) finish(false);
+if (!unitOk) await finish(false);
 
 console.log('\n=== build the client ===');
 buildClientIfNeeded(console.log, true);
-const browserOk = step(
+const browserOk = await step(
   'browser tests (Playwright in Debian Chromium)',
   bin('playwright'),
   ['test', '--reporter=list,json'],
@@ -98,4 +147,4 @@ const browserOk = step(
   },
 );
 countPlaywright(playwrightJson);
-finish(browserOk);
+await finish(browserOk);

@@ -11,6 +11,8 @@
 // BENCH_ONLY=api,pdf runs some parts only.
 import { spawn } from 'node:child_process';
 import path from 'node:path';
+import { loadConfig } from '../../server/config/env';
+import { dbServersOf, stopLeftovers, stopStaleProfiles } from '../lib/db-processes';
 
 type Row = {
   part: string;
@@ -112,10 +114,39 @@ function run(file: string): Promise<{ code: number; out: string }> {
 const fmt = (v: number) =>
   Math.abs(v) >= 100 ? Math.round(v).toLocaleString('en-US') : v.toFixed(v >= 10 ? 1 : 2);
 
+let interrupted = false;
+// Ctrl-C reaches the running part too (same process group); the parts left are skipped and the servers stopped.
+for (const signal of ['SIGINT', 'SIGTERM'] as const)
+  process.on(signal, () => {
+    interrupted = true;
+  });
+
 async function main() {
   const only = process.env.BENCH_ONLY?.split(',');
   const rows: Row[] = [];
+  const { dataDir } = loadConfig();
+  // Servers of the benches' own profiles left by a killed run would be reused, and then never stopped.
+  await stopStaleProfiles(dataDir, ['bench', 'bench-import']);
+  const before = dbServersOf(dataDir);
+  try {
+    await runParts(only, rows);
+  } finally {
+    const left = await stopLeftovers(dataDir, before);
+    if (left.length) {
+      console.error(
+        `FAILED: the benchmarks left ${left.length} MariaDB server(s) of ${dataDir} running (now stopped): ` +
+          left.map((p) => `${p.profile} (pid ${p.pid})`).join(', '),
+      );
+      process.exitCode = 1;
+    }
+  }
+  if (interrupted) process.exit(130);
+  printTable(rows);
+}
+
+async function runParts(only: string[] | undefined, rows: Row[]) {
   for (const part of PARTS) {
+    if (interrupted) break;
     if (only && !only.includes(part.name)) continue;
     console.log(`\n== ${part.name} (scripts/bench/${part.file})`);
     const t0 = performance.now();
@@ -130,6 +161,9 @@ async function main() {
     rows.push(...found, ...(part.parse ? part.parse(out) : []));
     if (code !== 0) rows.push({ part: part.name, figure: 'FAILED', value: NaN, unit: '' });
   }
+}
+
+function printTable(rows: Row[]) {
   const head = ['part', 'figure', 'value', 'baseline', 'ratio', 'aim'];
   const table = rows.map((r) => [
     r.part,
