@@ -264,6 +264,34 @@ export const UNREADABLE_PDFS: Record<string, () => Buffer> = {
       { root: 1 },
     ),
   'no catalog at all': () => rawPdf([{ num: 2, body: PAGES }], { root: 1 }),
+  // 80 MB of objects from 80 KB of Flate: more than a check may expand.
+  'an object stream that expands to 80 MB': () =>
+    rawPdf(
+      [
+        { num: 1, body: '<< /Type /Catalog /Pages 2 0 R >>' },
+        { num: 2, body: PAGES },
+        { num: 3, body: page() },
+        {
+          num: 7,
+          body: pdfStream(
+            '/Type /ObjStm /N 1 /First 6 /Filter /FlateDecode',
+            zlib.deflateSync(
+              Buffer.concat([
+                Buffer.from('8 0 (', 'latin1'),
+                Buffer.alloc(80 * 1024 * 1024, 32),
+                Buffer.from(')'),
+              ]),
+              { level: 9 },
+            ),
+          ),
+        },
+      ],
+      { root: 1 },
+    ),
+  // Strings within strings, each spelling an object header: read one by one, each header's object runs to the
+  // end of the file (quadratic work), so the check bounds what it reads.
+  'object headers nested in strings 50,000 deep': () =>
+    onePage(`/Title (${'9 0 obj ('.repeat(50_000)}${')'.repeat(50_000)}) `),
 };
 
 /** A multi-page pdfkit document with a web link (a link a person clicks is not an action taken unasked). */

@@ -1,13 +1,17 @@
+import zlib from 'node:zlib';
 import {
   PDFArray,
   PDFDict,
   PDFInvalidObject,
   PDFName,
+  PDFObjectStreamParser,
   PDFParser,
   PDFRef,
   PDFStream,
+  PDFXRefStreamParser,
   type PDFContext,
   type PDFObject,
+  type PDFRawStream,
 } from 'pdf-lib';
 import { AppError } from '../errors';
 
@@ -59,6 +63,8 @@ const TYPE_KEYS = ['S', 'Subtype', 'Type'];
 /** What a document may do on opening: show a page (an explicit destination, or a GoTo action). */
 const PASSIVE_OPEN_ACTIONS = new Set(['GoTo']);
 const MAX_DEPTH = 200;
+/** What the object and cross-reference streams of one file may expand to, all together. */
+const MAX_DECODED_BYTES = 64 * 1024 * 1024;
 
 export const pdfUnreadable = () =>
   new AppError(
@@ -88,13 +94,67 @@ const pdfActive = (name: string) =>
 
 const nameOf = (n: PDFName) => n.decodeText();
 
+// pdf-lib expands object streams and cross-reference streams while it parses, without a limit: a few KB of
+// Flate can expand to gigabytes. Each such stream is first inflated here against the file's budget (kept per
+// parse, on its PDFContext), and only Flate (or no filter) is let through to pdf-lib.
+type Budget = { left: number; error?: AppError };
+const budgets = new WeakMap<PDFContext, Budget>();
+
+function guardExpansion(raw: PDFRawStream) {
+  const budget = budgets.get(raw.dict.context);
+  if (!budget) return; // not a parse of ours
+  try {
+    expand(raw, budget);
+  } catch (err) {
+    // pdf-lib catches what its parse throws and throws its own error: the reason is kept here.
+    budget.error ??= err as AppError;
+    throw err;
+  }
+}
+
+function expand(raw: PDFRawStream, budget: Budget) {
+  const filter = raw.dict.lookup(PDFName.of('Filter'));
+  const filters =
+    filter instanceof PDFArray ? filter.asArray() : filter === undefined ? [] : [filter as PDFObject];
+  const names = filters.map((f) => (f instanceof PDFName ? nameOf(f) : '?'));
+  if (names.some((n) => n !== 'FlateDecode' && n !== 'Fl') || names.length > 1)
+    throw pdfUncheckable('an unusual encoding of its objects');
+  let size = raw.contents.length;
+  if (names.length) {
+    try {
+      size = zlib.inflateSync(raw.contents, {
+        finishFlush: zlib.constants.Z_SYNC_FLUSH,
+        maxOutputLength: Math.max(1, budget.left),
+      }).length;
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code === 'ERR_BUFFER_TOO_LARGE')
+        throw pdfUncheckable('it expands to too much data');
+      throw pdfUnreadable();
+    }
+  }
+  budget.left -= size;
+  if (budget.left < 0) throw pdfUncheckable('it expands to too much data');
+}
+
+const forObjectStream = PDFObjectStreamParser.forStream;
+PDFObjectStreamParser.forStream = (raw, shouldWaitForTick) => {
+  guardExpansion(raw);
+  return forObjectStream(raw, shouldWaitForTick);
+};
+const forXRefStream = PDFXRefStreamParser.forStream;
+PDFXRefStreamParser.forStream = (raw) => {
+  guardExpansion(raw);
+  return forXRefStream(raw);
+};
+
 /** Every object the parser meets, each definition of a number included, with the offsets it parsed them at. */
-type Collected = { objects: PDFObject[]; parsedAt: Set<number> };
+type Collected = { objects: PDFObject[]; parsedAt: Set<number>; budget: Budget };
 
 function collectingParser(bytes: Uint8Array, collected: Collected) {
   // objectsPerTick Infinity: no yielding to the event loop between objects (the whole parse is a few ms);
   // throwOnInvalidObject: an object it cannot parse fails the parse instead of being skipped.
   const parser = PDFParser.forBytesWithOptions(bytes, Infinity, true, false);
+  budgets.set((parser as unknown as { context: PDFContext }).context, collected.budget);
   const internals = parser as unknown as {
     context: PDFContext;
     bytes: { offset(): number; moveTo(o: number): void };
@@ -151,14 +211,15 @@ export async function checkPdf(buf: Buffer): Promise<void> {
     throw pdfUnreadable();
 
   const bytes = new Uint8Array(buf.buffer, buf.byteOffset, buf.length);
-  const collected: Collected = { objects: [], parsedAt: new Set() };
+  const budget: Budget = { left: MAX_DECODED_BYTES };
+  const collected: Collected = { objects: [], parsedAt: new Set(), budget };
   const { parser, internals } = collectingParser(bytes, collected);
   let context: PDFContext;
   try {
     context = await parser.parseDocument();
   } catch {
     if (internals.context.trailerInfo.Encrypt) throw pdfEncrypted();
-    throw pdfUnreadable();
+    throw budget.error ?? pdfUnreadable();
   }
   if (context.trailerInfo.Encrypt) throw pdfEncrypted();
   const catalog = context.lookup(context.trailerInfo.Root);
@@ -166,9 +227,11 @@ export async function checkPdf(buf: Buffer): Promise<void> {
     throw pdfUnreadable();
 
   // Object headers the parse did not start at: inside another object's data, or after bytes it skipped.
-  const hidden: Collected = { objects: [], parsedAt: new Set() };
+  const hidden: Collected = { objects: [], parsedAt: new Set(), budget };
   const text = buf.toString('latin1');
   let second: ReturnType<typeof collectingParser> | null = null;
+  // Headers inside headers (strings in strings) would make this quadratic: what it may read is bounded.
+  let readLeft = 2 * buf.length + 1024 * 1024;
   for (const m of text.matchAll(OBJECT_HEADER)) {
     if (collected.parsedAt.has(m.index)) continue;
     second ??= collectingParser(bytes, hidden);
@@ -177,7 +240,11 @@ export async function checkPdf(buf: Buffer): Promise<void> {
       await second.internals.parseIndirectObject();
     } catch {
       // Not an object after all (binary data that happens to spell a header): a reader cannot use it either.
+      // An object stream too large to expand is another matter.
+      if (budget.error) throw budget.error;
     }
+    readLeft -= second.internals.bytes.offset() - m.index;
+    if (readLeft < 0) throw pdfUncheckable('it has too many objects inside other objects');
   }
 
   for (const obj of collected.objects) {
