@@ -153,12 +153,10 @@ export function createPasswordsService(ctx: AppContext) {
       actor: Actor,
       keepSessionId: string,
     ) {
-      const user = await ds
-        .getRepository(User)
-        .findOne({
-          where: { id: userId },
-          select: { id: true, email: true, name: true, passwordHash: true, organizationId: true },
-        });
+      const user = await ds.getRepository(User).findOne({
+        where: { id: userId },
+        select: { id: true, email: true, name: true, passwordHash: true, organizationId: true },
+      });
       if (!user) throw new AppError(401, 'auth.required', 'Sign in to continue.');
       // Refused without writing anything (an audit row per wrong guess would let a stolen session flood the log).
       if (!(await verifyPassword(user.passwordHash, input.currentPassword))) {
