@@ -28,6 +28,7 @@ import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
 import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
+import { passwordsRouter } from './modules/passwords/passwords.router';
 import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
@@ -120,6 +121,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(pp.initialize());
   api.use(pp.session());
   api.use(sessionPolicy({ demoMode: config.mode === 'demo' }));
+  api.use('/auth/password', passwordsRouter(ctx));
   api.use('/auth', authRouter(ctx, pp));
   api.use('/invitations', invitationsRouter(ctx));
   api.use('/users', usersRouter(ctx));

@@ -9,6 +9,16 @@ export const router = createBrowserRouter([
     errorElement: <ErrorRoute />,
   },
   {
+    path: '/forgot-password',
+    lazy: () => import('./routes/forgot-password').then((m) => ({ Component: m.ForgotPasswordRoute })),
+    errorElement: <ErrorRoute />,
+  },
+  {
+    path: '/reset-password/:token',
+    lazy: () => import('./routes/reset-password').then((m) => ({ Component: m.ResetPasswordRoute })),
+    errorElement: <ErrorRoute />,
+  },
+  {
     path: '/invitations/:token',
     lazy: () => import('./routes/invitation').then((m) => ({ Component: m.InvitationRoute })),
     errorElement: <ErrorRoute />,
@@ -19,6 +29,10 @@ export const router = createBrowserRouter([
     errorElement: <ErrorRoute />,
     children: [
       { index: true, lazy: () => import('./routes/home').then((m) => ({ Component: m.HomeRoute })) },
+      {
+        path: 'account',
+        lazy: () => import('./routes/account').then((m) => ({ Component: m.AccountRoute })),
+      },
       {
         path: 'admin/users',
         lazy: () => import('./routes/admin/users').then((m) => ({ Component: m.UsersRoute })),

@@ -4,6 +4,7 @@ import type supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hashToken } from '../../server/modules/users/users.service';
 import { Invitation } from '../../server/db/entities/invitation.entity';
+import { PasswordReset } from '../../server/db/entities/password-reset.entity';
 import type { Organization } from '../../server/db/entities/organization.entity';
 import type { ProductModel } from '../../server/db/entities/product-model.entity';
 import type { User } from '../../server/db/entities/user.entity';
@@ -129,6 +130,20 @@ const everyone = (status: number) =>
   Object.fromEntries(ACTORS.map((a) => [a, status])) as Record<Actor, number>;
 const members = (list: Member[], status: number) =>
   Object.fromEntries(list.map((a) => [a, status])) as Partial<Record<Actor, number>>;
+
+/** A reset link's token for a new member of no particular world. */
+async function newPasswordReset() {
+  const token = crypto.randomBytes(32).toString('base64url');
+  const org = await createOrganization(t.ds, 'contractor');
+  const user = await createUser(t.ds, org, ['installer']);
+  await t.ds.getRepository(PasswordReset).insert({
+    userId: user.id,
+    tokenHash: hashToken(token),
+    expiresAt: new Date(Date.now() + 30 * 60_000),
+    usedAt: null,
+  });
+  return token;
+}
 
 async function newInvitation(w: World) {
   const token = crypto.randomBytes(32).toString('base64url');
@@ -306,6 +321,21 @@ const ROUTES: Record<string, Entry> = {
   },
   'POST /api/auth/logout': { ok: everyone(204), freshSession: true },
   'GET /api/auth/me': { ok: members(SIGNED_IN, 200) },
+  // Password recovery: no sign-in (the e-mailed token is the credential); an address nobody has, so no e-mail.
+  'POST /api/auth/password/forgot': {
+    ok: everyone(202),
+    body: () => ({ email: `nobody-${unique()}@example.test` }),
+  },
+  'POST /api/auth/password/reset': {
+    ok: everyone(200),
+    body: async () => ({ token: await newPasswordReset(), password: 'a long enough password for the test' }),
+  },
+  // A real change would end the actor's other sessions, the matrix's own among them.
+  'POST /api/auth/password/change': {
+    ok: members(SIGNED_IN, 400),
+    stateReason: 'a wrong current password: the answer after authentication, changing nothing',
+    body: () => ({ currentPassword: 'not the password', newPassword: 'a long enough password for the test' }),
+  },
 
   // The one-time token is the credential: no sign-in, and nothing to be foreign to.
   'GET /api/invitations/:token': { ok: everyone(200), foreign: 'none', target: (w) => newInvitation(w) },

@@ -53,6 +53,15 @@ const SAMPLES: Record<string, () => Record<string, unknown>> = {
   }),
   'PATCH /api/users/:id': () => ({ roles: ['reviewer', 'accountant'] }),
   'POST /api/invitations/:token/accept': () => ({ password: 'a long enough password' }),
+  'POST /api/auth/password/forgot': () => ({ email: 'someone@example.test' }),
+  'POST /api/auth/password/reset': () => ({
+    token: 'AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA',
+    password: 'a long enough password',
+  }),
+  'POST /api/auth/password/change': () => ({
+    currentPassword: TEST_PASSWORD,
+    newPassword: 'a long enough password',
+  }),
 };
 
 SAMPLES['POST /api/evaluations'] = () =>

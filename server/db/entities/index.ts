@@ -17,6 +17,8 @@ import { LoginAttempt } from './login-attempt.entity';
 import { MemoPrefix, MemoSequence } from './memo-sequence.entity';
 import { Organization } from './organization.entity';
 import { OutboxMessage } from './outbox-message.entity';
+import { PasswordResetRequest } from './password-reset-request.entity';
+import { PasswordReset } from './password-reset.entity';
 import { PolicyModel } from './policy-model.entity';
 import { ProductModel } from './product-model.entity';
 import { ReturnAuthorization } from './return-authorization.entity';
@@ -48,6 +50,8 @@ export const entities = [
   Decision,
   ClaimDocument,
   CreditMemo,
+  PasswordReset,
+  PasswordResetRequest,
   LedgerEntry,
   MemoSequence,
   MemoPrefix,

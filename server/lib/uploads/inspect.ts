@@ -151,7 +151,7 @@ export async function inspectUpload(
   );
 
   if (contentType === 'application/pdf') {
-    checkPdf(buffer);
+    await checkPdf(buffer);
     return {
       kind: 'document',
       contentType,

@@ -1,28 +1,70 @@
 import zlib from 'node:zlib';
+import {
+  PDFArray,
+  PDFDict,
+  PDFInvalidObject,
+  PDFName,
+  PDFObjectStreamParser,
+  PDFParser,
+  PDFRef,
+  PDFStream,
+  PDFXRefStreamParser,
+  type PDFContext,
+  type PDFObject,
+  type PDFRawStream,
+} from 'pdf-lib';
 import { AppError } from '../errors';
 
-// A PDF is refused when it can act on its own: scripts, launching programs, embedded files, automatic actions,
-// rich media and XFA forms. The check reads every name in the file's objects, with #xx escapes undone: those
-// written out plainly and those packed inside object streams (usually Flate-compressed, which is where such
-// things hide). Other streams (page content, fonts, images, colour profiles) cannot hold objects, and their
-// bytes are not read as names: binary data would match by chance. An object stream it cannot decode it does not
-// guess about: the PDF is refused.
+// A PDF is refused when it can act on its own: scripts, launching programs, embedded files, opening a web
+// address or another document, sending or importing form data, rich media and XFA forms. The file is parsed
+// with pdf-lib's parser (names with #xx escapes undone, NUL read as the white space the PDF standard says it is,
+// object streams decoded), and every object it holds is walked, every dictionary and array inside it, not only
+// those reachable from the catalog: a reader repairing a damaged file finds the others too.
+//
+// Two ways a reader and a parser can disagree about which objects a file holds are closed as well:
+// - an object number defined twice (an incremental update, or a trick: the cross-reference table may point at
+//   either definition): every definition is checked, not only the one pdf-lib keeps;
+// - an object hidden inside another object's data (a stream whose /Length swallows it, where a reader going
+//   through the cross-reference table still finds it): every "N G obj" header in the bytes that the parse did
+//   not start at is parsed on its own and checked too.
+// A PDF the parser cannot read is refused: what cannot be read cannot be checked.
+//
+// Refused, not rewritten: the stored file is the contractor's evidence as sent (its hash is kept), and a rewrite
+// is only as safe as the rewriter's knowledge of every feature it must strip. The message says what to do.
 
+/** Dictionary keys that make a PDF active wherever they appear. */
+const ACTIVE_KEYS = new Set([
+  'JS',
+  'JavaScript',
+  'AA', // additional actions: run on open, close, page view, field focus, keystroke...
+  'EmbeddedFiles',
+  'EmbeddedFile',
+  'EF',
+  'RichMedia',
+  'RichMediaContent',
+  'XFA',
+  'Launch',
+]);
+/** Names that, as an action type (/S), an annotation /Subtype or an object /Type, make a PDF active. */
 const ACTIVE_NAMES = new Set([
   'JavaScript',
-  'JS',
   'Launch',
-  'EmbeddedFile',
-  'EmbeddedFiles',
-  'AA',
-  'OpenAction',
-  'RichMedia',
-  'XFA',
   'SubmitForm',
   'ImportData',
+  'GoToR',
   'GoToE',
+  'Rendition',
+  'RichMedia',
+  'RichMediaExecute',
+  'FileAttachment',
+  'EmbeddedFile',
 ]);
-const MAX_DECODED_BYTES = 96 * 1024 * 1024;
+const TYPE_KEYS = ['S', 'Subtype', 'Type'];
+/** What a document may do on opening: show a page (an explicit destination, or a GoTo action). */
+const PASSIVE_OPEN_ACTIONS = new Set(['GoTo']);
+const MAX_DEPTH = 200;
+/** What the object and cross-reference streams of one file may expand to, all together. */
+const MAX_DECODED_BYTES = 64 * 1024 * 1024;
 
 export const pdfUnreadable = () =>
   new AppError(
@@ -36,6 +78,12 @@ const pdfUncheckable = (why: string) =>
     'attachment.unreadable',
     `This PDF could not be checked (${why}). Print it to a new PDF, or scan the paper copy, and upload that.`,
   );
+const pdfEncrypted = () =>
+  new AppError(
+    422,
+    'attachment.pdf_encrypted',
+    'This PDF is password-protected or encrypted. Save a copy without protection and upload that.',
+  );
 const pdfActive = (name: string) =>
   new AppError(
     422,
@@ -44,214 +92,166 @@ const pdfActive = (name: string) =>
     [{ path: 'file', message: `It contains /${name}.` }],
   );
 
-const decodeName = (raw: string) =>
-  raw.replace(/#([0-9A-Fa-f]{2})/g, (_m, h: string) => String.fromCharCode(parseInt(h, 16)));
+const nameOf = (n: PDFName) => n.decodeText();
 
-/** Every PDF name in a piece of text, #xx escapes undone, with what follows it. */
-function* namesIn(text: string): Generator<{ name: string; index: number; end: number }> {
-  const re = /\/([^\s/<>[\]()%{}]+)/g;
-  for (let m = re.exec(text); m; m = re.exec(text))
-    yield { name: decodeName(m[1]), index: m.index, end: re.lastIndex };
-}
+// pdf-lib expands object streams and cross-reference streams while it parses, without a limit: a few KB of
+// Flate can expand to gigabytes. Each such stream is first inflated here against the file's budget (kept per
+// parse, on its PDFContext), and only Flate (or no filter) is let through to pdf-lib.
+type Budget = { left: number; error?: AppError };
+const budgets = new WeakMap<PDFContext, Budget>();
 
-function scanForActive(text: string) {
-  for (const { name, end } of namesIn(text)) {
-    if (!ACTIVE_NAMES.has(name)) continue;
-    if (name === 'OpenAction') {
-      // Opening at a page and zoom (an explicit destination, an array) is fine; anything else is an action.
-      const next = text.slice(end, end + 32).trimStart();
-      if (next.startsWith('[')) continue;
-    }
-    throw pdfActive(name);
+function guardExpansion(raw: PDFRawStream) {
+  const budget = budgets.get(raw.dict.context);
+  if (!budget) return; // not a parse of ours
+  try {
+    expand(raw, budget);
+  } catch (err) {
+    // pdf-lib catches what its parse throws and throws its own error: the reason is kept here.
+    budget.error ??= err as AppError;
+    throw err;
   }
 }
 
-function asciiHexDecode(data: Buffer): Buffer {
-  const hex = data.toString('latin1').replace(/\s+/g, '').replace(/>.*$/s, '');
-  return Buffer.from(hex.length % 2 ? `${hex}0` : hex, 'hex');
+function expand(raw: PDFRawStream, budget: Budget) {
+  const filter = raw.dict.lookup(PDFName.of('Filter'));
+  const filters =
+    filter instanceof PDFArray ? filter.asArray() : filter === undefined ? [] : [filter as PDFObject];
+  const names = filters.map((f) => (f instanceof PDFName ? nameOf(f) : '?'));
+  if (names.some((n) => n !== 'FlateDecode' && n !== 'Fl') || names.length > 1)
+    throw pdfUncheckable('an unusual encoding of its objects');
+  let size = raw.contents.length;
+  if (names.length) {
+    try {
+      size = zlib.inflateSync(raw.contents, {
+        finishFlush: zlib.constants.Z_SYNC_FLUSH,
+        maxOutputLength: Math.max(1, budget.left),
+      }).length;
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code === 'ERR_BUFFER_TOO_LARGE')
+        throw pdfUncheckable('it expands to too much data');
+      throw pdfUnreadable();
+    }
+  }
+  budget.left -= size;
+  if (budget.left < 0) throw pdfUncheckable('it expands to too much data');
 }
 
-function ascii85Decode(data: Buffer): Buffer {
-  const s = data.toString('latin1').replace(/\s+/g, '').replace(/^<~/, '').replace(/~>.*$/s, '');
-  const out: number[] = [];
-  let group: number[] = [];
-  const flush = (n: number) => {
-    let v = 0;
-    for (const d of group) v = v * 85 + d;
-    const bytes = [(v >>> 24) & 255, (v >>> 16) & 255, (v >>> 8) & 255, v & 255];
-    out.push(...bytes.slice(0, n));
+const forObjectStream = PDFObjectStreamParser.forStream;
+PDFObjectStreamParser.forStream = (raw, shouldWaitForTick) => {
+  guardExpansion(raw);
+  return forObjectStream(raw, shouldWaitForTick);
+};
+const forXRefStream = PDFXRefStreamParser.forStream;
+PDFXRefStreamParser.forStream = (raw) => {
+  guardExpansion(raw);
+  return forXRefStream(raw);
+};
+
+/** Every object the parser meets, each definition of a number included, with the offsets it parsed them at. */
+type Collected = { objects: PDFObject[]; parsedAt: Set<number>; budget: Budget };
+
+function collectingParser(bytes: Uint8Array, collected: Collected) {
+  // objectsPerTick Infinity: no yielding to the event loop between objects (the whole parse is a few ms);
+  // throwOnInvalidObject: an object it cannot parse fails the parse instead of being skipped.
+  const parser = PDFParser.forBytesWithOptions(bytes, Infinity, true, false);
+  budgets.set((parser as unknown as { context: PDFContext }).context, collected.budget);
+  const internals = parser as unknown as {
+    context: PDFContext;
+    bytes: { offset(): number; moveTo(o: number): void };
+    parseIndirectObject(): Promise<PDFRef>;
   };
-  for (const ch of s) {
-    if (ch === 'z' && group.length === 0) {
-      out.push(0, 0, 0, 0);
-      continue;
-    }
-    const d = ch.charCodeAt(0) - 33;
-    if (d < 0 || d > 84) throw pdfUnreadable();
-    group.push(d);
-    if (group.length === 5) {
-      flush(4);
-      group = [];
-    }
-  }
-  if (group.length) {
-    const n = group.length - 1;
-    while (group.length < 5) group.push(84);
-    flush(n);
-  }
-  return Buffer.from(out);
+  const assign = internals.context.assign.bind(internals.context);
+  internals.context.assign = (ref: PDFRef, object: PDFObject) => {
+    collected.objects.push(object);
+    assign(ref, object);
+  };
+  const parseIndirectObject = internals.parseIndirectObject.bind(parser);
+  internals.parseIndirectObject = () => {
+    collected.parsedAt.add(internals.bytes.offset());
+    return parseIndirectObject();
+  };
+  return { parser, internals };
 }
 
-/** Undoes the PNG row predictors (10-15) that Flate streams may carry. */
-function pngUnpredict(data: Buffer, columns: number, colors: number, bpc: number): Buffer {
-  const bpp = Math.max(1, Math.ceil((colors * bpc) / 8));
-  const rowLen = Math.ceil((columns * colors * bpc) / 8);
-  const rows = Math.floor(data.length / (rowLen + 1));
-  const out = Buffer.alloc(rows * rowLen);
-  for (let r = 0; r < rows; r++) {
-    const type = data[r * (rowLen + 1)];
-    const src = r * (rowLen + 1) + 1;
-    const dst = r * rowLen;
-    for (let i = 0; i < rowLen; i++) {
-      const raw = data[src + i];
-      const left = i >= bpp ? out[dst + i - bpp] : 0;
-      const up = r > 0 ? out[dst - rowLen + i] : 0;
-      const upLeft = r > 0 && i >= bpp ? out[dst - rowLen + i - bpp] : 0;
-      let v: number;
-      if (type === 0) v = raw;
-      else if (type === 1) v = raw + left;
-      else if (type === 2) v = raw + up;
-      else if (type === 3) v = raw + ((left + up) >> 1);
-      else if (type === 4) {
-        const p = left + up - upLeft;
-        const pa = Math.abs(p - left);
-        const pb = Math.abs(p - up);
-        const pc = Math.abs(p - upLeft);
-        v = raw + (pa <= pb && pa <= pc ? left : pb <= pc ? up : upLeft);
-      } else throw pdfUncheckable('an unknown predictor');
-      out[dst + i] = v & 255;
-    }
+/** Throws pdfActive if the object, or anything written inside it, makes the PDF active. */
+function checkObject(obj: PDFObject, context: PDFContext, depth = 0): void {
+  if (depth > MAX_DEPTH) throw pdfUncheckable('it is nested too deeply');
+  if (obj instanceof PDFStream) return checkObject(obj.dict, context, depth + 1);
+  if (obj instanceof PDFArray) {
+    for (const item of obj.asArray()) checkObject(item, context, depth + 1);
+    return;
   }
-  return out;
-}
-
-function numberIn(dict: string, key: string, fallback: number) {
-  const m = new RegExp(`/${key}\\s+(\\d+)`).exec(dict);
-  return m ? Number(m[1]) : fallback;
-}
-
-type StreamPart = { dict: string; data: Buffer; start: number; end: number };
-
-/** The streams of a PDF: each one's dictionary and its raw bytes. */
-function* streamsIn(buf: Buffer, text: string): Generator<StreamPart> {
-  const re = />>\s*stream(?:\r\n|\n|\r)/g;
-  for (let m = re.exec(text); m; m = re.exec(text)) {
-    // Walk back from the closing >> to its matching <<.
-    let depth = 0;
-    let i = m.index;
-    let start = -1;
-    const floor = Math.max(0, m.index - 65536);
-    for (; i >= floor; i--) {
-      if (text.startsWith('>>', i)) {
-        depth++;
-        i--;
-      } else if (text.startsWith('<<', i - 1)) {
-        depth--;
-        i--;
-        if (depth === 0) {
-          start = i;
-          break;
-        }
-      }
+  if (!(obj instanceof PDFDict)) return;
+  for (const [key, value] of obj.entries()) {
+    const k = nameOf(key);
+    if (ACTIVE_KEYS.has(k)) throw pdfActive(k);
+    if (TYPE_KEYS.includes(k) && value instanceof PDFName && ACTIVE_NAMES.has(nameOf(value)))
+      throw pdfActive(nameOf(value));
+    if (k === 'OpenAction') {
+      const action = value instanceof PDFRef ? context.lookup(value) : value;
+      // Opening at a page (an explicit destination, an array) is fine; so is a GoTo action. Anything else, a
+      // URI opened on opening included, is an action the reader would take unasked.
+      if (action instanceof PDFDict) {
+        const s = action.get(PDFName.of('S'));
+        const type = s instanceof PDFName ? nameOf(s) : '?';
+        if (!PASSIVE_OPEN_ACTIONS.has(type)) throw pdfActive(`OpenAction /${type}`);
+      } else if (!(action instanceof PDFArray) && action !== undefined) throw pdfActive('OpenAction');
     }
-    if (start < 0) throw pdfUnreadable();
-    const dict = text.slice(start, m.index + 2);
-    const dataStart = re.lastIndex;
-    let dataEnd = -1;
-    const len = /\/Length\s+(\d+)(?!\s+\d+\s+R)/.exec(dict);
-    if (len) {
-      const end = dataStart + Number(len[1]);
-      if (end <= buf.length && /^\s*endstream/.test(text.slice(end, end + 24))) dataEnd = end;
-    }
-    if (dataEnd < 0) {
-      const at = text.indexOf('endstream', dataStart);
-      if (at < 0) throw pdfUnreadable();
-      dataEnd = at;
-      if (text[dataEnd - 1] === '\n') dataEnd--;
-      if (text[dataEnd - 1] === '\r') dataEnd--;
-    }
-    re.lastIndex = dataEnd;
-    yield { dict, data: buf.subarray(dataStart, dataEnd), start: dataStart, end: dataEnd };
+    checkObject(value, context, depth + 1);
   }
 }
 
-function filtersOf(dict: string): string[] {
-  const m = /\/Filter\s*(\[[^\]]*\]|\/[^\s/<>[\]()%{}]+)/.exec(dict);
-  if (!m) return [];
-  return Array.from(namesIn(m[1]), (n) => n.name);
-}
-
-const isObjectStream = (dict: string) => /\/Type\s*\/ObjStm\b/.test(decodeName(dict));
-
-function decodeStream(part: StreamPart, budget: { left: number }): Buffer {
-  let data = part.data;
-  for (const filter of filtersOf(part.dict)) {
-    if (filter === 'FlateDecode' || filter === 'Fl') {
-      if (budget.left <= 0) throw pdfUncheckable('it expands to too much data');
-      try {
-        data = zlib.inflateSync(data, {
-          finishFlush: zlib.constants.Z_SYNC_FLUSH,
-          maxOutputLength: budget.left,
-        });
-      } catch (err) {
-        if ((err as NodeJS.ErrnoException).code === 'ERR_BUFFER_TOO_LARGE')
-          throw pdfUncheckable('it expands to too much data');
-        throw pdfUncheckable('a compressed part is damaged');
-      }
-      const predictor = numberIn(part.dict, 'Predictor', 1);
-      if (predictor >= 10) {
-        data = pngUnpredict(
-          data,
-          numberIn(part.dict, 'Columns', 1),
-          numberIn(part.dict, 'Colors', 1),
-          numberIn(part.dict, 'BitsPerComponent', 8),
-        );
-      } else if (predictor > 1) throw pdfUncheckable('an unusual compression predictor');
-    } else if (filter === 'ASCIIHexDecode' || filter === 'AHx') data = asciiHexDecode(data);
-    else if (filter === 'ASCII85Decode' || filter === 'A85') data = ascii85Decode(data);
-    else throw pdfUncheckable(`the ${filter} encoding`);
-    budget.left -= data.length;
-  }
-  return data;
-}
+const OBJECT_HEADER = /(?<![0-9])[0-9]{1,10}[\0\t\n\f\r ]+[0-9]{1,5}[\0\t\n\f\r ]+obj(?![A-Za-z0-9])/g;
 
 /** Throws an AppError (422) unless the bytes are a complete, passive PDF. */
-export function checkPdf(buf: Buffer): void {
+export async function checkPdf(buf: Buffer): Promise<void> {
+  const tail = buf.subarray(Math.max(0, buf.length - 2048)).toString('latin1');
+  const end = /startxref\s+(\d+)\s+%%EOF\s*$/.exec(tail);
+  if (!/^%PDF-[12]\.\d/.test(buf.subarray(0, 16).toString('latin1')) || !end || Number(end[1]) >= buf.length)
+    throw pdfUnreadable();
+
+  const bytes = new Uint8Array(buf.buffer, buf.byteOffset, buf.length);
+  const budget: Budget = { left: MAX_DECODED_BYTES };
+  const collected: Collected = { objects: [], parsedAt: new Set(), budget };
+  const { parser, internals } = collectingParser(bytes, collected);
+  let context: PDFContext;
+  try {
+    context = await parser.parseDocument();
+  } catch {
+    if (internals.context.trailerInfo.Encrypt) throw pdfEncrypted();
+    throw budget.error ?? pdfUnreadable();
+  }
+  if (context.trailerInfo.Encrypt) throw pdfEncrypted();
+  const catalog = context.lookup(context.trailerInfo.Root);
+  if (!(catalog instanceof PDFDict) || !(catalog.lookup(PDFName.of('Pages')) instanceof PDFDict))
+    throw pdfUnreadable();
+
+  // Object headers the parse did not start at: inside another object's data, or after bytes it skipped.
+  const hidden: Collected = { objects: [], parsedAt: new Set(), budget };
   const text = buf.toString('latin1');
-  const tail = text.slice(-2048);
-  const wellFormed =
-    /^%PDF-[12]\.\d/.test(text) &&
-    /%%EOF\s*$/.test(tail) &&
-    /startxref\s+\d+\s+%%EOF\s*$/.test(tail) &&
-    /\d+\s+\d+\s+obj\b/.test(text) &&
-    /\/Root\s+\d+\s+\d+\s+R/.test(text);
-  if (!wellFormed) throw pdfUnreadable();
-  const startxref = Number(/startxref\s+(\d+)\s+%%EOF\s*$/.exec(tail)![1]);
-  if (startxref >= buf.length) throw pdfUnreadable();
-  if (/\/Encrypt\s+(\d+\s+\d+\s+R|<<)/.test(text)) {
-    throw new AppError(
-      422,
-      'attachment.pdf_encrypted',
-      'This PDF is password-protected or encrypted. Save a copy without protection and upload that.',
-    );
+  let second: ReturnType<typeof collectingParser> | null = null;
+  // Headers inside headers (strings in strings) would make this quadratic: what it may read is bounded.
+  let readLeft = 2 * buf.length + 1024 * 1024;
+  for (const m of text.matchAll(OBJECT_HEADER)) {
+    if (collected.parsedAt.has(m.index)) continue;
+    second ??= collectingParser(bytes, hidden);
+    try {
+      second.internals.bytes.moveTo(m.index);
+      await second.internals.parseIndirectObject();
+    } catch {
+      // Not an object after all (binary data that happens to spell a header): a reader cannot use it either.
+      // An object stream too large to expand is another matter.
+      if (budget.error) throw budget.error;
+    }
+    readLeft -= second.internals.bytes.offset() - m.index;
+    if (readLeft < 0) throw pdfUncheckable('it has too many objects inside other objects');
   }
 
-  const budget = { left: MAX_DECODED_BYTES };
-  let from = 0;
-  for (const part of streamsIn(buf, text)) {
-    scanForActive(text.slice(from, part.start));
-    from = part.end;
-    if (isObjectStream(part.dict)) scanForActive(decodeStream(part, budget).toString('latin1'));
+  for (const obj of collected.objects) {
+    if (obj instanceof PDFInvalidObject) throw pdfUnreadable();
+    checkObject(obj, context);
   }
-  scanForActive(text.slice(from));
+  for (const obj of hidden.objects) checkObject(obj, second!.internals.context);
+  const trailer = context.trailerInfo;
+  for (const obj of [trailer.Info, trailer.ID]) if (obj) checkObject(obj, context);
 }

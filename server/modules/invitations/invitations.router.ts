@@ -2,6 +2,7 @@ import { Router } from 'express';
 import { IsNull } from 'typeorm';
 import { z } from 'zod';
 import { acceptInvitationSchema } from '../../../shared/schemas/auth';
+import { assertPasswordAllowed } from '../../auth/password-policy';
 import { hashPassword } from '../../auth/passwords';
 import type { AppContext } from '../../context';
 import { Invitation } from '../../db/entities/invitation.entity';
@@ -52,6 +53,7 @@ export function invitationsRouter(ctx: AppContext) {
     const { token } = parseWith(tokenParam, req.params, 'link');
     const input = parseBody(acceptInvitationSchema, req);
     const inv = await load(token);
+    assertPasswordAllowed(input.password, 'password', inv.user.email);
     const passwordHash = await hashPassword(input.password);
     await ctx.ds.transaction(async (m) => {
       const used = await m.update(Invitation, { id: inv.id, usedAt: IsNull() }, { usedAt: clock.now() });

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { Logo } from '../../components/layout/logo';
 import { Card } from '../../components/ui/card';
 import { authQueries } from '../../features/auth/api/auth-queries';
@@ -25,6 +25,11 @@ export function SignInRoute() {
         <Card className="p-5 sm:p-6">
           <h1 className="mb-4 text-lg font-semibold text-ink-950">Sign in</h1>
           <SignInForm onSignedIn={() => navigate(next, { replace: true })} />
+          <p className="mt-3 text-center text-sm">
+            <Link to="/forgot-password" className="inline-block py-2 font-medium text-brand-800 underline">
+              Forgot password?
+            </Link>
+          </p>
         </Card>
         {params.get('ended') ? (
           <p role="status" className="mt-4 text-center text-sm text-ink-600">

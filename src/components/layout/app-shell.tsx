@@ -1,6 +1,6 @@
 import { useEffect, useState, type ReactNode } from 'react';
 import { NavLink, useLocation } from 'react-router-dom';
-import { LogOut, MoreHorizontal } from 'lucide-react';
+import { LogOut, MoreHorizontal, UserRound } from 'lucide-react';
 import type { NavItem } from '../../config/nav';
 import { cn } from '../../lib/cn';
 import { Logo } from './logo';
@@ -63,6 +63,12 @@ export function AppShell({
           <p className="truncate text-xs text-ink-600">
             {roleText} · {organizationName}
           </p>
+          <NavLink
+            to="/account"
+            className="mt-3 flex items-center gap-2 rounded-md px-2 py-1.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
+          >
+            <UserRound className="size-4" aria-hidden /> Your account
+          </NavLink>
           <button
             type="button"
             onClick={onSignOut}
@@ -78,6 +84,13 @@ export function AppShell({
         <Logo className="text-base text-ink-950" />
         <div className="flex min-w-0 items-center gap-2">
           <span className="truncate text-xs text-ink-600">{organizationName}</span>
+          <NavLink
+            to="/account"
+            aria-label="Your account"
+            className="inline-flex size-10 shrink-0 items-center justify-center rounded-lg text-ink-700 hover:bg-ink-100"
+          >
+            <UserRound className="size-5" aria-hidden />
+          </NavLink>
           <button
             type="button"
             onClick={onSignOut}
