@@ -1,3 +1,4 @@
+import { AccountingMap } from './accounting-map.entity';
 import { Attachment } from './attachment.entity';
 import { AuditEvent } from './audit-event.entity';
 import { BenchTest } from './bench-test.entity';
@@ -48,6 +49,7 @@ export const entities = [
   Decision,
   ClaimDocument,
   CreditMemo,
+  AccountingMap,
   LedgerEntry,
   MemoSequence,
   MemoPrefix,
