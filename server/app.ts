@@ -21,6 +21,7 @@ import { requireJsonBody } from './middleware/validate';
 import { analyticsRouter } from './modules/analytics/analytics.router';
 import { authRouter } from './modules/auth/auth.router';
 import { claimActionsRouter } from './modules/claim-actions/claim-actions.router';
+import { accountingRouter } from './modules/credits/accounting.router';
 import { claimCreditsRouter, creditsRouter } from './modules/credits/credits.router';
 import { claimsRouter } from './modules/claims/claims.router';
 import { evaluationsRouter } from './modules/evaluations/evaluations.router';
@@ -135,6 +136,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/claims', claimCreditsRouter(ctx));
   api.use('/claims', claimsRouter(ctx));
   api.use('/review', reviewRouter(ctx));
+  api.use('/credits', accountingRouter(ctx));
   api.use('/credits', creditsRouter(ctx));
   api.use('/analytics', analyticsRouter(ctx));
   api.use('/reserve', reserveRouter(ctx));

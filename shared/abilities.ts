@@ -27,6 +27,7 @@ export type SubjectName =
   | 'Installation'
   | 'Claim'
   | 'CreditMemo'
+  | 'AccountingMap'
   | 'AuditEvent'
   | 'Mailbox'
   | 'Evaluation'
@@ -90,8 +91,11 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     // The names of the contractors who file with them (the queue's picker); the server lists only those with
     // claims on this manufacturer.
     if (has('reviewer') || has('administrator')) can('read', 'Organization', { kind: 'contractor' });
-    if (has('accountant') || has('administrator'))
+    if (has('accountant') || has('administrator')) {
       can(['read', 'export'], 'Reserve', { manufacturerId: orgId });
+      // The accounts the journal export books credit memos to: set once by the organisation's money people.
+      can(['read', 'update'], 'AccountingMap', { organizationId: orgId });
+    }
     if (has('accountant')) {
       can('credit', 'Claim', { manufacturerId: orgId });
       can(['read', 'create', 'export'], 'CreditMemo', { manufacturerId: orgId });

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { JournalLine, JournalTotal } from '../credits/journal';
 import { listQuerySchema } from './users';
 
 // Payloads of the credits API: issuing a memo, voiding one, the lists, the export and the cost view.
@@ -79,6 +80,58 @@ export const creditExportQuerySchema = z
   });
 export type CreditExportQuery = z.infer<typeof creditExportQuerySchema>;
 
+const accountRef = (which: string) =>
+  z.strictObject({
+    code: z
+      .string({ error: `Give the ${which} account's code.` })
+      .trim()
+      .regex(
+        /^[A-Za-z0-9][A-Za-z0-9.-]{0,19}$/,
+        'An account code is 1 to 20 letters, digits, dots or dashes.',
+      ),
+    name: z
+      .string({ error: `Give the ${which} account's name.` })
+      .trim()
+      .min(1, `Give the ${which} account's name.`)
+      .max(100, 'Keep the name under 100 characters.'),
+  });
+
+/** PUT /api/credits/accounting-map: the accounts the journal export books credit memos to. */
+export const accountingMapSchema = z
+  .strictObject({
+    debitAccount: accountRef('debit'),
+    creditAccount: accountRef('credit'),
+    journalCode: z
+      .string({ error: 'Give the journal (voucher series) code.' })
+      .trim()
+      .regex(/^[A-Za-z0-9]{1,10}$/, 'A journal code is 1 to 10 letters or digits.'),
+  })
+  .refine((v) => v.debitAccount.code !== v.creditAccount.code, {
+    message: 'Debit and credit must be two different accounts.',
+    path: ['creditAccount', 'code'],
+  });
+export type AccountingMapInput = z.infer<typeof accountingMapSchema>;
+
+export const JOURNAL_FORMATS = ['csv', 'sie', 'json'] as const;
+
+/** GET /api/credits/journal: memos and reversals issued in the range, as journal entries. */
+export const journalQuerySchema = z
+  .strictObject({
+    from: isoDate,
+    to: isoDate,
+    format: z.enum(JOURNAL_FORMATS).default('json'),
+    currency: z
+      .string()
+      .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
+      .optional(),
+  })
+  .refine(rangeInOrder, rangeMessage)
+  .refine((v) => Date.parse(v.to) - Date.parse(v.from) <= 366 * 5 * 86_400_000, {
+    message: 'Export at most five years at a time.',
+    path: ['to'],
+  });
+export type JournalQuery = z.infer<typeof journalQuerySchema>;
+
 export const warrantyCostQuerySchema = z
   .strictObject({
     ...dateRange,
@@ -130,6 +183,15 @@ export type BalanceDto = {
   currency: string;
   balance: string;
   memos: number;
+};
+
+export type AccountingMapDto = AccountingMapInput & { updatedAt: string | null };
+
+export type JournalDto = {
+  from: string;
+  to: string;
+  lines: JournalLine[];
+  totals: JournalTotal[];
 };
 
 export type CostRow = { key: string; label: string; currency: string; credited: string; pending: string };

@@ -46,3 +46,47 @@ test.describe('credits', () => {
     await expect(page.getByRole('button', { name: /^Void / })).toHaveCount(0);
   });
 });
+
+test.describe('journal for the books', () => {
+  test('an accountant sees the journal balance, changes the accounts and downloads CSV and SIE', async ({
+    page,
+  }) => {
+    await signInAs(page, 'ada@aldercrest.test');
+    await page.goto('/credits');
+    await expect(page.getByRole('heading', { level: 1, name: 'Credit memos' })).toBeVisible();
+    const exportCard = page.getByRole('region', { name: 'Export for accounting' });
+    await exportCard.getByLabel('From').fill('2025-01-01');
+    const summary = page.getByText(/entries in USD: debits [\d,]+\.\d\d, credits [\d,]+\.\d\d/);
+    await expect(summary).toBeVisible();
+    const [, debits, credits] = (await summary.textContent())!.match(/debits ([\d,.]+), credits ([\d,.]+)/)!;
+    expect(debits).toBe(credits);
+
+    const form = page.getByRole('form', { name: 'Accounts for the journal' });
+    await expect(form.getByLabel('Debit account code')).toHaveValue('5410');
+    await form.getByLabel('Credit account code').fill('5410');
+    await form.getByRole('button', { name: 'Save accounts' }).click();
+    await expect(form.getByText('Debit and credit must be two different accounts.')).toBeVisible();
+    await form.getByLabel('Credit account code').fill('2441');
+    await form.getByRole('button', { name: 'Save accounts' }).click();
+    await expect(page.getByText('Accounts saved. Journals now book memos to them.')).toBeVisible();
+
+    const [csv] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('link', { name: 'Journal CSV' }).click(),
+    ]);
+    expect(csv.suggestedFilename()).toMatch(/^lumenproof-journal-2025-01-01-to-\d{4}-\d\d-\d\d\.csv$/);
+    const text = fs.readFileSync(await csv.path(), 'utf8');
+    expect(text.split('\r\n')[0]).toBe(
+      'journal,entry,date,account,account_name,debit,credit,currency,memo_number,kind,claim_number,contractor,contractor_id,description',
+    );
+    expect(text).toContain(',2441,');
+
+    const [sie] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('link', { name: 'SIE 4 file' }).click(),
+    ]);
+    expect(sie.suggestedFilename()).toMatch(/\.se$/);
+    expect(fs.readFileSync(await sie.path(), 'latin1').startsWith('#FLAGGA 0\r\n')).toBe(true);
+    expect(await seriousA11yViolations(page)).toEqual([]);
+  });
+});

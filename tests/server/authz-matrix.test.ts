@@ -3,6 +3,7 @@ import fs from 'node:fs';
 import type supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hashToken } from '../../server/modules/users/users.service';
+import { AccountingMap } from '../../server/db/entities/accounting-map.entity';
 import { Invitation } from '../../server/db/entities/invitation.entity';
 import { PasswordReset } from '../../server/db/entities/password-reset.entity';
 import type { Organization } from '../../server/db/entities/organization.entity';
@@ -122,6 +123,12 @@ type Entry = {
   variants?: Record<string, Partial<Omit<Entry, 'variants'>>>;
 };
 
+// Invented demo codes.
+const ACCOUNTING_MAP = {
+  debitAccount: { code: '5410', name: 'Warranty credits' },
+  creditAccount: { code: '2440', name: 'Contractor credits payable' },
+  journalCode: 'WC',
+};
 const validClaim = JSON.parse(fs.readFileSync('tests/shared/engine/fixtures/valid-claim.json', 'utf8'));
 const unique = () => crypto.randomBytes(4).toString('hex');
 const colleagueOf = (w: World, a: Actor) =>
@@ -635,6 +642,28 @@ const ROUTES: Record<string, Entry> = {
   'GET /api/credits/balances': { ok: MEMO_READERS },
   'GET /api/credits/export': { ok: { accountant: 200 }, query: 'from=2025-01-01&to=2026-12-31' },
   'GET /api/credits/cost': { ok: { accountant: 200 } },
+  // The accounts the journal books memos to: the manufacturer's accountants and administrators; the journal
+  // itself is an export (its accountants).
+  'GET /api/credits/accounting-map': { ok: { accountant: 200, mAdmin: 200 } },
+  'PUT /api/credits/accounting-map': { ok: { accountant: 200, mAdmin: 200 }, body: () => ACCOUNTING_MAP },
+  'GET /api/credits/journal': {
+    ok: { accountant: 200 },
+    query: 'from=2026-01-01&to=2026-12-31',
+    target: async (w) => {
+      await t.ds.getRepository(AccountingMap).upsert(
+        {
+          organizationId: w.m.id,
+          debitAccountCode: ACCOUNTING_MAP.debitAccount.code,
+          debitAccountName: ACCOUNTING_MAP.debitAccount.name,
+          creditAccountCode: ACCOUNTING_MAP.creditAccount.code,
+          creditAccountName: ACCOUNTING_MAP.creditAccount.name,
+          journalCode: ACCOUNTING_MAP.journalCode,
+        },
+        ['organizationId'],
+      );
+      return {};
+    },
+  },
   'GET /api/credits/:id': { ok: MEMO_READERS, denied: 404, target: (w) => ({ id: w.memoId }) },
   'GET /api/credits/:id/pdf': { ok: MEMO_READERS, denied: 404, target: (w) => ({ id: w.memoId }) },
   'POST /api/credits/:id/void': {

@@ -1,3 +1,4 @@
+import { AccountingMap } from './accounting-map.entity';
 import { Attachment } from './attachment.entity';
 import { AuditEvent } from './audit-event.entity';
 import { BenchTest } from './bench-test.entity';
@@ -52,6 +53,7 @@ export const entities = [
   CreditMemo,
   PasswordReset,
   PasswordResetRequest,
+  AccountingMap,
   LedgerEntry,
   MemoSequence,
   MemoPrefix,

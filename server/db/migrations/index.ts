@@ -14,6 +14,7 @@ import { ReviewQueueCountIndex1796178256332 } from './1796178256332-ReviewQueueC
 import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexes';
 import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
 import { PasswordResets1796285107025 } from './1796285107025-PasswordResets';
+import { AccountingMaps1796285144565 } from './1796285144565-AccountingMaps';
 
 export const migrations = [
   Foundation1796165467051,
@@ -31,4 +32,5 @@ export const migrations = [
   StorageKeyIndexes1796179613559,
   ClaimCounts1796188776668,
   PasswordResets1796285107025,
+  AccountingMaps1796285144565,
 ];

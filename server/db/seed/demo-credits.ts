@@ -7,6 +7,7 @@ import { clock } from '../../lib/clock';
 import type { Storage } from '../../lib/storage';
 import { approvedAmountOf, createCreditsService } from '../../modules/credits/credits.service';
 import type { AppDataSource } from '../data-source';
+import { AccountingMap } from '../entities/accounting-map.entity';
 import { Claim } from '../entities/claim.entity';
 import { Installation } from '../entities/installation.entity';
 import { Organization } from '../entities/organization.entity';
@@ -152,4 +153,18 @@ export async function seedDemoCredits(ds: AppDataSource, storage: Storage, confi
       clock.reset();
     }
   }
+
+  // Aldercrest's accountant has mapped the journal's accounts (invented demo codes); Veltra's has not yet, so the
+  // demo shows both.
+  const aldercrest = byName('Aldercrest Lighting');
+  if (aldercrest)
+    await ds.getRepository(AccountingMap).insert({
+      organizationId: aldercrest.id,
+      debitAccountCode: '5410',
+      debitAccountName: 'Warranty credits to contractors',
+      creditAccountCode: '2440',
+      creditAccountName: 'Contractor credits payable',
+      journalCode: 'WC',
+      updatedById: users.find((u) => u.email === 'ada@aldercrest.test')?.id ?? null,
+    });
 }

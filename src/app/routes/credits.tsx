@@ -1,4 +1,5 @@
 import { PageHeader } from '../../components/ui/page-header';
+import { AccountingMapForm } from '../../features/credits/components/accounting-map-form';
 import { Balances } from '../../features/credits/components/balances';
 import { CreditExport } from '../../features/credits/components/credit-export';
 import { CreditsTable } from '../../features/credits/components/credits-table';
@@ -31,6 +32,7 @@ export function CreditsRoute() {
         {ability.can('export', 'CreditMemo') ? <CreditExport /> : null}
         <CreditsTable canVoid={ability.can('create', 'CreditMemo')} partyLabel="Contractor" />
         <Balances side="manufacturer" />
+        {ability.can('update', 'AccountingMap') ? <AccountingMapForm /> : null}
       </div>
     </>
   );

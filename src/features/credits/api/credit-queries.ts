@@ -1,7 +1,9 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { Paginated } from '../../../../shared/schemas/users';
 import type {
+  AccountingMapDto,
   BalanceDto,
+  JournalDto,
   CreditMemoDto,
   QueueItemDto,
   WarrantyCostDto,
@@ -40,6 +42,18 @@ export const creditQueries = {
       queryKey: ['credits', 'balances'],
       queryFn: () => api<{ items: BalanceDto[] }>('/credits/balances'),
     }),
+  accountingMap: () =>
+    queryOptions({
+      queryKey: ['credits', 'accounting-map'],
+      queryFn: () => api<{ accountingMap: AccountingMapDto | null }>('/credits/accounting-map'),
+    }),
+  /** The journal's preview (its lines and totals) for the range; refused (409) until the accounts are mapped. */
+  journal: (from: string, to: string) =>
+    queryOptions({
+      queryKey: ['credits', 'journal', { from, to }],
+      queryFn: () => api<JournalDto>(`/credits/journal${toQuery({ from, to, format: 'json' })}`),
+      retry: false,
+    }),
   cost: (f: { from?: string; to?: string }) =>
     queryOptions({
       queryKey: ['credits', 'cost', f],
@@ -49,3 +63,5 @@ export const creditQueries = {
 
 export const creditPdfUrl = (id: string) => `/api/credits/${encodeURIComponent(id)}/pdf`;
 export const creditExportUrl = (from: string, to: string) => `/api/credits/export${toQuery({ from, to })}`;
+export const journalUrl = (from: string, to: string, format: 'csv' | 'sie', currency?: string) =>
+  `/api/credits/journal${toQuery({ from, to, format, currency })}`;

@@ -1,23 +1,41 @@
 import { useState } from 'react';
-import { FileSpreadsheet } from 'lucide-react';
+import { useQuery } from '@tanstack/react-query';
+import { BookOpenCheck, FileSpreadsheet } from 'lucide-react';
+import { groupAmount } from '../../../../shared/credits/money';
 import { buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
-import { InputField } from '../../../components/ui/field';
-import { creditExportUrl } from '../api/credit-queries';
+import { InputField, SelectField } from '../../../components/ui/field';
+import { ApiError } from '../../../lib/api-client';
+import { creditExportUrl, creditQueries, journalUrl } from '../api/credit-queries';
 
 const today = () => new Date().toISOString().slice(0, 10);
 const monthStart = () => `${today().slice(0, 8)}01`;
 
-/** The CSV for the accounting system: memos and reversals (negative) in the range, then a total per currency. */
+/**
+ * The files for the accounting system: the memo CSV (memos and reversals, negative, with a total per currency),
+ * and the journal on the mapped accounts as CSV lines or an SIE 4 file, with its totals shown before download.
+ */
 export function CreditExport() {
   const [from, setFrom] = useState(monthStart());
   const [to, setTo] = useState(today());
+  const [currency, setCurrency] = useState('');
   const bad = !from || !to || from > to;
+  const journal = useQuery({ ...creditQueries.journal(from, to), enabled: !bad });
+  const unmapped = journal.error instanceof ApiError && journal.error.code === 'accounting.map_missing';
+  const totals = journal.data?.totals ?? [];
+  const sieCurrency = currency || (totals.length === 1 ? totals[0].currency : '');
+  const link = (href: string | undefined, off: boolean) => ({
+    className: buttonClasses('secondary', 'md', off ? 'pointer-events-none opacity-50' : undefined),
+    'aria-disabled': off,
+    href: off ? undefined : href,
+    download: true,
+  });
+
   return (
-    <Card>
+    <Card role="region" aria-label="Export for accounting">
       <CardHeader
         title="Export for accounting"
-        description="Memos and reversals issued in the range (UTC days), with a total per currency."
+        description="Memos and reversals issued in the range (UTC days): a list with a total per currency, or journal entries on your mapped accounts."
       />
       <div className="flex flex-wrap items-end gap-3 px-4 py-4 sm:px-5">
         <InputField label="From" type="date" value={from} onChange={(e) => setFrom(e.target.value)} />
@@ -37,6 +55,60 @@ export function CreditExport() {
           <FileSpreadsheet className="size-4" aria-hidden /> Download CSV
         </a>
       </div>
+      <section aria-labelledby="journal-heading" className="border-t border-ink-100 px-4 py-4 sm:px-5">
+        <h3 id="journal-heading" className="text-sm font-semibold text-ink-900">
+          Journal entries
+        </h3>
+        {unmapped ? (
+          <p className="mt-1 text-sm text-ink-700">
+            Map the accounts credit memos are booked to (below) to export journal entries.
+          </p>
+        ) : (
+          <>
+            <p className="mt-1 text-sm text-ink-700" aria-live="polite">
+              {journal.error instanceof ApiError
+                ? journal.error.message
+                : journal.isPending && !bad
+                  ? 'Adding up the entries…'
+                  : totals.length === 0
+                    ? 'No memos in the range.'
+                    : totals
+                        .map(
+                          (t) =>
+                            `${t.entries} ${t.entries === 1 ? 'entry' : 'entries'} in ${t.currency}: debits ${groupAmount(t.debit)}, credits ${groupAmount(t.credit)}`,
+                        )
+                        .join('; ')}
+            </p>
+            <div className="mt-3 flex flex-wrap items-end gap-3">
+              {totals.length > 1 ? (
+                <SelectField
+                  label="Currency of the SIE file"
+                  value={currency}
+                  onChange={(e) => setCurrency(e.target.value)}
+                >
+                  <option value="">Choose…</option>
+                  {totals.map((t) => (
+                    <option key={t.currency} value={t.currency}>
+                      {t.currency}
+                    </option>
+                  ))}
+                </SelectField>
+              ) : null}
+              <a {...link(journalUrl(from, to, 'csv'), bad || !journal.data)}>
+                <FileSpreadsheet className="size-4" aria-hidden /> Journal CSV
+              </a>
+              <a
+                {...link(
+                  journalUrl(from, to, 'sie', sieCurrency || undefined),
+                  bad || !journal.data || (totals.length > 1 && !sieCurrency),
+                )}
+              >
+                <BookOpenCheck className="size-4" aria-hidden /> SIE 4 file
+              </a>
+            </div>
+          </>
+        )}
+      </section>
     </Card>
   );
 }
