@@ -19,7 +19,9 @@ import { Organization } from './organization.entity';
 import { OutboxMessage } from './outbox-message.entity';
 import { PolicyModel } from './policy-model.entity';
 import { ProductModel } from './product-model.entity';
+import { RecoveryCode } from './recovery-code.entity';
 import { ReturnAuthorization } from './return-authorization.entity';
+import { SignInChallenge } from './sign-in-challenge.entity';
 import { User } from './user.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 import { WarrantyPolicy } from './warranty-policy.entity';
@@ -52,4 +54,6 @@ export const entities = [
   MemoSequence,
   MemoPrefix,
   IdempotencyKey,
+  RecoveryCode,
+  SignInChallenge,
 ];
