@@ -16,6 +16,7 @@ import type { Logger } from './lib/logger';
 import { createStorage, type Storage } from './lib/storage';
 import { sessionPolicy } from './middleware/auth';
 import { errorHandler } from './middleware/error-handler';
+import { requireSecondFactorEnrollment } from './middleware/second-factor';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { analyticsRouter } from './modules/analytics/analytics.router';
@@ -28,10 +29,12 @@ import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
 import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
+import { organizationsRouter } from './modules/organizations/organizations.router';
 import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
 import { reserveRouter } from './modules/reserve/reserve.router';
+import { secondFactorResetRouter, secondFactorRouter } from './modules/second-factor/second-factor.router';
 import { usersRouter } from './modules/users/users.router';
 
 export type CreateAppOptions = {
@@ -120,9 +123,13 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(pp.initialize());
   api.use(pp.session());
   api.use(sessionPolicy({ demoMode: config.mode === 'demo' }));
+  api.use(requireSecondFactorEnrollment(config));
+  api.use('/auth', secondFactorRouter(ctx));
   api.use('/auth', authRouter(ctx, pp));
   api.use('/invitations', invitationsRouter(ctx));
+  api.use('/users', secondFactorResetRouter(ctx));
   api.use('/users', usersRouter(ctx));
+  api.use('/organizations', organizationsRouter(ctx));
   api.use('/evaluations', evaluationsRouter());
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
