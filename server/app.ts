@@ -35,6 +35,8 @@ import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
 import { reserveRouter } from './modules/reserve/reserve.router';
 import { secondFactorResetRouter, secondFactorRouter } from './modules/second-factor/second-factor.router';
+import { securityEventsRouter } from './modules/security-events/security-events.router';
+import { sessionsRouter } from './modules/sessions/sessions.router';
 import { usersRouter } from './modules/users/users.router';
 
 export type CreateAppOptions = {
@@ -125,11 +127,13 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(sessionPolicy({ demoMode: config.mode === 'demo' }));
   api.use(requireSecondFactorEnrollment(config));
   api.use('/auth', secondFactorRouter(ctx));
+  api.use('/auth/sessions', sessionsRouter(ctx));
   api.use('/auth', authRouter(ctx, pp));
   api.use('/invitations', invitationsRouter(ctx));
   api.use('/users', secondFactorResetRouter(ctx));
   api.use('/users', usersRouter(ctx));
   api.use('/organizations', organizationsRouter(ctx));
+  api.use('/security-events', securityEventsRouter(ctx));
   api.use('/evaluations', evaluationsRouter());
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));
