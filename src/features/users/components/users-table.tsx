@@ -113,9 +113,9 @@ export function UsersAdmin() {
                 )
                   resetFactor.mutate(u);
               }}
-              aria-label={`Reset the second factor of ${u.name}`}
+              aria-label={`Reset second factor of ${u.name}`}
             >
-              Reset 2FA
+              Reset second factor
             </Button>
           ) : null}
           {u.status === 'disabled' ? (
