@@ -172,6 +172,12 @@ describe('signing in with a second factor', () => {
       expect(r.status).toBe(401);
       expect(r.body.error.code).toBe('auth.second_factor_invalid_code');
     }
+    // Each wrong code is a failed sign-in in the audit log (the security events page shows them).
+    const failures = await audits(user.id, 'user.sign_in_failed');
+    expect(failures).toHaveLength(5);
+    expect(failures.map((f) => f.after)).toContainEqual(
+      expect.objectContaining({ reason: 'second_factor', attempt: 5 }),
+    );
     const right = await agent
       .post('/api/auth/login/second-factor')
       .send({ code: await totpCode(secret, clock.nowMs()) });

@@ -138,7 +138,22 @@ export function createSecondFactorService(ctx: AppContext) {
           .execute();
         if (used.affected) method = 'recovery_code';
       }
-      if (!method) throw invalidCode(401);
+      if (!method) {
+        // A wrong second factor after a right password is a sign-in failure worth an administrator's eye.
+        await ds.transaction((m) =>
+          recordAudit(
+            m,
+            { userId: null, organizationId: user.organizationId, requestId: String(req.id) },
+            {
+              action: 'user.sign_in_failed',
+              entityType: 'User',
+              entityId: user.id,
+              after: { ip: req.ip ?? null, reason: 'second_factor', attempt: challenge.attempts },
+            },
+          ),
+        );
+        throw invalidCode(401);
+      }
 
       // One completion per challenge: a second request with another good code finds it gone.
       const taken = await ds.getRepository(SignInChallenge).delete({ id: challengeId });
