@@ -16,6 +16,7 @@ import type { Logger } from './lib/logger';
 import { createStorage, type Storage } from './lib/storage';
 import { sessionPolicy } from './middleware/auth';
 import { errorHandler } from './middleware/error-handler';
+import { requireSecondFactorEnrollment } from './middleware/second-factor';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { analyticsRouter } from './modules/analytics/analytics.router';
@@ -30,10 +31,14 @@ import { installationsRouter } from './modules/installations/installations.route
 import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
 import { passwordsRouter } from './modules/passwords/passwords.router';
+import { organizationsRouter } from './modules/organizations/organizations.router';
 import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
 import { reserveRouter } from './modules/reserve/reserve.router';
+import { secondFactorResetRouter, secondFactorRouter } from './modules/second-factor/second-factor.router';
+import { securityEventsRouter } from './modules/security-events/security-events.router';
+import { sessionsRouter } from './modules/sessions/sessions.router';
 import { usersRouter } from './modules/users/users.router';
 
 export type CreateAppOptions = {
@@ -122,10 +127,16 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(pp.initialize());
   api.use(pp.session());
   api.use(sessionPolicy({ demoMode: config.mode === 'demo' }));
+  api.use(requireSecondFactorEnrollment(config));
   api.use('/auth/password', passwordsRouter(ctx));
+  api.use('/auth', secondFactorRouter(ctx));
+  api.use('/auth/sessions', sessionsRouter(ctx));
   api.use('/auth', authRouter(ctx, pp));
   api.use('/invitations', invitationsRouter(ctx));
+  api.use('/users', secondFactorResetRouter(ctx));
   api.use('/users', usersRouter(ctx));
+  api.use('/organizations', organizationsRouter(ctx));
+  api.use('/security-events', securityEventsRouter(ctx));
   api.use('/evaluations', evaluationsRouter());
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));

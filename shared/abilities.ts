@@ -64,6 +64,8 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     can(['invite', 'update', 'disable'], 'User', { organizationId: orgId });
     cannot(['disable'], 'User', { id: user.id }); // an administrator cannot lock themself out
     can('read', 'AuditEvent', { organizationId: orgId });
+    // Its security settings (a second factor for every member).
+    can('update', 'Organization', { id: orgId });
     if (opts.demoMode) can('read', 'Mailbox');
     if (kind === 'manufacturer') {
       can(['create', 'update'], 'ProductModel', { manufacturerId: orgId });

@@ -20,6 +20,13 @@ declare module 'express-session' {
   interface SessionData {
     createdAt: number;
     lastSeenAt: number;
+    /** What the sessions page shows: the browser that signed in and the address it was last seen from. */
+    userAgent: string;
+    ip: string;
+    /** A sign-in waiting for its second factor (server/modules/second-factor). */
+    secondFactorChallengeId: string;
+    /** A TOTP secret being enrolled, until a code confirms it. */
+    enrollmentSecret: string;
   }
 }
 
@@ -49,8 +56,8 @@ type Loaded = { id: string; user: User | null };
  * The user comes fresh from the database on every request, so a disabled user or a changed role counts at once.
  */
 const SESSION_SQL = `SELECT s.data, s.expires, u.id AS u_id, u.organization_id, u.email, u.name, u.roles, u.status,
-       u.last_sign_in_at, u.created_at, u.updated_at, u.version, o.name AS o_name, o.kind AS o_kind,
-       o.created_at AS o_created_at
+       u.last_sign_in_at, u.created_at, u.updated_at, u.version, u.totp_confirmed_at, o.name AS o_name,
+       o.kind AS o_kind, o.require_second_factor AS o_require_second_factor, o.created_at AS o_created_at
   FROM sessions s
   LEFT JOIN users u ON u.id = JSON_VALUE(s.data, '$.passport.user')
   LEFT JOIN organizations o ON o.id = u.organization_id
@@ -69,8 +76,10 @@ type SessionRow = {
   created_at: Date;
   updated_at: Date;
   version: number;
+  totp_confirmed_at: Date | null;
   o_name: string;
   o_kind: Organization['kind'];
+  o_require_second_factor: number;
   o_created_at: Date;
 };
 
@@ -79,6 +88,7 @@ function userOf(r: SessionRow): User {
     id: r.organization_id,
     name: r.o_name,
     kind: r.o_kind,
+    requireSecondFactor: Boolean(r.o_require_second_factor),
     createdAt: r.o_created_at,
   });
   return Object.assign(new User(), {
@@ -92,6 +102,10 @@ function userOf(r: SessionRow): User {
     roles: (r.roles ? r.roles.split(',') : []) as User['roles'],
     status: r.status,
     lastSignInAt: r.last_sign_in_at,
+    // Whether a factor is confirmed is needed on every request (the enrolment requirement); the secret is not.
+    totpSecret: null,
+    totpConfirmedAt: r.totp_confirmed_at,
+    totpLastStep: null,
     createdAt: r.created_at,
     updatedAt: r.updated_at,
     version: r.version,
@@ -169,6 +183,12 @@ export class SessionStore extends MySQLStore {
     await super.close();
     await new Promise<void>((resolve) => this.pool.end(() => resolve()));
   }
+}
+
+/** Notes the browser and address of a session being signed in, for the sessions page. */
+export function recordSessionDevice(req: Request) {
+  req.session.userAgent = (req.get('user-agent') ?? '').slice(0, 400);
+  req.session.ip = req.ip ?? '';
 }
 
 export function createSessionStore(databaseUrl: string) {

@@ -54,6 +54,11 @@ const envSchema = z.object({
     .default(60),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   OUTBOX_WORKER: bool.default(true),
+  /**
+   * Accountants and administrators of manufacturers must have a second factor. On by default in production mode,
+   * off in demo mode (the demo accounts sign in with the password alone unless they enrol).
+   */
+  SECOND_FACTOR_FOR_ROLES: bool.optional(),
   /** Tests only (NODE_ENV=test): the credit-issuing transaction sleeps this long after the memo insert. */
   TEST_CREDIT_PAUSE_MS: z.coerce.number().int().min(0).max(120_000).default(0),
 });
@@ -88,6 +93,8 @@ export type AppConfig = {
   };
   logLevel: string;
   outboxWorker: boolean;
+  /** Accountants and administrators of manufacturers must have a second factor (SECOND_FACTOR_FOR_ROLES). */
+  secondFactorForRoles: boolean;
   /** 0 unless NODE_ENV=test asks for a pause inside the issuing transaction (the crash test). */
   testCreditPauseMs: number;
 };
@@ -149,6 +156,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     },
     logLevel: e.LOG_LEVEL,
     outboxWorker: e.OUTBOX_WORKER,
+    secondFactorForRoles: e.SECOND_FACTOR_FOR_ROLES ?? mode === 'production',
     testCreditPauseMs: e.NODE_ENV === 'test' ? e.TEST_CREDIT_PAUSE_MS : 0,
   };
 }

@@ -38,7 +38,10 @@ export function sessionPolicy(opts: { demoMode: boolean }): RequestHandler {
           next(new AppError(401, 'auth.session_expired', 'Your session has ended. Please sign in again.'));
         });
       }
-      if (!s.lastSeenAt || now - s.lastSeenAt >= SESSION_TOUCH_INTERVAL_MS) s.lastSeenAt = now;
+      if (!s.lastSeenAt || now - s.lastSeenAt >= SESSION_TOUCH_INTERVAL_MS) {
+        s.lastSeenAt = now;
+        s.ip = req.ip ?? '';
+      }
     }
     req.ability = defineAbilityFor(req.user ? toAbilityUser(req.user) : null, opts);
     next();

@@ -38,6 +38,15 @@ export const router = createBrowserRouter([
         lazy: () => import('./routes/admin/users').then((m) => ({ Component: m.UsersRoute })),
       },
       {
+        path: 'admin/security-events',
+        lazy: () =>
+          import('./routes/admin/security-events').then((m) => ({ Component: m.SecurityEventsRoute })),
+      },
+      {
+        path: 'security',
+        lazy: () => import('./routes/security').then((m) => ({ Component: m.SecurityRoute })),
+      },
+      {
         path: 'admin/mailbox',
         lazy: () => import('./routes/admin/mailbox').then((m) => ({ Component: m.MailboxRoute })),
       },

@@ -8,6 +8,7 @@ import {
   Lightbulb,
   MapPin,
   Receipt,
+  ShieldAlert,
   Users,
   type LucideIcon,
 } from 'lucide-react';
@@ -29,6 +30,8 @@ export function navFor(ability: AppAbility): NavItem[] {
     items.push({ to: '/analytics', label: 'Failure analysis', icon: Activity });
   if (ability.can('read', 'Reserve')) items.push({ to: '/reserve', label: 'Reserve', icon: Landmark });
   if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });
+  if (ability.can('read', 'AuditEvent'))
+    items.push({ to: '/admin/security-events', label: 'Security events', icon: ShieldAlert });
   if (ability.can('read', 'Mailbox')) items.push({ to: '/admin/mailbox', label: 'Mailbox', icon: Inbox });
   return items;
 }

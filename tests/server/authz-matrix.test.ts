@@ -107,6 +107,8 @@ type Entry = {
   roleCheckFirst?: boolean;
   /** Use a new session for every case (the route ends or replaces it). */
   freshSession?: boolean;
+  /** The route ends the actor's other sessions: every shared session signs in again after each case. */
+  endsOtherSessions?: boolean;
   /** Why an allowed actor still gets 409/422 here. */
   stateReason?: string;
   /** Route parameters that are not record ids (an action's name): kept as they are in every case. */
@@ -133,6 +135,13 @@ const validClaim = JSON.parse(fs.readFileSync('tests/shared/engine/fixtures/vali
 const unique = () => crypto.randomBytes(4).toString('hex');
 const colleagueOf = (w: World, a: Actor) =>
   a !== 'anon' && KIND[a] === 'manufacturer' ? w.colleague.manufacturer : w.colleague.contractor;
+const orgOf = (w: World, a: Actor) => (a !== 'anon' && KIND[a] === 'manufacturer' ? w.m : w.c);
+/** Another session of the actor's counterpart in that world (the installer's for anon), by its public id. */
+async function otherSessionOf(w: World, a: Actor) {
+  const agent = await signIn(t.request(), w.users[a === 'anon' ? 'installer' : a].email);
+  const list = (await agent.get('/api/auth/sessions')).body.items as { id: string; current: boolean }[];
+  return { id: list.find((s) => s.current)!.id };
+}
 const everyone = (status: number) =>
   Object.fromEntries(ACTORS.map((a) => [a, status])) as Record<Actor, number>;
 const members = (list: Member[], status: number) =>
@@ -344,6 +353,42 @@ const ROUTES: Record<string, Entry> = {
     body: () => ({ currentPassword: 'not the password', newPassword: 'a long enough password for the test' }),
   },
 
+  // The second factor: one's own, so nothing is foreign. Without a sign-in waiting for a code, the second step is
+  // a 401 for everyone.
+  'POST /api/auth/login/second-factor': { ok: everyone(401), body: () => ({ code: '123456' }) },
+  'GET /api/auth/second-factor': { ok: members(SIGNED_IN, 200) },
+  'POST /api/auth/second-factor/enrollment': { ok: members(SIGNED_IN, 200), freshSession: true },
+  'POST /api/auth/second-factor/enrollment/confirm': {
+    ok: members(SIGNED_IN, 409),
+    stateReason: 'a fresh session has no enrolment started',
+    freshSession: true,
+    body: () => ({ code: '123456' }),
+  },
+  'DELETE /api/auth/second-factor': {
+    ok: members(SIGNED_IN, 409),
+    stateReason: 'the matrix users have no second factor to remove',
+    body: () => ({ password: TEST_PASSWORD }),
+  },
+  // Sessions: one's own only; another person's session is as missing as a made-up one.
+  'GET /api/auth/sessions': { ok: members(SIGNED_IN, 200) },
+  'POST /api/auth/sessions/sign-out-others': { ok: members(SIGNED_IN, 200), endsOtherSessions: true },
+  'DELETE /api/auth/sessions/:id': {
+    ok: members(SIGNED_IN, 204),
+    target: (w, a) => otherSessionOf(w, a),
+  },
+  // The organisation's security settings: its members read them, its administrators change them.
+  'GET /api/organizations/:id/security': {
+    ok: members(SIGNED_IN, 200),
+    target: (w, a) => ({ id: orgOf(w, a).id }),
+  },
+  'PATCH /api/organizations/:id/security': {
+    ok: members(['cAdmin', 'mAdmin'], 200),
+    target: (w, a) => ({ id: orgOf(w, a).id }),
+    // Never true here: every matrix user would be held at enrolment.
+    body: () => ({ requireSecondFactor: false }),
+  },
+  'GET /api/security-events': { ok: members(['cAdmin', 'mAdmin'], 200) },
+
   // The one-time token is the credential: no sign-in, and nothing to be foreign to.
   'GET /api/invitations/:token': { ok: everyone(200), foreign: 'none', target: (w) => newInvitation(w) },
   'POST /api/invitations/:token/accept': {
@@ -367,6 +412,12 @@ const ROUTES: Record<string, Entry> = {
     ok: members(['cAdmin', 'mAdmin'], 200),
     denied: 404,
     target: (w, a) => ({ id: colleagueOf(w, a).id }),
+  },
+  'POST /api/users/:id/second-factor/reset': {
+    ok: members(['cAdmin', 'mAdmin'], 204),
+    denied: 404,
+    target: (w, a) => ({ id: colleagueOf(w, a).id }),
+    body: () => ({}),
   },
   'PATCH /api/users/:id': {
     ok: members(['cAdmin', 'mAdmin'], 200),
@@ -719,6 +770,12 @@ let w1: World;
 let w2: World;
 const agents = new Map<Actor, supertest.Agent>();
 
+/** Signs every shared session in again (after a route that ended the actor's other sessions). */
+async function signInAgain() {
+  for (const a of SIGNED_IN) agents.set(a, await signIn(t.request(), w1.users[a].email));
+  for (const w of [w1, w2]) w.agent = await signIn(t.request(), w.users.installer.email);
+}
+
 async function buildWorld(): Promise<World> {
   const c = await createOrganization(t.ds, 'contractor');
   const m = await createOrganization(t.ds, 'manufacturer');
@@ -941,6 +998,7 @@ describe('authorisation matrix', () => {
               } else if (want >= 400 && (await auditCount()) !== before) {
                 mismatches.push(`${where}: refused with ${want} but wrote an audit event`);
               }
+              if (entry.endsOtherSessions) await signInAgain();
             }
             const f = answers.foreign;
             const m = answers.missing;

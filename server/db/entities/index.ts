@@ -22,7 +22,9 @@ import { PasswordResetRequest } from './password-reset-request.entity';
 import { PasswordReset } from './password-reset.entity';
 import { PolicyModel } from './policy-model.entity';
 import { ProductModel } from './product-model.entity';
+import { RecoveryCode } from './recovery-code.entity';
 import { ReturnAuthorization } from './return-authorization.entity';
+import { SignInChallenge } from './sign-in-challenge.entity';
 import { User } from './user.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 import { WarrantyPolicy } from './warranty-policy.entity';
@@ -58,4 +60,6 @@ export const entities = [
   MemoSequence,
   MemoPrefix,
   IdempotencyKey,
+  RecoveryCode,
+  SignInChallenge,
 ];

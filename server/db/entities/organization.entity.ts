@@ -14,6 +14,10 @@ export class Organization {
   @Column({ type: 'enum', enum: ['manufacturer', 'contractor'] })
   kind: OrganizationKind;
 
+  /** Set by the organisation's administrators: every member needs a second factor (beyond the roles that always do). */
+  @Column({ type: 'boolean', name: 'require_second_factor', default: false })
+  requireSecondFactor: boolean;
+
   @CreatedAtColumn()
   createdAt: Date;
 }

@@ -44,6 +44,20 @@ export class User {
   @Column({ type: 'datetime', precision: 3, name: 'last_sign_in_at', nullable: true })
   lastSignInAt: Date | null;
 
+  /**
+   * The TOTP secret (base32) of a confirmed second factor; null without one. A secret being enrolled lives in the
+   * session until its first code confirms it.
+   */
+  @Column({ type: 'varchar', length: 64, name: 'totp_secret', nullable: true })
+  totpSecret: string | null;
+
+  @Column({ type: 'datetime', precision: 3, name: 'totp_confirmed_at', nullable: true })
+  totpConfirmedAt: Date | null;
+
+  /** The last TOTP time step accepted: a code of this step or an earlier one is refused (RFC 6238 section 5.2). */
+  @Column({ type: 'int', unsigned: true, name: 'totp_last_step', nullable: true })
+  totpLastStep: number | null;
+
   @CreatedAtColumn()
   createdAt: Date;
 

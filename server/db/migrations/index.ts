@@ -13,6 +13,7 @@ import { ReviewQueueIndexes1796168302753 } from './1796168302753-ReviewQueueInde
 import { ReviewQueueCountIndex1796178256332 } from './1796178256332-ReviewQueueCountIndex';
 import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexes';
 import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
+import { SecondFactorAndSessions1796284709610 } from './1796284709610-SecondFactorAndSessions';
 import { PasswordResets1796285107025 } from './1796285107025-PasswordResets';
 import { AccountingMaps1796285144565 } from './1796285144565-AccountingMaps';
 
@@ -31,6 +32,7 @@ export const migrations = [
   ReviewQueueCountIndex1796178256332,
   StorageKeyIndexes1796179613559,
   ClaimCounts1796188776668,
+  SecondFactorAndSessions1796284709610,
   PasswordResets1796285107025,
   AccountingMaps1796285144565,
 ];

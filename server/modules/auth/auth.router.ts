@@ -2,7 +2,8 @@ import { Router, type Request } from 'express';
 import { MoreThan } from 'typeorm';
 import { loginSchema } from '../../../shared/schemas/auth';
 import type { SessionUser, createPassport } from '../../auth/passport';
-import { SESSION_COOKIE } from '../../auth/session';
+import { secondFactorRequired } from '../../auth/second-factor-policy';
+import { recordSessionDevice, SESSION_COOKIE } from '../../auth/session';
 import type { AppContext } from '../../context';
 import { LoginAttempt } from '../../db/entities/login-attempt.entity';
 import { User } from '../../db/entities/user.entity';
@@ -11,6 +12,7 @@ import { clock } from '../../lib/clock';
 import { AppError } from '../../lib/errors';
 import { requireUser } from '../../middleware/auth';
 import { parseBody } from '../../middleware/validate';
+import { holdForSecondFactor } from '../second-factor/second-factor.service';
 import { presentMe } from '../users/users.presenter';
 
 export const LOGIN_WINDOW_MS = 15 * 60 * 1000;
@@ -61,11 +63,17 @@ export function authRouter(ctx: AppContext, pp: Authenticator) {
       );
     }
 
+    if (await holdForSecondFactor(ctx, req, user)) {
+      res.json({ secondFactor: 'required' });
+      return;
+    }
+
     // passport's logIn regenerates the session: a new id at every sign-in (no fixation).
     await new Promise<void>((resolve, reject) => req.logIn(user, (err) => (err ? reject(err) : resolve())));
     const now = clock.nowMs();
     req.session.createdAt = now;
     req.session.lastSeenAt = now;
+    recordSessionDevice(req);
     await ctx.ds.transaction(async (m) => {
       await m.update(User, { id: user.id }, { lastSignInAt: clock.now() });
       await m.delete(LoginAttempt, { email: input.email });
@@ -88,7 +96,11 @@ export function authRouter(ctx: AppContext, pp: Authenticator) {
   });
 
   r.get('/me', requireUser, (req, res) => {
-    res.json({ user: presentMe(req.user!), app: { mode: ctx.config.mode } });
+    const secondFactor = {
+      enrolled: Boolean(req.user!.totpConfirmedAt),
+      required: secondFactorRequired(ctx.config, req.user!),
+    };
+    res.json({ user: presentMe(req.user!), app: { mode: ctx.config.mode }, secondFactor });
   });
 
   return r;

@@ -51,6 +51,10 @@ export function AppRoot() {
       location.pathname === '/' ? '' : `?next=${encodeURIComponent(location.pathname + location.search)}`;
     return <Navigate to={`/sign-in${next}`} replace />;
   }
+  const sf = session.data.secondFactor;
+  if (sf?.required && !sf.enrolled && location.pathname !== '/security') {
+    return <Navigate to="/security" replace />;
+  }
   return (
     <SessionProvider session={session.data}>
       <Shell />

@@ -1,6 +1,6 @@
 import { useEffect, useState, type ReactNode } from 'react';
-import { NavLink, useLocation } from 'react-router-dom';
-import { LogOut, MoreHorizontal, UserRound } from 'lucide-react';
+import { Link, NavLink, useLocation } from 'react-router-dom';
+import { LogOut, MoreHorizontal, ShieldCheck, UserRound } from 'lucide-react';
 import type { NavItem } from '../../config/nav';
 import { cn } from '../../lib/cn';
 import { Logo } from './logo';
@@ -63,20 +63,28 @@ export function AppShell({
           <p className="truncate text-xs text-ink-600">
             {roleText} · {organizationName}
           </p>
-          <NavLink
-            to="/account"
-            className="mt-3 flex items-center gap-2 rounded-md px-2 py-1.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
-          >
-            <UserRound className="size-4" aria-hidden /> Your account
-          </NavLink>
-          <button
-            type="button"
-            onClick={onSignOut}
-            disabled={signingOut}
-            className="mt-3 inline-flex items-center gap-2 rounded-md px-2 py-1.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
-          >
-            <LogOut className="size-4" aria-hidden /> Sign out
-          </button>
+          <div className="mt-3 flex flex-wrap gap-1">
+            <NavLink
+              to="/account"
+              className="inline-flex items-center gap-2 rounded-md px-2 py-1.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
+            >
+              <UserRound className="size-4" aria-hidden /> Your account
+            </NavLink>
+            <Link
+              to="/security"
+              className="inline-flex items-center gap-2 rounded-md px-2 py-1.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
+            >
+              <ShieldCheck className="size-4" aria-hidden /> Security
+            </Link>
+            <button
+              type="button"
+              onClick={onSignOut}
+              disabled={signingOut}
+              className="inline-flex items-center gap-2 rounded-md px-2 py-1.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
+            >
+              <LogOut className="size-4" aria-hidden /> Sign out
+            </button>
+          </div>
         </div>
       </aside>
 
@@ -91,6 +99,13 @@ export function AppShell({
           >
             <UserRound className="size-5" aria-hidden />
           </NavLink>
+          <Link
+            to="/security"
+            aria-label="Security"
+            className="inline-flex size-10 shrink-0 items-center justify-center rounded-lg text-ink-700 hover:bg-ink-100"
+          >
+            <ShieldCheck className="size-5" aria-hidden />
+          </Link>
           <button
             type="button"
             onClick={onSignOut}

@@ -16,6 +16,7 @@ import { PageHeader } from '../../../components/ui/page-header';
 import { useToast } from '../../../components/ui/toast';
 import { ApiError } from '../../../lib/api-client';
 import { useSession } from '../../../lib/ability';
+import { resetSecondFactor } from '../api/reset-second-factor';
 import { updateUser } from '../api/update-user';
 import { userQueries } from '../api/user-queries';
 import { EditUserDialog } from './edit-user-dialog';
@@ -45,6 +46,12 @@ export function UsersAdmin() {
       await qc.invalidateQueries({ queryKey: userQueries.all });
     },
     onError: (e) => notify(e instanceof ApiError ? e.message : 'Could not change the account.', 'bad'),
+  });
+
+  const resetFactor = useMutation({
+    mutationFn: (u: UserDto) => resetSecondFactor(u.id),
+    onSuccess: (_r, u) => notify(`${u.name} sets up a second factor again at their next sign-in.`),
+    onError: (e) => notify(e instanceof ApiError ? e.message : 'Could not reset the second factor.', 'bad'),
   });
 
   const columns: Column<UserDto>[] = [
@@ -92,6 +99,23 @@ export function UsersAdmin() {
               aria-label={`Disable ${u.name}`}
             >
               Disable
+            </Button>
+          ) : null}
+          {u.id !== me.id && u.status === 'active' ? (
+            <Button
+              variant="ghost"
+              size="sm"
+              onClick={() => {
+                if (
+                  window.confirm(
+                    `Reset the second factor of ${u.name}? Their authenticator app stops working here.`,
+                  )
+                )
+                  resetFactor.mutate(u);
+              }}
+              aria-label={`Reset second factor of ${u.name}`}
+            >
+              Reset second factor
             </Button>
           ) : null}
           {u.status === 'disabled' ? (
