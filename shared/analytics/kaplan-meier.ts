@@ -7,7 +7,7 @@
 
 import { z } from 'zod';
 
-import { check, finite, lifeDataSchema } from './validation';
+import { check, checkLifeData, finite } from './validation';
 import type { LifeData, LifeGroup } from './weibull';
 
 /** Two-sided 95 % normal quantile. */
@@ -57,7 +57,7 @@ const kaplanMeierOptionsSchema = z.object({
 });
 
 export function kaplanMeier(data: LifeData, options: KaplanMeierOptions = {}): KaplanMeierRow[] {
-  check('kaplanMeier', lifeDataSchema, data, 'data');
+  checkLifeData('kaplanMeier', data, 'data');
   check('kaplanMeier', kaplanMeierOptionsSchema, options, 'options');
   const z = options.z ?? Z_95;
   const byTime = countsByTime(data);

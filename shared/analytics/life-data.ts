@@ -81,6 +81,31 @@ export interface InstalledLifeData {
   excessFailures: number;
 }
 
+const wholeAtLeast0 = (v: unknown) => typeof v === 'number' && Number.isInteger(v) && v >= 0;
+const dateLike = (v: unknown) => typeof v === 'string' && ISO_DATE.test(v);
+
+/** A fast scan for the plain good case (a subset of what installationsSchema accepts); zod decides the rest. */
+function plainInstallations(list: unknown): boolean {
+  if (!Array.isArray(list)) return false;
+  for (const inst of list as unknown[]) {
+    if (typeof inst !== 'object' || inst === null) return false;
+    const i = inst as Record<string, unknown>;
+    if (!dateLike(i.installedOn) || !wholeAtLeast0(i.quantity)) return false;
+    const h = i.hoursPerDay;
+    if (h !== undefined && !(typeof h === 'number' && Number.isFinite(h) && h >= 0 && h <= 24)) return false;
+    if (i.failures !== undefined) {
+      if (!Array.isArray(i.failures)) return false;
+      for (const f of i.failures as unknown[]) {
+        if (typeof f !== 'object' || f === null) return false;
+        const u = (f as Record<string, unknown>).units;
+        if (!dateLike((f as Record<string, unknown>).failedOn) || (u !== undefined && !wholeAtLeast0(u)))
+          return false;
+      }
+    }
+  }
+  return true;
+}
+
 function sortedGroups(counts: Map<number, number>): LifeGroup[] {
   return [...counts.entries()].map(([time, count]) => ({ time, count })).sort((a, b) => a.time - b.time);
 }
@@ -97,7 +122,9 @@ export function installedLifeData(
   installations: readonly InstalledUnits[],
   options: LifeDataOptions,
 ): InstalledLifeData {
-  check('installedLifeData', installationsSchema, installations, 'installations');
+  if (!plainInstallations(installations)) {
+    check('installedLifeData', installationsSchema, installations, 'installations');
+  }
   check('installedLifeData', optionsSchema, options, 'options');
   const { asOf, unit } = options;
   if (unit === 'hours') {

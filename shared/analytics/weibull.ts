@@ -18,7 +18,8 @@ import {
   check,
   finite,
   issuesOf,
-  lifeDataSchema,
+  checkLifeData,
+  lifeDataIssues,
   weibullParametersSchema,
   type AnalyticsIssue,
 } from './validation';
@@ -408,7 +409,7 @@ function medianRank(rank: number, units: number): number {
 
 /** Bernard's plotting positions with Johnson's adjusted ranks: one row per failure time. */
 export function plottingPositions(data: LifeData): PlottingPosition[] {
-  check('plottingPositions', lifeDataSchema, data, 'data');
+  checkLifeData('plottingPositions', data, 'data');
   const entries = sortedEntries(data);
   const units = entries.reduce((sum, e) => sum + e.count, 0);
   const positions: PlottingPosition[] = [];
@@ -472,10 +473,7 @@ export interface FitOptions {
 const fitOptionsSchema = z.object({ method: z.enum(['mle', 'mrr']).optional() });
 
 export function fitWeibull(data: LifeData, options: FitOptions = {}): WeibullFitResult {
-  const issues = [
-    ...issuesOf(lifeDataSchema, data, 'data'),
-    ...issuesOf(fitOptionsSchema, options, 'options'),
-  ];
+  const issues = [...lifeDataIssues(data, 'data'), ...issuesOf(fitOptionsSchema, options, 'options')];
   if (issues.length > 0) {
     const error = new AnalyticsInputError('fitWeibull', issues);
     return { ok: false, code: 'invalid_input', message: error.message, issues };
