@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { AnalyticsInputError } from '../../shared/analytics/validation';
 import { AppError } from '../lib/errors';
 import { zodDetails } from './validate';
 
@@ -22,6 +23,14 @@ export const errorHandler: ErrorRequestHandler = (err: HttpishError, req, res, _
       code: 'validation.failed',
       message: 'The request has invalid fields.',
       details: zodDetails(err),
+    };
+  } else if (err instanceof AnalyticsInputError) {
+    // Input a reliability computation refused (a NaN term, a null life-data entry): the field, not a 500.
+    status = 400;
+    body = {
+      code: err.code,
+      message: 'The analysis was given values it cannot compute with.',
+      details: err.issues,
     };
   } else if (err.type === 'entity.parse.failed') {
     status = 400;

@@ -11,7 +11,10 @@
 //     information, return requested, unit received).
 // Drafts, withdrawn and denied claims, and pending claims the engine excluded or sent to review, are not.
 
-import type { ClaimStage } from '../schemas/claims';
+import { z } from 'zod';
+
+import { CLAIM_STAGES, type ClaimStage } from '../schemas/claims';
+import { check } from './validation';
 
 export type ClaimVerdict = 'covered' | 'excluded' | 'review';
 
@@ -27,7 +30,13 @@ export const COVERED_IF_VERDICT_STAGES = [
   'closed',
 ] as const satisfies readonly ClaimStage[];
 
+const claimSchema = z.object({
+  stage: z.enum(CLAIM_STAGES),
+  verdict: z.enum(['covered', 'excluded', 'review']).nullable(),
+});
+
 export function isCoveredClaim(claim: { stage: ClaimStage; verdict: ClaimVerdict | null }): boolean {
+  check('isCoveredClaim', claimSchema, claim, 'claim');
   if ((APPROVED_STAGES as readonly ClaimStage[]).includes(claim.stage)) return true;
   return (
     (COVERED_IF_VERDICT_STAGES as readonly ClaimStage[]).includes(claim.stage) && claim.verdict === 'covered'

@@ -2,7 +2,10 @@
 // the physical evidence (insects, water, a stopped fan) outranks what the user saw (dark, flickering).
 // Rules are data so the server can build the same classification as one SQL CASE.
 
+import { z } from 'zod';
+
 import type { FindingCode } from '../engine/codes';
+import { check } from './validation';
 import type { ObservationKey, Symptom } from '../schemas/claims';
 
 export interface FailureModeRule {
@@ -70,11 +73,23 @@ export const FAILURE_MODE_LABELS: Record<string, string> = Object.fromEntries([
   [OTHER_FAILURE_MODE.mode, OTHER_FAILURE_MODE.label],
 ]);
 
+const failureModeArgs = z.tuple([
+  z.array(z.string(), { error: 'Expected a list of symptoms.' }),
+  z.array(z.string(), { error: 'Expected a list of finding codes.' }),
+  z.record(z.string(), z.boolean().optional(), { error: 'Expected the observations as true or false.' }),
+]);
+
 export function failureModeOf(
   symptoms: readonly string[],
   findingCodes: readonly string[],
   observations: Partial<Record<ObservationKey, boolean>> = {},
 ): string {
+  check(
+    'failureModeOf',
+    failureModeArgs,
+    [symptoms, findingCodes, observations],
+    ['symptoms', 'findingCodes', 'observations'],
+  );
   for (const rule of FAILURE_MODE_RULES) {
     if (
       rule.findings.some((f) => findingCodes.includes(f)) ||

@@ -2,7 +2,40 @@
 // installation, by lot and by contractor, a failure mode x condition table, and the claims-ageing table
 // (install month x months in service). Plain aggregation over rows the caller has already loaded.
 
+import { z } from 'zod';
+
 import { isoMonth, isoYear, wholeMonthsBetween } from '../engine/dates';
+import { check, finite, finiteAtLeast, isoDateSchema } from './validation';
+
+const optionalKey = z.string().nullable().optional();
+const claimRowsSchema = z.array(
+  z.object({
+    failureMode: z.string({ error: 'Expected a failure mode.' }),
+    installedOn: z.string(),
+    failedOn: z.string(),
+    units: finiteAtLeast(0, 'a number of units').optional(),
+    claims: finiteAtLeast(0, 'a number of claims').optional(),
+    lot: optionalKey,
+    contractor: optionalKey,
+    location: optionalKey,
+    enclosure: optionalKey,
+    dimmer: optionalKey,
+    supply: optionalKey,
+    ambientBand: optionalKey,
+  }),
+  { error: 'Expected a list of claim rows.' },
+);
+const datedClaimRowsSchema = z.array(
+  z.object({
+    installedOn: isoDateSchema,
+    failedOn: isoDateSchema,
+    claims: finiteAtLeast(0, 'a number of claims').optional(),
+  }),
+);
+const keyFunction = z.custom<(row: ClaimRow) => unknown>(
+  (f) => typeof f === 'function',
+  'Expected a function.',
+);
 
 /** One claim, flattened with the conditions of the installation it came from. */
 export interface ClaimRow {
@@ -57,6 +90,8 @@ export function rankBy(
   rows: readonly ClaimRow[],
   keyOf: (row: ClaimRow) => string | null | undefined,
 ): RankedCount[] {
+  check('rankBy', claimRowsSchema, rows, 'rows');
+  check('rankBy', keyFunction, keyOf, 'keyOf');
   const counts = new Map<string, { claims: number; units: number }>();
   for (const row of rows) {
     const key = keyOrNotRecorded(keyOf(row));
@@ -76,7 +111,10 @@ export function rankFailureModes(rows: readonly ClaimRow[]): RankedCount[] {
   return rankBy(rows, (row) => row.failureMode);
 }
 
+const factorSchema = z.enum(ENVIRONMENT_FACTORS);
+
 export function rankByEnvironment(rows: readonly ClaimRow[], factor: EnvironmentFactor): RankedCount[] {
+  check('rankByEnvironment', factorSchema, factor, 'factor');
   return rankBy(rows, (row) => row[factor]);
 }
 
@@ -105,6 +143,13 @@ export function crossTabulate(
   rowKeyOf: (row: ClaimRow) => string | null | undefined,
   columnKeyOf: (row: ClaimRow) => string | null | undefined,
 ): CrossTable {
+  check('crossTabulate', claimRowsSchema, rows, 'rows');
+  check(
+    'crossTabulate',
+    z.tuple([keyFunction, keyFunction]),
+    [rowKeyOf, columnKeyOf],
+    ['rowKeyOf', 'columnKeyOf'],
+  );
   const rowKeys = rankBy(rows, rowKeyOf).map((r) => r.key);
   const columnKeys = rankBy(rows, columnKeyOf).map((r) => r.key);
   const rowIndex = new Map(rowKeys.map((key, i) => [key, i]));
@@ -126,6 +171,7 @@ export function crossTabulate(
 }
 
 export function failureModesByEnvironment(rows: readonly ClaimRow[], factor: EnvironmentFactor): CrossTable {
+  check('failureModesByEnvironment', factorSchema, factor, 'factor');
   return crossTabulate(
     rows,
     (row) => row.failureMode,
@@ -137,10 +183,19 @@ export function failureModesByEnvironment(rows: readonly ClaimRow[], factor: Env
  * An ambient temperature's band, for grouping: "below 25 °C", "25-35 °C", ..., "45 °C and above" with the
  * default edges. A temperature on an edge belongs to the band above it; null when none was recorded.
  */
+const ambientBandArgs = z.tuple([
+  z.number({ error: 'Expected a temperature in °C, or null.' }).nullable().optional(),
+  z
+    .array(finite('a band edge in °C'))
+    .refine((e) => e.every((v, i) => i === 0 || v > e[i - 1]), 'Band edges must rise.'),
+]);
+
+/** A temperature that is null, undefined or not finite (a blank reading) is "not recorded": null. */
 export function ambientBand(
   celsius: number | null | undefined,
   edges: readonly number[] = [25, 35, 45],
 ): string | null {
+  check('ambientBand', ambientBandArgs, [celsius, edges], ['celsius', 'edges']);
   if (celsius === null || celsius === undefined || !Number.isFinite(celsius)) return null;
   if (edges.length === 0) return 'all';
   if (celsius < edges[0]) return `below ${edges[0]} °C`;
@@ -178,6 +233,7 @@ export interface AgeingCount {
 
 /** Claims by install month and whole months in service at failure (the engine's ageMonths). */
 export function ageingTable(rows: readonly ClaimRow[]): AgeingTable {
+  check('ageingTable', datedClaimRowsSchema, rows, 'rows');
   return ageingTableFromCounts(
     rows.map((row) => ({
       installMonth: row.installedOn.slice(0, 7),
@@ -188,7 +244,16 @@ export function ageingTable(rows: readonly ClaimRow[]): AgeingTable {
 }
 
 /** The ageing table from counted cells: the same table ageingTable gives from the claims themselves. */
+const ageingCountsSchema = z.array(
+  z.object({
+    installMonth: z.string().regex(/^\d{4}-(0[1-9]|1[0-2])$/, 'Expected a month like 2024-03.'),
+    monthsInService: finite('whole months in service').refine(Number.isInteger, 'Expected whole months.'),
+    claims: finiteAtLeast(0, 'a number of claims'),
+  }),
+);
+
 export function ageingTableFromCounts(cells: readonly AgeingCount[]): AgeingTable {
+  check('ageingTableFromCounts', ageingCountsSchema, cells, 'cells');
   if (cells.length === 0) {
     return { installMonths: [], monthsInService: [], counts: [], rowTotals: [], columnTotals: [] };
   }

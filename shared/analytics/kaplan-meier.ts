@@ -5,6 +5,9 @@
 // S(t) = prod over failure times t_i <= t of (1 - d_i / n_i), n_i the units at risk just before t_i;
 // Var S(t) = S(t)^2 sum d_i / (n_i (n_i - d_i)). At a tie, failures come before censorings.
 
+import { z } from 'zod';
+
+import { check, checkLifeData, finite } from './validation';
 import type { LifeData, LifeGroup } from './weibull';
 
 /** Two-sided 95 % normal quantile. */
@@ -31,9 +34,6 @@ function countsByTime(data: LifeData): Map<number, { failed: number; censored: n
   const byTime = new Map<number, { failed: number; censored: number }>();
   const add = (entry: number | LifeGroup, failed: boolean) => {
     const { time, count } = typeof entry === 'number' ? { time: entry, count: 1 } : entry;
-    if (!(Number.isFinite(time) && time >= 0 && Number.isFinite(count) && count >= 0)) {
-      throw new RangeError(`Kaplan-Meier needs finite times and counts >= 0, not ${time} x ${count}.`);
-    }
     if (count === 0) return;
     const row = byTime.get(time) ?? { failed: 0, censored: 0 };
     if (failed) row.failed += count;
@@ -50,7 +50,15 @@ function clip(value: number): number {
 }
 
 /** One row per distinct time (failures or censorings), in time order. */
+const kaplanMeierOptionsSchema = z.object({
+  z: finite('a normal quantile')
+    .refine((v) => v > 0, 'Expected a normal quantile above 0.')
+    .optional(),
+});
+
 export function kaplanMeier(data: LifeData, options: KaplanMeierOptions = {}): KaplanMeierRow[] {
+  checkLifeData('kaplanMeier', data, 'data');
+  check('kaplanMeier', kaplanMeierOptionsSchema, options, 'options');
   const z = options.z ?? Z_95;
   const byTime = countsByTime(data);
   const times = Float64Array.from(byTime.keys()).sort();
@@ -83,7 +91,13 @@ export function kaplanMeier(data: LifeData, options: KaplanMeierOptions = {}): K
 }
 
 /** S(t) from the table: the survival of the last row at or before t (1 before the first). */
+const survivalAtArgs = z.tuple([
+  z.array(z.object({ time: finite('a time'), survival: finite('a survival') })),
+  finite('a time'),
+]);
+
 export function survivalAt(rows: readonly KaplanMeierRow[], t: number): number {
+  check('survivalAt', survivalAtArgs, [rows, t], ['rows', 't']);
   let low = 0;
   let high = rows.length;
   while (low < high) {

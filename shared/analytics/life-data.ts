@@ -7,10 +7,37 @@
 // which no Weibull fit accepts: `age: 'midpoint'` places every age, failures and suspensions alike, in the middle
 // of the month (or day) it fell in, half a month (or half a day's hours) later.
 
+import { z } from 'zod';
+
 import { daysBetween, wholeMonthsBetween } from '../engine/dates';
+import { AnalyticsInputError, check, finite } from './validation';
 import type { LifeGroup } from './weibull';
 
 const ISO_DATE = /^\d{4}-(0[1-9]|1[0-2])-(0[1-9]|[12]\d|3[01])$/;
+const date = z
+  .string({ error: 'Expected a date like 2024-03-31.' })
+  .regex(ISO_DATE, 'Expected a date like 2024-03-31.');
+const wholeCount = z
+  .number({ error: 'Expected a whole number >= 0.' })
+  .int('Expected a whole number >= 0.')
+  .min(0, 'Expected a whole number >= 0.');
+
+const installationsSchema = z.array(
+  z.object({
+    installedOn: date,
+    quantity: wholeCount,
+    hoursPerDay: finite('hours a day')
+      .refine((h) => h >= 0 && h <= 24, 'Expected hours a day between 0 and 24.')
+      .optional(),
+    failures: z.array(z.object({ failedOn: date, units: wholeCount.optional() })).optional(),
+  }),
+);
+
+const optionsSchema = z.object({
+  asOf: date,
+  unit: z.enum(['months', 'hours']),
+  age: z.enum(['completed', 'midpoint']).optional(),
+});
 
 export interface UnitFailure {
   /** YYYY-MM-DD. */
@@ -54,13 +81,29 @@ export interface InstalledLifeData {
   excessFailures: number;
 }
 
-function checkDate(value: string, what: string): void {
-  if (!ISO_DATE.test(value)) throw new RangeError(`${what} must be a date like 2024-03-31, not "${value}".`);
-}
+const wholeAtLeast0 = (v: unknown) => typeof v === 'number' && Number.isInteger(v) && v >= 0;
+const dateLike = (v: unknown) => typeof v === 'string' && ISO_DATE.test(v);
 
-function checkCount(value: number, what: string): void {
-  if (!(Number.isInteger(value) && value >= 0))
-    throw new RangeError(`${what} must be a whole number >= 0, not ${value}.`);
+/** A fast scan for the plain good case (a subset of what installationsSchema accepts); zod decides the rest. */
+function plainInstallations(list: unknown): boolean {
+  if (!Array.isArray(list)) return false;
+  for (const inst of list as unknown[]) {
+    if (typeof inst !== 'object' || inst === null) return false;
+    const i = inst as Record<string, unknown>;
+    if (!dateLike(i.installedOn) || !wholeAtLeast0(i.quantity)) return false;
+    const h = i.hoursPerDay;
+    if (h !== undefined && !(typeof h === 'number' && Number.isFinite(h) && h >= 0 && h <= 24)) return false;
+    if (i.failures !== undefined) {
+      if (!Array.isArray(i.failures)) return false;
+      for (const f of i.failures as unknown[]) {
+        if (typeof f !== 'object' || f === null) return false;
+        const u = (f as Record<string, unknown>).units;
+        if (!dateLike((f as Record<string, unknown>).failedOn) || (u !== undefined && !wholeAtLeast0(u)))
+          return false;
+      }
+    }
+  }
+  return true;
 }
 
 function sortedGroups(counts: Map<number, number>): LifeGroup[] {
@@ -79,8 +122,19 @@ export function installedLifeData(
   installations: readonly InstalledUnits[],
   options: LifeDataOptions,
 ): InstalledLifeData {
+  if (!plainInstallations(installations)) {
+    check('installedLifeData', installationsSchema, installations, 'installations');
+  }
+  check('installedLifeData', optionsSchema, options, 'options');
   const { asOf, unit } = options;
-  checkDate(asOf, 'asOf');
+  if (unit === 'hours') {
+    const missing = installations.flatMap((inst, i) =>
+      inst.hoursPerDay === undefined
+        ? [{ path: `installations.${i}.hoursPerDay`, message: 'Ages in hours need hours a day (0 to 24).' }]
+        : [],
+    );
+    if (missing.length > 0) throw new AnalyticsInputError('installedLifeData', missing);
+  }
   const midpoint = options.age === 'midpoint' ? 0.5 : 0;
   const failures = new Map<number, number>();
   const suspensions = new Map<number, number>();
@@ -91,13 +145,6 @@ export function installedLifeData(
 
   for (const installation of installations) {
     const { installedOn, quantity, hoursPerDay } = installation;
-    checkDate(installedOn, 'installedOn');
-    checkCount(quantity, 'quantity');
-    if (unit === 'hours' && !(typeof hoursPerDay === 'number' && hoursPerDay >= 0 && hoursPerDay <= 24)) {
-      throw new RangeError(
-        `Ages in hours need hoursPerDay between 0 and 24 for the installation of ${installedOn}.`,
-      );
-    }
     if (daysBetween(installedOn, asOf) < 0) {
       notYetInstalled += quantity;
       continue;
@@ -109,9 +156,7 @@ export function installedLifeData(
     };
     let working = quantity;
     for (const failure of installation.failures ?? []) {
-      checkDate(failure.failedOn, 'failedOn');
       const claimed = failure.units ?? 1;
-      checkCount(claimed, 'units');
       if (daysBetween(failure.failedOn, asOf) < 0) continue;
       const counted = Math.min(claimed, working);
       excessFailures += claimed - counted;

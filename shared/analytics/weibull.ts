@@ -10,12 +10,28 @@
 // - 'mrr': median-rank regression, Y = ln(-ln(1 - F)) on X = ln t by least squares, F from Bernard's
 //   approximation (i - 0.3) / (n + 0.4), with Johnson's adjusted ranks in place of i when there are suspensions.
 
+import { z } from 'zod';
+
 import { gamma } from './gamma';
+import {
+  AnalyticsInputError,
+  check,
+  finite,
+  issuesOf,
+  checkLifeData,
+  lifeDataIssues,
+  weibullParametersSchema,
+  type AnalyticsIssue,
+} from './validation';
+
+/**
+ * Failure times whose logarithms span no more than this (a relative difference of one part in a million) are
+ * one time as far as a fit can tell: two failures 5e-10 apart would otherwise give a shape of about 1e9.
+ * Common practice, no published source: recorded ages carry a few significant digits at most.
+ */
+const DISTINCT_LOG_SPAN = 1e-6;
 
 /** A time (any positive unit: months, hours) and how many units share it. */
-/** Failure times whose logarithms agree within this step count as one time. */
-const DISTINCT_LOG_STEP = 1e-9;
-
 export interface LifeGroup {
   time: number;
   count: number;
@@ -48,10 +64,11 @@ export interface WeibullFit extends WeibullParameters {
   logLikelihood: number;
 }
 
-export type WeibullFitErrorCode = 'invalid_time' | 'invalid_count' | 'too_few_failures';
+export type WeibullFitErrorCode = 'invalid_input' | 'invalid_time' | 'invalid_count' | 'too_few_failures';
 
 export type WeibullFitResult =
-  { ok: true; fit: WeibullFit } | { ok: false; code: WeibullFitErrorCode; message: string };
+  | { ok: true; fit: WeibullFit }
+  | { ok: false; code: WeibullFitErrorCode; message: string; issues?: AnalyticsIssue[] };
 
 export class WeibullDataError extends Error {
   constructor(
@@ -64,41 +81,77 @@ export class WeibullDataError extends Error {
 }
 
 // ---- the distribution ----
+// The exported functions check their arguments; the module's own loops use the unchecked forms below.
 
-/** Cumulative hazard (t / scale)^shape; 0 for t <= 0. */
-export function weibullCumulativeHazard(p: WeibullParameters, t: number): number {
+const timeSchema = finite('a time');
+const distributionArgs = z.tuple([weibullParametersSchema, timeSchema]);
+
+function cumulativeHazardOf(p: WeibullParameters, t: number): number {
   return t <= 0 ? 0 : Math.pow(t / p.scale, p.shape);
 }
 
+function cdfOf(p: WeibullParameters, t: number): number {
+  return -Math.expm1(-cumulativeHazardOf(p, t));
+}
+
+function quantileOf(p: WeibullParameters, q: number): number {
+  return p.scale * Math.pow(-Math.log1p(-q), 1 / p.shape);
+}
+
+function meanOf(p: WeibullParameters): number {
+  return p.scale * gamma(1 + 1 / p.shape);
+}
+
+/** Cumulative hazard (t / scale)^shape; 0 for t <= 0. */
+export function weibullCumulativeHazard(p: WeibullParameters, t: number): number {
+  check('weibullCumulativeHazard', distributionArgs, [p, t], ['p', 't']);
+  return cumulativeHazardOf(p, t);
+}
+
 export function weibullCdf(p: WeibullParameters, t: number): number {
-  return -Math.expm1(-weibullCumulativeHazard(p, t));
+  check('weibullCdf', distributionArgs, [p, t], ['p', 't']);
+  return cdfOf(p, t);
 }
 
 export function weibullReliability(p: WeibullParameters, t: number): number {
-  return Math.exp(-weibullCumulativeHazard(p, t));
+  check('weibullReliability', distributionArgs, [p, t], ['p', 't']);
+  return Math.exp(-cumulativeHazardOf(p, t));
 }
 
 export function weibullPdf(p: WeibullParameters, t: number): number {
+  check('weibullPdf', distributionArgs, [p, t], ['p', 't']);
   if (t < 0) return 0;
   if (t === 0) return p.shape < 1 ? Infinity : p.shape === 1 ? 1 / p.scale : 0;
   const z = t / p.scale;
   return (p.shape / p.scale) * Math.pow(z, p.shape - 1) * Math.exp(-Math.pow(z, p.shape));
 }
 
+const quantileArgs = z.tuple([
+  weibullParametersSchema,
+  finite('a fraction').refine((q) => q >= 0 && q < 1, 'A quantile needs 0 <= q < 1.'),
+]);
+
 /** The time by which a fraction q (0 <= q < 1) of units has failed: scale (-ln(1 - q))^(1/shape). */
 export function weibullQuantile(p: WeibullParameters, q: number): number {
-  if (!(q >= 0 && q < 1)) throw new RangeError(`A quantile needs 0 <= q < 1, not ${q}.`);
-  return p.scale * Math.pow(-Math.log1p(-q), 1 / p.shape);
+  check('weibullQuantile', quantileArgs, [p, q], ['p', 'q']);
+  return quantileOf(p, q);
 }
+
+const bLifeArgs = z.tuple([
+  weibullParametersSchema,
+  finite('a percentage').refine((q) => q >= 0 && q < 100, 'A B-life needs 0 <= percent < 100.'),
+]);
 
 /** B-life: the age by which `percent` % of units have failed (B10 = bLife(p, 10)). */
 export function bLife(p: WeibullParameters, percent: number): number {
-  return weibullQuantile(p, percent / 100);
+  check('bLife', bLifeArgs, [p, percent], ['p', 'percent']);
+  return quantileOf(p, percent / 100);
 }
 
 /** Mean life scale x Gamma(1 + 1/shape). */
 export function weibullMean(p: WeibullParameters): number {
-  return p.scale * gamma(1 + 1 / p.shape);
+  check('weibullMean', weibullParametersSchema, p, 'p');
+  return meanOf(p);
 }
 
 // ---- the data ----
@@ -132,7 +185,8 @@ function prepare(data: LifeData): Prepared {
   let failures = 0;
   let units = 0;
   let maxLog = -Infinity;
-  const distinct = new Set<number>();
+  let minFailureLog = Infinity;
+  let maxFailureLog = -Infinity;
   for (let pass = 0; pass < 2; pass++) {
     const list = pass === 0 ? data.failures : suspensions;
     for (let i = 0; i < list.length; i++) {
@@ -158,7 +212,8 @@ function prepare(data: LifeData): Prepared {
         failureLogs[i] = log;
         failureCounts[i] = count;
         failures += count;
-        distinct.add(Math.round(log / DISTINCT_LOG_STEP));
+        if (log < minFailureLog) minFailureLog = log;
+        if (log > maxFailureLog) maxFailureLog = log;
       }
       allLogs[used] = log;
       allCounts[used] = count;
@@ -166,13 +221,14 @@ function prepare(data: LifeData): Prepared {
       if (log > maxLog) maxLog = log;
     }
   }
-  // Distinct to a relative precision of 1e-9: times closer than that are one time as far as a fit can tell (their
-  // logarithms agree to rounding), and a regression through them would be vertical.
-  if (distinct.size < 2) {
+  // Failure times that agree to one part in a million are one time as far as a fit can tell, and a regression
+  // through them would be vertical (a shape in the billions).
+  if (!(maxFailureLog - minFailureLog > DISTINCT_LOG_SPAN)) {
+    const have = failures > 0 ? 'all failed at one time (to one part in a million)' : 'no failures';
     return {
       ok: false,
       code: 'too_few_failures',
-      message: `A Weibull fit needs failures at two or more distinct times; these data have ${distinct.size}.`,
+      message: `A Weibull fit needs failures at two or more distinct times; these data have ${have}.`,
     };
   }
   return {
@@ -353,6 +409,7 @@ function medianRank(rank: number, units: number): number {
 
 /** Bernard's plotting positions with Johnson's adjusted ranks: one row per failure time. */
 export function plottingPositions(data: LifeData): PlottingPosition[] {
+  checkLifeData('plottingPositions', data, 'data');
   const entries = sortedEntries(data);
   const units = entries.reduce((sum, e) => sum + e.count, 0);
   const positions: PlottingPosition[] = [];
@@ -413,7 +470,14 @@ export interface FitOptions {
 }
 
 /** Fits a Weibull to life data; a typed failure, never an exception, when the data cannot be fitted. */
+const fitOptionsSchema = z.object({ method: z.enum(['mle', 'mrr']).optional() });
+
 export function fitWeibull(data: LifeData, options: FitOptions = {}): WeibullFitResult {
+  const issues = [...lifeDataIssues(data, 'data'), ...issuesOf(fitOptionsSchema, options, 'options')];
+  if (issues.length > 0) {
+    const error = new AnalyticsInputError('fitWeibull', issues);
+    return { ok: false, code: 'invalid_input', message: error.message, issues };
+  }
   const prepared = prepare(data);
   if (!prepared.ok) return prepared;
   const d = prepared.data;
@@ -427,9 +491,9 @@ export function fitWeibull(data: LifeData, options: FitOptions = {}): WeibullFit
       scale: params.scale,
       failures: d.failures,
       units: d.units,
-      b10: bLife(params, 10),
-      b50: bLife(params, 50),
-      meanLife: weibullMean(params),
+      b10: quantileOf(params, 0.1),
+      b50: quantileOf(params, 0.5),
+      meanLife: meanOf(params),
       logLikelihood: logLikelihood(d, params),
     },
   };
@@ -438,6 +502,7 @@ export function fitWeibull(data: LifeData, options: FitOptions = {}): WeibullFit
 /** fitWeibull that throws a WeibullDataError (with the same code and message) instead of answering a failure. */
 export function fitWeibullOrThrow(data: LifeData, options: FitOptions = {}): WeibullFit {
   const result = fitWeibull(data, options);
+  if (!result.ok && result.issues) throw new AnalyticsInputError('fitWeibullOrThrow', result.issues);
   if (!result.ok) throw new WeibullDataError(result.code, result.message);
   return result.fit;
 }
@@ -464,12 +529,13 @@ function plotPoint(time: number, F: number): PlotPoint {
 }
 
 export function probabilityPlot(data: LifeData, fit: WeibullParameters): ProbabilityPlot {
+  check('probabilityPlot', weibullParametersSchema, fit, 'fit');
   const positions = plottingPositions(data);
   const points = positions.map((p) => ({ ...plotPoint(p.time, p.F), count: p.count }));
   const first = positions.length > 0 ? positions[0].time : fit.scale;
   const last = positions.length > 0 ? positions[positions.length - 1].time : fit.scale;
   return {
     points,
-    line: [plotPoint(first, weibullCdf(fit, first)), plotPoint(last, weibullCdf(fit, last))],
+    line: [plotPoint(first, cdfOf(fit, first)), plotPoint(last, cdfOf(fit, last))],
   };
 }

@@ -61,7 +61,33 @@ export const BENCH_RESULTS = [
 ] as const;
 export type BenchResult = (typeof BENCH_RESULTS)[number];
 
+export const BENCH_RESULT_LABELS: Record<BenchResult, string> = {
+  failure_confirmed: 'Failure confirmed',
+  no_fault_found: 'No fault found',
+  damage_found: 'Damage found',
+  misapplication_found: 'Misapplication found (installed or used outside its rating)',
+};
+
+/**
+ * The denial reason a bench result points to, pre-chosen on the deny form (the reviewer can change it); none for
+ * a confirmed failure.
+ */
+export const BENCH_DENIAL_CODE: Record<BenchResult, DenialCode | null> = {
+  failure_confirmed: null,
+  no_fault_found: 'no_fault_found',
+  damage_found: 'physical_damage',
+  misapplication_found: null, // which rating was exceeded decides the reason: the reviewer picks it
+};
+
 export const RECEIPT_CONDITIONS = ['as_described', 'damaged_in_transit', 'incomplete', 'other'] as const;
+export type ReceiptCondition = (typeof RECEIPT_CONDITIONS)[number];
+
+export const RECEIPT_CONDITION_LABELS: Record<ReceiptCondition, string> = {
+  as_described: 'As described by the installer',
+  damaged_in_transit: 'Damaged in transit',
+  incomplete: 'Incomplete (parts missing)',
+  other: 'Other (say what in the note)',
+};
 
 const isoDate = z.iso.date({ error: 'Enter a date as YYYY-MM-DD.' });
 const id = z.string().trim().min(1).max(64);
@@ -138,7 +164,8 @@ export const recordBenchTestSchema = z
     next: z.enum(['decide', 'review']).default('decide'),
   })
   .superRefine((p, ctx) => {
-    if (Object.keys(p.readings).length === 0) {
+    // A key left undefined (a blank field on the form) is no reading.
+    if (Object.values(p.readings).every((v) => v === undefined)) {
       ctx.addIssue({ code: 'custom', path: ['readings'], message: 'Record at least one bench reading.' });
     }
   });
@@ -185,3 +212,4 @@ export const reopenSchema = z.strictObject({
 export type ApprovePayload = z.infer<typeof approveSchema>;
 export type DenyPayload = z.infer<typeof denySchema>;
 export type RecordBenchTestPayload = z.infer<typeof recordBenchTestSchema>;
+export type ReceiveUnitPayload = z.infer<typeof receiveUnitSchema>;

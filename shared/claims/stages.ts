@@ -5,6 +5,8 @@ import { formatCents, MONEY_PATTERN, parseCents } from '../engine/money';
 import type { Verdict } from '../engine/schema';
 import { ROLE_LABELS, type OrganizationKind, type Role } from '../roles';
 import {
+  BENCH_RESULT_LABELS,
+  type BenchResult,
   answerInfoSchema,
   approveSchema,
   closeSchema,
@@ -85,6 +87,8 @@ export type ClaimView = {
   contractorId: string;
   manufacturerId: string;
   evaluation?: { verdict: Verdict; computed: { credit: string; currency?: string } } | null;
+  /** What the newest bench test found, if the unit has been on the bench. */
+  benchResult?: BenchResult | null;
 };
 
 type ActionDef = {
@@ -410,6 +414,15 @@ export function overrideReasonsFor(
         ? 'The engine found this claim likely excluded.'
         : 'The engine found this claim likely covered.',
     );
+  }
+  // The bench outranks the screening: approving what the bench found sound, damaged or misapplied, or denying a
+  // failure the bench confirmed, needs a written reason too.
+  const bench = claim.benchResult ?? null;
+  if (bench !== null && decision.action === 'approve' && bench !== 'failure_confirmed') {
+    why.push(`The bench test found: ${BENCH_RESULT_LABELS[bench].toLowerCase()}.`);
+  }
+  if (bench === 'failure_confirmed' && decision.action === 'deny') {
+    why.push('The bench test confirmed the failure.');
   }
   if (ev !== null && decision.action === 'approve' && decision.amount !== undefined) {
     if (!sameCents(decision.amount, ev.computed.credit)) {

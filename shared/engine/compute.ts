@@ -16,6 +16,8 @@ export type LumenStatus = 'no_data' | 'insufficient' | 'case_temp_above_tested' 
 
 export interface ComputedValues {
   computed: Computed;
+  /** Output over input watts, unrounded: the rules judge this; `computed.driverEfficiency` is it rounded. */
+  driverEfficiencyExact: number | null;
   /** The credit before the verdict is known (the engine zeroes it when excluded). */
   payableCents: number;
   lumen: LumenStatus;
@@ -59,18 +61,23 @@ export function projectLumenMaintenance(
   let chosen: { B: number; alpha: number };
   let caseTempC: number;
   let method: LumenProjection['method'];
+  // The projection limit comes from the test duration of the data the projection rests on: the one data set
+  // used, or the shorter of the two when it interpolates between them.
+  let testHours: number;
   if (target === undefined || target >= high.caseTempC) {
     if (target !== undefined && target > high.caseTempC)
       return { status: 'case_temp_above_tested', projection: null };
     chosen = high;
     caseTempC = high.caseTempC;
     method = high.method;
+    testHours = high.testHours;
   } else if (target <= low.caseTempC) {
     // Below the coolest data set TM-21 does not extrapolate; the coolest data set stands (it is the
     // more pessimistic of the two).
     chosen = low;
     caseTempC = low.caseTempC;
     method = low.method;
+    testHours = low.testHours;
   } else {
     // Two data sets around the target. Without decay at both temperatures Arrhenius cannot be applied;
     // fall back to the hotter data set.
@@ -78,10 +85,10 @@ export function projectLumenMaintenance(
     chosen = interpolated ?? high;
     caseTempC = interpolated === null ? high.caseTempC : target;
     method = interpolated === null ? high.method : 'arrhenius';
+    testHours = interpolated === null ? high.testHours : Math.min(low.testHours, high.testHours);
   }
-  const testHours = Math.min(low.testHours, high.testHours);
   const limit = projectionLimitHours(testHours, lm.sampleSize);
-  const lifetimes = LUMEN_PERCENTS.map((p) => reportLumenLife(chosen, p, limit));
+  const lifetimes = LUMEN_PERCENTS.map((p) => reportLumenLife(chosen, p, limit, testHours));
   return {
     status: 'projected',
     projection: {
@@ -112,12 +119,13 @@ export function computeValues(input: EvaluationInput): ComputedValues {
 
   let driverOutputWatts: number | null = null;
   let driverEfficiency: number | null = null;
+  let driverEfficiencyExact: number | null = null;
   if (m?.driverOutputVolts !== undefined && m.driverOutputAmps !== undefined) {
     const watts = dcPowerWatts(m.driverOutputVolts, m.driverOutputAmps);
     driverOutputWatts = roundTo(watts, 3);
     if (m.inputWatts !== undefined) {
-      const ratio = efficiencyRatio(watts, m.inputWatts);
-      driverEfficiency = ratio === null ? null : roundTo(ratio, 4);
+      driverEfficiencyExact = efficiencyRatio(watts, m.inputWatts);
+      driverEfficiency = driverEfficiencyExact === null ? null : roundTo(driverEfficiencyExact, 4);
     }
   }
   const inputPowerDeviationPercent =
@@ -195,6 +203,7 @@ export function computeValues(input: EvaluationInput): ComputedValues {
   return {
     payableCents,
     lumen,
+    driverEfficiencyExact,
     computed: {
       serviceVoltageRange,
       driverOutputWatts,

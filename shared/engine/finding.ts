@@ -6,6 +6,8 @@ export interface RuleContext {
   input: EvaluationInput;
   computed: Computed;
   lumen: LumenStatus;
+  /** Driver output / input watts before rounding: judged here, shown rounded in `computed`. */
+  driverEfficiencyExact: number | null;
 }
 
 /** A rule checks one thing and answers one finding, or null when it has nothing to say. */

@@ -15,7 +15,7 @@ import {
 } from './schema';
 
 /** Stored with every evaluation; bump it whenever a rule, threshold or message changes. */
-export const ENGINE_VERSION = '1.0.0';
+export const ENGINE_VERSION = '1.1.0';
 
 /** Excluded when any finding excludes, else review when any finding asks for one, else covered. */
 export function decideVerdict(findings: readonly Finding[]): Verdict {
@@ -34,8 +34,8 @@ export function decideVerdict(findings: readonly Finding[]): Verdict {
  * Pure and deterministic: the same input always gives the same answer.
  */
 export function evaluateClaim(input: EvaluationInput): Evaluation {
-  const { computed, payableCents, lumen } = computeValues(input);
-  const ctx: RuleContext = { input, computed, lumen };
+  const { computed, payableCents, lumen, driverEfficiencyExact } = computeValues(input);
+  const ctx: RuleContext = { input, computed, lumen, driverEfficiencyExact };
   const findings: Finding[] = [];
   coverageFindings(ctx, findings);
   applicationFindings(ctx, findings);

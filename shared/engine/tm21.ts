@@ -4,7 +4,8 @@
 // Lp (hours to p % of initial flux) = ln(100 B / p) / alpha.
 // Data window: tests of 6,000 to 10,000 h fit the last 5,000 h; longer tests fit the last half of the
 // test; under 6,000 h is not enough data and gives no projection.
-// Projection limit: 6x the test duration for 20 or more units, 5.5x for 10 to 19 units. TM-21 gives no
+// Projection limit: 6x the test duration for 20 or more units, 5.5x for 10 to 19 units, the duration being that of
+// the data set the projection uses (the shorter of the two when it interpolates between them). TM-21 gives no
 // multiplier for fewer than 10 units; we then project no further than the test itself (1x), so any Lp
 // beyond the tested hours is reported only as "> {test hours} h".
 // Two case temperatures: Arrhenius interpolation, alpha_i = A exp(-Ea / (k T_i)) with T in kelvin, where
@@ -36,7 +37,10 @@ export interface LumenLife {
   p: number;
   /** Hours to p % of initial flux from the model; null when the model never gets there (alpha <= 0). */
   hours: number | null;
-  /** What TM-21 lets one state: "47,655 h", or "> 60,000 h" when the model reaches past the limit. */
+  /**
+   * What TM-21 lets one state, in its own notation Lp(Dk), D the test duration in thousands of hours:
+   * "L90(10k) = 47,655 h", or "L70(10k) > 60,000 h" when the model reaches past the projection limit.
+   */
   reported: string;
   limited: boolean;
 }
@@ -118,13 +122,25 @@ export function formatHours(hours: number): string {
   return out;
 }
 
-export function reportLumenLife(fit: ExponentialFit, p: number, limitHours: number): LumenLife {
+/** TM-21's name for a lumen-maintenance life: L70(10k) for 70 % from a 10,000 h test (6,048 h -> "6.048k"). */
+export function lumenLifeNotation(p: number, testHours: number): string {
+  const thousands = String(Number((testHours / 1000).toFixed(3)));
+  return `L${p}(${thousands}k)`;
+}
+
+export function reportLumenLife(
+  fit: ExponentialFit,
+  p: number,
+  limitHours: number,
+  testHours: number,
+): LumenLife {
   const hours = lumenLifeHours(fit, p);
   const limited = hours > limitHours;
+  const name = lumenLifeNotation(p, testHours);
   return {
     p,
     hours: Number.isFinite(hours) ? Math.round(hours) : null,
-    reported: limited ? `> ${formatHours(limitHours)} h` : `${formatHours(hours)} h`,
+    reported: limited ? `${name} > ${formatHours(limitHours)} h` : `${name} = ${formatHours(hours)} h`,
     limited,
   };
 }

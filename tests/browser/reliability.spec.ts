@@ -54,6 +54,10 @@ test('an accountant reads the warranty reserve', async ({ page }) => {
       maximumFractionDigits: 0,
     }),
   );
+  // The page says how age is counted and how amounts are rounded (issue 14).
+  const rules = page.getByRole('region', { name: 'How the reserve is counted' });
+  await expect(rules).toContainText('middle of the month');
+  await expect(rules).toContainText('rounded once');
   const chart = page
     .getByRole('heading', { name: 'Expected credits by month' })
     .locator('xpath=ancestor::div[contains(@class,"rounded-card")]');

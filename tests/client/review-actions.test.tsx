@@ -77,14 +77,30 @@ beforeEach(() => {
 });
 afterEach(() => vi.unstubAllGlobals());
 
-function renderActions(stage: Stage, verdict: Verdict) {
+function renderActions(stage: Stage, verdict: Verdict, benchResult?: string) {
   const ev = evaluation(verdict);
+  const wf = workflow(stage, ev);
+  if (benchResult) {
+    wf.benchTests = [
+      {
+        id: 'b1',
+        testedOn: '2026-11-03',
+        result: benchResult,
+        readings: { inputWatts: 23.5 },
+        evaluation: ev,
+        engineVersion: ev.engineVersion,
+        note: null,
+        testedBy: 'Rhea',
+        testedAt: '2026-11-03T10:00:00.000Z',
+      },
+    ];
+  }
   const client = new QueryClient({
     defaultOptions: { queries: { retry: false }, mutations: { retry: false } },
   });
   return render(
     <QueryClientProvider client={client}>
-      <ReviewActions wf={workflow(stage, ev)} evaluation={ev} units={1} />
+      <ReviewActions wf={wf} evaluation={ev} units={1} />
     </QueryClientProvider>,
   );
 }
@@ -159,6 +175,63 @@ describe('the review screen’s moves', () => {
     const refusal = await screen.findByText('Say why the decision departs from the engine.');
     expect(refusal.closest('[role="alert"]')).toHaveTextContent('Some of the details need another look.');
     expect(JSON.parse(String(sent[0].init.body))).not.toHaveProperty('overrideReason');
+  });
+
+  it('records a bench test with any result the schema allows, here no fault found, with its readings', async () => {
+    const user = userEvent.setup();
+    renderActions('unit_received', 'covered');
+    await user.click(screen.getByRole('button', { name: 'Record bench test' }));
+    const form = screen.getByRole('form', { name: 'Record bench test' });
+    const results = within(form)
+      .getAllByRole('radio')
+      .map((r) => (r as HTMLInputElement).value);
+    expect(results).toEqual(['failure_confirmed', 'no_fault_found', 'damage_found', 'misapplication_found']);
+    // Nothing read: the move's own schema refuses it before anything is sent.
+    await user.click(within(form).getByRole('button', { name: 'Record bench test' }));
+    expect(await within(form).findByText('Record at least one bench reading.')).toBeInTheDocument();
+    expect(sent).toHaveLength(0);
+    await user.click(within(form).getByRole('radio', { name: 'No fault found' }));
+    await user.type(within(form).getByRole('textbox', { name: /Input power/ }), '23.5');
+    await user.type(within(form).getByRole('textbox', { name: /Supply/ }), '121');
+    await user.type(within(form).getByRole('textbox', { name: 'Bench notes (optional)' }), 'Runs 8 h clean.');
+    await user.click(within(form).getByRole('button', { name: 'Record bench test' }));
+    expect(sent).toHaveLength(1);
+    expect(sent[0].url).toBe(`/api/claims/${CLAIM_ID}/actions/record_bench_test`);
+    const body = JSON.parse(String(sent[0].init.body));
+    expect(body).toMatchObject({
+      result: 'no_fault_found',
+      readings: { inputWatts: 23.5, supplyVolts: 121 },
+      note: 'Runs 8 h clean.',
+      next: 'decide',
+    });
+    expect(body.testedOn).toMatch(/^\d{4}-\d{2}-\d{2}$/);
+  });
+
+  it('marks a unit received damaged in transit', async () => {
+    const user = userEvent.setup();
+    renderActions('return_requested', 'covered');
+    await user.click(screen.getByRole('button', { name: 'Mark unit received' }));
+    const form = screen.getByRole('form', { name: 'Mark unit received' });
+    expect(
+      within(form)
+        .getAllByRole('radio')
+        .map((r) => (r as HTMLInputElement).value),
+    ).toEqual(['as_described', 'damaged_in_transit', 'incomplete', 'other']);
+    await user.click(within(form).getByRole('radio', { name: 'Damaged in transit' }));
+    await user.click(within(form).getByRole('button', { name: 'Mark unit received' }));
+    expect(sent).toHaveLength(1);
+    expect(JSON.parse(String(sent[0].init.body))).toMatchObject({ condition: 'damaged_in_transit' });
+  });
+
+  it('after a no-fault-found bench test, approving needs a reason and denying offers that reason ticked', async () => {
+    const user = userEvent.setup();
+    renderActions('unit_received', 'covered', 'no_fault_found');
+    await user.click(screen.getByRole('button', { name: 'Approve' }));
+    expect(within(screen.getByRole('form', { name: 'Approve' })).getByRole('alert')).toHaveTextContent(
+      'The bench test found: no fault found.',
+    );
+    await user.click(screen.getByRole('button', { name: 'Deny' }));
+    expect(screen.getByRole('checkbox', { name: 'No fault found on the bench' })).toBeChecked();
   });
 
   it('approving a covered claim at the engine’s amount needs no reason; another amount does', async () => {

@@ -3,10 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { isCoveredClaim } from '../../shared/analytics/covered';
 import { failureModeOf } from '../../shared/analytics/failure-mode-rules';
 import { ageingTable, rankByEnvironment, rankFailureModes } from '../../shared/analytics/failure-modes';
-import { kaplanMeier } from '../../shared/analytics/kaplan-meier';
 import { installedLifeData, type InstalledUnits } from '../../shared/analytics/life-data';
-import { forecastReserve } from '../../shared/analytics/reserve';
-import { fitWeibull } from '../../shared/analytics/weibull';
 import { wholeMonthsBetween } from '../../shared/engine/dates';
 import { CLAIM_STAGES } from '../../shared/schemas/claims';
 import { createAnalyticsService } from '../../server/modules/analytics/analytics.service';
@@ -236,9 +233,29 @@ describe('GET /api/analytics/life', () => {
     expect(Math.round(r.body.fit.scale)).toBe(11792); // Meeker & Escobar (1998), Table C.5, bearing-cage data
     expect(Math.round(r.body.fit.b10)).toBe(3903); // Meeker & Escobar (1998), Table C.5, bearing-cage data
     expect(r.body.probabilityPlot.points).toHaveLength(6);
-    // Kaplan-Meier from the endpoint is kaplanMeier on the same groups.
-    expect(r.body.kaplanMeier).toEqual(
-      kaplanMeier({ failures: r.body.lifeData.failureGroups, suspensions: r.body.lifeData.suspensionGroups }),
+    // Kaplan-Meier at each failure, computed here from the published table (not by kaplanMeier()):
+    //   n_i = 1703 - units suspended before t_i - units failed before t_i,  S = prod (1 - 1/n_i),
+    //   Greenwood: SE = S sqrt(sum 1 / (n_i (n_i - 1))), band S +/- 1.959964 SE.
+    let S = 1;
+    let greenwood = 0;
+    BEARING_CAGE_FAILURES.forEach((time, i) => {
+      const suspendedBefore = BEARING_CAGE_SUSPENSIONS.filter(([, h]) => h < time).reduce(
+        (n, [c]) => n + c,
+        0,
+      );
+      const atRisk = 1703 - suspendedBefore - i;
+      S *= 1 - 1 / atRisk;
+      greenwood += 1 / (atRisk * (atRisk - 1));
+      const row = r.body.kaplanMeier.find((k: { time: number }) => k.time === time);
+      expect(row.atRisk, `at risk before ${time} h`).toBe(atRisk);
+      expect(row.survival).toBeCloseTo(S, 12);
+      expect(row.upper).toBeCloseTo(Math.min(1, S + 1.959964 * S * Math.sqrt(greenwood)), 12);
+      expect(row.lower).toBeCloseTo(S - 1.959964 * S * Math.sqrt(greenwood), 12);
+    });
+    // Before 230 h: 288 (at 50 h) + 148 (at 150 h) = 436 suspended, so 1267 at risk; S(230) = 1266/1267.
+    expect(r.body.kaplanMeier.find((k: { time: number }) => k.time === 230).survival).toBeCloseTo(
+      1266 / 1267,
+      14,
     );
     // Regression is the alternative.
     const mrr = await reviewer.get(
@@ -488,51 +505,63 @@ describe('GET /api/reserve', () => {
     expect(r.body.monthLabels[0]).toBe('2025-07');
     expect(r.body.monthLabels[11]).toBe('2026-06');
 
-    // The same forecast by hand: the fit from the life data in months at mid-month ages, one cohort per
-    // model x install month x version x whole-month age.
-    const life = installedLifeData(
-      [
-        {
-          installedOn: '2023-03-10',
-          quantity: 200,
-          failures: [
-            { failedOn: '2023-09-01', units: 3 },
-            { failedOn: '2024-06-01', units: 5 },
-          ],
-        },
-        { installedOn: '2024-03-10', quantity: 100, failures: [{ failedOn: '2024-10-01', units: 2 }] },
-        { installedOn: '2024-03-20', quantity: 50 },
-        { installedOn: '2024-09-05', quantity: 80, failures: [{ failedOn: '2025-02-01', units: 1 }] },
-      ],
-      { asOf, unit: 'months', age: 'midpoint' },
-    );
-    const fit = fitWeibull(life);
-    if (!fit.ok) throw new Error(fit.message);
-    const terms = {
-      life: fit.fit,
-      termMonths: 60,
-      fullCoverageMonths: 36,
-      unitCredit: '100.00',
-      currency: 'USD',
+    // The life data at mid-month ages (whole months completed + 0.5), read off the dates by hand:
+    //   failures: 3 at 5.5 (2023-03-10 -> 2023-09-01), 5 at 14.5 (-> 2024-06-01), 2 at 6.5 (2024-03-10 ->
+    //   2024-10-01), 1 at 4.5 (2024-09-05 -> 2025-02-01); survivors on 2025-06-30: 192 at 27.5, 98 + 50 at 15.5,
+    //   79 at 9.5.
+    const failures: [number, number][] = [
+      [5.5, 3],
+      [14.5, 5],
+      [6.5, 2],
+      [4.5, 1],
+    ];
+    const survivors: [number, number][] = [
+      [27.5, 192],
+      [15.5, 148],
+      [9.5, 79],
+    ];
+    const { shape, scale } = r.body.fits[0];
+    // The fit is the maximum of the likelihood: both score equations, written out, vanish there.
+    //   d lnL / d scale = 0  <=>  sum_all w (t/scale)^shape = r  (r = 11 failures)
+    //   d lnL / d shape = 0  <=>  r/shape + sum_f w ln(t/scale) - sum_all w (t/scale)^shape ln(t/scale) = 0
+    const all = [...failures, ...survivors];
+    const z = (t: number) => Math.pow(t / scale, shape);
+    expect(all.reduce((sum, [t, w]) => sum + w * z(t), 0)).toBeCloseTo(11, 8);
+    expect(
+      11 / shape +
+        failures.reduce((sum, [t, w]) => sum + w * Math.log(t / scale), 0) -
+        all.reduce((sum, [t, w]) => sum + w * z(t) * Math.log(t / scale), 0),
+    ).toBeCloseTo(0, 8);
+
+    // The reserve by hand from that fit: cohort a, 192 units at 27 whole months (27.5 counted), cohort b, 148 at
+    // 15 (15.5 counted); term 60, full cover to 36 months, 100.00 a claim, 12 months. A claim at age t pays
+    // q(t) = 1 below 36, (60 - t) / 24 from 36 to 60; the expected cents of a cohort of n units at age a are
+    //   10000 n integral_a^(a+12) q(t) f(t) dt / R(a),
+    // integrated here by Simpson's rule.
+    const f = (t: number) => (shape / scale) * Math.pow(t / scale, shape - 1) * Math.exp(-z(t));
+    const q = (t: number) => (t < 36 ? 1 : (60 - t) / 24);
+    const simpson = (g: (t: number) => number, lo: number, hi: number, n = 2400) => {
+      const h = (hi - lo) / n;
+      let sum = g(lo) + g(hi);
+      for (let i = 1; i < n; i++) sum += (i % 2 ? 4 : 2) * g(lo + i * h);
+      return (sum * h) / 3;
     };
-    const expected = forecastReserve(
-      [
-        { key: 'a', survivors: 192, ageMonths: wholeMonthsBetween('2023-03-10', asOf), ...terms },
-        // 2024-03-10 and 2024-03-20 are both 15 whole months old on asOf: one cohort of 98 + 50.
-        { key: 'b', survivors: 148, ageMonths: wholeMonthsBetween('2024-03-10', asOf), ...terms },
-      ],
-      { months: 12 },
-    );
-    expect(r.body.totals).toEqual(expected.totals);
+    const cents = (n: number, a: number) =>
+      // q has a kink at 36: integrate each side of it on its own.
+      (10000 *
+        n *
+        (a + 12 <= 36
+          ? simpson((t) => f(t), a, a + 12)
+          : simpson((t) => f(t), a, 36) + simpson((t) => q(t) * f(t), 36, a + 12))) /
+      Math.exp(-z(a));
+    const claims = (n: number, a: number) => n * (1 - Math.exp(z(a) - z(a + 12)));
+    const exact = cents(192, 27.5) + cents(148, 15.5);
+    expect(r.body.totals[0].currency).toBe('USD');
+    expect(r.body.totals[0].expectedClaims).toBeCloseTo(claims(192, 27.5) + claims(148, 15.5), 9);
+    expect(r.body.totals[0].amount).toBe((Math.floor(exact + 0.5) / 100).toFixed(2));
     expect(r.body.cohorts).toHaveLength(2);
     expect(r.body.fits).toEqual([
-      {
-        productModelId: product.id,
-        modelNumber: product.modelNumber,
-        shape: fit.fit.shape,
-        scale: fit.fit.scale,
-        from: 'model',
-      },
+      { productModelId: product.id, modelNumber: product.modelNumber, shape, scale, from: 'model' },
     ]);
     const march = r.body.cohorts.find((c: { installMonth: string }) => c.installMonth === '2024-03');
     expect(march.survivors).toBe(148);

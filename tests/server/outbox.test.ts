@@ -82,9 +82,16 @@ describe('the e-mail outbox', () => {
     const row = await t.ds.getRepository(OutboxMessage).findOneByOrFail({ to });
     expect(row).toMatchObject({ status: 'pending', attempts: 1 });
     expect(row.lastError).toBeTruthy();
-    expect(row.nextAttemptAt.getTime()).toBeGreaterThan(clock.nowMs() + backoffMs(1) - 2000);
+    // The first retry waits 5 s (then 10 s, 20 s, ... doubling, at most an hour): written out, not backoffMs(1).
+    const firstRetryMs = 5_000;
+    expect(row.nextAttemptAt.getTime()).toBeGreaterThan(clock.nowMs() + firstRetryMs - 2000);
+    expect(row.nextAttemptAt.getTime()).toBeLessThanOrEqual(clock.nowMs() + firstRetryMs);
+    // The schedule by hand: 5 s x 2^(n - 1) for attempt n, capped at 3,600,000 ms (5 s x 2^10 = 5,120 s > 1 h).
+    expect([1, 2, 3, 4, 10, 11, 30].map(backoffMs)).toEqual([
+      5_000, 10_000, 20_000, 40_000, 2_560_000, 3_600_000, 3_600_000,
+    ]);
 
-    clock.advance(backoffMs(1) + 1000);
+    clock.advance(firstRetryMs + 1000);
     const up = createTransport(t.config);
     await deliverDue(t.ds, up, { from: t.config.smtp.from, ids: [id] });
     up.close();

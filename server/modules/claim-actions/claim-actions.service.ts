@@ -13,7 +13,11 @@ import {
   RETURN_SHIP_DAYS,
   WAITING_ON_BY_STAGE,
 } from '../../../shared/claims/workflow';
-import { DENIAL_CODE_LABELS, RESOLUTION_LABELS } from '../../../shared/claims/actions.schema';
+import {
+  DENIAL_CODE_LABELS,
+  RESOLUTION_LABELS,
+  type BenchResult,
+} from '../../../shared/claims/actions.schema';
 import { safeEvaluateClaim } from '../../../shared/engine';
 import type { Evaluation } from '../../../shared/engine/schema';
 import { formatCents, parseCents } from '../../../shared/engine/money';
@@ -60,17 +64,31 @@ export const CLAIM_CHANGED_MESSAGE =
 
 const today = () => clock.now().toISOString().slice(0, 10);
 
-/** The engine's latest word on a claim: the newest bench test's evaluation, else the one made at filing. */
-export async function latestEvaluation(m: EntityManager, claim: Claim): Promise<Evaluation | null> {
+/**
+ * The engine's latest word on a claim (the newest bench test's evaluation, else the one made at filing) and what
+ * the newest bench test found.
+ */
+export async function latestEvaluation(
+  m: EntityManager,
+  claim: Claim,
+): Promise<{ evaluation: Evaluation | null; benchResult: BenchResult | null }> {
   const bench = await m.findOne(BenchTest, { where: { claimId: claim.id }, order: { testedAt: 'DESC' } });
-  return bench?.evaluation ?? claim.evaluation ?? null;
+  return {
+    evaluation: bench?.evaluation ?? claim.evaluation ?? null,
+    benchResult: (bench?.result as BenchResult | undefined) ?? null,
+  };
 }
 
-export function claimView(claim: Claim, evaluation: Evaluation | null): ClaimView {
+export function claimView(
+  claim: Claim,
+  evaluation: Evaluation | null,
+  benchResult: BenchResult | null = null,
+): ClaimView {
   return {
     stage: claim.stage,
     contractorId: claim.contractorId,
     manufacturerId: claim.manufacturerId,
+    benchResult,
     evaluation: evaluation ? { verdict: evaluation.verdict, computed: evaluation.computed } : null,
   };
 }
@@ -253,8 +271,13 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
     actor: Actor,
     expectedVersion?: number,
   ): Promise<MoveResult> {
-    const evaluation = await latestEvaluation(ds.manager, loaded);
-    const verdict = canPerform(claimView(loaded, evaluation), toAbilityUser(user), action, body ?? {});
+    const { evaluation, benchResult } = await latestEvaluation(ds.manager, loaded);
+    const verdict = canPerform(
+      claimView(loaded, evaluation, benchResult),
+      toAbilityUser(user),
+      action,
+      body ?? {},
+    );
     if (!verdict.ok) {
       throw new AppError(REFUSAL_STATUS[verdict.code], verdict.code, verdict.message, verdict.details);
     }

@@ -45,7 +45,7 @@ export async function loadWorkflow(
   viewer: SessionUser,
 ): Promise<ClaimWorkflowDto> {
   const m: EntityManager = ds.manager;
-  const [messages, returns, benches, decisions, documents, evaluation, history] = await Promise.all([
+  const [messages, returns, benches, decisions, documents, latest, history] = await Promise.all([
     m.find(ClaimMessage, { where: { claimId: claim.id }, order: { createdAt: 'ASC' } }),
     m.find(ReturnAuthorization, { where: { claimId: claim.id }, order: { createdAt: 'ASC' } }),
     m.find(BenchTest, { where: { claimId: claim.id }, order: { testedAt: 'ASC' } }),
@@ -170,9 +170,10 @@ export async function loadWorkflow(
           ? { id: assignee.id, name: assignee.name }
           : null,
     },
-    actions: availableActions(claimView(claim, evaluation), toAbilityUser(viewer)).filter(
-      (a) => !MOVES_ELSEWHERE[a],
-    ),
+    actions: availableActions(
+      claimView(claim, latest.evaluation, latest.benchResult),
+      toAbilityUser(viewer),
+    ).filter((a) => !MOVES_ELSEWHERE[a]),
     openRequest: claim.stage === 'needs_info' ? openRequest : null,
     messages: messageDtos,
     returns: returnDtos,

@@ -1,4 +1,4 @@
-import { formatCents, parseCents } from '../../../shared/engine/money';
+import { parseCents } from '../../../shared/engine/money';
 import { forecastReserve, type ReserveCohort } from '../../../shared/analytics/reserve';
 import type { WeibullParameters } from '../../../shared/analytics/weibull';
 import type { ReserveCohortDto, ReserveDto } from '../../../shared/schemas/analytics';
@@ -7,8 +7,10 @@ import { mergeLife, type AnalyticsService } from '../analytics/analytics.service
 // The warranty reserve: each model's units are fitted in months (maximum likelihood, mid-month ages); a model
 // with too few failures of its own borrows its family's fit; each cohort (model x install month x policy
 // version) then expects claims from the fit, conditional on its survivors working today, capped at its term and
-// prorated by its coverage, at its version's unit credit. Cohorts of the same install month whose units reached
-// different whole-month ages (installed early or late in the month) are forecast apart and added up in cents.
+// prorated by its coverage, at its version's unit credit. Ages are whole months completed, which the forecast
+// counts at the middle of the month (MID_MONTH) exactly as the fit's mid-month ages do. Cohorts of the same
+// install month whose units reached different whole-month ages (installed early or late in the month) are
+// forecast apart and added up before rounding.
 
 function addMonths(isoMonth: string, k: number): string {
   const [y, m] = isoMonth.split('-').map(Number);
@@ -112,22 +114,11 @@ export async function buildReserve(
     }
   }
 
+  // Cohorts of one key (an install month whose units reached two whole-month ages) come back as one row, their
+  // unrounded amounts added before rounding; the totals are the unrounded sums, rounded once.
   const forecast = forecastReserve(cohorts, { months });
-  // Cohorts split by age are one row: claims added, cents added (each part already rounded).
   const merged = new Map<string, ReserveCohortDto>();
-  for (const row of forecast.cohorts) {
-    const existing = merged.get(row.key);
-    if (!existing) {
-      merged.set(row.key, { ...row, ...meta.get(row.key)! });
-      continue;
-    }
-    existing.expectedClaims += row.expectedClaims;
-    existing.monthlyClaims = existing.monthlyClaims.map((v, k) => v + row.monthlyClaims[k]);
-    existing.amount = formatCents(parseCents(existing.amount) + parseCents(row.amount));
-    existing.monthlyAmounts = existing.monthlyAmounts.map((v, k) =>
-      formatCents(parseCents(v) + parseCents(row.monthlyAmounts[k])),
-    );
-  }
+  for (const row of forecast.cohorts) merged.set(row.key, { ...row, ...meta.get(row.key)! });
   const rows = [...merged.values()].sort(
     (a, b) => parseCents(b.amount) - parseCents(a.amount) || a.key.localeCompare(b.key),
   );

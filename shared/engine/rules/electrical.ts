@@ -17,7 +17,8 @@ export const UNDERCURRENT_SHARE = 0.75;
 export const VOLTAGE_LIMIT_FRACTION = 0.95;
 
 /** Efficiency above 1 (output above input) means a reading is wrong; otherwise report the efficiency. */
-export const driverEfficiencyRule: Rule = ({ input, computed }) => {
+// computed.driverEfficiency is the ratio rounded to 4 decimals for people; the judgement uses the exact ratio.
+export const driverEfficiencyRule: Rule = ({ input, computed, driverEfficiencyExact }) => {
   const m = input.claim.measurements;
   const outWatts = computed.driverOutputWatts;
   if (m === undefined || outWatts === null || m.inputWatts === undefined) return null;
@@ -29,7 +30,8 @@ export const driverEfficiencyRule: Rule = ({ input, computed }) => {
     inputWatts: inWatts,
     driverEfficiency: computed.driverEfficiency,
   };
-  if (computed.driverEfficiency === null || computed.driverEfficiency > 1) {
+  // Judged on the unrounded ratio: an output 0.004 % above the input rounds to 1.0000 but is still impossible.
+  if (driverEfficiencyExact === null || driverEfficiencyExact > 1) {
     return finding(
       'electrical.reading_impossible',
       'electrical',
@@ -44,7 +46,7 @@ export const driverEfficiencyRule: Rule = ({ input, computed }) => {
     'electrical',
     'pass',
     'none',
-    `The driver delivers ${num(outWatts)} W (${num(m.driverOutputVolts ?? 0)} V x ${num(m.driverOutputAmps ?? 0, 3)} A) from ${num(inWatts)} W in: ${num(computed.driverEfficiency * 100, 0)} % efficient, ${num(inWatts - outWatts)} W lost in the driver.`,
+    `The driver delivers ${num(outWatts)} W (${num(m.driverOutputVolts ?? 0)} V x ${num(m.driverOutputAmps ?? 0, 3)} A) from ${num(inWatts)} W in: ${num((computed.driverEfficiency ?? 0) * 100, 0)} % efficient, ${num(inWatts - outWatts)} W lost in the driver.`,
     values,
   );
 };

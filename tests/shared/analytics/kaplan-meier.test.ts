@@ -1,3 +1,4 @@
+import { AnalyticsInputError } from '../../../shared/analytics/validation';
 import { describe, expect, it } from 'vitest';
 
 import { kaplanMeier, survivalAt } from '../../../shared/analytics/kaplan-meier';
@@ -62,7 +63,7 @@ describe('Kaplan-Meier', () => {
   });
 
   it('refuses negative or infinite times', () => {
-    expect(() => kaplanMeier({ failures: [-1] })).toThrow(RangeError);
-    expect(() => kaplanMeier({ failures: [NaN] })).toThrow(RangeError);
+    expect(() => kaplanMeier({ failures: [-1] })).toThrow(AnalyticsInputError);
+    expect(() => kaplanMeier({ failures: [NaN] })).toThrow(/data\.failures\.0/);
   });
 });

@@ -1,3 +1,4 @@
+import { AnalyticsInputError } from '../../../shared/analytics/validation';
 import { describe, expect, it } from 'vitest';
 
 import { installedLifeData } from '../../../shared/analytics/life-data';
@@ -97,12 +98,12 @@ describe('installed units as life data', () => {
     const asOf = '2024-01-01';
     expect(() =>
       installedLifeData([{ installedOn: '2023-13-01', quantity: 1 }], { asOf, unit: 'months' }),
-    ).toThrow(RangeError);
+    ).toThrow(/installations\.0\.installedOn/);
     expect(() =>
       installedLifeData([{ installedOn: '2023-01-01', quantity: 1.5 }], { asOf, unit: 'months' }),
-    ).toThrow(RangeError);
+    ).toThrow(/installations\.0\.quantity/);
     expect(() =>
       installedLifeData([{ installedOn: '2023-01-01', quantity: 1 }], { asOf, unit: 'hours' }),
-    ).toThrow(/hoursPerDay/);
+    ).toThrow(AnalyticsInputError);
   });
 });

@@ -1,3 +1,4 @@
+import { AnalyticsInputError } from '../../../shared/analytics/validation';
 import { describe, expect, it } from 'vitest';
 
 import { gamma } from '../../../shared/analytics/gamma';
@@ -149,7 +150,7 @@ describe('the distribution', () => {
     const steps = 20000;
     for (let i = 0; i < steps; i++) integral += weibullPdf(p, ((i + 0.5) * 1500) / steps) * (1500 / steps);
     expect(integral).toBeCloseTo(weibullCdf(p, 1500), 8);
-    expect(() => weibullQuantile(p, 1)).toThrow(RangeError);
+    expect(() => weibullQuantile(p, 1)).toThrow(AnalyticsInputError);
   });
 
   it('Lanczos gamma: Gamma(5) = 24, Gamma(1/2) = sqrt(pi), Gamma(1.5) = sqrt(pi)/2', () => {
@@ -175,14 +176,21 @@ describe('validation', () => {
 
   it('a failure at time 0, a negative or infinite time, a negative count: typed failures', () => {
     expect(fitWeibull({ failures: [0, 3, 4] })).toMatchObject({ ok: false, code: 'invalid_time' });
+    // Refused by the input schema, naming the entry.
     expect(fitWeibull({ failures: [2, 3], suspensions: [-1] })).toMatchObject({
       ok: false,
-      code: 'invalid_time',
+      code: 'invalid_input',
+      issues: [{ path: 'data.suspensions.0' }],
     });
-    expect(fitWeibull({ failures: [2, Infinity] })).toMatchObject({ ok: false, code: 'invalid_time' });
+    expect(fitWeibull({ failures: [2, Infinity] })).toMatchObject({
+      ok: false,
+      code: 'invalid_input',
+      issues: [{ path: 'data.failures.1' }],
+    });
     expect(fitWeibull({ failures: [2, { time: 3, count: -1 }] })).toMatchObject({
       ok: false,
-      code: 'invalid_count',
+      code: 'invalid_input',
+      issues: [{ path: 'data.failures.1.count' }],
     });
   });
 

@@ -373,6 +373,27 @@ describe('needsReason', () => {
     ]);
     expect(overrideReasonsFor(claim, { action: 'deny' })).toEqual([]);
   });
+
+  it('the bench outranks the screening: approving after no fault found, denying a confirmed failure', () => {
+    const covered = { verdict: 'covered' as const, computed: { credit: '96.00', currency: 'USD' } };
+    const nff = { ...claimAt('unit_received', covered), benchResult: 'no_fault_found' as const };
+    expect(overrideReasonsFor(nff, { action: 'approve', amount: '96.00' })).toEqual([
+      'The bench test found: no fault found.',
+    ]);
+    const refused = canPerform(nff, user('manufacturer', 'reviewer', true).actor, 'approve', {
+      resolution: 'credit',
+      amount: '96.00',
+    });
+    expect(refused).toMatchObject({ ok: false, code: 'claim.invalid_payload' });
+    const excluded = { verdict: 'excluded' as const, computed: { credit: '0.00', currency: 'USD' } };
+    const confirmed = { ...claimAt('unit_received', excluded), benchResult: 'failure_confirmed' as const };
+    expect(overrideReasonsFor(confirmed, { action: 'deny' })).toEqual([
+      'The bench test confirmed the failure.',
+    ]);
+    expect(overrideReasonsFor(confirmed, { action: 'approve' })).toEqual([
+      'The engine found this claim likely excluded.',
+    ]);
+  });
 });
 
 describe('the CASL abilities agree', () => {

@@ -263,6 +263,26 @@ describe('electrical', () => {
     expect(codes(zeroIn)).toContain('electrical.reading_impossible'); // output with nothing in
   });
 
+  it('judges efficiency on the unrounded ratio: 0.004 % more out than in is impossible, though it shows 1', () => {
+    // 40.0 V x 0.50002 A = 20.0008 W out of 20.0 W in: ratio 1.00004 (physics: output / input), which rounds
+    // to 1.0000 at four decimals. A driver cannot put out more than it draws, however little more.
+    const e = evaluateClaim(
+      makeInput({
+        claim: { measurements: { inputWatts: 20, driverOutputVolts: 40, driverOutputAmps: 0.50002 } },
+      }),
+    );
+    expect(e.computed.driverEfficiency).toBe(1); // presented rounded to 4 decimals
+    expect(codes(e)).toContain('electrical.reading_impossible');
+    expect(codes(e)).not.toContain('electrical.driver_efficiency');
+    // Exactly equal (40.0 V x 0.5 A = 20.0 W of 20.0 W) is possible, if unlikely: 100 %.
+    const equal = evaluateClaim(
+      makeInput({
+        claim: { measurements: { inputWatts: 20, driverOutputVolts: 40, driverOutputAmps: 0.5 } },
+      }),
+    );
+    expect(codes(equal)).toContain('electrical.driver_efficiency');
+  });
+
   it('notes input power more than 10 % off the rating', () => {
     expect(codes(evaluateClaim(makeInput({ claim: { measurements: { inputWatts: 26.4 } } })))).not.toContain(
       'electrical.input_power_off_rating',

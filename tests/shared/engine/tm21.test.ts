@@ -27,16 +27,16 @@ describe('IES TM-21 lumen maintenance', () => {
     const limit = projectionLimitHours(10000, 20);
     expect(limit).toBe(60000); // computed from the IES TM-21 equations (6x for 20+ units)
     expect(Math.round(lumenLifeHours(fit, 70))).toBe(173312); // computed from the IES TM-21 equations
-    expect(reportLumenLife(fit, 70, limit)).toEqual({
+    expect(reportLumenLife(fit, 70, limit, 10000)).toEqual({
       p: 70,
       hours: 173312,
-      reported: '> 60,000 h',
+      reported: 'L70(10k) > 60,000 h', // IES TM-21 reporting form: Lp(Dk) > 6 x D when projected past the limit
       limited: true,
     }); // computed from the IES TM-21 equations
-    expect(reportLumenLife(fit, 90, limit)).toEqual({
+    expect(reportLumenLife(fit, 90, limit, 10000)).toEqual({
       p: 90,
       hours: 47655,
-      reported: '47,655 h',
+      reported: 'L90(10k) = 47,655 h', // IES TM-21 reporting form
       limited: false,
     }); // computed from the IES TM-21 equations
   });
@@ -45,10 +45,10 @@ describe('IES TM-21 lumen maintenance', () => {
     const fit = { B: 0.98, alpha: 7.0e-6 };
     expect(projectionMultiplier(15)).toBe(5.5); // computed from the IES TM-21 equations (5.5x for 10-19 units)
     expect(projectionLimitHours(10000, 15)).toBe(55000); // computed from the IES TM-21 equations
-    expect(reportLumenLife(fit, 70, 55000)).toEqual({
+    expect(reportLumenLife(fit, 70, 55000, 10000)).toEqual({
       p: 70,
       hours: 48067,
-      reported: '48,067 h',
+      reported: 'L70(10k) = 48,067 h', // IES TM-21 reporting form
       limited: false,
     }); // computed from the IES TM-21 equations
   });
@@ -94,9 +94,9 @@ describe('IES TM-21 lumen maintenance', () => {
     expect(projectionMultiplier(19)).toBe(5.5);
     expect(projectionMultiplier(10)).toBe(5.5);
     expect(projectionMultiplier(9)).toBe(1);
-    expect(reportLumenLife({ B: 0.99, alpha: 2e-6 }, 90, projectionLimitHours(10000, 5)).reported).toBe(
-      '> 10,000 h',
-    );
+    expect(
+      reportLumenLife({ B: 0.99, alpha: 2e-6 }, 90, projectionLimitHours(10000, 5), 10000).reported,
+    ).toBe('L90(10k) > 10,000 h');
   });
 
   it('handles flux that does not fall', () => {
@@ -106,10 +106,10 @@ describe('IES TM-21 lumen maintenance', () => {
     ])!;
     expect(rising.alpha).toBeLessThan(0);
     expect(lumenLifeHours(rising, 70)).toBe(Infinity);
-    expect(reportLumenLife(rising, 70, 60000)).toEqual({
+    expect(reportLumenLife(rising, 70, 60000, 10000)).toEqual({
       p: 70,
       hours: null,
-      reported: '> 60,000 h',
+      reported: 'L70(10k) > 60,000 h',
       limited: true,
     });
     expect(projectedFlux({ B: 1, alpha: 0 }, 1e6)).toBe(1);

@@ -4,6 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { Spinner } from '../../../components/ui/spinner';
+import { RESERVE_AGE_RULE, RESERVE_ROUNDING_RULE } from '../../../../shared/analytics/reserve';
 import { analyticsQueries, csvUrl } from '../api/analytics-queries';
 import { ChartCard, NumbersTable } from './chart-card';
 import { formatMoney, formatNumber } from './format';
@@ -55,6 +56,18 @@ export function WarrantyReserve() {
           ))
         )}
       </dl>
+      <section aria-label="How the reserve is counted" className="space-y-1 text-sm text-ink-700">
+        <p>
+          <strong className="font-semibold text-ink-900">Age.</strong> {RESERVE_AGE_RULE}
+        </p>
+        <p>
+          <strong className="font-semibold text-ink-900">Rounding.</strong> {RESERVE_ROUNDING_RULE}
+        </p>
+        <p>
+          <strong className="font-semibold text-ink-900">Proration.</strong> Past a policy’s full-coverage
+          months the credit falls linearly with the age at failure to nothing at the term (linear pro-rata).
+        </p>
+      </section>
       <ChartCard
         title="Expected credits by month"
         description={`From ${r.monthLabels[0]} to ${r.monthLabels[r.monthLabels.length - 1]}, each currency on its own.`}

@@ -1,10 +1,21 @@
+import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { useState, type FormEvent, type ReactNode } from 'react';
+import { forwardRef, useState, type FormEvent, type ReactNode, type TextareaHTMLAttributes } from 'react';
+import { useForm } from 'react-hook-form';
+import type { z } from 'zod';
 import {
+  BENCH_DENIAL_CODE,
+  BENCH_RESULT_LABELS,
+  BENCH_RESULTS,
   DENIAL_CODE_LABELS,
   DENIAL_CODES,
+  RECEIPT_CONDITION_LABELS,
+  RECEIPT_CONDITIONS,
+  receiveUnitSchema,
+  recordBenchTestSchema,
   RESOLUTION_LABELS,
   RESOLUTIONS,
+  type BenchResult,
   type DenialCode,
   type Resolution,
 } from '../../../../shared/claims/actions.schema';
@@ -79,7 +90,8 @@ function useMove(claimId: string, version: number) {
     onError: (e) => setError(e instanceof ApiError ? e : new ApiError(0, 'unknown', 'Something went wrong.')),
   });
   return {
-    run: (action: ClaimActionName, payload: unknown) => m.mutate({ action, payload }),
+    run: (action: ClaimActionName, payload: unknown, onDone?: () => void) =>
+      m.mutate({ action, payload }, { onSuccess: () => onDone?.() }),
     pending: m.isPending,
     error,
   };
@@ -442,18 +454,20 @@ export function ReviewActions({
   const [reason, setReason] = useState('');
   const [codes, setCodes] = useState<DenialCode[]>([]);
   const [addr, setAddr] = useState({ name: '', line1: '', city: '', postalCode: '', country: 'US' });
-  const [bench, setBench] = useState({
-    supplyVolts: '',
-    inputWatts: '',
-    driverOutputVolts: '',
-    driverOutputAmps: '',
-  });
-  const today = new Date().toISOString().slice(0, 10);
+  const latestBench = wf.benchTests.length ? wf.benchTests[wf.benchTests.length - 1] : null;
+  const benchResult = (latestBench?.result as BenchResult | undefined) ?? null;
   const view = {
     stage: wf.claim.stage,
     contractorId: '',
     manufacturerId: '',
+    benchResult,
     evaluation: evaluation ? { verdict: evaluation.verdict, computed: evaluation.computed } : null,
+  };
+  const choose = (a: ClaimActionName) => {
+    setOpen(a);
+    // The bench's finding points to a denial reason; offer it ticked (the reviewer may untick it).
+    const suggested = benchResult ? BENCH_DENIAL_CODE[benchResult] : null;
+    if (a === 'deny' && suggested && codes.length === 0) setCodes([suggested]);
   };
   const why =
     open === 'approve'
@@ -462,7 +476,6 @@ export function ReviewActions({
         ? overrideReasonsFor(view, { action: 'deny' })
         : [];
   const offered = wf.actions;
-  const num = (s: string) => (s.trim() === '' ? undefined : Number(s));
 
   function submit(e: FormEvent) {
     e.preventDefault();
@@ -472,17 +485,6 @@ export function ReviewActions({
       start_review: {},
       request_info: { message: text },
       request_return: { shipTo: addr, ...(text.trim() ? { instructions: text } : {}) },
-      receive_unit: { receivedOn: today, condition: 'as_described', ...(text.trim() ? { note: text } : {}) },
-      record_bench_test: {
-        testedOn: today,
-        result: 'failure_confirmed',
-        readings: Object.fromEntries(
-          Object.entries(bench)
-            .map(([k, v]) => [k, num(v)])
-            .filter(([, v]) => v !== undefined),
-        ),
-        ...(text.trim() ? { note: text } : {}),
-      },
       approve: { resolution, amount, ...(text.trim() ? { note: text } : {}), ...r },
       deny: { reasonCodes: codes, note: text, ...r },
       reopen: { reason: text },
@@ -503,7 +505,7 @@ export function ReviewActions({
             <Button
               key={a}
               variant={open === a ? 'primary' : 'secondary'}
-              onClick={() => setOpen(a)}
+              onClick={() => choose(a)}
               aria-pressed={open === a}
             >
               {ACTION_LABEL[a] ?? a}
@@ -513,8 +515,24 @@ export function ReviewActions({
             <p className="text-sm text-ink-600">Nothing for you to do at this stage.</p>
           ) : null}
         </div>
+        {latestBench ? (
+          <p className="text-sm text-ink-700" data-testid="latest-bench-result">
+            Bench test {latestBench.testedOn}:{' '}
+            {BENCH_RESULT_LABELS[benchResult as BenchResult] ?? latestBench.result}
+          </p>
+        ) : null}
         <ErrorText error={move.error} />
-        {open ? (
+        {open === 'record_bench_test' ? (
+          <BenchTestForm
+            pending={move.pending}
+            onSubmit={(p) => move.run('record_bench_test', p, () => setOpen(null))}
+          />
+        ) : open === 'receive_unit' ? (
+          <ReceiveUnitForm
+            pending={move.pending}
+            onSubmit={(p) => move.run('receive_unit', p, () => setOpen(null))}
+          />
+        ) : open ? (
           <form className="space-y-3" onSubmit={submit} aria-label={ACTION_LABEL[open]}>
             {open === 'approve' ? (
               <>
@@ -592,38 +610,6 @@ export function ReviewActions({
                 />
               </div>
             ) : null}
-            {open === 'record_bench_test' ? (
-              <div className="grid gap-3 sm:grid-cols-2">
-                <InputField
-                  label="Supply"
-                  unit="V"
-                  inputMode="decimal"
-                  value={bench.supplyVolts}
-                  onChange={(e) => setBench({ ...bench, supplyVolts: e.target.value })}
-                />
-                <InputField
-                  label="Input power"
-                  unit="W"
-                  inputMode="decimal"
-                  value={bench.inputWatts}
-                  onChange={(e) => setBench({ ...bench, inputWatts: e.target.value })}
-                />
-                <InputField
-                  label="Driver output voltage"
-                  unit="V"
-                  inputMode="decimal"
-                  value={bench.driverOutputVolts}
-                  onChange={(e) => setBench({ ...bench, driverOutputVolts: e.target.value })}
-                />
-                <InputField
-                  label="Driver output current"
-                  unit="A"
-                  inputMode="decimal"
-                  value={bench.driverOutputAmps}
-                  onChange={(e) => setBench({ ...bench, driverOutputAmps: e.target.value })}
-                />
-              </div>
-            ) : null}
             {open !== 'start_review' && open !== 'close' ? (
               <TextArea label={TEXT_LABEL[open] ?? 'Note'} value={text} onChange={setText} />
             ) : null}
@@ -662,9 +648,184 @@ const ACTION_LABEL: Partial<Record<ClaimActionName, string>> = {
 const TEXT_LABEL: Partial<Record<ClaimActionName, string>> = {
   request_info: 'What you need from the installer',
   request_return: 'Instructions for the return (optional)',
-  receive_unit: 'Condition on arrival (optional)',
-  record_bench_test: 'Bench notes (optional)',
   approve: 'Note for the installer (optional)',
   deny: 'Note the installer will read',
   reopen: 'Why the decision is reopened',
 };
+
+// The bench and receipt forms: react-hook-form with the move's own schema (the one the server checks), so a
+// reviewer can record every result and condition the schema allows, and sees each field's problem beside it.
+
+const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+const numberOrUndefined = (v: unknown) =>
+  v === '' || v === null || v === undefined
+    ? undefined
+    : typeof v === 'number'
+      ? v
+      : Number(String(v).trim());
+
+const BENCH_READINGS = [
+  { key: 'supplyVolts', label: 'Supply', unit: 'V' },
+  { key: 'inputWatts', label: 'Input power', unit: 'W' },
+  { key: 'powerFactor', label: 'Power factor', unit: undefined },
+  { key: 'driverOutputVolts', label: 'Driver output voltage', unit: 'V' },
+  { key: 'driverOutputAmps', label: 'Driver output current', unit: 'A' },
+  { key: 'lightOutputPercent', label: 'Light output', unit: '% of initial' },
+] as const;
+
+type BenchFormInput = z.input<typeof recordBenchTestSchema>;
+type BenchPayload = z.output<typeof recordBenchTestSchema>;
+
+export function BenchTestForm({
+  pending,
+  onSubmit,
+}: {
+  pending: boolean;
+  onSubmit: (payload: BenchPayload) => void;
+}) {
+  const form = useForm<BenchFormInput, unknown, BenchPayload>({
+    resolver: zodResolver(recordBenchTestSchema),
+    defaultValues: {
+      testedOn: new Date().toISOString().slice(0, 10),
+      result: 'failure_confirmed',
+      readings: {},
+      next: 'decide',
+    },
+  });
+  const errors = form.formState.errors;
+  const readingErrors = (errors.readings ?? {}) as Record<string, { message?: string } | undefined>;
+  return (
+    <form
+      noValidate
+      className="space-y-3"
+      aria-label="Record bench test"
+      onSubmit={form.handleSubmit(onSubmit)}
+    >
+      <InputField
+        label="Tested on"
+        type="date"
+        error={errors.testedOn?.message}
+        {...form.register('testedOn')}
+      />
+      <fieldset className="space-y-1">
+        <legend className="text-sm font-medium">What the bench found</legend>
+        {BENCH_RESULTS.map((r) => (
+          <label key={r} className="flex min-h-11 items-center gap-2 text-sm">
+            <input type="radio" value={r} {...form.register('result')} />
+            {BENCH_RESULT_LABELS[r]}
+          </label>
+        ))}
+        {errors.result?.message ? <p className="text-sm text-bad-700">{errors.result.message}</p> : null}
+      </fieldset>
+      <div className="grid gap-3 sm:grid-cols-2">
+        {BENCH_READINGS.map((r) => (
+          <InputField
+            key={r.key}
+            label={r.label}
+            unit={r.unit}
+            inputMode="decimal"
+            error={readingErrors[r.key]?.message}
+            {...form.register(`readings.${r.key}`, { setValueAs: numberOrUndefined })}
+          />
+        ))}
+      </div>
+      {errors.readings?.message ? (
+        <p role="alert" className="text-sm text-bad-700">
+          {errors.readings.message}
+        </p>
+      ) : null}
+      <SelectField label="Then" error={errors.next?.message} {...form.register('next')}>
+        <option value="decide">Keep the claim here, ready for a decision</option>
+        <option value="review">Send the claim back to review</option>
+      </SelectField>
+      <NoteField
+        label="Bench notes (optional)"
+        error={errors.note?.message}
+        {...form.register('note', { setValueAs: blankToUndefined })}
+      />
+      <p className="text-xs text-ink-600">
+        The engine judges the claim again on these readings; the decision options follow what the bench found.
+      </p>
+      <Button type="submit" loading={pending}>
+        Record bench test
+      </Button>
+    </form>
+  );
+}
+
+type ReceiptFormInput = z.input<typeof receiveUnitSchema>;
+type ReceiptPayload = z.output<typeof receiveUnitSchema>;
+
+export function ReceiveUnitForm({
+  pending,
+  onSubmit,
+}: {
+  pending: boolean;
+  onSubmit: (payload: ReceiptPayload) => void;
+}) {
+  const form = useForm<ReceiptFormInput, unknown, ReceiptPayload>({
+    resolver: zodResolver(receiveUnitSchema),
+    defaultValues: { receivedOn: new Date().toISOString().slice(0, 10), condition: 'as_described' },
+  });
+  const errors = form.formState.errors;
+  return (
+    <form
+      noValidate
+      className="space-y-3"
+      aria-label="Mark unit received"
+      onSubmit={form.handleSubmit(onSubmit)}
+    >
+      <InputField
+        label="Received on"
+        type="date"
+        error={errors.receivedOn?.message}
+        {...form.register('receivedOn')}
+      />
+      <fieldset className="space-y-1">
+        <legend className="text-sm font-medium">Condition on arrival</legend>
+        {RECEIPT_CONDITIONS.map((c) => (
+          <label key={c} className="flex min-h-11 items-center gap-2 text-sm">
+            <input type="radio" value={c} {...form.register('condition')} />
+            {RECEIPT_CONDITION_LABELS[c]}
+          </label>
+        ))}
+      </fieldset>
+      <NoteField
+        label="Notes on arrival (optional)"
+        error={errors.note?.message}
+        {...form.register('note', { setValueAs: blankToUndefined })}
+      />
+      <Button type="submit" loading={pending}>
+        Mark unit received
+      </Button>
+    </form>
+  );
+}
+
+const NoteField = forwardRef<
+  HTMLTextAreaElement,
+  { label: string; error?: string } & TextareaHTMLAttributes<HTMLTextAreaElement>
+>(function NoteField({ label, error, ...rest }, ref) {
+  const id = `note-${label.replace(/\W+/g, '-').toLowerCase()}`;
+  return (
+    <div className="space-y-1.5">
+      <label htmlFor={id} className="block text-sm font-medium text-ink-800">
+        {label}
+      </label>
+      <textarea
+        id={id}
+        ref={ref}
+        rows={3}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? `${id}-error` : undefined}
+        className="block w-full rounded-lg border border-ink-300 px-3 py-2 text-base focus:border-brand-600 focus:outline-none focus:ring-2 focus:ring-brand-600/30 sm:text-sm"
+        {...rest}
+      />
+      {error ? (
+        <p id={`${id}-error`} className="text-sm text-bad-700">
+          {error}
+        </p>
+      ) : null}
+    </div>
+  );
+});
