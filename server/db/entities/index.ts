@@ -1,4 +1,5 @@
 import { Attachment } from './attachment.entity';
+import { ApiToken } from './api-token.entity';
 import { AuditEvent } from './audit-event.entity';
 import { BenchTest } from './bench-test.entity';
 import { ClaimBatch } from './claim-batch.entity';
@@ -52,4 +53,5 @@ export const entities = [
   MemoSequence,
   MemoPrefix,
   IdempotencyKey,
+  ApiToken,
 ];
