@@ -54,6 +54,8 @@ const envSchema = z.object({
     .default(60),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   OUTBOX_WORKER: bool.default(true),
+  /** Requests one API token may make per minute (server/modules/api-tokens). */
+  API_TOKEN_RATE_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(600),
   /** Tests only (NODE_ENV=test): the credit-issuing transaction sleeps this long after the memo insert. */
   TEST_CREDIT_PAUSE_MS: z.coerce.number().int().min(0).max(120_000).default(0),
 });
@@ -88,6 +90,7 @@ export type AppConfig = {
   };
   logLevel: string;
   outboxWorker: boolean;
+  apiTokenRatePerMinute: number;
   /** 0 unless NODE_ENV=test asks for a pause inside the issuing transaction (the crash test). */
   testCreditPauseMs: number;
 };
@@ -149,6 +152,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     },
     logLevel: e.LOG_LEVEL,
     outboxWorker: e.OUTBOX_WORKER,
+    apiTokenRatePerMinute: e.API_TOKEN_RATE_PER_MINUTE,
     testCreditPauseMs: e.NODE_ENV === 'test' ? e.TEST_CREDIT_PAUSE_MS : 0,
   };
 }

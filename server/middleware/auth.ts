@@ -40,7 +40,10 @@ export function sessionPolicy(opts: { demoMode: boolean }): RequestHandler {
       }
       if (!s.lastSeenAt || now - s.lastSeenAt >= SESSION_TOUCH_INTERVAL_MS) s.lastSeenAt = now;
     }
-    req.ability = defineAbilityFor(req.user ? toAbilityUser(req.user) : null, opts);
+    req.ability = defineAbilityFor(req.user ? toAbilityUser(req.user) : null, {
+      ...opts,
+      viaApiToken: Boolean(req.apiToken),
+    });
     next();
   };
 }
