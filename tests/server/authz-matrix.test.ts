@@ -3,6 +3,7 @@ import fs from 'node:fs';
 import type supertest from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hashToken } from '../../server/modules/users/users.service';
+import { ApiToken } from '../../server/db/entities/api-token.entity';
 import { Invitation } from '../../server/db/entities/invitation.entity';
 import type { Organization } from '../../server/db/entities/organization.entity';
 import type { ProductModel } from '../../server/db/entities/product-model.entity';
@@ -141,6 +142,22 @@ async function newInvitation(w: World) {
     createdById: w.users.cAdmin.id,
   });
   return { token };
+}
+
+async function newApiToken(w: World, a: Actor) {
+  const manufacturer = a !== 'anon' && KIND[a] === 'manufacturer';
+  const id = crypto.randomUUID();
+  await t.ds.getRepository(ApiToken).insert({
+    id,
+    organizationId: manufacturer ? w.m.id : w.c.id,
+    name: `Matrix ${unique()}`,
+    roles: [manufacturer ? 'reviewer' : 'installer'],
+    secretHash: crypto.randomBytes(32).toString('hex'),
+    hint: 'lpt_matrix',
+    createdById: manufacturer ? w.users.mAdmin.id : w.users.cAdmin.id,
+    expiresAt: new Date(Date.now() + 86_400_000),
+  });
+  return { id };
 }
 
 async function newDraft(w: World) {
@@ -336,6 +353,22 @@ const ROUTES: Record<string, Entry> = {
     denied: 404,
     target: (w, a) => ({ id: colleagueOf(w, a).id }),
     body: () => ({ name: `Renamed ${unique()}` }),
+  },
+
+  // API tokens: the organisation's administrators only; someone else's token is not even readable (404).
+  'GET /api/api-tokens': { ok: members(['cAdmin', 'mAdmin'], 200) },
+  'POST /api/api-tokens': {
+    ok: members(['cAdmin', 'mAdmin'], 201),
+    body: (c) => ({
+      name: `Matrix ${unique()}`,
+      roles: [c.actor !== 'anon' && KIND[c.actor] === 'manufacturer' ? 'reviewer' : 'installer'],
+      expiresInDays: 30,
+    }),
+  },
+  'DELETE /api/api-tokens/:id': {
+    ok: members(['cAdmin', 'mAdmin'], 200),
+    denied: 404,
+    target: (w, a) => newApiToken(w, a),
   },
 
   'POST /api/evaluations': { ok: members(SIGNED_IN, 200), body: () => validClaim },
