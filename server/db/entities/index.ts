@@ -22,6 +22,7 @@ import { PolicyModel } from './policy-model.entity';
 import { ProductModel } from './product-model.entity';
 import { ReturnAuthorization } from './return-authorization.entity';
 import { User } from './user.entity';
+import { WebhookDelivery, WebhookEndpoint } from './webhook.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 import { WarrantyPolicy } from './warranty-policy.entity';
 
@@ -54,4 +55,6 @@ export const entities = [
   MemoPrefix,
   IdempotencyKey,
   ApiToken,
+  WebhookEndpoint,
+  WebhookDelivery,
 ];

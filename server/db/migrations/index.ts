@@ -14,6 +14,7 @@ import { ReviewQueueCountIndex1796178256332 } from './1796178256332-ReviewQueueC
 import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexes';
 import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
 import { ApiTokens1796285274213 } from './1796285274213-ApiTokens';
+import { Webhooks1796285903802 } from './1796285903802-Webhooks';
 
 export const migrations = [
   Foundation1796165467051,
@@ -31,4 +32,5 @@ export const migrations = [
   StorageKeyIndexes1796179613559,
   ClaimCounts1796188776668,
   ApiTokens1796285274213,
+  Webhooks1796285903802,
 ];
