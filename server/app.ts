@@ -35,6 +35,7 @@ import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
 import { reserveRouter } from './modules/reserve/reserve.router';
 import { usersRouter } from './modules/users/users.router';
+import { webhooksRouter } from './modules/webhooks/webhooks.router';
 
 export type CreateAppOptions = {
   config: AppConfig;
@@ -129,6 +130,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/invitations', invitationsRouter(ctx));
   api.use('/users', usersRouter(ctx));
   api.use('/api-tokens', apiTokensRouter(ctx));
+  api.use('/webhooks', webhooksRouter(ctx));
   api.use('/evaluations', evaluationsRouter());
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));

@@ -54,6 +54,8 @@ const envSchema = z.object({
     .default(60),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   OUTBOX_WORKER: bool.default(true),
+  /** Run the webhook delivery worker in the server process (default: yes, except under NODE_ENV=test). */
+  WEBHOOK_WORKER: bool.optional(),
   /** Requests one API token may make per minute (server/modules/api-tokens). */
   API_TOKEN_RATE_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(600),
   /** Tests only (NODE_ENV=test): the credit-issuing transaction sleeps this long after the memo insert. */
@@ -91,6 +93,7 @@ export type AppConfig = {
   logLevel: string;
   outboxWorker: boolean;
   apiTokenRatePerMinute: number;
+  webhookWorker: boolean;
   /** 0 unless NODE_ENV=test asks for a pause inside the issuing transaction (the crash test). */
   testCreditPauseMs: number;
 };
@@ -153,6 +156,8 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     logLevel: e.LOG_LEVEL,
     outboxWorker: e.OUTBOX_WORKER,
     apiTokenRatePerMinute: e.API_TOKEN_RATE_PER_MINUTE,
+    // Test servers never send webhooks unless asked: the tests drive deliveries themselves.
+    webhookWorker: e.WEBHOOK_WORKER ?? e.NODE_ENV !== 'test',
     testCreditPauseMs: e.NODE_ENV === 'test' ? e.TEST_CREDIT_PAUSE_MS : 0,
   };
 }
