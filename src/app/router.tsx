@@ -24,6 +24,10 @@ export const router = createBrowserRouter([
         lazy: () => import('./routes/admin/users').then((m) => ({ Component: m.UsersRoute })),
       },
       {
+        path: 'admin/integrations',
+        lazy: () => import('./routes/admin/integrations').then((m) => ({ Component: m.IntegrationsRoute })),
+      },
+      {
         path: 'admin/mailbox',
         lazy: () => import('./routes/admin/mailbox').then((m) => ({ Component: m.MailboxRoute })),
       },

@@ -8,6 +8,7 @@ import {
   Lightbulb,
   MapPin,
   Receipt,
+  Plug,
   Users,
   type LucideIcon,
 } from 'lucide-react';
@@ -29,6 +30,8 @@ export function navFor(ability: AppAbility): NavItem[] {
     items.push({ to: '/analytics', label: 'Failure analysis', icon: Activity });
   if (ability.can('read', 'Reserve')) items.push({ to: '/reserve', label: 'Reserve', icon: Landmark });
   if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });
+  if (ability.can('read', 'ApiToken'))
+    items.push({ to: '/admin/integrations', label: 'Integrations', icon: Plug });
   if (ability.can('read', 'Mailbox')) items.push({ to: '/admin/mailbox', label: 'Mailbox', icon: Inbox });
   return items;
 }

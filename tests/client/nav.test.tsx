@@ -39,6 +39,7 @@ describe('navigation by role', () => {
       'Sites',
       'Credits',
       'People',
+      'Integrations',
       'Mailbox',
     ]);
     expect(labels(['administrator'], 'manufacturer', false)).toEqual([
@@ -49,6 +50,7 @@ describe('navigation by role', () => {
       'Failure analysis',
       'Reserve',
       'People',
+      'Integrations',
     ]);
   });
 });
