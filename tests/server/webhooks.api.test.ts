@@ -8,6 +8,7 @@ import { backoffMs } from '../../server/lib/outbox';
 import { clock } from '../../server/lib/clock';
 import { deliverDueWebhooks, isPrivateAddress } from '../../server/lib/webhooks';
 import { WEBHOOK_EVENTS } from '../../shared/schemas/webhooks';
+import { verifySignature } from '../../scripts/webhook-receiver';
 import { installationPayload } from '../support/catalogue-factories';
 import { claimWorld, createDraft, goodClaimFields } from '../support/claim-factories';
 import { createApprovedClaim } from '../support/credit-factories';
@@ -147,6 +148,10 @@ describe('webhooks: deliveries', () => {
         false,
       );
       expect(verify(secret, r.headers['lumenproof-signature'] as string, `${r.body} `)).toBe(false);
+      // The receiver the README ships agrees, and refuses the same delivery replayed ten minutes later.
+      const header = r.headers['lumenproof-signature'] as string;
+      expect(verifySignature(secret, header, r.body)).toBe(true);
+      expect(verifySignature(secret, header, r.body, Math.floor(Date.now() / 1000) + 600)).toBe(false);
       const t0 = Number(/t=(\d+)/.exec(r.headers['lumenproof-signature'] as string)![1]);
       expect(Math.abs(t0 - Date.now() / 1000)).toBeLessThan(300);
       const event = JSON.parse(r.body);
