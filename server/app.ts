@@ -14,12 +14,14 @@ import { armCrashPoint } from './lib/crash-point';
 import { AppError } from './lib/errors';
 import type { Logger } from './lib/logger';
 import { createStorage, type Storage } from './lib/storage';
+import { apiTokenAuth } from './middleware/api-token';
 import { sessionPolicy } from './middleware/auth';
 import { errorHandler } from './middleware/error-handler';
 import { requireSecondFactorEnrollment } from './middleware/second-factor';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
 import { analyticsRouter } from './modules/analytics/analytics.router';
+import { apiTokensRouter } from './modules/api-tokens/api-tokens.router';
 import { authRouter } from './modules/auth/auth.router';
 import { claimActionsRouter } from './modules/claim-actions/claim-actions.router';
 import { accountingRouter } from './modules/credits/accounting.router';
@@ -40,6 +42,7 @@ import { secondFactorResetRouter, secondFactorRouter } from './modules/second-fa
 import { securityEventsRouter } from './modules/security-events/security-events.router';
 import { sessionsRouter } from './modules/sessions/sessions.router';
 import { usersRouter } from './modules/users/users.router';
+import { webhooksRouter } from './modules/webhooks/webhooks.router';
 
 export type CreateAppOptions = {
   config: AppConfig;
@@ -123,11 +126,27 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/claims/batches', express.json({ limit: '6mb', strict: true }));
   api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
-  api.use(sessionMiddleware(config, sessionStore));
+  // A bearer token authenticates on its own: no session is read or written for it.
+  const tokens = apiTokenAuth(ctx);
+  api.use(tokens.authenticate);
+  api.use(tokens.unlessToken(sessionMiddleware(config, sessionStore)));
   api.use(pp.initialize());
-  api.use(pp.session());
+  api.use(tokens.unlessToken(pp.session()));
   api.use(sessionPolicy({ demoMode: config.mode === 'demo' }));
   api.use(requireSecondFactorEnrollment(config));
+  // An API token acts within the product's records; it never signs in or out, nor touches passwords, factors
+  // or sessions (it has no session). Who it is stays readable.
+  api.use('/auth', (req, _res, next) =>
+    req.apiToken && !(req.method === 'GET' && req.path === '/me')
+      ? next(
+          new AppError(
+            403,
+            'api_token.not_allowed',
+            'An API token cannot manage sign-in, passwords or sessions.',
+          ),
+        )
+      : next(),
+  );
   api.use('/auth/password', passwordsRouter(ctx));
   api.use('/auth', secondFactorRouter(ctx));
   api.use('/auth/sessions', sessionsRouter(ctx));
@@ -137,6 +156,8 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/users', usersRouter(ctx));
   api.use('/organizations', organizationsRouter(ctx));
   api.use('/security-events', securityEventsRouter(ctx));
+  api.use('/api-tokens', apiTokensRouter(ctx));
+  api.use('/webhooks', webhooksRouter(ctx));
   api.use('/evaluations', evaluationsRouter());
   api.use('/products', productsRouter(ctx));
   api.use('/policies', policiesRouter(ctx));

@@ -6,6 +6,7 @@ import { loadConfig, type AppConfig } from './config/env';
 import { createDataSource } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { startOutboxWorker } from './lib/outbox';
+import { startWebhookWorker } from './lib/webhooks';
 import { createStorage } from './lib/storage';
 import { startStorageSweeper } from './lib/storage-sweep';
 import { startIdempotencyKeyPurge } from './lib/idempotency';
@@ -24,6 +25,11 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
   const worker = config.outboxWorker
     ? startOutboxWorker(ds, config, logger, { loadAttachment: (a) => storage.getBuffer(a.storageKey) })
     : null;
+  // Webhook deliveries: from the same process that sends e-mail (the first of a cluster).
+  const webhooks =
+    config.outboxWorker && config.webhookWorker
+      ? startWebhookWorker(ds, logger, { strict: config.mode === 'production' })
+      : null;
   // Objects a killed process wrote without committing their rows: swept now and then periodically.
   const sweeper = startStorageSweeper(ds, storage, logger, config.storage.sweep);
   // Idempotency keys are kept IDEMPOTENCY_KEY_DAYS, then purged daily.
@@ -46,6 +52,7 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections?.();
       await worker?.stop();
+      await webhooks?.stop();
       await sweeper.stop();
       keyPurge.stop();
       await counts.stop();

@@ -33,6 +33,8 @@ export type SubjectName =
   | 'Evaluation'
   | 'Analytics'
   | 'Reserve'
+  | 'ApiToken'
+  | 'Webhook'
   | 'all';
 
 export type AbilityUser = {
@@ -43,7 +45,10 @@ export type AbilityUser = {
 
 export type AppAbility = MongoAbility<[Action, SubjectName | Record<string, unknown>]>;
 
-export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: boolean } = {}): AppAbility {
+export function defineAbilityFor(
+  user: AbilityUser | null,
+  opts: { demoMode?: boolean; viaApiToken?: boolean } = {},
+): AppAbility {
   const { can, cannot, build } = new AbilityBuilder<AppAbility>(createMongoAbility);
   if (!user) return build();
 
@@ -67,6 +72,11 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     // Its security settings (a second factor for every member).
     can('update', 'Organization', { id: orgId });
     if (opts.demoMode) can('read', 'Mailbox');
+    // Integrations: only a signed-in administrator, never a token (a token cannot mint or widen tokens).
+    if (!opts.viaApiToken) {
+      can(['read', 'create', 'delete'], 'ApiToken', { organizationId: orgId });
+      can(['read', 'create', 'update', 'delete'], 'Webhook', { organizationId: orgId });
+    }
     if (kind === 'manufacturer') {
       can(['create', 'update'], 'ProductModel', { manufacturerId: orgId });
       can(['create', 'update'], 'WarrantyPolicy', { manufacturerId: orgId });

@@ -59,6 +59,10 @@ const envSchema = z.object({
    * off in demo mode (the demo accounts sign in with the password alone unless they enrol).
    */
   SECOND_FACTOR_FOR_ROLES: bool.optional(),
+  /** Run the webhook delivery worker in the server process (default: yes, except under NODE_ENV=test). */
+  WEBHOOK_WORKER: bool.optional(),
+  /** Requests one API token may make per minute (server/modules/api-tokens). */
+  API_TOKEN_RATE_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(600),
   /** Tests only (NODE_ENV=test): the credit-issuing transaction sleeps this long after the memo insert. */
   TEST_CREDIT_PAUSE_MS: z.coerce.number().int().min(0).max(120_000).default(0),
 });
@@ -95,6 +99,8 @@ export type AppConfig = {
   outboxWorker: boolean;
   /** Accountants and administrators of manufacturers must have a second factor (SECOND_FACTOR_FOR_ROLES). */
   secondFactorForRoles: boolean;
+  apiTokenRatePerMinute: number;
+  webhookWorker: boolean;
   /** 0 unless NODE_ENV=test asks for a pause inside the issuing transaction (the crash test). */
   testCreditPauseMs: number;
 };
@@ -157,6 +163,9 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     logLevel: e.LOG_LEVEL,
     outboxWorker: e.OUTBOX_WORKER,
     secondFactorForRoles: e.SECOND_FACTOR_FOR_ROLES ?? mode === 'production',
+    apiTokenRatePerMinute: e.API_TOKEN_RATE_PER_MINUTE,
+    // Test servers never send webhooks unless asked: the tests drive deliveries themselves.
+    webhookWorker: e.WEBHOOK_WORKER ?? e.NODE_ENV !== 'test',
     testCreditPauseMs: e.NODE_ENV === 'test' ? e.TEST_CREDIT_PAUSE_MS : 0,
   };
 }

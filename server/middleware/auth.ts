@@ -43,7 +43,10 @@ export function sessionPolicy(opts: { demoMode: boolean }): RequestHandler {
         s.ip = req.ip ?? '';
       }
     }
-    req.ability = defineAbilityFor(req.user ? toAbilityUser(req.user) : null, opts);
+    req.ability = defineAbilityFor(req.user ? toAbilityUser(req.user) : null, {
+      ...opts,
+      viaApiToken: Boolean(req.apiToken),
+    });
     next();
   };
 }

@@ -47,6 +47,10 @@ export const router = createBrowserRouter([
         lazy: () => import('./routes/security').then((m) => ({ Component: m.SecurityRoute })),
       },
       {
+        path: 'admin/integrations',
+        lazy: () => import('./routes/admin/integrations').then((m) => ({ Component: m.IntegrationsRoute })),
+      },
+      {
         path: 'admin/mailbox',
         lazy: () => import('./routes/admin/mailbox').then((m) => ({ Component: m.MailboxRoute })),
       },

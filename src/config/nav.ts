@@ -9,6 +9,7 @@ import {
   MapPin,
   Receipt,
   ShieldAlert,
+  Plug,
   Users,
   type LucideIcon,
 } from 'lucide-react';
@@ -32,6 +33,8 @@ export function navFor(ability: AppAbility): NavItem[] {
   if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });
   if (ability.can('read', 'AuditEvent'))
     items.push({ to: '/admin/security-events', label: 'Security events', icon: ShieldAlert });
+  if (ability.can('read', 'ApiToken'))
+    items.push({ to: '/admin/integrations', label: 'Integrations', icon: Plug });
   if (ability.can('read', 'Mailbox')) items.push({ to: '/admin/mailbox', label: 'Mailbox', icon: Inbox });
   return items;
 }

@@ -40,6 +40,7 @@ describe('navigation by role', () => {
       'Credits',
       'People',
       'Security events',
+      'Integrations',
       'Mailbox',
     ]);
     expect(labels(['administrator'], 'manufacturer', false)).toEqual([
@@ -51,6 +52,7 @@ describe('navigation by role', () => {
       'Reserve',
       'People',
       'Security events',
+      'Integrations',
     ]);
   });
 });

@@ -6,6 +6,8 @@ import { hashToken } from '../../server/modules/users/users.service';
 import { AccountingMap } from '../../server/db/entities/accounting-map.entity';
 import { Invitation } from '../../server/db/entities/invitation.entity';
 import { PasswordReset } from '../../server/db/entities/password-reset.entity';
+import { ApiToken } from '../../server/db/entities/api-token.entity';
+import { WebhookDelivery, WebhookEndpoint } from '../../server/db/entities/webhook.entity';
 import type { Organization } from '../../server/db/entities/organization.entity';
 import type { ProductModel } from '../../server/db/entities/product-model.entity';
 import type { User } from '../../server/db/entities/user.entity';
@@ -172,6 +174,49 @@ async function newInvitation(w: World) {
     createdById: w.users.cAdmin.id,
   });
   return { token };
+}
+
+async function newApiToken(w: World, a: Actor) {
+  const manufacturer = a !== 'anon' && KIND[a] === 'manufacturer';
+  const id = crypto.randomUUID();
+  await t.ds.getRepository(ApiToken).insert({
+    id,
+    organizationId: manufacturer ? w.m.id : w.c.id,
+    name: `Matrix ${unique()}`,
+    roles: [manufacturer ? 'reviewer' : 'installer'],
+    secretHash: crypto.randomBytes(32).toString('hex'),
+    hint: 'lpt_matrix',
+    createdById: manufacturer ? w.users.mAdmin.id : w.users.cAdmin.id,
+    expiresAt: new Date(Date.now() + 86_400_000),
+  });
+  return { id };
+}
+
+async function newWebhook(w: World, a: Actor) {
+  const manufacturer = a !== 'anon' && KIND[a] === 'manufacturer';
+  const endpoint = await t.ds.getRepository(WebhookEndpoint).save(
+    t.ds.getRepository(WebhookEndpoint).create({
+      organizationId: manufacturer ? w.m.id : w.c.id,
+      url: 'http://127.0.0.1:9/matrix',
+      events: ['claim.filed'],
+      signingSecret: 'lpwhsec_matrix',
+      createdById: manufacturer ? w.users.mAdmin.id : w.users.cAdmin.id,
+      disabledAt: null,
+    }),
+  );
+  // Already delivered, so no worker ever picks it up.
+  const delivery = await t.ds.getRepository(WebhookDelivery).save(
+    t.ds.getRepository(WebhookDelivery).create({
+      endpointId: endpoint.id,
+      eventId: crypto.randomUUID(),
+      event: 'claim.filed',
+      body: '{}',
+      status: 'delivered',
+      attempts: 1,
+      nextAttemptAt: new Date(),
+    }),
+  );
+  return { id: endpoint.id, deliveryId: delivery.id };
 }
 
 async function newDraft(w: World) {
@@ -424,6 +469,49 @@ const ROUTES: Record<string, Entry> = {
     denied: 404,
     target: (w, a) => ({ id: colleagueOf(w, a).id }),
     body: () => ({ name: `Renamed ${unique()}` }),
+  },
+
+  // API tokens: the organisation's administrators only; someone else's token is not even readable (404).
+  'GET /api/api-tokens': { ok: members(['cAdmin', 'mAdmin'], 200) },
+  'POST /api/api-tokens': {
+    ok: members(['cAdmin', 'mAdmin'], 201),
+    body: (c) => ({
+      name: `Matrix ${unique()}`,
+      roles: [c.actor !== 'anon' && KIND[c.actor] === 'manufacturer' ? 'reviewer' : 'installer'],
+      expiresInDays: 30,
+    }),
+  },
+  'DELETE /api/api-tokens/:id': {
+    ok: members(['cAdmin', 'mAdmin'], 200),
+    denied: 404,
+    target: (w, a) => newApiToken(w, a),
+  },
+
+  // Webhooks: the same, and a delivery under another organisation's endpoint is as missing as a made-up one.
+  'GET /api/webhooks': { ok: members(['cAdmin', 'mAdmin'], 200) },
+  'POST /api/webhooks': {
+    ok: members(['cAdmin', 'mAdmin'], 201),
+    body: () => ({ url: 'http://127.0.0.1:9/matrix', events: ['claim.filed'] }),
+  },
+  'DELETE /api/webhooks/:id': {
+    ok: members(['cAdmin', 'mAdmin'], 200),
+    denied: 404,
+    target: (w, a) => newWebhook(w, a),
+  },
+  'GET /api/webhooks/:id/deliveries': {
+    ok: members(['cAdmin', 'mAdmin'], 200),
+    denied: 404,
+    target: (w, a) => newWebhook(w, a),
+  },
+  'POST /api/webhooks/:id/test': {
+    ok: members(['cAdmin', 'mAdmin'], 201),
+    denied: 404,
+    target: (w, a) => newWebhook(w, a),
+  },
+  'POST /api/webhooks/:id/deliveries/:deliveryId/resend': {
+    ok: members(['cAdmin', 'mAdmin'], 201),
+    denied: 404,
+    target: (w, a) => newWebhook(w, a),
   },
 
   'POST /api/evaluations': { ok: members(SIGNED_IN, 200), body: () => validClaim },

@@ -1,5 +1,6 @@
 import { AccountingMap } from './accounting-map.entity';
 import { Attachment } from './attachment.entity';
+import { ApiToken } from './api-token.entity';
 import { AuditEvent } from './audit-event.entity';
 import { BenchTest } from './bench-test.entity';
 import { ClaimBatch } from './claim-batch.entity';
@@ -26,6 +27,7 @@ import { RecoveryCode } from './recovery-code.entity';
 import { ReturnAuthorization } from './return-authorization.entity';
 import { SignInChallenge } from './sign-in-challenge.entity';
 import { User } from './user.entity';
+import { WebhookDelivery, WebhookEndpoint } from './webhook.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 import { WarrantyPolicy } from './warranty-policy.entity';
 
@@ -62,4 +64,7 @@ export const entities = [
   IdempotencyKey,
   RecoveryCode,
   SignInChallenge,
+  ApiToken,
+  WebhookEndpoint,
+  WebhookDelivery,
 ];

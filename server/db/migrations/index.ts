@@ -16,6 +16,8 @@ import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
 import { SecondFactorAndSessions1796284709610 } from './1796284709610-SecondFactorAndSessions';
 import { PasswordResets1796285107025 } from './1796285107025-PasswordResets';
 import { AccountingMaps1796285144565 } from './1796285144565-AccountingMaps';
+import { ApiTokens1796285274213 } from './1796285274213-ApiTokens';
+import { Webhooks1796285903802 } from './1796285903802-Webhooks';
 
 export const migrations = [
   Foundation1796165467051,
@@ -35,4 +37,6 @@ export const migrations = [
   SecondFactorAndSessions1796284709610,
   PasswordResets1796285107025,
   AccountingMaps1796285144565,
+  ApiTokens1796285274213,
+  Webhooks1796285903802,
 ];

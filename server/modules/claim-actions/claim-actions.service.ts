@@ -38,6 +38,8 @@ import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict } from '../../lib/errors';
 import type { OutboxAttachment } from '../../db/entities/outbox-message.entity';
 import { enqueueEmail } from '../../lib/outbox';
+import { claimRef, enqueueWebhookEvent } from '../../lib/webhooks';
+import type { WebhookEvent } from '../../../shared/schemas/webhooks';
 import type { Storage } from '../../lib/storage';
 import { toAbilityUser } from '../../middleware/auth';
 import {
@@ -51,6 +53,15 @@ import {
 // The moves of the stage machine, performed: one conditional UPDATE on the claim's stage and version (two
 // reviewers acting at once get one success and one 409), then the move's own rows, its audit row and its
 // e-mail, all in one transaction. The stage machine in shared/ decides what is allowed; nothing here widens it.
+
+// The moves an organisation's webhooks can hear of, and the fields of the move's audit row each event carries
+// (never a note, a message or a person: the other side sees organisations only).
+const WEBHOOK_OF_MOVE: Partial<Record<ClaimActionName, { event: WebhookEvent; fields: string[] }>> = {
+  request_info: { event: 'claim.information_requested', fields: ['dueOn'] },
+  request_return: { event: 'claim.return_authorised', fields: ['returnNumber'] },
+  approve: { event: 'claim.decided', fields: ['outcome', 'resolution', 'amount', 'reasonCodes'] },
+  deny: { event: 'claim.decided', fields: ['outcome', 'resolution', 'amount', 'reasonCodes'] },
+};
 
 /** Moves that have their own routes elsewhere: filing runs the engine (claims), credits belong to finance. */
 export const MOVES_ELSEWHERE: Partial<Record<ClaimActionName, string>> = {
@@ -571,6 +582,17 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         before,
         after: { stage: moved.stage, version: moved.version, waitingOn: moved.waitingOn, ...after },
       });
+      const hook = WEBHOOK_OF_MOVE[name];
+      if (hook) {
+        await enqueueWebhookEvent(m, {
+          event: hook.event,
+          organizationIds: [claim.contractorId, claim.manufacturerId],
+          data: {
+            claim: claimRef(claim, moved.stage, parties),
+            ...Object.fromEntries(hook.fields.filter((f) => f in after).map((f) => [f, after[f]])),
+          },
+        });
+      }
       await crashPoint('claim.move.before_commit', m);
       const fresh = await m.findOneByOrFail(Claim, { id: claim.id });
       return { claim: fresh, to: moved.stage };

@@ -37,6 +37,7 @@ import { AppError, conflict } from '../../lib/errors';
 import { changedFields, HISTORY_LIMIT } from '../../lib/history';
 import { runIdempotent } from '../../lib/idempotency';
 import { enqueueEmail } from '../../lib/outbox';
+import { claimRef, enqueueWebhookEvent } from '../../lib/webhooks';
 import { likeContains, parseSort } from '../../lib/pagination';
 import { claimFieldsOf, engineInputOfClaim } from './engine-input';
 
@@ -473,6 +474,16 @@ export function createClaimsService(
       },
     });
     await crashPoint('claim.file.after_audit', m);
+    await enqueueWebhookEvent(m, {
+      event: 'claim.filed',
+      organizationIds: [c.contractorId, c.manufacturerId],
+      data: {
+        claim: claimRef({ ...c, id: claimId, number }, 'filed', c),
+        verdict: evaluation.verdict,
+        expectedCredit: evaluation.computed.credit,
+        currency: evaluation.computed.currency,
+      },
+    });
     const view = {
       number,
       site: c.installation.siteName,

@@ -18,6 +18,7 @@ import { clock } from '../../lib/clock';
 import { AppError, conflict } from '../../lib/errors';
 import { retryOnDeadlock, runIdempotent, type IdempotentAnswer } from '../../lib/idempotency';
 import { enqueueEmail } from '../../lib/outbox';
+import { claimRef, enqueueWebhookEvent } from '../../lib/webhooks';
 import { crashPoint } from '../../lib/crash-point';
 import { renderCreditMemo, type CreditMemoData } from '../../lib/pdf/credit-memo';
 import { paperFor } from '../../lib/pdf/document';
@@ -244,6 +245,14 @@ export function createCreditsService(
             },
           });
           await crashPoint('credit.issue.after_audit', m);
+          await enqueueWebhookEvent(m, {
+            event: 'claim.credited',
+            organizationIds: [claim.contractorId, claim.manufacturerId],
+            data: {
+              claim: claimRef(claim, 'credited', parties),
+              creditMemo: { id: memoId, number, amount: approved.amount, currency: approved.currency },
+            },
+          });
           const to = await contractorRecipients(m, claim);
           if (to.length) {
             await enqueueEmail(m, {
@@ -378,6 +387,16 @@ export function createCreditsService(
             entityId: memo.id,
             before: { standing: true },
             after: { standing: false, reversalId, reversalNumber: number, reason, pdfSha256: stored.sha256 },
+          });
+          await enqueueWebhookEvent(m, {
+            event: 'credit_memo.voided',
+            organizationIds: [claim.contractorId, claim.manufacturerId],
+            data: {
+              claim: claimRef(claim, 'approved', parties),
+              creditMemo: { id: memo.id, number: memo.number, amount: memo.amount, currency: memo.currency },
+              reversal: { id: reversalId, number },
+              reason,
+            },
           });
           const to = await contractorRecipients(m, claim);
           if (to.length) {

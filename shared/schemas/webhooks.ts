@@ -1,0 +1,57 @@
+import { z } from 'zod';
+
+// The events an organisation's endpoints may ask for. Names are part of the interface: never rename one.
+export const WEBHOOK_EVENTS = [
+  'claim.filed',
+  'claim.information_requested',
+  'claim.return_authorised',
+  'claim.decided',
+  'claim.credited',
+  'credit_memo.voided',
+] as const;
+export type WebhookEvent = (typeof WEBHOOK_EVENTS)[number];
+
+export const WEBHOOK_EVENT_LABELS: Record<WebhookEvent, string> = {
+  'claim.filed': 'Claim filed',
+  'claim.information_requested': 'Information requested',
+  'claim.return_authorised': 'Return authorised',
+  'claim.decided': 'Claim decided',
+  'claim.credited': 'Claim credited',
+  'credit_memo.voided': 'Credit memo voided',
+};
+
+/** The header each delivery carries: `t=<unix seconds>,v1=<hex HMAC-SHA256 of "<t>.<body>">`. */
+export const WEBHOOK_SIGNATURE_HEADER = 'Lumenproof-Signature';
+
+export const createWebhookSchema = z.strictObject({
+  url: z
+    .url({ protocol: /^https?$/, error: 'Enter a full web address (https://…).' })
+    .max(2048, 'At most 2048 characters.'),
+  events: z
+    .array(z.enum(WEBHOOK_EVENTS, { error: 'Pick a known event.' }))
+    .min(1, 'Pick at least one event.')
+    .max(WEBHOOK_EVENTS.length)
+    .refine((r) => new Set(r).size === r.length, 'Each event once.'),
+});
+export type CreateWebhookInput = z.infer<typeof createWebhookSchema>;
+
+export type WebhookEndpointView = {
+  id: string;
+  url: string;
+  events: WebhookEvent[];
+  createdAt: string;
+  disabledAt: string | null;
+};
+
+export type WebhookDeliveryView = {
+  id: string;
+  eventId: string;
+  event: string;
+  status: 'pending' | 'delivered' | 'failed';
+  attempts: number;
+  lastStatusCode: number | null;
+  lastError: string | null;
+  lastAttemptAt: string | null;
+  deliveredAt: string | null;
+  createdAt: string;
+};
