@@ -199,6 +199,21 @@ describe('API tokens: bearer authentication', () => {
     expect((await t.request().get('/api/claims').set(bearer(secret))).status).toBe(401);
   });
 
+  it('may read who it acts as, but never sign in or out, nor touch passwords, factors or sessions', async () => {
+    const { agent } = await adminOf(world.conX);
+    const { secret } = await makeToken(agent, { roles: ['installer'] });
+    expect((await t.request().get('/api/auth/me').set(bearer(secret))).status).toBe(200);
+    for (const [method, path] of [
+      ['post', '/api/auth/logout'],
+      ['get', '/api/auth/sessions'],
+      ['post', '/api/auth/password/change'],
+    ] as const) {
+      const r = await t.request()[method](path).set(bearer(secret)).send({});
+      expect(r.status, path).toBe(403);
+      expect(r.body.error.code).toBe('api_token.not_allowed');
+    }
+  });
+
   it('records every use in the audit log with its request id, and the last-used time', async () => {
     const { agent } = await adminOf(world.conX);
     const { secret, apiToken } = await makeToken(agent, { roles: ['installer'] });
