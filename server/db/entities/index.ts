@@ -13,7 +13,7 @@ import { InstallationUnit } from './installation-unit.entity';
 import { Installation } from './installation.entity';
 import { Invitation } from './invitation.entity';
 import { LedgerEntry } from './ledger-entry.entity';
-import { LoginAttempt } from './login-attempt.entity';
+import { LoginLimit } from './login-limit.entity';
 import { MemoPrefix, MemoSequence } from './memo-sequence.entity';
 import { Organization } from './organization.entity';
 import { OutboxMessage } from './outbox-message.entity';
@@ -30,7 +30,7 @@ export const entities = [
   User,
   Invitation,
   AuditEvent,
-  LoginAttempt,
+  LoginLimit,
   OutboxMessage,
   ProductModel,
   WarrantyPolicy,
