@@ -1,7 +1,7 @@
 import { z } from 'zod';
+import { str } from './text';
 
-export const emailSchema = z
-  .string({ error: 'Enter an e-mail address.' })
+export const emailSchema = str({ error: 'Enter an e-mail address.' })
   .trim()
   .toLowerCase()
   .max(254, 'An e-mail address has at most 254 characters.')
@@ -9,17 +9,16 @@ export const emailSchema = z
 
 export const loginSchema = z.strictObject({
   email: emailSchema,
-  password: z.string({ error: 'Enter your password.' }).min(1, 'Enter your password.').max(1024),
+  password: str({ error: 'Enter your password.' }).min(1, 'Enter your password.').max(1024),
 });
 export type LoginInput = z.infer<typeof loginSchema>;
 
-export const newPasswordSchema = z
-  .string({ error: 'Choose a password.' })
+export const newPasswordSchema = str({ error: 'Choose a password.' })
   .min(12, 'Use at least 12 characters.')
   .max(256, 'Use at most 256 characters.');
 
 export const acceptInvitationSchema = z.strictObject({
-  name: z.string().trim().min(1, 'Enter your name.').max(160).optional(),
+  name: str().trim().min(1, 'Enter your name.').max(160).optional(),
   password: newPasswordSchema,
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { str } from './text';
 import { listQuerySchema } from './users';
 
 // Payloads of the credits API: issuing a memo, voiding one, the lists, the export and the cost view.
@@ -12,18 +13,18 @@ const isoDate = z.iso.date({ error: 'Use a date as YYYY-MM-DD.' });
 /** The body of POST /api/claims/:id/credits: the amount and currency come from the approved decision. */
 export const issueCreditSchema = z.strictObject({
   /** A line the accountant adds to the memo's audit record (not printed). */
-  note: z.string().trim().max(500, 'Keep the note under 500 characters.').optional(),
+  note: str().trim().max(500, 'Keep the note under 500 characters.').optional(),
 });
 export type IssueCreditInput = z.infer<typeof issueCreditSchema>;
 
 /** Printable ASCII, 8-255 characters: a UUID from the client fits. */
-export const idempotencyKeySchema = z
-  .string({ error: 'Send an Idempotency-Key header.' })
-  .regex(/^[\x21-\x7e]{8,255}$/, 'The Idempotency-Key header must be 8 to 255 printable characters.');
+export const idempotencyKeySchema = str({ error: 'Send an Idempotency-Key header.' }).regex(
+  /^[\x21-\x7e]{8,255}$/,
+  'The Idempotency-Key header must be 8 to 255 printable characters.',
+);
 
 export const voidCreditSchema = z.strictObject({
-  reason: z
-    .string({ error: 'Give the reason for voiding the credit.' })
+  reason: str({ error: 'Give the reason for voiding the credit.' })
     .trim()
     .min(5, 'Give the reason for voiding the credit (at least 5 characters).')
     .max(2000, 'Keep the reason under 2,000 characters.'),
@@ -46,8 +47,7 @@ export const creditListQuerySchema = listQuerySchema
     kind: z.enum(MEMO_KINDS).optional(),
     contractorId: uuid.optional(),
     manufacturerId: uuid.optional(),
-    currency: z
-      .string()
+    currency: str()
       .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
       .optional(),
     ...dateRange,
@@ -58,8 +58,7 @@ export type CreditListQuery = z.infer<typeof creditListQuerySchema>;
 export const creditQueueQuerySchema = listQuerySchema.extend({
   sort: z.enum(['approvedAt', '-approvedAt', 'amount', '-amount', 'number', '-number']).default('approvedAt'),
   contractorId: uuid.optional(),
-  currency: z
-    .string()
+  currency: str()
     .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
     .optional(),
   /** Only claims approved at least this many days ago. */
@@ -82,8 +81,7 @@ export type CreditExportQuery = z.infer<typeof creditExportQuerySchema>;
 export const warrantyCostQuerySchema = z
   .strictObject({
     ...dateRange,
-    currency: z
-      .string()
+    currency: str()
       .regex(/^[A-Z]{3}$/)
       .optional(),
   })
