@@ -378,7 +378,8 @@ export type ClaimDetailDto = ClaimListItemDto & {
   credit: null | Record<string, unknown>;
   history: HistoryEventDto[];
   filingIssues: FilingIssue[];
-  createdBy: { id: string; name: string } | null;
+  /** Named to the creator's own organisation; to the other side, the organisation's name and no id. */
+  createdBy: { id: string | null; name: string } | null;
 };
 
 // ---------------------------------------------------------------------------------------------------------

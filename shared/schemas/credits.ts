@@ -104,7 +104,8 @@ export type CreditMemoDto = CreditMemoSummary & {
   contractor: { id: string; name: string };
   manufacturer: { id: string; name: string };
   issuedAt: string;
-  issuedBy: { id: string; name: string } | null;
+  /** Named to the issuer's own organisation; to the other side, the organisation's name and no id. */
+  issuedBy: { id: string | null; name: string } | null;
   reason: string | null;
   reverses: { id: string; number: string } | null;
   reversedBy: { id: string; number: string } | null;

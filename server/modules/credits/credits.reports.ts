@@ -69,7 +69,7 @@ export function createCreditsReports(ds: AppDataSource) {
       if (q.q)
         qb.andWhere('(cm.number LIKE :q OR cl.number LIKE :q OR con.name LIKE :q)', { q: likeContains(q.q) });
       const [items, total] = await qb.getManyAndCount();
-      return { items: (items as LoadedMemo[]).map(presentMemo), total };
+      return { items: (items as LoadedMemo[]).map((m) => presentMemo(m, user.organization.id)), total };
     },
 
     async queue(user: AbilityUser, q: CreditQueueQuery) {

@@ -99,7 +99,7 @@ export function creditsRouter(ctx: AppContext, storage?: Storage) {
     const { id } = parseWith(idParam, req.params, 'address');
     const memo = await reports.findMemo(id);
     authorize(req, 'read', 'CreditMemo', memo, 'credit memo');
-    res.json({ creditMemo: presentMemo(memo) });
+    res.json({ creditMemo: presentMemo(memo, req.user!.organizationId) });
   });
 
   r.get('/:id/pdf', async (req, res) => {
