@@ -318,7 +318,7 @@ const ROUTES: Record<string, Entry> = {
 
   'GET /api/users': { ok: members(['cAdmin', 'mAdmin'], 200) },
   'POST /api/users/invitations': {
-    ok: members(['cAdmin', 'mAdmin'], 201),
+    ok: members(['cAdmin', 'mAdmin'], 202),
     body: (c) => ({
       email: `invite-${unique()}@example.test`,
       name: 'Invited person',

@@ -26,8 +26,9 @@ export function usersRouter(ctx: AppContext) {
   r.post('/invitations', async (req, res) => {
     const input = parseBody(inviteUserSchema, req);
     authorizeType(req, 'invite', 'User');
-    const { user } = await service.invite(req.user!, input, actorFromRequest(req));
-    res.status(201).json({ user: presentUser(user) });
+    await service.invite(req.user!, input, actorFromRequest(req));
+    // The same answer whether or not the address has an account elsewhere (users.service.ts, invite).
+    res.status(202).json({ invitation: { email: input.email, name: input.name, roles: input.roles } });
   });
 
   r.get('/:id', async (req, res) => {
