@@ -15,6 +15,7 @@ import { AppError } from './lib/errors';
 import type { Logger } from './lib/logger';
 import { createStorage, type Storage } from './lib/storage';
 import { sessionPolicy } from './middleware/auth';
+import { bodyGate, jsonBodies } from './middleware/body';
 import { errorHandler } from './middleware/error-handler';
 import { sameOrigin } from './middleware/same-origin';
 import { requireJsonBody } from './middleware/validate';
@@ -111,15 +112,15 @@ export function createApp(opts: CreateAppOptions): App {
   });
   api.use(sameOrigin(config.publicUrl));
   api.use(requireJsonBody);
-  // Spreadsheet imports carry a whole file (10,000 rows is about 2 MB); every other body stays small.
-  api.use(['/products/import', '/installations/import'], express.json({ limit: '20mb', strict: true }));
-  api.use('/claims/batches', express.json({ limit: '6mb', strict: true }));
-  api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
   api.use(sessionMiddleware(config, sessionStore));
   api.use(pp.initialize());
   api.use(pp.session());
   api.use(sessionPolicy({ demoMode: config.mode === 'demo' }));
+  // The session first, then the body: a signed-out request is refused on its headers, and each route reads at
+  // most its own limit (server/middleware/body.ts).
+  api.use(bodyGate);
+  api.use(jsonBodies());
   api.use('/auth', authRouter(ctx, pp));
   api.use('/invitations', invitationsRouter(ctx));
   api.use('/users', usersRouter(ctx));
