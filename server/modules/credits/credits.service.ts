@@ -15,7 +15,7 @@ import { ProductModel } from '../../db/entities/product-model.entity';
 import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
-import { AppError, conflict } from '../../lib/errors';
+import { AppError, AuditedRefusal, conflict } from '../../lib/errors';
 import { retryOnDeadlock, runIdempotent, type IdempotentAnswer } from '../../lib/idempotency';
 import { enqueueEmail } from '../../lib/outbox';
 import { crashPoint } from '../../lib/crash-point';
@@ -159,6 +159,15 @@ export function createCreditsService(
           // The reviewer's decision fixes the amount; claims approved before decisions were recorded fall back to
           // the engine's expected credit.
           const decision = await m.findOneBy(Decision, { currentClaimId: claim.id });
+          // Four eyes: whoever approved the claim does not also pay it.
+          if (decision && decision.decidedById === user.id) {
+            throw new AuditedRefusal(
+              403,
+              'credit.own_approval',
+              'You approved this claim, so a colleague must issue its credit.',
+              { action: 'credit.refused', entityType: 'Claim', entityId: claim.id },
+            );
+          }
           const approved =
             decision?.amount && decision.currency && toDecimal(decision.amount).gt(0)
               ? { amount: normalizeAmount(toDecimal(decision.amount)), currency: decision.currency }

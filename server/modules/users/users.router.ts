@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { inviteUserSchema, updateUserSchema, userListQuerySchema } from '../../../shared/schemas/users';
 import type { AppContext } from '../../context';
-import { actorFromRequest } from '../../lib/audit';
+import { actorFromRequest, auditRefusal } from '../../lib/audit';
 import { pageOf } from '../../lib/pagination';
 import { authorize, authorizeType, requireUser } from '../../middleware/auth';
 import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
@@ -43,7 +43,10 @@ export function usersRouter(ctx: AppContext) {
     const input = parseBody(updateUserSchema, req);
     const user = await service.findById(id);
     authorize(req, input.status === 'disabled' ? 'disable' : 'update', 'User', user, 'user');
-    const updated = await service.update(req.user!, user!, input, actorFromRequest(req));
+    const actor = actorFromRequest(req);
+    const updated = await service
+      .update(req.user!, user!, input, actor)
+      .catch((e) => auditRefusal(ctx.ds, actor, e));
     res.json({ user: presentUser(updated) });
   });
 

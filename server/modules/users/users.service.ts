@@ -8,7 +8,7 @@ import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
 import { crashPoint } from '../../lib/crash-point';
-import { AppError, conflict } from '../../lib/errors';
+import { AppError, AuditedRefusal, conflict } from '../../lib/errors';
 import { enqueueEmail } from '../../lib/outbox';
 import { likeContains, parseSort } from '../../lib/pagination';
 
@@ -137,8 +137,24 @@ export function createUsersService(ds: AppDataSource, opts: { publicUrl: (path: 
 
     async update(editor: SessionUser, target: User, input: UpdateUserInput, actor: Actor) {
       if (input.roles) checkRolesFit(input.roles, editor.organization.kind);
-      if (target.id === editor.id && input.roles && !input.roles.includes('administrator')) {
-        throw conflict('user.self_demotion', 'You cannot remove your own administrator role.');
+      // Four eyes: an administrator's own roles are changed by another administrator, never by themself (one could
+      // otherwise make themself reviewer and accountant and approve and pay a claim alone).
+      if (
+        target.id === editor.id &&
+        input.roles &&
+        [...input.roles].sort().join() !== [...target.roles].sort().join()
+      ) {
+        throw new AuditedRefusal(
+          403,
+          'user.own_roles',
+          'Your own roles are changed by another administrator of your organisation.',
+          {
+            action: 'user.roles_refused',
+            entityType: 'User',
+            entityId: target.id,
+            after: { roles: input.roles },
+          },
+        );
       }
       if (target.status === 'invited' && input.status === 'active') {
         throw conflict('user.not_accepted', 'This person has not accepted the invitation yet.');
