@@ -65,6 +65,8 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     can('read', 'AuditEvent', { organizationId: orgId });
     if (opts.demoMode) can('read', 'Mailbox');
     if (kind === 'manufacturer') {
+      // Its settings: the amount above which a credit needs a second accountant.
+      can('update', 'Organization', { id: orgId });
       can(['create', 'update'], 'ProductModel', { manufacturerId: orgId });
       can(['create', 'update'], 'WarrantyPolicy', { manufacturerId: orgId });
     }

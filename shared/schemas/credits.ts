@@ -121,6 +121,8 @@ export type QueueItemDto = {
   currency: string | null;
   approvedAt: string;
   ageDays: number;
+  /** Above the organisation's second-approval amount, once one accountant has approved: who, and whether it was you. */
+  secondApproval: { approvedBy: { id: string; name: string }; approvedAt: string; mine: boolean } | null;
 };
 
 export type BalanceDto = {

@@ -88,4 +88,81 @@ describe('four eyes on money', () => {
     // Their own name they may still change.
     expect((await agent.patch(`/api/users/${admin.id}`).send({ name: 'Renamed Admin' })).status).toBe(200);
   });
+
+  it('needs a second accountant above the amount the organisation sets', async () => {
+    const admin = await createUser(t.ds, w.mfr, ['administrator']);
+    const adminAgent = await signIn(t.request(), admin.email);
+    const set = await adminAgent
+      .patch('/api/organizations/current')
+      .send({ creditSecondApprovalAbove: '1000' });
+    expect(set.status).toBe(200);
+    expect(set.body.organization.creditSecondApprovalAbove).toBe('1000.00');
+    expect(
+      await t.ds
+        .getRepository(AuditEvent)
+        .countBy({ entityId: w.mfr.id, action: 'organization.settings_changed' }),
+    ).toBe(1);
+    // Only the administrator sets it.
+    expect(
+      (await w.accountant.agent.patch('/api/organizations/current').send({ creditSecondApprovalAbove: null }))
+        .status,
+    ).toBe(403);
+
+    // At or below the amount: one accountant issues as before.
+    const small = await createApprovedClaim(t.ds, {
+      manufacturer: w.mfr,
+      contractor: w.contractor,
+      amount: '1000.00',
+    });
+    expect((await issue(w.accountant.agent, small.id)).status).toBe(201);
+
+    // Above it: the first accountant's request is an approval, answered 202 and replayed for the same key.
+    const big = await createApprovedClaim(t.ds, {
+      manufacturer: w.mfr,
+      contractor: w.contractor,
+      amount: '1000000.00',
+    });
+    const key = crypto.randomUUID();
+    const first = await issue(w.accountant.agent, big.id, key);
+    expect(first.status).toBe(202);
+    expect(first.body.creditApproval).toMatchObject({
+      status: 'awaiting_second_approval',
+      amount: '1000000.00',
+    });
+    const replay = await issue(w.accountant.agent, big.id, key);
+    expect(replay.status).toBe(202);
+    expect(replay.headers['idempotent-replayed']).toBe('true');
+    expect(await t.ds.getRepository(CreditMemo).countBy({ claimId: big.id })).toBe(0);
+    expect((await t.ds.getRepository(Claim).findOneByOrFail({ id: big.id })).stage).toBe('approved');
+
+    // The same accountant cannot be the second pair of eyes.
+    const again = await issue(w.accountant.agent, big.id);
+    expect(again.status).toBe(409);
+    expect(again.body.error.code).toBe('credit.second_approval_required');
+    expect(await t.ds.getRepository(AuditEvent).countBy({ entityId: big.id, action: 'credit.refused' })).toBe(
+      1,
+    );
+    expect(await t.ds.getRepository(CreditMemo).countBy({ claimId: big.id })).toBe(0);
+
+    // The credits queue says it is waiting, and for whom.
+    const queue = await w.accountant.agent.get('/api/credits/queue');
+    const item = queue.body.items.find((i: { claimId: string }) => i.claimId === big.id);
+    expect(item.secondApproval).toMatchObject({ approvedBy: { id: w.accountant.user.id }, mine: true });
+
+    // A different accountant approves: the memo is issued, by them.
+    const colleague = await createUser(t.ds, w.mfr, ['accountant']);
+    const colleagueAgent = await signIn(t.request(), colleague.email);
+    const second = await issue(colleagueAgent, big.id);
+    expect(second.status).toBe(201);
+    const memo = await t.ds.getRepository(CreditMemo).findOneByOrFail({ claimId: big.id });
+    expect(memo.issuedById).toBe(colleague.id);
+    expect(memo.amount).toBe('1000000.00');
+    expect((await t.ds.getRepository(Claim).findOneByOrFail({ id: big.id })).stage).toBe('credited');
+    const audit = await t.ds
+      .getRepository(AuditEvent)
+      .findOneByOrFail({ entityId: big.id, action: 'credit.second_approval' });
+    expect(audit.after).toMatchObject({ firstApproverId: w.accountant.user.id });
+
+    await adminAgent.patch('/api/organizations/current').send({ creditSecondApprovalAbove: null });
+  });
 });

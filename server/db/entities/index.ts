@@ -7,6 +7,7 @@ import { ClaimDocument } from './claim-document.entity';
 import { ClaimMessage } from './claim-message.entity';
 import { Claim } from './claim.entity';
 import { Decision } from './decision.entity';
+import { CreditApproval } from './credit-approval.entity';
 import { CreditMemo } from './credit-memo.entity';
 import { IdempotencyKey } from './idempotency-key.entity';
 import { InstallationUnit } from './installation-unit.entity';
@@ -48,6 +49,7 @@ export const entities = [
   Decision,
   ClaimDocument,
   CreditMemo,
+  CreditApproval,
   LedgerEntry,
   MemoSequence,
   MemoPrefix,

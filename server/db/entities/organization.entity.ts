@@ -14,6 +14,13 @@ export class Organization {
   @Column({ type: 'enum', enum: ['manufacturer', 'contractor'] })
   kind: OrganizationKind;
 
+  /**
+   * A credit above this amount (in the claim's currency) needs a second accountant's approval; null: none does.
+   * Set by the organisation's administrator.
+   */
+  @Column({ type: 'decimal', precision: 12, scale: 2, name: 'credit_second_approval_above', nullable: true })
+  creditSecondApprovalAbove: string | null;
+
   @CreatedAtColumn()
   createdAt: Date;
 }

@@ -14,6 +14,7 @@ import { ReviewQueueCountIndex1796178256332 } from './1796178256332-ReviewQueueC
 import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexes';
 import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
 import { LoginLimits1796284670230 } from './1796284670230-LoginLimits';
+import { CreditSecondApproval1796287825007 } from './1796287825007-CreditSecondApproval';
 
 export const migrations = [
   Foundation1796165467051,
@@ -31,4 +32,5 @@ export const migrations = [
   StorageKeyIndexes1796179613559,
   ClaimCounts1796188776668,
   LoginLimits1796284670230,
+  CreditSecondApproval1796287825007,
 ];

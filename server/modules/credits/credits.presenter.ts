@@ -41,7 +41,14 @@ export function presentMemo(m: LoadedMemo, viewerOrgId: string): CreditMemoDto {
   };
 }
 
-export function presentQueueItem(c: Claim, now: Date): QueueItemDto {
+export type FirstApproval = { approvedById: string; approverName: string; approvedAt: Date };
+
+export function presentQueueItem(
+  c: Claim,
+  now: Date,
+  first: FirstApproval | undefined,
+  viewerId: string,
+): QueueItemDto {
   return {
     claimId: c.id,
     number: c.number,
@@ -55,5 +62,13 @@ export function presentQueueItem(c: Claim, now: Date): QueueItemDto {
     currency: c.currency,
     approvedAt: c.stageChangedAt.toISOString(),
     ageDays: Math.max(0, Math.floor((now.getTime() - c.stageChangedAt.getTime()) / 86_400_000)),
+    // The queue is the manufacturer's own accountants': a colleague's name is theirs to see.
+    secondApproval: first
+      ? {
+          approvedBy: { id: first.approvedById, name: first.approverName },
+          approvedAt: first.approvedAt.toISOString(),
+          mine: first.approvedById === viewerId,
+        }
+      : null,
   };
 }
