@@ -134,7 +134,8 @@ export function createLoginThrottle(
           dbName,
           tableName: TABLE,
           tableCreated: true,
-          clearExpiredByTimeout: false,
+          // One of the four (they share the table) deletes rows whose window ended an hour ago, every 5 minutes.
+          clearExpiredByTimeout: s === 'address',
           keyPrefix: s,
           ...LOGIN_LIMITS[s],
         });
