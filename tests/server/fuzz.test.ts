@@ -25,7 +25,10 @@ async function signInCookie(email: string) {
     headers: { 'content-type': 'application/json' },
     body: JSON.stringify({ email, password: TEST_PASSWORD }),
   });
-  return r.headers.get('set-cookie')!.split(';')[0];
+  return r.headers
+    .getSetCookie()
+    .find((c) => c.startsWith('lp.sid='))!
+    .split(';')[0];
 }
 
 async function rowCounts() {
