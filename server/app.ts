@@ -16,6 +16,7 @@ import type { Logger } from './lib/logger';
 import { createStorage, type Storage } from './lib/storage';
 import { apiTokenAuth } from './middleware/api-token';
 import { sessionPolicy } from './middleware/auth';
+import { bodyGate, jsonBodies } from './middleware/body';
 import { errorHandler } from './middleware/error-handler';
 import { requireSecondFactorEnrollment } from './middleware/second-factor';
 import { sameOrigin } from './middleware/same-origin';
@@ -121,10 +122,6 @@ export function createApp(opts: CreateAppOptions): App {
   });
   api.use(sameOrigin(config.publicUrl));
   api.use(requireJsonBody);
-  // Spreadsheet imports carry a whole file (10,000 rows is about 2 MB); every other body stays small.
-  api.use(['/products/import', '/installations/import'], express.json({ limit: '20mb', strict: true }));
-  api.use('/claims/batches', express.json({ limit: '6mb', strict: true }));
-  api.use(express.json({ limit: '512kb', strict: true }));
   api.use('/health', healthRouter(ctx));
   // A bearer token authenticates on its own: no session is read or written for it.
   const tokens = apiTokenAuth(ctx);
@@ -133,6 +130,10 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(pp.initialize());
   api.use(tokens.unlessToken(pp.session()));
   api.use(sessionPolicy({ demoMode: config.mode === 'demo' }));
+  // The session first, then the body: a signed-out request is refused on its headers, and each route reads at
+  // most its own limit (server/middleware/body.ts).
+  api.use(bodyGate);
+  api.use(jsonBodies());
   api.use(requireSecondFactorEnrollment(config));
   // An API token acts within the product's records; it never signs in or out, nor touches passwords, factors
   // or sessions (it has no session). Who it is stays readable.

@@ -78,6 +78,8 @@ export function defineAbilityFor(
       can(['read', 'create', 'update', 'delete'], 'Webhook', { organizationId: orgId });
     }
     if (kind === 'manufacturer') {
+      // Its settings: the amount above which a credit needs a second accountant.
+      can('update', 'Organization', { id: orgId });
       can(['create', 'update'], 'ProductModel', { manufacturerId: orgId });
       can(['create', 'update'], 'WarrantyPolicy', { manufacturerId: orgId });
     }

@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import { AuditEvent } from '../db/entities/audit-event.entity';
 import { clock } from './clock';
+import { AuditedRefusal } from './errors';
 
 export type Actor = { userId: string | null; organizationId: string | null; requestId?: string | null };
 
@@ -70,4 +71,18 @@ export async function recordAuditMany(
       .updateEntity(false)
       .execute();
   }
+}
+
+/** Records an AuditedRefusal in a transaction of its own (the refused change has rolled back), then rethrows it. */
+export async function auditRefusal(
+  ds: { transaction<T>(fn: (m: EntityManager) => Promise<T>): Promise<T> },
+  actor: Actor,
+  err: unknown,
+): Promise<never> {
+  if (err instanceof AuditedRefusal) {
+    await ds.transaction((m) =>
+      recordAudit(m, actor, { ...err.audit, after: { reason: err.code, ...(err.audit.after ?? {}) } }),
+    );
+  }
+  throw err;
 }

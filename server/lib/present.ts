@@ -20,3 +20,18 @@ export const stamps = (r: { createdAt: Date; updatedAt: Date; version: number })
   updatedAt: r.updatedAt.toISOString(),
   version: r.version,
 });
+
+/**
+ * A person as the viewer may see them: by name to their own organisation; to the other side of a claim only as
+ * their organisation, with no id (the same rule as a record's history, server/lib/history.ts).
+ */
+export function personRef(
+  person: { id: string; name: string; organizationId: string } | null | undefined,
+  org: { name: string } | null | undefined,
+  viewerOrgId: string,
+): { id: string | null; name: string } | null {
+  if (!person) return null;
+  return person.organizationId === viewerOrgId
+    ? { id: person.id, name: person.name }
+    : { id: null, name: org?.name ?? '' };
+}

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { str } from '../schemas/text';
 
 import { MONEY_PATTERN } from '../engine/money';
 import { measurementsSchema } from '../engine/schema';
@@ -90,14 +91,14 @@ export const RECEIPT_CONDITION_LABELS: Record<ReceiptCondition, string> = {
 };
 
 const isoDate = z.iso.date({ error: 'Enter a date as YYYY-MM-DD.' });
-const id = z.string().trim().min(1).max(64);
+const id = str().trim().min(1).max(64);
 
 /** Free text a person writes: trimmed, not empty, bounded. */
 export const text = (empty: string, max = 4000) =>
-  z.string({ error: empty }).trim().min(1, empty).max(max, `At most ${max} characters.`);
+  str({ error: empty }).trim().min(1, empty).max(max, `At most ${max} characters.`);
 
 /** A positive amount as a decimal string with at most two decimals ("96.00"), at most 1,000,000.00. */
-export const moneySchema = z.string({ error: 'Enter an amount like "96.00".' }).superRefine((s, ctx) => {
+export const moneySchema = str({ error: 'Enter an amount like "96.00".' }).superRefine((s, ctx) => {
   if (!MONEY_PATTERN.test(s)) ctx.addIssue({ code: 'custom', message: 'Enter an amount like "96.00".' });
   else if (Number(s) <= 0) ctx.addIssue({ code: 'custom', message: 'The amount must be above zero.' });
   else if (Number(s) > 1_000_000) ctx.addIssue({ code: 'custom', message: 'At most 1000000.00.' });
@@ -105,13 +106,13 @@ export const moneySchema = z.string({ error: 'Enter an amount like "96.00".' }).
 
 export const addressSchema = z.strictObject({
   name: text('Enter who receives the unit.', 160),
-  attention: z.string().trim().max(160).optional(),
+  attention: str().trim().max(160).optional(),
   line1: text('Enter the street address.', 200),
-  line2: z.string().trim().max(200).optional(),
+  line2: str().trim().max(200).optional(),
   city: text('Enter the city.', 120),
-  region: z.string().trim().max(120).optional(),
+  region: str().trim().max(120).optional(),
   postalCode: text('Enter the postal code.', 20),
-  country: z.string().regex(/^[A-Z]{2}$/, 'Use a two-letter country code like "US".'),
+  country: str().regex(/^[A-Z]{2}$/, 'Use a two-letter country code like "US".'),
 });
 export type Address = z.infer<typeof addressSchema>;
 
@@ -133,13 +134,12 @@ export const answerInfoSchema = z.strictObject({
 
 export const requestReturnSchema = z.strictObject({
   shipTo: addressSchema,
-  instructions: z.string().trim().max(2000).optional(),
+  instructions: str().trim().max(2000).optional(),
 });
 
 export const recordShipmentSchema = z.strictObject({
   carrier: text('Enter the carrier.', 80),
-  trackingNumber: z
-    .string({ error: 'Enter the tracking number.' })
+  trackingNumber: str({ error: 'Enter the tracking number.' })
     .trim()
     .regex(
       /^[A-Za-z0-9][A-Za-z0-9 -]{2,63}$/,
@@ -151,7 +151,7 @@ export const recordShipmentSchema = z.strictObject({
 export const receiveUnitSchema = z.strictObject({
   receivedOn: isoDate,
   condition: z.enum(RECEIPT_CONDITIONS),
-  note: z.string().trim().max(2000).optional(),
+  note: str().trim().max(2000).optional(),
 });
 
 export const recordBenchTestSchema = z
@@ -159,7 +159,7 @@ export const recordBenchTestSchema = z
     testedOn: isoDate,
     result: z.enum(BENCH_RESULTS),
     readings: measurementsSchema,
-    note: z.string().trim().max(4000).optional(),
+    note: str().trim().max(4000).optional(),
     /** `decide`: the claim stays with its unit received, ready for a decision; `review`: back to in review. */
     next: z.enum(['decide', 'review']).default('decide'),
   })
@@ -175,9 +175,9 @@ export const approveSchema = z.strictObject({
   amount: moneySchema,
   /** Units approved when fewer than the claim's units (a partial approval). */
   approvedUnits: z.number().int().min(1).max(10_000).optional(),
-  note: z.string().trim().max(4000).optional(),
+  note: str().trim().max(4000).optional(),
   /** Required when the amount differs from the engine's credit or the engine's verdict was not covered. */
-  overrideReason: z.string().trim().max(4000).optional(),
+  overrideReason: str().trim().max(4000).optional(),
 });
 
 export const denySchema = z.strictObject({
@@ -188,7 +188,7 @@ export const denySchema = z.strictObject({
     .refine((c) => new Set(c).size === c.length, 'Each reason once.'),
   note: text('Write a note the installer will read.'),
   /** Required when the engine's verdict was covered. */
-  overrideReason: z.string().trim().max(4000).optional(),
+  overrideReason: str().trim().max(4000).optional(),
 });
 
 export const creditSchema = z.strictObject({});
@@ -198,11 +198,11 @@ export const voidCreditSchema = z.strictObject({
 });
 
 export const closeSchema = z.strictObject({
-  note: z.string().trim().max(2000).optional(),
+  note: str().trim().max(2000).optional(),
 });
 
 export const withdrawSchema = z.strictObject({
-  reason: z.string().trim().max(2000).optional(),
+  reason: str().trim().max(2000).optional(),
 });
 
 export const reopenSchema = z.strictObject({

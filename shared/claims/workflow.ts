@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { str } from '../schemas/text';
 
 import type { Evaluation, Verdict } from '../engine/schema';
 import type { HistoryEventDto, OrgRef } from '../schemas/catalogue';
@@ -58,8 +59,7 @@ export function daysBetween(from: string | Date, to: string | Date): number {
 
 // The reviewer's queue: the claims list with the reviewer's filters.
 
-const stageList = z
-  .string()
+const stageList = str()
   .transform((s) =>
     s
       .split(',')
@@ -73,7 +73,7 @@ const stageList = z
       .max(CLAIM_STAGES.length),
   );
 
-const money = z.string().regex(/^\d{1,10}(\.\d{1,2})?$/, 'Enter an amount like "96.00".');
+const money = str().regex(/^\d{1,10}(\.\d{1,2})?$/, 'Enter an amount like "96.00".');
 const uuid = z.uuid({ error: 'Not a valid id.' });
 
 export const QUEUE_SORTS = [
@@ -106,7 +106,7 @@ export type QueueQuery = z.infer<typeof queueQuerySchema>;
 
 /** GET /api/review/contractors: the contractors with claims on this manufacturer, for the queue's picker. */
 export const reviewContractorsQuerySchema = z.strictObject({
-  q: z.string().trim().max(120).optional(),
+  q: str().trim().max(120).optional(),
 });
 export type ReviewContractorsQuery = z.infer<typeof reviewContractorsQuerySchema>;
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { str } from '../schemas/text';
 
 import { MONEY_PATTERN } from './money';
 
@@ -32,7 +33,7 @@ const isoDate = z.iso.date({ error: 'expected a date as YYYY-MM-DD' });
 
 // A money amount as a decimal string with at most two decimals, at most 1,000,000.00 (which keeps the
 // credit's integer-cent arithmetic exact).
-const money = z.string().superRefine((s, ctx) => {
+const money = str().superRefine((s, ctx) => {
   if (!MONEY_PATTERN.test(s)) ctx.addIssue({ code: 'custom', message: 'expected an amount like "96.00"' });
   else if (Number(s) > 1_000_000) ctx.addIssue({ code: 'custom', message: 'at most 1000000.00' });
 });
@@ -140,7 +141,7 @@ export const policySchema = z
     /** Share of a unit's LEDs that must be dark for the failure to count, in per cent. */
     darkLedFailurePercent: z.number().positive().max(100),
     unitCredit: money,
-    currency: z.string().regex(/^[A-Z]{3}$/, 'expected a three-letter currency code like "USD"'),
+    currency: str().regex(/^[A-Z]{3}$/, 'expected a three-letter currency code like "USD"'),
     requiredPhotos: count(0, 100),
     proofOfPurchaseRequired: z.boolean(),
   })
@@ -189,7 +190,7 @@ export const observationsSchema = z.strictObject({
 export const evidenceSchema = z.strictObject({
   photos: count(0, 1000),
   proofOfPurchase: z.boolean(),
-  serial: z.string().trim().max(100).optional(),
+  serial: str().trim().max(100).optional(),
 });
 
 export const claimSchema = z.strictObject({
@@ -257,25 +258,25 @@ export type LumenMaintenanceData = z.infer<typeof lumenMaintenanceSchema>;
 
 // Output
 
-const findingValue = z.union([z.number(), z.string(), z.boolean(), z.null()]);
+const findingValue = z.union([z.number(), str(), z.boolean(), z.null()]);
 
 export const findingSchema = z.strictObject({
   /** Stable, dotted lowercase: `category.what_was_found`. */
-  code: z.string().regex(/^[a-z]+\.[a-z0-9_]+$/),
+  code: str().regex(/^[a-z]+\.[a-z0-9_]+$/),
   category: z.enum(CATEGORIES),
   severity: z.enum(SEVERITIES),
   /** What this finding does to the verdict. */
   effect: z.enum(EFFECTS),
-  message: z.string(),
-  reference: z.string().optional(),
+  message: str(),
+  reference: str().optional(),
   /** The values the rule used; each key names its unit (Volts, Watts, Hours, Percent, C...). */
-  values: z.record(z.string(), findingValue),
+  values: z.record(str(), findingValue),
 });
 
 const lumenLifeSchema = z.strictObject({
   p: z.number(),
   hours: z.number().nullable(),
-  reported: z.string(),
+  reported: str(),
   limited: z.boolean(),
 });
 
@@ -307,14 +308,14 @@ export const computedSchema = z.strictObject({
   operatingHours: z.number(),
   daysToFiling: z.number(),
   coveragePercent: z.number(),
-  credit: z.string(),
-  currency: z.string(),
+  credit: str(),
+  currency: str(),
   qualifies: z.boolean(),
   lumenMaintenance: lumenProjectionSchema.nullable(),
 });
 
 export const evaluationSchema = z.strictObject({
-  engineVersion: z.string(),
+  engineVersion: str(),
   verdict: z.enum(VERDICTS),
   findings: z.array(findingSchema),
   computed: computedSchema,

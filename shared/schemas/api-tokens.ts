@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { str } from './text';
 import { ROLES } from '../roles';
 
 /** Every token starts with this, so secret scanners and people recognise a Lumenproof token. */
@@ -6,7 +7,7 @@ export const API_TOKEN_PREFIX = 'lpt_';
 export const API_TOKEN_MAX_DAYS = 366;
 
 export const createApiTokenSchema = z.strictObject({
-  name: z.string().trim().min(1, 'Enter a name.').max(100, 'At most 100 characters.'),
+  name: str().trim().min(1, 'Enter a name.').max(100, 'At most 100 characters.'),
   roles: z
     .array(z.enum(ROLES, { error: 'Pick a known role.' }))
     .min(1, 'Give the token at least one role.')

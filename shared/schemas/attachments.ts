@@ -45,6 +45,7 @@ export type AttachmentDto = {
   /** Where to download the file (as an attachment) and its thumbnail (photos only). */
   contentUrl: string;
   thumbnailUrl: string | null;
-  uploadedBy: { id: string };
+  /** The uploader to their own organisation; null to the other side of a claim. */
+  uploadedBy: { id: string | null };
   createdAt: string;
 };

@@ -1,7 +1,7 @@
 import { z } from 'zod';
+import { str } from './text';
 
-export const emailSchema = z
-  .string({ error: 'Enter an e-mail address.' })
+export const emailSchema = str({ error: 'Enter an e-mail address.' })
   .trim()
   .toLowerCase()
   .max(254, 'An e-mail address has at most 254 characters.')
@@ -9,17 +9,16 @@ export const emailSchema = z
 
 export const loginSchema = z.strictObject({
   email: emailSchema,
-  password: z.string({ error: 'Enter your password.' }).min(1, 'Enter your password.').max(1024),
+  password: str({ error: 'Enter your password.' }).min(1, 'Enter your password.').max(1024),
 });
 export type LoginInput = z.infer<typeof loginSchema>;
 
-export const newPasswordSchema = z
-  .string({ error: 'Choose a password.' })
+export const newPasswordSchema = str({ error: 'Choose a password.' })
   .min(12, 'Use at least 12 characters.')
   .max(256, 'Use at most 256 characters.');
 
 export const acceptInvitationSchema = z.strictObject({
-  name: z.string().trim().min(1, 'Enter your name.').max(160).optional(),
+  name: str().trim().min(1, 'Enter your name.').max(160).optional(),
   password: newPasswordSchema,
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;
@@ -29,7 +28,7 @@ export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;
 export const PASSWORD_MIN_LENGTH = 12;
 export const PASSWORD_RESET_MINUTES = 30;
 
-export const resetTokenSchema = z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, 'Not a valid link.');
+export const resetTokenSchema = str().regex(/^[A-Za-z0-9_-]{20,100}$/, 'Not a valid link.');
 
 export const forgotPasswordSchema = z.strictObject({ email: emailSchema });
 export type ForgotPasswordInput = z.infer<typeof forgotPasswordSchema>;
@@ -38,8 +37,7 @@ export const resetPasswordSchema = z.strictObject({ token: resetTokenSchema, pas
 export type ResetPasswordInput = z.infer<typeof resetPasswordSchema>;
 
 export const changePasswordSchema = z.strictObject({
-  currentPassword: z
-    .string({ error: 'Enter your current password.' })
+  currentPassword: str({ error: 'Enter your current password.' })
     .min(1, 'Enter your current password.')
     .max(1024),
   newPassword: newPasswordSchema,
@@ -51,7 +49,7 @@ const repeatIssue = { message: 'The two passwords differ.', path: ['repeat'] };
 
 /** The reset page's form: the new password twice (only the first is sent). */
 export const resetPasswordFormSchema = z
-  .strictObject({ password: newPasswordSchema, repeat: z.string() })
+  .strictObject({ password: newPasswordSchema, repeat: str() })
   .refine(repeatMatches, repeatIssue);
 export type ResetPasswordForm = z.infer<typeof resetPasswordFormSchema>;
 
@@ -60,7 +58,7 @@ export const changePasswordFormSchema = z
   .strictObject({
     currentPassword: changePasswordSchema.shape.currentPassword,
     password: newPasswordSchema,
-    repeat: z.string(),
+    repeat: str(),
   })
   .refine(repeatMatches, repeatIssue);
 export type ChangePasswordForm = z.infer<typeof changePasswordFormSchema>;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { str } from './text';
 import { DIMMERS, ENCLOSURES, LOCATIONS, NOMINAL_SUPPLY_VOLTS } from '../engine/schema';
 import { listQuerySchema } from './users';
 
@@ -94,22 +95,19 @@ const num = (
 };
 const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 const text = (what: string, max: number) =>
-  z
-    .string({ error: `Enter ${what}.` })
+  str({ error: `Enter ${what}.` })
     .trim()
     .min(1, `Enter ${what}.`)
     .max(max, `${cap(what)} has at most ${max} characters.`);
 const optionalText = (what: string, max: number) =>
-  z
-    .string()
+  str()
     .trim()
     .max(max, `${cap(what)} has at most ${max} characters.`)
     .nullish()
     .transform((v) => (v ? v : null));
 
 export const isoDateSchema = (what: string) =>
-  z
-    .string({ error: `Enter ${what} as YYYY-MM-DD.` })
+  str({ error: `Enter ${what} as YYYY-MM-DD.` })
     .regex(/^\d{4}-\d{2}-\d{2}$/, `Enter ${what} as YYYY-MM-DD.`)
     .refine(
       (s) => {
@@ -122,8 +120,7 @@ export const isoDateSchema = (what: string) =>
 
 const MONEY = /^\d{1,10}(\.\d{1,2})?$/;
 const money = (what: string) =>
-  z
-    .string({ error: `Enter ${what} as an amount like "96.00".` })
+  str({ error: `Enter ${what} as an amount like "96.00".` })
     .trim()
     .regex(MONEY, `Enter ${what} as an amount like "96.00" (at most two decimals).`)
     .refine((s) => Number(s) <= 1_000_000, `${cap(what)} must be at most 1,000,000.00.`)
@@ -135,8 +132,7 @@ export const uuidSchema = z.uuid({ error: 'Not a valid id.' });
 // Product models
 
 const productFields = {
-  modelNumber: z
-    .string({ error: 'Enter the model number.' })
+  modelNumber: str({ error: 'Enter the model number.' })
     .trim()
     .min(1, 'Enter the model number.')
     .max(64, 'A model number has at most 64 characters.')
@@ -288,8 +284,7 @@ export const policyTermsSchema = z
       exclusiveMin: true,
     }).refine((v) => Math.round(v * 100) === v * 100, 'The failure threshold has at most two decimals.'),
     unitCredit: money('the unit credit'),
-    currency: z
-      .string({ error: 'Enter a currency code like USD.' })
+    currency: str({ error: 'Enter a currency code like USD.' })
       .trim()
       .toUpperCase()
       .regex(/^[A-Z]{3}$/, 'Use a three-letter ISO 4217 currency code like USD or CAD.'),
@@ -303,8 +298,7 @@ export const policyTermsSchema = z
     denialReasons: z
       .array(
         z.strictObject({
-          code: z
-            .string()
+          code: str()
             .trim()
             .toUpperCase()
             .regex(DENIAL_CODE, 'A reason code is 2-16 capitals, digits or dashes, like MISAPP-WET.'),
@@ -391,8 +385,7 @@ export type PolicyDetailDto = PolicyDto & { versions: PolicyVersionDto[] };
 // ---------------------------------------------------------------------------------------------------------
 // Installations
 
-const serialSchema = z
-  .string()
+const serialSchema = str()
   .trim()
   .min(1, 'A serial number or date code cannot be empty.')
   .max(64, 'A serial number or date code has at most 64 characters.')
@@ -427,15 +420,13 @@ const conditionFields = {
 };
 
 /** A date code as printed on the label: the manufacturing lot (the failure analysis groups by it). */
-export const lotSchema = z
-  .string({ error: 'A lot (date code) is text.' })
+export const lotSchema = str({ error: 'A lot (date code) is text.' })
   .trim()
   .min(1, 'A lot (date code) cannot be empty.')
   .max(32, 'A lot (date code) has at most 32 characters.')
   .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'Use letters, digits and . _ / - in a lot (date code).');
 
-const optionalLot = z
-  .string({ error: 'A lot (date code) is text.' })
+const optionalLot = str({ error: 'A lot (date code) is text.' })
   .trim()
   .nullish()
   .transform((v) => (v ? v : null))
@@ -594,9 +585,9 @@ export type HistoryEventDto = {
 
 export const importRequestSchema = z
   .strictObject({
-    csv: z.string().max(20_000_000, 'The file is larger than 20 MB.').optional(),
+    csv: str().max(20_000_000, 'The file is larger than 20 MB.').optional(),
     rows: z
-      .array(z.record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()])))
+      .array(z.record(str(), z.union([str(), z.number(), z.boolean(), z.null()])))
       .max(50_000, 'At most 50,000 rows at once.')
       .optional(),
     /** The spreadsheet row number of the first row sent (the header is row 1), for previews sent in chunks. */

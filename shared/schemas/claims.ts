@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { str } from './text';
 import { STAGE_LABELS, STAGES, type Stage } from '../claims/stages';
 import { SYMPTOMS, type Evaluation, type Verdict } from '../engine';
 import type { AttachmentDto } from './attachments';
@@ -109,8 +110,7 @@ export const claimObservationsSchema = z.strictObject(
 );
 export type ClaimObservations = z.infer<typeof claimObservationsSchema>;
 
-const claimSerialSchema = z
-  .string({ error: 'A serial number is text.' })
+const claimSerialSchema = str({ error: 'A serial number is text.' })
   .trim()
   .min(1, 'A serial number cannot be empty.')
   .max(64, 'A serial number or date code has at most 64 characters.');
@@ -136,8 +136,7 @@ export const claimFieldsSchema = z.strictObject({
     .optional(),
   measurements: claimMeasurementsSchema.optional(),
   observations: claimObservationsSchema.optional(),
-  narrative: z
-    .string({ error: 'The narrative is text.' })
+  narrative: str({ error: 'The narrative is text.' })
     .max(5000, 'The narrative has at most 5,000 characters.')
     .optional(),
 });
@@ -158,8 +157,7 @@ export const fileClaimSchema = z.strictObject({
   version: z.number().int().min(1).optional(),
 });
 
-const stageList = z
-  .string()
+const stageList = str()
   .transform((s) =>
     s
       .split(',')
@@ -194,9 +192,9 @@ export const claimListQuerySchema = listQuerySchema.extend({
   installationId: uuidSchema.optional(),
   productModelId: uuidSchema.optional(),
   /** Site name or city, contains. */
-  site: z.string().trim().max(120).optional(),
+  site: str().trim().max(120).optional(),
   /** Model number or product name, contains. */
-  product: z.string().trim().max(120).optional(),
+  product: str().trim().max(120).optional(),
   verdict: z.enum(['covered', 'excluded', 'review']).optional(),
   filedFrom: isoDateSchema('the first filing date').optional(),
   filedTo: isoDateSchema('the last filing date').optional(),
@@ -380,7 +378,8 @@ export type ClaimDetailDto = ClaimListItemDto & {
   credit: null | Record<string, unknown>;
   history: HistoryEventDto[];
   filingIssues: FilingIssue[];
-  createdBy: { id: string; name: string } | null;
+  /** Named to the creator's own organisation; to the other side, the organisation's name and no id. */
+  createdBy: { id: string | null; name: string } | null;
 };
 
 // ---------------------------------------------------------------------------------------------------------
@@ -391,12 +390,12 @@ export const CLAIM_BATCH_MAX_ROWS = 2000;
 /** The spreadsheet: CSV text or JSON rows (as the installations import takes them), and the file's name. */
 export const batchRequestSchema = z
   .strictObject({
-    csv: z.string().max(5_000_000, 'The file is larger than 5 MB.').optional(),
+    csv: str().max(5_000_000, 'The file is larger than 5 MB.').optional(),
     rows: z
-      .array(z.record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()])))
+      .array(z.record(str(), z.union([str(), z.number(), z.boolean(), z.null()])))
       .max(CLAIM_BATCH_MAX_ROWS, `At most ${CLAIM_BATCH_MAX_ROWS} rows at once.`)
       .optional(),
-    filename: z.string().trim().max(200).optional(),
+    filename: str().trim().max(200).optional(),
   })
   .refine((v) => (v.csv === undefined) !== (v.rows === undefined), 'Send either csv or rows.');
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { JournalLine, JournalTotal } from '../credits/journal';
+import { str } from './text';
 import { listQuerySchema } from './users';
 
 // Payloads of the credits API: issuing a memo, voiding one, the lists, the export and the cost view.
@@ -13,18 +14,18 @@ const isoDate = z.iso.date({ error: 'Use a date as YYYY-MM-DD.' });
 /** The body of POST /api/claims/:id/credits: the amount and currency come from the approved decision. */
 export const issueCreditSchema = z.strictObject({
   /** A line the accountant adds to the memo's audit record (not printed). */
-  note: z.string().trim().max(500, 'Keep the note under 500 characters.').optional(),
+  note: str().trim().max(500, 'Keep the note under 500 characters.').optional(),
 });
 export type IssueCreditInput = z.infer<typeof issueCreditSchema>;
 
 /** Printable ASCII, 8-255 characters: a UUID from the client fits. */
-export const idempotencyKeySchema = z
-  .string({ error: 'Send an Idempotency-Key header.' })
-  .regex(/^[\x21-\x7e]{8,255}$/, 'The Idempotency-Key header must be 8 to 255 printable characters.');
+export const idempotencyKeySchema = str({ error: 'Send an Idempotency-Key header.' }).regex(
+  /^[\x21-\x7e]{8,255}$/,
+  'The Idempotency-Key header must be 8 to 255 printable characters.',
+);
 
 export const voidCreditSchema = z.strictObject({
-  reason: z
-    .string({ error: 'Give the reason for voiding the credit.' })
+  reason: str({ error: 'Give the reason for voiding the credit.' })
     .trim()
     .min(5, 'Give the reason for voiding the credit (at least 5 characters).')
     .max(2000, 'Keep the reason under 2,000 characters.'),
@@ -47,8 +48,7 @@ export const creditListQuerySchema = listQuerySchema
     kind: z.enum(MEMO_KINDS).optional(),
     contractorId: uuid.optional(),
     manufacturerId: uuid.optional(),
-    currency: z
-      .string()
+    currency: str()
       .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
       .optional(),
     ...dateRange,
@@ -59,8 +59,7 @@ export type CreditListQuery = z.infer<typeof creditListQuerySchema>;
 export const creditQueueQuerySchema = listQuerySchema.extend({
   sort: z.enum(['approvedAt', '-approvedAt', 'amount', '-amount', 'number', '-number']).default('approvedAt'),
   contractorId: uuid.optional(),
-  currency: z
-    .string()
+  currency: str()
     .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
     .optional(),
   /** Only claims approved at least this many days ago. */
@@ -82,15 +81,13 @@ export type CreditExportQuery = z.infer<typeof creditExportQuerySchema>;
 
 const accountRef = (which: string) =>
   z.strictObject({
-    code: z
-      .string({ error: `Give the ${which} account's code.` })
+    code: str({ error: `Give the ${which} account's code.` })
       .trim()
       .regex(
         /^[A-Za-z0-9][A-Za-z0-9.-]{0,19}$/,
         'An account code is 1 to 20 letters, digits, dots or dashes.',
       ),
-    name: z
-      .string({ error: `Give the ${which} account's name.` })
+    name: str({ error: `Give the ${which} account's name.` })
       .trim()
       .min(1, `Give the ${which} account's name.`)
       .max(100, 'Keep the name under 100 characters.'),
@@ -101,8 +98,7 @@ export const accountingMapSchema = z
   .strictObject({
     debitAccount: accountRef('debit'),
     creditAccount: accountRef('credit'),
-    journalCode: z
-      .string({ error: 'Give the journal (voucher series) code.' })
+    journalCode: str({ error: 'Give the journal (voucher series) code.' })
       .trim()
       .regex(/^[A-Za-z0-9]{1,10}$/, 'A journal code is 1 to 10 letters or digits.'),
   })
@@ -120,8 +116,7 @@ export const journalQuerySchema = z
     from: isoDate,
     to: isoDate,
     format: z.enum(JOURNAL_FORMATS).default('json'),
-    currency: z
-      .string()
+    currency: str()
       .regex(/^[A-Z]{3}$/, 'A currency is three capital letters.')
       .optional(),
   })
@@ -135,8 +130,7 @@ export type JournalQuery = z.infer<typeof journalQuerySchema>;
 export const warrantyCostQuerySchema = z
   .strictObject({
     ...dateRange,
-    currency: z
-      .string()
+    currency: str()
       .regex(/^[A-Z]{3}$/)
       .optional(),
   })
@@ -159,7 +153,8 @@ export type CreditMemoDto = CreditMemoSummary & {
   contractor: { id: string; name: string };
   manufacturer: { id: string; name: string };
   issuedAt: string;
-  issuedBy: { id: string; name: string } | null;
+  /** Named to the issuer's own organisation; to the other side, the organisation's name and no id. */
+  issuedBy: { id: string | null; name: string } | null;
   reason: string | null;
   reverses: { id: string; number: string } | null;
   reversedBy: { id: string; number: string } | null;
@@ -175,6 +170,8 @@ export type QueueItemDto = {
   currency: string | null;
   approvedAt: string;
   ageDays: number;
+  /** Above the organisation's second-approval amount, once one accountant has approved: who, and whether it was you. */
+  secondApproval: { approvedBy: { id: string; name: string }; approvedAt: string; mine: boolean } | null;
 };
 
 export type BalanceDto = {

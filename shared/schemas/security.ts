@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { str } from './text';
 import { listQuerySchema } from './users';
 
 // A six-digit code from an authenticator app, or a recovery code (ten letters and digits, a dash allowed).
@@ -13,15 +14,14 @@ export const secondFactorLoginSchema = z.strictObject({ code: secondFactorCodeSc
 export type SecondFactorLoginInput = z.infer<typeof secondFactorLoginSchema>;
 
 export const confirmEnrollmentSchema = z.strictObject({
-  code: z
-    .string({ error: 'Enter the six-digit code.' })
+  code: str({ error: 'Enter the six-digit code.' })
     .trim()
     .regex(/^\d{6}$/, 'Enter the six-digit code.'),
 });
 export type ConfirmEnrollmentInput = z.infer<typeof confirmEnrollmentSchema>;
 
 export const removeSecondFactorSchema = z.strictObject({
-  password: z.string({ error: 'Enter your password.' }).min(1, 'Enter your password.').max(1024),
+  password: str({ error: 'Enter your password.' }).min(1, 'Enter your password.').max(1024),
 });
 export type RemoveSecondFactorInput = z.infer<typeof removeSecondFactorSchema>;
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { str } from './text';
 import { ROLES, USER_STATUSES } from '../roles';
 import { emailSchema } from './auth';
 
@@ -10,14 +11,14 @@ const rolesSchema = z
 
 export const inviteUserSchema = z.strictObject({
   email: emailSchema,
-  name: z.string().trim().min(1, 'Enter a name.').max(160, 'At most 160 characters.'),
+  name: str().trim().min(1, 'Enter a name.').max(160, 'At most 160 characters.'),
   roles: rolesSchema,
 });
 export type InviteUserInput = z.infer<typeof inviteUserSchema>;
 
 export const updateUserSchema = z
   .strictObject({
-    name: z.string().trim().min(1, 'Enter a name.').max(160).optional(),
+    name: str().trim().min(1, 'Enter a name.').max(160).optional(),
     roles: rolesSchema.optional(),
     status: z.enum(['active', 'disabled']).optional(),
   })
@@ -27,8 +28,8 @@ export type UpdateUserInput = z.infer<typeof updateUserSchema>;
 export const listQuerySchema = z.strictObject({
   page: z.coerce.number().int().min(1).max(100_000).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
-  sort: z.string().max(40).optional(),
-  q: z.string().trim().max(120).optional(),
+  sort: str().max(40).optional(),
+  q: str().trim().max(120).optional(),
 });
 
 export const userListQuerySchema = listQuerySchema.extend({

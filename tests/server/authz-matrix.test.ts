@@ -443,9 +443,15 @@ const ROUTES: Record<string, Entry> = {
     body: () => ({ password: 'a long enough password for the test' }),
   },
 
+  'GET /api/organizations/current': { ok: members(SIGNED_IN, 200) },
+  // A manufacturer's administrator sets the second-approval amount; everyone else is refused by role.
+  'PATCH /api/organizations/current': {
+    ok: { mAdmin: 200 },
+    body: () => ({ creditSecondApprovalAbove: null }),
+  },
   'GET /api/users': { ok: members(['cAdmin', 'mAdmin'], 200) },
   'POST /api/users/invitations': {
-    ok: members(['cAdmin', 'mAdmin'], 201),
+    ok: members(['cAdmin', 'mAdmin'], 202),
     body: (c) => ({
       email: `invite-${unique()}@example.test`,
       name: 'Invited person',

@@ -67,7 +67,10 @@ it('serves from two worker processes sharing the port, and stops them all on SIG
       body: JSON.stringify({ email: user.email, password: TEST_PASSWORD }),
     });
     expect(login.status).toBe(200);
-    const cookie = login.headers.get('set-cookie')!.split(';')[0];
+    const cookie = login.headers
+      .getSetCookie()
+      .find((c) => c.startsWith('lp.sid='))!
+      .split(';')[0];
     // Connections are handed to the workers in turn: new connections, so both workers answer some of these.
     const answers = await Promise.all(
       Array.from({ length: 8 }, () =>

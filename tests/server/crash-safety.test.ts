@@ -175,7 +175,7 @@ describe('crash safety: invitations', () => {
 
         const cookie = await httpSignIn(fresh.base, admin.email);
         const retry = await httpJson(fresh.base, cookie, 'POST', '/api/users/invitations', body);
-        expect(retry.status).toBe(201);
+        expect(retry.status).toBe(202);
         const again = await httpJson(fresh.base, cookie, 'POST', '/api/users/invitations', body);
         expect(again.status).toBe(409);
         expect(await t.ds.getRepository(User).countBy({ email })).toBe(1);

@@ -11,7 +11,7 @@ import { closeTestApp, createTestApp, type TestContext } from '../support/test-a
 // never a 5xx, never a stack trace, and a refused request writes no row.
 const RUNS = Number(process.env.FUZZ_RUNS ?? 1000);
 // Tables a refused request may legitimately touch: failed sign-ins are counted on purpose; sessions churn.
-const ALLOWED_WRITES = new Set(['login_attempts', 'sessions']);
+const ALLOWED_WRITES = new Set(['login_limits', 'sessions']);
 
 let t: TestContext;
 let server: Server;
@@ -25,7 +25,10 @@ async function signInCookie(email: string) {
     headers: { 'content-type': 'application/json' },
     body: JSON.stringify({ email, password: TEST_PASSWORD }),
   });
-  return r.headers.get('set-cookie')!.split(';')[0];
+  return r.headers
+    .getSetCookie()
+    .find((c) => c.startsWith('lp.sid='))!
+    .split(';')[0];
 }
 
 async function rowCounts() {
@@ -198,7 +201,7 @@ async function fuzzRoute(route: RouteInfo, failures: string[]) {
   const colleague = await createUser(t.ds, org, ['reviewer']);
   ids = [org.id, colleague.id, ...ids.slice(0, 2)];
   // The sign-in fuzzing trips the per-address limit on purpose; each route starts from none.
-  await t.ds.query('DELETE FROM login_attempts');
+  await t.ds.query('DELETE FROM login_limits');
   // Sign-out would end the fuzzing session itself: that route is fuzzed without one.
   const cookie = route.path === '/api/auth/logout' ? '' : await signInCookie(admin.email);
   await fc

@@ -94,7 +94,10 @@ export async function httpSignIn(base: string, email: string, password = TEST_PA
     body: JSON.stringify({ email, password }),
   });
   if (r.status !== 200) throw new Error(`sign-in of ${email}: ${r.status} ${await r.text()}`);
-  return r.headers.get('set-cookie')!.split(';')[0];
+  return r.headers
+    .getSetCookie()
+    .find((c) => c.startsWith('lp.sid='))!
+    .split(';')[0];
 }
 
 export async function httpJson(

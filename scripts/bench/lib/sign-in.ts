@@ -8,5 +8,8 @@ export async function signInBench(base: string, email: string): Promise<string> 
     body: JSON.stringify({ email, password: BENCH_PASSWORD }),
   });
   if (r.status !== 200) throw new Error(`sign-in of ${email}: ${r.status} ${await r.text()}`);
-  return r.headers.get('set-cookie')!.split(';')[0];
+  return r.headers
+    .getSetCookie()
+    .find((c) => c.startsWith('lp.sid='))!
+    .split(';')[0];
 }

@@ -9,13 +9,14 @@ import { ClaimDocument } from './claim-document.entity';
 import { ClaimMessage } from './claim-message.entity';
 import { Claim } from './claim.entity';
 import { Decision } from './decision.entity';
+import { CreditApproval } from './credit-approval.entity';
 import { CreditMemo } from './credit-memo.entity';
 import { IdempotencyKey } from './idempotency-key.entity';
 import { InstallationUnit } from './installation-unit.entity';
 import { Installation } from './installation.entity';
 import { Invitation } from './invitation.entity';
 import { LedgerEntry } from './ledger-entry.entity';
-import { LoginAttempt } from './login-attempt.entity';
+import { LoginLimit } from './login-limit.entity';
 import { MemoPrefix, MemoSequence } from './memo-sequence.entity';
 import { Organization } from './organization.entity';
 import { OutboxMessage } from './outbox-message.entity';
@@ -37,7 +38,7 @@ export const entities = [
   User,
   Invitation,
   AuditEvent,
-  LoginAttempt,
+  LoginLimit,
   OutboxMessage,
   ProductModel,
   WarrantyPolicy,
@@ -58,6 +59,7 @@ export const entities = [
   PasswordReset,
   PasswordResetRequest,
   AccountingMap,
+  CreditApproval,
   LedgerEntry,
   MemoSequence,
   MemoPrefix,

@@ -17,6 +17,12 @@ export class Organization {
   /** Set by the organisation's administrators: every member needs a second factor (beyond the roles that always do). */
   @Column({ type: 'boolean', name: 'require_second_factor', default: false })
   requireSecondFactor: boolean;
+  /**
+   * A credit above this amount (in the claim's currency) needs a second accountant's approval; null: none does.
+   * Set by the organisation's administrator.
+   */
+  @Column({ type: 'decimal', precision: 12, scale: 2, name: 'credit_second_approval_above', nullable: true })
+  creditSecondApprovalAbove: string | null;
 
   @CreatedAtColumn()
   createdAt: Date;

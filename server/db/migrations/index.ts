@@ -13,11 +13,13 @@ import { ReviewQueueIndexes1796168302753 } from './1796168302753-ReviewQueueInde
 import { ReviewQueueCountIndex1796178256332 } from './1796178256332-ReviewQueueCountIndex';
 import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexes';
 import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
+import { LoginLimits1796284670230 } from './1796284670230-LoginLimits';
 import { SecondFactorAndSessions1796284709610 } from './1796284709610-SecondFactorAndSessions';
 import { PasswordResets1796285107025 } from './1796285107025-PasswordResets';
 import { AccountingMaps1796285144565 } from './1796285144565-AccountingMaps';
 import { ApiTokens1796285274213 } from './1796285274213-ApiTokens';
 import { Webhooks1796285903802 } from './1796285903802-Webhooks';
+import { CreditSecondApproval1796287825007 } from './1796287825007-CreditSecondApproval';
 
 export const migrations = [
   Foundation1796165467051,
@@ -34,9 +36,11 @@ export const migrations = [
   ReviewQueueCountIndex1796178256332,
   StorageKeyIndexes1796179613559,
   ClaimCounts1796188776668,
+  LoginLimits1796284670230,
   SecondFactorAndSessions1796284709610,
   PasswordResets1796285107025,
   AccountingMaps1796285144565,
   ApiTokens1796285274213,
   Webhooks1796285903802,
+  CreditSecondApproval1796287825007,
 ];

@@ -62,7 +62,7 @@ export function attachmentsRouter<O extends { id: string }>(
   r.get('/', async (req, res) => {
     const owner = await ownerFor(req, 'read');
     const items = await listAttachments(ctx, owner);
-    res.json({ items: items.map((a) => presentAttachment(a, base(req))) });
+    res.json({ items: items.map((a) => presentAttachment(a, base(req), req.user!.organizationId)) });
   });
 
   r.post('/', async (req, res) => {
@@ -77,7 +77,7 @@ export function attachmentsRouter<O extends { id: string }>(
       file,
       actor: actorFromRequest(req),
     });
-    res.status(201).json({ attachment: presentAttachment(attachment, base(req)) });
+    res.status(201).json({ attachment: presentAttachment(attachment, base(req), req.user!.organizationId) });
   });
 
   r.get('/:attachmentId', async (req, res) => {
@@ -85,7 +85,7 @@ export function attachmentsRouter<O extends { id: string }>(
     const owner = await ownerFor(req, 'read');
     const attachment = await findAttachment(ctx, owner, attachmentId);
     if (!attachment) throw notFound('attachment');
-    res.json({ attachment: presentAttachment(attachment, base(req)) });
+    res.json({ attachment: presentAttachment(attachment, base(req), req.user!.organizationId) });
   });
 
   for (const variant of ['content', 'thumbnail'] as const) {

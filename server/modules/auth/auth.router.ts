@@ -1,11 +1,10 @@
 import { Router, type Request } from 'express';
-import { MoreThan } from 'typeorm';
 import { loginSchema } from '../../../shared/schemas/auth';
+import { createLoginThrottle, type LimitScope } from '../../auth/login-throttle';
 import type { SessionUser, createPassport } from '../../auth/passport';
 import { secondFactorRequired } from '../../auth/second-factor-policy';
 import { recordSessionDevice, SESSION_COOKIE } from '../../auth/session';
 import type { AppContext } from '../../context';
-import { LoginAttempt } from '../../db/entities/login-attempt.entity';
 import { User } from '../../db/entities/user.entity';
 import { recordAudit } from '../../lib/audit';
 import { clock } from '../../lib/clock';
@@ -14,9 +13,6 @@ import { requireUser } from '../../middleware/auth';
 import { parseBody } from '../../middleware/validate';
 import { holdForSecondFactor } from '../second-factor/second-factor.service';
 import { presentMe } from '../users/users.presenter';
-
-export const LOGIN_WINDOW_MS = 15 * 60 * 1000;
-export const LOGIN_MAX_FAILURES = 10;
 
 type Authenticator = ReturnType<typeof createPassport>;
 
@@ -30,38 +26,39 @@ function authenticate(pp: Authenticator, req: Request): Promise<SessionUser | fa
 
 export function authRouter(ctx: AppContext, pp: Authenticator) {
   const r = Router();
-  const attempts = ctx.ds.getRepository(LoginAttempt);
+  const throttle = createLoginThrottle(ctx.ds, {
+    secret: ctx.config.sessionSecret,
+    secureCookie: ctx.config.publicUrl?.startsWith('https://') ?? false,
+  });
 
   r.post('/login', async (req, res) => {
     const input = parseBody(loginSchema, req);
     req.body = input;
     const ip = req.ip ?? 'unknown';
-    const since = new Date(clock.nowMs() - LOGIN_WINDOW_MS);
-    const [byEmail, byIp] = await Promise.all([
-      attempts.countBy({ email: input.email, attemptedAt: MoreThan(since) }),
-      attempts.countBy({ ip, attemptedAt: MoreThan(since) }),
-    ]);
-    if (byEmail >= LOGIN_MAX_FAILURES || byIp >= LOGIN_MAX_FAILURES) {
+    const requestId = String(req.id);
+    // The attempt is counted before the password is looked at (server/auth/login-throttle.ts).
+    const admission = await throttle.admit(input.email, ip, req);
+    if (!admission.ok) {
+      if (admission.firstRefusal) await auditLockout(ctx, input.email, ip, admission.scope, requestId);
       throw new AppError(
         429,
         'auth.too_many_attempts',
-        'Too many failed sign-ins. Wait 15 minutes and try again.',
+        'Too many sign-in attempts. Wait a while and try again, or sign in from a device you have used before.',
         undefined,
-        {
-          'Retry-After': String(LOGIN_WINDOW_MS / 1000),
-        },
+        { 'Retry-After': String(admission.retryAfterS) },
       );
     }
 
     const user = await authenticate(pp, req);
     if (!user) {
-      await attempts.insert({ email: input.email, ip, attemptedAt: clock.now() });
+      await auditFailure(ctx, input.email, ip, requestId);
       throw new AppError(
         401,
         'auth.invalid_credentials',
         'That e-mail and password do not match an active account.',
       );
     }
+    await throttle.succeeded(input.email, admission, res);
 
     if (await holdForSecondFactor(ctx, req, user)) {
       res.json({ secondFactor: 'required' });
@@ -76,7 +73,6 @@ export function authRouter(ctx: AppContext, pp: Authenticator) {
     recordSessionDevice(req);
     await ctx.ds.transaction(async (m) => {
       await m.update(User, { id: user.id }, { lastSignInAt: clock.now() });
-      await m.delete(LoginAttempt, { email: input.email });
       await recordAudit(
         m,
         { userId: user.id, organizationId: user.organizationId, requestId: String(req.id) },
@@ -104,4 +100,48 @@ export function authRouter(ctx: AppContext, pp: Authenticator) {
   });
 
   return r;
+}
+
+async function accountOf(ctx: AppContext, email: string) {
+  return ctx.ds
+    .getRepository(User)
+    .findOne({ where: { email: email.trim().toLowerCase() }, select: { id: true, organizationId: true } });
+}
+
+/**
+ * A wrong password for an existing account goes on its organisation's record. At most as many rows as the limits
+ * let attempts through (an unknown e-mail writes nothing: it belongs to no one, and a sprayer could fill the
+ * table with them).
+ */
+async function auditFailure(ctx: AppContext, email: string, ip: string, requestId: string) {
+  const account = await accountOf(ctx, email);
+  if (!account) return;
+  await ctx.ds.transaction((m) =>
+    recordAudit(
+      m,
+      { userId: null, organizationId: account.organizationId, requestId },
+      { action: 'user.sign_in_failed', entityType: 'User', entityId: account.id, after: { ip } },
+    ),
+  );
+}
+
+/** One row per limit and window: the first refusal, not each of the attempts refused after it. */
+async function auditLockout(
+  ctx: AppContext,
+  email: string,
+  ip: string,
+  scope: LimitScope,
+  requestId: string,
+) {
+  const account = scope === 'address' ? null : await accountOf(ctx, email);
+  if (scope !== 'address' && !account) return;
+  await ctx.ds.transaction((m) =>
+    recordAudit(
+      m,
+      { userId: null, organizationId: account?.organizationId ?? null, requestId },
+      account
+        ? { action: 'user.locked_out', entityType: 'User', entityId: account.id, after: { ip, scope } }
+        : { action: 'address.locked_out', entityType: 'Address', entityId: ip, after: { scope } },
+    ),
+  );
 }

@@ -46,7 +46,7 @@ export function presentClaimDetail(
     history: HistoryEventDto[];
     attachments: AttachmentDto[];
     filingIssues: FilingIssue[];
-    createdBy: { id: string; name: string } | null;
+    createdBy: { id: string | null; name: string } | null;
   },
 ): ClaimDetailDto {
   const i = c.installation;

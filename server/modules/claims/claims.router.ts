@@ -20,6 +20,7 @@ import { AppError } from '../../lib/errors';
 import { historyEventOf, loadHistory } from '../../lib/history';
 import { REPLAY_HEADER } from '../../lib/idempotency';
 import { pageOf } from '../../lib/pagination';
+import { personRef } from '../../lib/present';
 import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
 import { idempotencyKeyOf, parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { presentAttachment } from '../attachments/attachments.presenter';
@@ -85,14 +86,13 @@ export async function claimDetail(
   ]);
   return presentClaimDetail(c, {
     history,
-    attachments: attachments.map((a) => presentAttachment(a, `/api/claims/${c.id}/attachments`)),
+    attachments: attachments.map((a) => presentAttachment(a, `/api/claims/${c.id}/attachments`, viewer)),
     filingIssues: c.stage === 'draft' ? currentFilingIssues(c) : [],
-    createdBy: createdBy
-      ? {
-          id: createdBy.id,
-          name: createdBy.organizationId === req.user!.organizationId ? createdBy.name : '',
-        }
-      : null,
+    createdBy: personRef(
+      createdBy,
+      createdBy?.organizationId === c.manufacturerId ? c.manufacturer : c.contractor,
+      viewer,
+    ),
   });
 }
 

@@ -2,6 +2,7 @@ import type { CreditMemoDto, CreditMemoSummary, QueueItemDto } from '../../../sh
 import { normalizeAmount } from '../../../shared/credits/money';
 import type { CreditMemo } from '../../db/entities/credit-memo.entity';
 import type { Claim } from '../../db/entities/claim.entity';
+import { personRef } from '../../lib/present';
 
 // The answers of the credits API: chosen fields, amounts as two-place decimal strings.
 
@@ -23,7 +24,8 @@ export function presentMemoSummary(m: {
 
 export type LoadedMemo = CreditMemo & { reversedBy?: CreditMemo | null };
 
-export function presentMemo(m: LoadedMemo): CreditMemoDto {
+/** The memo as one viewer sees it: the issuer is named to the manufacturer's people, to a contractor only as the manufacturer. */
+export function presentMemo(m: LoadedMemo, viewerOrgId: string): CreditMemoDto {
   return {
     ...presentMemoSummary(m),
     kind: m.kind,
@@ -31,7 +33,7 @@ export function presentMemo(m: LoadedMemo): CreditMemoDto {
     contractor: { id: m.contractorId, name: m.contractor?.name ?? '' },
     manufacturer: { id: m.manufacturerId, name: m.manufacturer?.name ?? '' },
     issuedAt: m.issuedAt.toISOString(),
-    issuedBy: m.issuedBy ? { id: m.issuedBy.id, name: m.issuedBy.name } : null,
+    issuedBy: personRef(m.issuedBy, m.manufacturer, viewerOrgId),
     reason: m.reason,
     reverses: m.reversesMemo ? { id: m.reversesMemo.id, number: m.reversesMemo.number } : null,
     reversedBy: m.reversedBy ? { id: m.reversedBy.id, number: m.reversedBy.number } : null,
@@ -39,7 +41,14 @@ export function presentMemo(m: LoadedMemo): CreditMemoDto {
   };
 }
 
-export function presentQueueItem(c: Claim, now: Date): QueueItemDto {
+export type FirstApproval = { approvedById: string; approverName: string; approvedAt: Date };
+
+export function presentQueueItem(
+  c: Claim,
+  now: Date,
+  first: FirstApproval | undefined,
+  viewerId: string,
+): QueueItemDto {
   return {
     claimId: c.id,
     number: c.number,
@@ -53,5 +62,13 @@ export function presentQueueItem(c: Claim, now: Date): QueueItemDto {
     currency: c.currency,
     approvedAt: c.stageChangedAt.toISOString(),
     ageDays: Math.max(0, Math.floor((now.getTime() - c.stageChangedAt.getTime()) / 86_400_000)),
+    // The queue is the manufacturer's own accountants': a colleague's name is theirs to see.
+    secondApproval: first
+      ? {
+          approvedBy: { id: first.approvedById, name: first.approverName },
+          approvedAt: first.approvedAt.toISOString(),
+          mine: first.approvedById === viewerId,
+        }
+      : null,
   };
 }

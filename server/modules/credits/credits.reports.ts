@@ -15,7 +15,7 @@ import { Claim } from '../../db/entities/claim.entity';
 import { CreditMemo } from '../../db/entities/credit-memo.entity';
 import { clock } from '../../lib/clock';
 import { likeContains, parseSort } from '../../lib/pagination';
-import { presentMemo, presentQueueItem, type LoadedMemo } from './credits.presenter';
+import { presentMemo, presentQueueItem, type FirstApproval, type LoadedMemo } from './credits.presenter';
 
 // Read side of the credits: lists, the accountant's queue, balances, the export and the cost view. Every query
 // is scoped to the user's organisation (the manufacturer's memos, or the contractor's).
@@ -69,7 +69,7 @@ export function createCreditsReports(ds: AppDataSource) {
       if (q.q)
         qb.andWhere('(cm.number LIKE :q OR cl.number LIKE :q OR con.name LIKE :q)', { q: likeContains(q.q) });
       const [items, total] = await qb.getManyAndCount();
-      return { items: (items as LoadedMemo[]).map(presentMemo), total };
+      return { items: (items as LoadedMemo[]).map((m) => presentMemo(m, user.organization.id)), total };
     },
 
     async queue(user: AbilityUser, q: CreditQueueQuery) {
@@ -106,8 +106,31 @@ export function createCreditsReports(ds: AppDataSource) {
         "SELECT currency, SUM(expected_credit) AS amount, COUNT(*) AS n FROM claims WHERE manufacturer_id = ? AND stage = 'approved' GROUP BY currency ORDER BY currency",
         [user.organization.id],
       );
+      // First approvals of credits above the second-approval amount, for this page's claims (the amount must
+      // still be the claim's: a changed decision starts over).
+      const firsts = new Map<string, FirstApproval>();
+      if (items.length) {
+        const rows: {
+          claim_id: string;
+          approved_by_id: string;
+          name: string;
+          approved_at: Date;
+          amount: string;
+        }[] = await ds.query(
+          `SELECT a.claim_id, a.approved_by_id, u.name, a.approved_at, a.amount
+               FROM credit_approvals a JOIN users u ON u.id = a.approved_by_id
+              WHERE a.claim_id IN (${items.map(() => '?').join(',')})`,
+          items.map((c) => c.id),
+        );
+        for (const r of rows)
+          firsts.set(r.claim_id, {
+            approvedById: r.approved_by_id,
+            approverName: r.name,
+            approvedAt: r.approved_at,
+          });
+      }
       return {
-        items: items.map((c) => presentQueueItem(c, now)),
+        items: items.map((c) => presentQueueItem(c, now, firsts.get(c.id), user.id)),
         total,
         totals: totals.map((t) => ({
           currency: t.currency,

@@ -10,7 +10,7 @@ import {
 } from '../../../shared/schemas/credits';
 import type { AppContext } from '../../context';
 import { Claim } from '../../db/entities/claim.entity';
-import { actorFromRequest } from '../../lib/audit';
+import { actorFromRequest, auditRefusal } from '../../lib/audit';
 import { REPLAY_HEADER } from '../../lib/idempotency';
 import { pageOf } from '../../lib/pagination';
 import { createStorage, type Storage } from '../../lib/storage';
@@ -42,11 +42,14 @@ export function claimCreditsRouter(ctx: AppContext, storage?: Storage) {
     const input = parseBody(issueCreditSchema, req);
     const claim = await ctx.ds.getRepository(Claim).findOne({ where: { id } });
     authorize(req, 'credit', 'Claim', claim, 'claim');
-    const answer = await service.issue(claim.id, toAbilityUser(req.user!), actorFromRequest(req), input, {
-      key,
-      path: `/api/claims/${claim.id}/credits`,
-      body: input,
-    });
+    const actor = actorFromRequest(req);
+    const answer = await service
+      .issue(claim.id, toAbilityUser(req.user!), actor, input, {
+        key,
+        path: `/api/claims/${claim.id}/credits`,
+        body: input,
+      })
+      .catch((e) => auditRefusal(ctx.ds, actor, e));
     if (answer.replayed) res.setHeader(REPLAY_HEADER, 'true');
     res.status(answer.status).json(answer.body);
   });
@@ -99,7 +102,7 @@ export function creditsRouter(ctx: AppContext, storage?: Storage) {
     const { id } = parseWith(idParam, req.params, 'address');
     const memo = await reports.findMemo(id);
     authorize(req, 'read', 'CreditMemo', memo, 'credit memo');
-    res.json({ creditMemo: presentMemo(memo) });
+    res.json({ creditMemo: presentMemo(memo, req.user!.organizationId) });
   });
 
   r.get('/:id/pdf', async (req, res) => {

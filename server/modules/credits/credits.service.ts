@@ -8,6 +8,7 @@ import type { IssueCreditInput } from '../../../shared/schemas/credits';
 import type { AppConfig } from '../../config/env';
 import type { AppDataSource } from '../../db/data-source';
 import { Claim } from '../../db/entities/claim.entity';
+import { CreditApproval } from '../../db/entities/credit-approval.entity';
 import { CreditMemo } from '../../db/entities/credit-memo.entity';
 import { LedgerEntry } from '../../db/entities/ledger-entry.entity';
 import { Organization } from '../../db/entities/organization.entity';
@@ -15,7 +16,7 @@ import { ProductModel } from '../../db/entities/product-model.entity';
 import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
-import { AppError, conflict } from '../../lib/errors';
+import { AppError, AuditedRefusal, conflict } from '../../lib/errors';
 import { retryOnDeadlock, runIdempotent, type IdempotentAnswer } from '../../lib/idempotency';
 import { enqueueEmail } from '../../lib/outbox';
 import { claimRef, enqueueWebhookEvent } from '../../lib/webhooks';
@@ -97,6 +98,76 @@ function refuse(code: keyof typeof REFUSAL_STATUS, message: string): never {
   throw new AppError(REFUSAL_STATUS[code], code, message);
 }
 
+/**
+ * Four eyes on large credits. Above the manufacturer's creditSecondApprovalAbove the first accountant's request
+ * records their approval and answers 202 (stored with the Idempotency-Key like any answer, so a retry replays it);
+ * the memo is issued when a different accountant asks for the same amount. The same accountant asking again is
+ * refused (409, audited). Returns the 202 answer, or who approved first when this request completes the pair.
+ */
+async function secondApproval(
+  m: EntityManager,
+  claim: Claim,
+  user: AbilityUser,
+  approved: { amount: string; currency: string },
+  actor: Actor,
+  now: Date,
+): Promise<{ answer?: { status: number; body: unknown }; firstApproverId?: string }> {
+  const org = await m.findOne(Organization, {
+    where: { id: claim.manufacturerId },
+    select: { id: true, creditSecondApprovalAbove: true },
+  });
+  const above = org?.creditSecondApprovalAbove;
+  if (above === null || above === undefined || !toDecimal(approved.amount).gt(toDecimal(above))) return {};
+  const first = await m.findOneBy(CreditApproval, { claimId: claim.id });
+  const sameRequest =
+    first && first.currency === approved.currency && toDecimal(first.amount).eq(toDecimal(approved.amount));
+  if (sameRequest && first.approvedById !== user.id) return { firstApproverId: first.approvedById };
+  if (sameRequest) {
+    throw new AuditedRefusal(
+      409,
+      'credit.second_approval_required',
+      'You approved this credit already; a second accountant must approve it before the memo is issued.',
+      { action: 'credit.refused', entityType: 'Claim', entityId: claim.id },
+    );
+  }
+  await m.upsert(
+    CreditApproval,
+    {
+      claimId: claim.id,
+      approvedById: user.id,
+      amount: approved.amount,
+      currency: approved.currency,
+      approvedAt: now,
+    },
+    ['claimId'],
+  );
+  await recordAudit(m, actor, {
+    action: 'credit.first_approval',
+    entityType: 'Claim',
+    entityId: claim.id,
+    after: {
+      amount: approved.amount,
+      currency: approved.currency,
+      threshold: normalizeAmount(toDecimal(above)),
+    },
+  });
+  return {
+    answer: {
+      status: 202,
+      body: {
+        creditApproval: {
+          claimId: claim.id,
+          status: 'awaiting_second_approval',
+          amount: approved.amount,
+          currency: approved.currency,
+          approvedBy: { id: user.id },
+          approvedAt: now.toISOString(),
+        },
+      },
+    },
+  };
+}
+
 const lockClaim = (m: EntityManager, id: string) =>
   m.createQueryBuilder(Claim, 'c').setLock('pessimistic_write').where('c.id = :id', { id }).getOne();
 
@@ -160,14 +231,26 @@ export function createCreditsService(
           // The reviewer's decision fixes the amount; claims approved before decisions were recorded fall back to
           // the engine's expected credit.
           const decision = await m.findOneBy(Decision, { currentClaimId: claim.id });
+          // Four eyes: whoever approved the claim does not also pay it.
+          if (decision && decision.decidedById === user.id) {
+            throw new AuditedRefusal(
+              403,
+              'credit.own_approval',
+              'You approved this claim, so a colleague must issue its credit.',
+              { action: 'credit.refused', entityType: 'Claim', entityId: claim.id },
+            );
+          }
           const approved =
             decision?.amount && decision.currency && toDecimal(decision.amount).gt(0)
               ? { amount: normalizeAmount(toDecimal(decision.amount)), currency: decision.currency }
               : approvedAmountOf(claim);
           if (!approved) throw conflict('credit.no_amount', 'This claim has no approved amount to credit.');
 
-          const parties = await partiesOf(m, claim);
           const now = clock.now();
+          const second = await secondApproval(m, claim, user, approved, actor, now);
+          if (second.answer) return second.answer;
+
+          const parties = await partiesOf(m, claim);
           const memoId = crypto.randomUUID();
           const number = await nextMemoNumber(m, parties.manufacturer, now.getUTCFullYear());
           await crashPoint('credit.issue.after_number', m);
@@ -230,6 +313,18 @@ export function createCreditsService(
               currency: approved.currency,
             },
           });
+          if (second.firstApproverId) {
+            await recordAudit(m, actor, {
+              action: 'credit.second_approval',
+              entityType: 'Claim',
+              entityId: claim.id,
+              after: {
+                firstApproverId: second.firstApproverId,
+                amount: approved.amount,
+                currency: approved.currency,
+              },
+            });
+          }
           await recordAudit(m, actor, {
             action: 'credit_memo.issued',
             entityType: 'CreditMemo',

@@ -1,4 +1,5 @@
 import crypto from 'node:crypto';
+import { forgetLoginFailuresIn } from '../../auth/login-throttle';
 import type { EntityManager } from 'typeorm';
 import { IsNull, MoreThan } from 'typeorm';
 import { PASSWORD_RESET_MINUTES } from '../../../shared/schemas/auth';
@@ -142,7 +143,8 @@ export function createPasswordsService(ctx: AppContext) {
         });
         return sessions;
       });
-      // merge: call forgetLoginFailures(user.email) here
+      // A new password is a fresh start: the account's sign-in counts go (the owner is never locked out by them).
+      await forgetLoginFailuresIn(ctx.ds, user.email);
       return { email: user.email, sessionsEnded: ended };
     },
 

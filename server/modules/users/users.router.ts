@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { inviteUserSchema, updateUserSchema, userListQuerySchema } from '../../../shared/schemas/users';
 import type { AppContext } from '../../context';
-import { actorFromRequest } from '../../lib/audit';
+import { actorFromRequest, auditRefusal } from '../../lib/audit';
 import { pageOf } from '../../lib/pagination';
 import { authorize, authorizeType, requireUser } from '../../middleware/auth';
 import { parseBody, parseQuery, parseWith } from '../../middleware/validate';
@@ -26,8 +26,9 @@ export function usersRouter(ctx: AppContext) {
   r.post('/invitations', async (req, res) => {
     const input = parseBody(inviteUserSchema, req);
     authorizeType(req, 'invite', 'User');
-    const { user } = await service.invite(req.user!, input, actorFromRequest(req));
-    res.status(201).json({ user: presentUser(user) });
+    await service.invite(req.user!, input, actorFromRequest(req));
+    // The same answer whether or not the address has an account elsewhere (users.service.ts, invite).
+    res.status(202).json({ invitation: { email: input.email, name: input.name, roles: input.roles } });
   });
 
   r.get('/:id', async (req, res) => {
@@ -42,7 +43,10 @@ export function usersRouter(ctx: AppContext) {
     const input = parseBody(updateUserSchema, req);
     const user = await service.findById(id);
     authorize(req, input.status === 'disabled' ? 'disable' : 'update', 'User', user, 'user');
-    const updated = await service.update(req.user!, user!, input, actorFromRequest(req));
+    const actor = actorFromRequest(req);
+    const updated = await service
+      .update(req.user!, user!, input, actor)
+      .catch((e) => auditRefusal(ctx.ds, actor, e));
     res.json({ user: presentUser(updated) });
   });
 

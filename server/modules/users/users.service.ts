@@ -8,7 +8,7 @@ import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
 import { crashPoint } from '../../lib/crash-point';
-import { AppError, conflict } from '../../lib/errors';
+import { AppError, AuditedRefusal, conflict } from '../../lib/errors';
 import { enqueueEmail } from '../../lib/outbox';
 import { likeContains, parseSort } from '../../lib/pagination';
 
@@ -62,8 +62,38 @@ export function createUsersService(ds: AppDataSource, opts: { publicUrl: (path: 
       const token = crypto.randomBytes(32).toString('base64url');
       const expiresAt = new Date(clock.nowMs() + INVITATION_TTL_MS);
       return ds.transaction(async (m) => {
-        if (await m.exists(User, { where: { email: input.email } })) {
-          throw conflict('user.email_taken', 'Someone already uses that e-mail address.');
+        // An address already in use answers like a new one unless the inviter's own organisation holds it: whether
+        // another organisation has an account for it is that organisation's business (issue 13). Its owner gets an
+        // e-mail saying so, with no link that could move their account.
+        const existing = await m.findOne(User, {
+          where: { email: input.email },
+          relations: { organization: true },
+        });
+        if (existing?.organizationId === inviter.organization.id) {
+          throw conflict(
+            'user.email_taken',
+            'Someone in your organisation already uses that e-mail address.',
+          );
+        }
+        await recordAudit(m, actor, {
+          action: 'user.invitation_requested',
+          entityType: 'Organization',
+          entityId: inviter.organization.id,
+          after: { email: input.email, roles: input.roles },
+        });
+        if (existing) {
+          await enqueueEmail(m, {
+            to: [existing.email],
+            template: 'invitation-address-in-use',
+            view: {
+              name: existing.name,
+              inviterName: inviter.name,
+              organizationName: inviter.organization.name,
+              ownOrganizationName: existing.organization?.name ?? '',
+              rolesText: input.roles.map((r) => ROLE_LABELS[r].toLowerCase()).join(' and '),
+            },
+          });
+          return { user: null, token: null };
         }
         const user = m.create(User, {
           organizationId: inviter.organization.id,
@@ -107,8 +137,24 @@ export function createUsersService(ds: AppDataSource, opts: { publicUrl: (path: 
 
     async update(editor: SessionUser, target: User, input: UpdateUserInput, actor: Actor) {
       if (input.roles) checkRolesFit(input.roles, editor.organization.kind);
-      if (target.id === editor.id && input.roles && !input.roles.includes('administrator')) {
-        throw conflict('user.self_demotion', 'You cannot remove your own administrator role.');
+      // Four eyes: an administrator's own roles are changed by another administrator, never by themself (one could
+      // otherwise make themself reviewer and accountant and approve and pay a claim alone).
+      if (
+        target.id === editor.id &&
+        input.roles &&
+        [...input.roles].sort().join() !== [...target.roles].sort().join()
+      ) {
+        throw new AuditedRefusal(
+          403,
+          'user.own_roles',
+          'Your own roles are changed by another administrator of your organisation.',
+          {
+            action: 'user.roles_refused',
+            entityType: 'User',
+            entityId: target.id,
+            after: { roles: input.roles },
+          },
+        );
       }
       if (target.status === 'invited' && input.status === 'active') {
         throw conflict('user.not_accepted', 'This person has not accepted the invitation yet.');

@@ -1,3 +1,4 @@
+import { CreditApprovalSetting } from '../../../features/users/components/credit-approval-setting';
 import { UsersAdmin } from '../../../features/users/components/users-table';
 import { useAbility } from '../../../lib/ability';
 import { NotFoundRoute } from '../not-found';
@@ -5,5 +6,10 @@ import { NotFoundRoute } from '../not-found';
 export function UsersRoute() {
   const ability = useAbility();
   if (!ability.can('invite', 'User')) return <NotFoundRoute />;
-  return <UsersAdmin />;
+  return (
+    <>
+      <UsersAdmin />
+      {ability.can('update', 'Organization') ? <CreditApprovalSetting /> : null}
+    </>
+  );
 }

@@ -2,6 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Controller, useForm } from 'react-hook-form';
 import { z } from 'zod';
+import { str } from '../../../../shared/schemas/text';
 import {
   EXCLUSION_LABELS,
   EXCLUSIONS,
@@ -24,8 +25,8 @@ const numberOrUndefined = (v: unknown) => (v === '' || v === null || v === undef
 
 // One form for a new policy (name, models, terms) and for a new version of one (terms only).
 const newPolicySchema = z.strictObject({
-  name: z.string().trim().min(1, 'Enter a policy name.').max(160),
-  productModelIds: z.array(z.string()).min(1, 'Attach the policy to at least one product model.'),
+  name: str().trim().min(1, 'Enter a policy name.').max(160),
+  productModelIds: z.array(str()).min(1, 'Attach the policy to at least one product model.'),
   terms: policyTermsSchema,
 });
 type FormValues = { name: string; productModelIds: string[]; terms: PolicyTermsInput };
@@ -61,7 +62,7 @@ export function PolicyTermsDialog({
   const form = useForm<FormValues>({
     resolver: zodResolver(
       policy
-        ? z.object({ name: z.string(), productModelIds: z.array(z.string()), terms: policyTermsSchema })
+        ? z.object({ name: str(), productModelIds: z.array(str()), terms: policyTermsSchema })
         : newPolicySchema,
     ) as never,
     defaultValues: {

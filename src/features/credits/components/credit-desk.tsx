@@ -55,13 +55,20 @@ export function CreditDesk() {
         keys.current.delete(item.claimId);
         setResults((rs) => [
           ...rs,
-          {
-            claimId: item.claimId,
-            label,
-            ok: true,
-            text: `Memo ${r.creditMemo.number} issued for ${r.creditMemo.amount} ${r.creditMemo.currency}.`,
-            memoId: r.creditMemo.id,
-          },
+          'creditApproval' in r
+            ? {
+                claimId: item.claimId,
+                label,
+                ok: true,
+                text: `Your approval of ${r.creditApproval.amount} ${r.creditApproval.currency} is recorded; the memo is issued when a second accountant approves it.`,
+              }
+            : {
+                claimId: item.claimId,
+                label,
+                ok: true,
+                text: `Memo ${r.creditMemo.number} issued for ${r.creditMemo.amount} ${r.creditMemo.currency}.`,
+                memoId: r.creditMemo.id,
+              },
         ]);
       } catch (err) {
         const text = err instanceof ApiError ? err.message : 'Something went wrong; try this claim again.';
@@ -211,10 +218,19 @@ export function CreditDesk() {
                       aria-label={`Select claim ${i.number ?? i.claimId}`}
                       checked={selected.has(i.claimId)}
                       onChange={() => toggle(i.claimId)}
-                      disabled={running}
+                      disabled={running || i.secondApproval?.mine === true}
                     />
                   </Td>
-                  <Td className="font-mono text-xs whitespace-nowrap">{i.number}</Td>
+                  <Td className="whitespace-nowrap">
+                    <span className="font-mono text-xs">{i.number}</span>
+                    {i.secondApproval ? (
+                      <span className="mt-1 block text-xs font-medium text-warn-800">
+                        {i.secondApproval.mine
+                          ? 'Awaiting second approval: you approved it'
+                          : `Awaiting second approval: ${i.secondApproval.approvedBy.name} approved it; issuing approves it too`}
+                      </span>
+                    ) : null}
+                  </Td>
                   <Td>{i.contractor.name}</Td>
                   <Td>
                     <span className="font-medium">{i.product.modelNumber}</span>{' '}

@@ -29,8 +29,8 @@ export function InviteUserDialog({
   });
   const mutation = useMutation({
     mutationFn: inviteUser,
-    onSuccess: async ({ user }) => {
-      notify(`Invitation sent to ${user.email}.`);
+    onSuccess: async ({ invitation }) => {
+      notify(`Invitation sent to ${invitation.email}.`);
       form.reset();
       onClose();
       await qc.invalidateQueries({ queryKey: userQueries.all });
