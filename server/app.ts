@@ -28,6 +28,7 @@ import { healthRouter } from './modules/health/health.router';
 import { installationsRouter } from './modules/installations/installations.router';
 import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
+import { organizationRouter } from './modules/organizations/organizations.router';
 import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
@@ -136,6 +137,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/credits', creditsRouter(ctx));
   api.use('/analytics', analyticsRouter(ctx));
   api.use('/reserve', reserveRouter(ctx));
+  api.use('/organization', organizationRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
   api.use((req, _res, next) =>

@@ -59,6 +59,8 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
   can('read', 'WarrantyPolicy');
 
   if (has('administrator')) {
+    // Their organisation's settings (the time zone and locale its dates are shown in).
+    can('update', 'Organization', { id: orgId });
     can('read', 'User', { organizationId: orgId });
     can(['invite', 'update', 'disable'], 'User', { organizationId: orgId });
     cannot(['disable'], 'User', { id: user.id }); // an administrator cannot lock themself out

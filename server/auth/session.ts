@@ -50,7 +50,7 @@ type Loaded = { id: string; user: User | null };
  */
 const SESSION_SQL = `SELECT s.data, s.expires, u.id AS u_id, u.organization_id, u.email, u.name, u.roles, u.status,
        u.last_sign_in_at, u.created_at, u.updated_at, u.version, o.name AS o_name, o.kind AS o_kind,
-       o.created_at AS o_created_at
+       o.time_zone AS o_time_zone, o.locale AS o_locale, o.created_at AS o_created_at
   FROM sessions s
   LEFT JOIN users u ON u.id = JSON_VALUE(s.data, '$.passport.user')
   LEFT JOIN organizations o ON o.id = u.organization_id
@@ -71,6 +71,8 @@ type SessionRow = {
   version: number;
   o_name: string;
   o_kind: Organization['kind'];
+  o_time_zone: string;
+  o_locale: string;
   o_created_at: Date;
 };
 
@@ -79,6 +81,8 @@ function userOf(r: SessionRow): User {
     id: r.organization_id,
     name: r.o_name,
     kind: r.o_kind,
+    timeZone: r.o_time_zone,
+    locale: r.o_locale,
     createdAt: r.o_created_at,
   });
   return Object.assign(new User(), {

@@ -338,6 +338,14 @@ const ROUTES: Record<string, Entry> = {
     body: () => ({ name: `Renamed ${unique()}` }),
   },
 
+  // The signed-in person's own organisation: no id, so nothing foreign to reach.
+  'GET /api/organization': { ok: members(SIGNED_IN, 200) },
+  'PATCH /api/organization': {
+    ok: members(['cAdmin', 'mAdmin'], 200),
+    denied: 403,
+    body: () => ({ timeZone: 'America/Chicago' }),
+  },
+
   'POST /api/evaluations': { ok: members(SIGNED_IN, 200), body: () => validClaim },
 
   'GET /api/products': { ok: members(SIGNED_IN, 200) },

@@ -14,6 +14,14 @@ export class Organization {
   @Column({ type: 'enum', enum: ['manufacturer', 'contractor'] })
   kind: OrganizationKind;
 
+  /** IANA zone every time is shown in to this organisation's people (screens, PDFs, e-mails). */
+  @Column({ name: 'time_zone', type: 'varchar', length: 64, default: 'UTC' })
+  timeZone: string;
+
+  /** BCP 47 locale for what the server writes to its people (PDFs, e-mails); screens use the reader's own. */
+  @Column({ type: 'varchar', length: 35, default: 'en-US' })
+  locale: string;
+
   @CreatedAtColumn()
   createdAt: Date;
 }

@@ -13,6 +13,7 @@ import { ReviewQueueIndexes1796168302753 } from './1796168302753-ReviewQueueInde
 import { ReviewQueueCountIndex1796178256332 } from './1796178256332-ReviewQueueCountIndex';
 import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexes';
 import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
+import { OrganizationTimeZone1796285108743 } from './1796285108743-OrganizationTimeZone';
 
 export const migrations = [
   Foundation1796165467051,
@@ -29,4 +30,5 @@ export const migrations = [
   ReviewQueueCountIndex1796178256332,
   StorageKeyIndexes1796179613559,
   ClaimCounts1796188776668,
+  OrganizationTimeZone1796285108743,
 ];
