@@ -60,6 +60,16 @@ function instantOf(value: string | Date): Date {
   return d;
 }
 
+/** True for an existing day written "YYYY-MM-DD". */
+export function isCalendarDate(value: string): boolean {
+  try {
+    calendarInstant(value);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 /** Noon UTC of a calendar date: far enough from midnight that the date is that day in every zone. */
 function calendarInstant(iso: string): Date {
   const m = CALENDAR_DATE.exec(iso);
