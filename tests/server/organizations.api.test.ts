@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent } from '../../server/db/entities/audit-event.entity';
 import { Organization } from '../../server/db/entities/organization.entity';
+import { In } from 'typeorm';
+import { OutboxMessage } from '../../server/db/entities/outbox-message.entity';
+import { claimWorld, createDraft, daysAgo, goodClaimFields } from '../support/claim-factories';
 import { createOrganization, createUser, signIn } from '../support/factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
@@ -67,5 +70,34 @@ describe("the organisation's time zone and locale", () => {
     const r = await agent.patch('/api/organization').send({ timeZone: 'Europe/Berlin' });
     expect(r.status).toBe(403);
     expect(await zoneOf(org.id)).toBe('UTC');
+  });
+});
+
+const MONTHS = 'January February March April May June July August September October November December'.split(
+  ' ',
+);
+
+describe('e-mails write dates for their recipient', () => {
+  it("gives each side the failure date in its own organisation's locale, never a day off", async () => {
+    const w = await claimWorld(t);
+    await t.ds
+      .getRepository(Organization)
+      .update({ id: w.mfrA.id }, { locale: 'en-GB', timeZone: 'Pacific/Kiritimati' });
+    await t.ds.getRepository(Organization).update({ id: w.conX.id }, { timeZone: 'Pacific/Honolulu' });
+    const failedOn = daysAgo(10);
+    const draft = await createDraft(
+      w.installer.agent,
+      w.installation.id,
+      goodClaimFields(w.installation.serials[0], { failedOn }),
+    );
+    expect((await w.installer.agent.post(`/api/claims/${draft.id}/file`).send({})).status).toBe(200);
+    const [y, m, d] = failedOn.split('-').map(Number);
+    const mails = await t.ds
+      .getRepository(OutboxMessage)
+      .find({ where: { to: In([w.reviewer.user.email, w.installer.user.email]) } });
+    const byTemplate = Object.fromEntries(mails.map((x) => [x.template, x.text]));
+    // CLDR long dates: en-GB "d MMMM y", en (US) "MMMM d, y"; the zones (UTC+14, UTC-10) must not move the day
+    expect(byTemplate['claim-filed-manufacturer']).toContain(`Failed on: ${d} ${MONTHS[m - 1]} ${y}`);
+    expect(byTemplate['claim-filed-confirmation']).toContain(`Failed on: ${MONTHS[m - 1]} ${d}, ${y}`);
   });
 });
