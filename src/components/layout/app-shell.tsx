@@ -75,14 +75,20 @@ export function AppShell({
       </aside>
 
       <header className="sticky top-0 z-30 flex h-14 items-center justify-between gap-3 border-b border-ink-200 bg-white/95 px-4 backdrop-blur lg:hidden">
-        <Logo className="text-base text-ink-950" />
-        <div className="flex min-w-0 items-center gap-2">
-          <span className="truncate text-xs text-ink-600">{organizationName}</span>
+        {/* The organisation's name under the logo, where it has the width the sign-out button does not need;
+            the button never shrinks or wraps. */}
+        <div className="flex min-w-0 flex-col leading-tight">
+          <Logo className="text-base text-ink-950" />
+          <span className="truncate text-xs text-ink-600" title={organizationName}>
+            {organizationName}
+          </span>
+        </div>
+        <div className="flex shrink-0 items-center">
           <button
             type="button"
             onClick={onSignOut}
             disabled={signingOut}
-            className="inline-flex h-10 items-center gap-1.5 rounded-lg px-2.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
+            className="inline-flex h-11 shrink-0 items-center gap-1.5 rounded-lg px-2.5 text-sm font-medium whitespace-nowrap text-ink-700 hover:bg-ink-100"
           >
             <LogOut className="size-4" aria-hidden /> <span>Sign out</span>
           </button>
