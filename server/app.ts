@@ -29,6 +29,7 @@ import { installationsRouter } from './modules/installations/installations.route
 import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
 import { organizationRouter } from './modules/organizations/organizations.router';
+import { savedViewsRouter } from './modules/saved-views/saved-views.router';
 import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
@@ -138,6 +139,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/analytics', analyticsRouter(ctx));
   api.use('/reserve', reserveRouter(ctx));
   api.use('/organization', organizationRouter(ctx));
+  api.use('/saved-views', savedViewsRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
   api.use((req, _res, next) =>

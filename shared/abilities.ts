@@ -32,6 +32,7 @@ export type SubjectName =
   | 'Evaluation'
   | 'Analytics'
   | 'Reserve'
+  | 'SavedView'
   | 'all';
 
 export type AbilityUser = {
@@ -86,6 +87,8 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     can('read', 'Installation', { manufacturerId: orgId });
     can('read', 'Claim', { manufacturerId: orgId, stage: { $ne: 'draft' } });
     if (has('reviewer')) can(['review', 'decide'], 'Claim', { manufacturerId: orgId });
+    // The review desk's saved filters: each reviewer's own.
+    if (has('reviewer')) can(['read', 'create', 'delete'], 'SavedView', { userId: user.id });
     // Failure analysis is the reviewers' (and their administrator's); the reserve is the accountants'. Both read
     // only their own manufacturer's record: the server scopes every query to manufacturerId.
     if (has('reviewer') || has('administrator')) can('read', 'Analytics', { manufacturerId: orgId });

@@ -23,6 +23,7 @@ import { createApprovedClaim } from '../support/credit-factories';
 import { createClaimAt, createReviewWorld, type ReviewWorld } from '../support/review-factories';
 import { pngImage } from '../support/upload-fixtures';
 import { Claim } from '../../server/db/entities/claim.entity';
+import { SavedView } from '../../server/db/entities/saved-view.entity';
 import type { Stage } from '../../shared/claims/stages';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
@@ -141,6 +142,13 @@ async function newInvitation(w: World) {
     createdById: w.users.cAdmin.id,
   });
   return { token };
+}
+
+async function newSavedView(w: World) {
+  const view = await t.ds
+    .getRepository(SavedView)
+    .save({ userId: w.users.reviewer.id, name: `View ${unique()}`, filters: { assignee: 'me' as const } });
+  return view.id;
 }
 
 async function newDraft(w: World) {
@@ -344,6 +352,19 @@ const ROUTES: Record<string, Entry> = {
     ok: members(['cAdmin', 'mAdmin'], 200),
     denied: 403,
     body: () => ({ timeZone: 'America/Chicago' }),
+  },
+
+  // Each reviewer's own saved review-desk views; anyone else's view is hidden like a missing one.
+  'GET /api/saved-views': { ok: { reviewer: 200 }, denied: 403 },
+  'POST /api/saved-views': {
+    ok: { reviewer: 201 },
+    denied: 403,
+    body: () => ({ name: `View ${unique()}`, filters: { assignee: 'me', sort: 'stageChangedAt' } }),
+  },
+  'DELETE /api/saved-views/:id': {
+    ok: { reviewer: 204 },
+    denied: 404,
+    target: async (w) => ({ id: await newSavedView(w) }),
   },
 
   'POST /api/evaluations': { ok: members(SIGNED_IN, 200), body: () => validClaim },

@@ -20,6 +20,7 @@ import { OutboxMessage } from './outbox-message.entity';
 import { PolicyModel } from './policy-model.entity';
 import { ProductModel } from './product-model.entity';
 import { ReturnAuthorization } from './return-authorization.entity';
+import { SavedView } from './saved-view.entity';
 import { User } from './user.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 import { WarrantyPolicy } from './warranty-policy.entity';
@@ -48,6 +49,7 @@ export const entities = [
   Decision,
   ClaimDocument,
   CreditMemo,
+  SavedView,
   LedgerEntry,
   MemoSequence,
   MemoPrefix,

@@ -14,6 +14,7 @@ import { ReviewQueueCountIndex1796178256332 } from './1796178256332-ReviewQueueC
 import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexes';
 import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
 import { OrganizationTimeZone1796285108743 } from './1796285108743-OrganizationTimeZone';
+import { SavedViews1796288682971 } from './1796288682971-SavedViews';
 
 export const migrations = [
   Foundation1796165467051,
@@ -31,4 +32,5 @@ export const migrations = [
   StorageKeyIndexes1796179613559,
   ClaimCounts1796188776668,
   OrganizationTimeZone1796285108743,
+  SavedViews1796288682971,
 ];
