@@ -33,6 +33,7 @@ export type SubjectName =
   | 'Analytics'
   | 'Reserve'
   | 'SavedView'
+  | 'Waiting'
   | 'all';
 
 export type AbilityUser = {
@@ -58,6 +59,8 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
   can('create', 'Evaluation');
   can('read', 'ProductModel');
   can('read', 'WarrantyPolicy');
+  // What waits on them: their own list, and marking its items read.
+  can(['read', 'update'], 'Waiting');
 
   if (has('administrator')) {
     // Their organisation's settings (the time zone and locale its dates are shown in).

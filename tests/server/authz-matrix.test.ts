@@ -367,6 +367,10 @@ const ROUTES: Record<string, Entry> = {
     target: async (w) => ({ id: await newSavedView(w) }),
   },
 
+  // What waits on the signed-in person: their own list, no record ids.
+  'GET /api/waiting': { ok: members(SIGNED_IN, 200) },
+  'POST /api/waiting/read': { ok: members(SIGNED_IN, 200), body: () => ({ keys: ['memo_due:none:0'] }) },
+
   'POST /api/evaluations': { ok: members(SIGNED_IN, 200), body: () => validClaim },
 
   'GET /api/products': { ok: members(SIGNED_IN, 200) },

@@ -22,6 +22,7 @@ import { ProductModel } from './product-model.entity';
 import { ReturnAuthorization } from './return-authorization.entity';
 import { SavedView } from './saved-view.entity';
 import { User } from './user.entity';
+import { WaitingRead } from './waiting-read.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 import { WarrantyPolicy } from './warranty-policy.entity';
 
@@ -50,6 +51,7 @@ export const entities = [
   ClaimDocument,
   CreditMemo,
   SavedView,
+  WaitingRead,
   LedgerEntry,
   MemoSequence,
   MemoPrefix,

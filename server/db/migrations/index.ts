@@ -15,6 +15,7 @@ import { StorageKeyIndexes1796179613559 } from './1796179613559-StorageKeyIndexe
 import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
 import { OrganizationTimeZone1796285108743 } from './1796285108743-OrganizationTimeZone';
 import { SavedViews1796288682971 } from './1796288682971-SavedViews';
+import { WaitingReads1796289213143 } from './1796289213143-WaitingReads';
 
 export const migrations = [
   Foundation1796165467051,
@@ -33,4 +34,5 @@ export const migrations = [
   ClaimCounts1796188776668,
   OrganizationTimeZone1796285108743,
   SavedViews1796288682971,
+  WaitingReads1796289213143,
 ];
