@@ -103,6 +103,10 @@ export const router = createBrowserRouter([
         path: 'credits',
         lazy: () => import('./routes/credits').then((m) => ({ Component: m.CreditsRoute })),
       },
+      {
+        path: 'waiting',
+        lazy: () => import('./routes/waiting').then((m) => ({ Component: m.WaitingRoute })),
+      },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
     ],
   },

@@ -12,6 +12,8 @@ type Props = {
   roleText: string;
   onSignOut: () => void;
   signingOut?: boolean;
+  /** What waits on the person (a link with a count), beside "Sign out". */
+  bell?: ReactNode;
   children: ReactNode;
 };
 
@@ -26,6 +28,7 @@ export function AppShell({
   roleText,
   onSignOut,
   signingOut,
+  bell,
   children,
 }: Props) {
   return (
@@ -37,8 +40,9 @@ export function AppShell({
         Skip to content
       </a>
       <aside className="fixed inset-y-0 left-0 hidden w-60 flex-col border-r border-ink-200 bg-white lg:flex">
-        <div className="px-5 py-5">
+        <div className="flex items-center justify-between gap-2 py-4 pr-3 pl-5">
           <Logo className="text-lg text-ink-950" />
+          {bell}
         </div>
         <nav aria-label="Main" className="flex-1 space-y-1 px-3">
           {nav.map((item) => (
@@ -83,7 +87,8 @@ export function AppShell({
             {organizationName}
           </span>
         </div>
-        <div className="flex shrink-0 items-center">
+        <div className="flex shrink-0 items-center gap-1">
+          {bell}
           <button
             type="button"
             onClick={onSignOut}
