@@ -36,3 +36,12 @@ export const WAITING_TEXT: Record<WaitingKind, string> = {
   memo_due: 'An approved claim waits for its credit memo',
   return_overdue: `A returned unit shipped over ${RETURN_OVERDUE_DAYS} days ago has not been marked received`,
 };
+
+/** How a person hears about what waits on them by e-mail: each new item at once, one summary a day, or not. */
+export const WAITING_MAIL_MODES = ['immediate', 'daily', 'none'] as const;
+export type WaitingMailMode = (typeof WAITING_MAIL_MODES)[number];
+export const DEFAULT_WAITING_MAIL_MODE: WaitingMailMode = 'daily';
+
+export const waitingMailSchema = z.strictObject({
+  mode: z.enum(WAITING_MAIL_MODES, { error: 'Pick at once, a daily summary or never.' }),
+});

@@ -10,6 +10,7 @@ import type { User } from '../../server/db/entities/user.entity';
 import type { WarrantyPolicy } from '../../server/db/entities/warranty-policy.entity';
 import type { WarrantyPolicyVersion } from '../../server/db/entities/warranty-policy-version.entity';
 import { listRoutes } from '../../server/lib/routes';
+import { unsubscribeToken } from '../../server/modules/waiting/waiting-mail';
 import {
   createPolicy,
   createProduct,
@@ -370,6 +371,14 @@ const ROUTES: Record<string, Entry> = {
   // What waits on the signed-in person: their own list, no record ids.
   'GET /api/waiting': { ok: members(SIGNED_IN, 200) },
   'POST /api/waiting/read': { ok: members(SIGNED_IN, 200), body: () => ({ keys: ['memo_due:none:0'] }) },
+  'GET /api/waiting/email': { ok: members(SIGNED_IN, 200) },
+  'PUT /api/waiting/email': { ok: members(SIGNED_IN, 200), body: () => ({ mode: 'daily' }) },
+  // The e-mail's unsubscribe link: the signed token is the credential, no sign-in; nothing to be foreign to.
+  'GET /api/waiting/unsubscribe/:token': {
+    ok: everyone(200),
+    foreign: 'none',
+    target: (w) => ({ token: unsubscribeToken(t.config.sessionSecret, w.users.installer.id) }),
+  },
 
   'POST /api/evaluations': { ok: members(SIGNED_IN, 200), body: () => validClaim },
 

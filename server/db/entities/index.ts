@@ -22,6 +22,7 @@ import { ProductModel } from './product-model.entity';
 import { ReturnAuthorization } from './return-authorization.entity';
 import { SavedView } from './saved-view.entity';
 import { User } from './user.entity';
+import { WaitingMailSetting } from './waiting-mail-setting.entity';
 import { WaitingRead } from './waiting-read.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 import { WarrantyPolicy } from './warranty-policy.entity';
@@ -52,6 +53,7 @@ export const entities = [
   CreditMemo,
   SavedView,
   WaitingRead,
+  WaitingMailSetting,
   LedgerEntry,
   MemoSequence,
   MemoPrefix,

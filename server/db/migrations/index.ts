@@ -16,6 +16,7 @@ import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
 import { OrganizationTimeZone1796285108743 } from './1796285108743-OrganizationTimeZone';
 import { SavedViews1796288682971 } from './1796288682971-SavedViews';
 import { WaitingReads1796289213143 } from './1796289213143-WaitingReads';
+import { WaitingMailSettings1796289583379 } from './1796289583379-WaitingMailSettings';
 
 export const migrations = [
   Foundation1796165467051,
@@ -35,4 +36,5 @@ export const migrations = [
   OrganizationTimeZone1796285108743,
   SavedViews1796288682971,
   WaitingReads1796289213143,
+  WaitingMailSettings1796289583379,
 ];

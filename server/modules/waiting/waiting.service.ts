@@ -17,7 +17,7 @@ const sinceIso = (v: Date | string) =>
   (v instanceof Date ? v : new Date(`${String(v).replace(' ', 'T')}Z`)).toISOString();
 
 /** The claims waiting on this person, by what their roles make them answer for; each query at most 200 rows. */
-async function itemsFor(ds: DataSource, user: SessionUser): Promise<Omit<WaitingItemDto, 'read'>[]> {
+export async function itemsFor(ds: DataSource, user: SessionUser): Promise<Omit<WaitingItemDto, 'read'>[]> {
   const org = user.organizationId;
   const has = (r: string) => user.roles.includes(r as never);
   const out: Omit<WaitingItemDto, 'read'>[] = [];
