@@ -28,4 +28,15 @@ test('an accountant follows the bell to what waits on her, opens one, and marks 
   await page.getByRole('button', { name: 'Mark all read' }).click();
   await expect(page.getByRole('link', { name: 'Waiting on you: nothing unread' })).toBeVisible();
   await expect(page.getByText('Unread', { exact: true })).toHaveCount(0);
+
+  // Her choice of e-mail, kept on the server.
+  const mail = page.getByLabel('E-mail me about these');
+  await expect(mail).toHaveValue('daily');
+  await mail.selectOption('immediate');
+  await expect(page.getByText('E-mail: at once, for each new item.')).toBeVisible();
+  await page.reload();
+  await expect(page.getByLabel('E-mail me about these')).toHaveValue('immediate');
+  expect(await seriousA11yViolations(page)).toEqual([]);
+  await page.getByLabel('E-mail me about these').selectOption('daily');
+  await expect(page.getByText('E-mail: a daily summary.')).toBeVisible();
 });

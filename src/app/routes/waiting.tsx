@@ -1,5 +1,6 @@
 import { PageHeader } from '../../components/ui/page-header';
 import { WaitingList } from '../../features/waiting/components/waiting-list';
+import { WaitingMailChoice } from '../../features/waiting/components/waiting-mail';
 
 export function WaitingRoute() {
   return (
@@ -8,7 +9,10 @@ export function WaitingRoute() {
         title="Waiting on you"
         description="What needs you now, oldest first. Each opens the place to act on it."
       />
-      <WaitingList />
+      <div className="space-y-4">
+        <WaitingList />
+        <WaitingMailChoice />
+      </div>
     </>
   );
 }

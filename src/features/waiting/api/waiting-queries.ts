@@ -1,5 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { WaitingListDto } from '../../../../shared/schemas/waiting';
+import type { WaitingListDto, WaitingMailMode } from '../../../../shared/schemas/waiting';
 import { api } from '../../../lib/api-client';
 
 export const waitingQueries = {
@@ -16,3 +16,14 @@ export const waitingQueries = {
 
 export const markWaitingRead = (keys: string[]) =>
   api<{ marked: number }>('/waiting/read', { method: 'POST', json: { keys } });
+
+export const waitingMailQueries = {
+  mode: () =>
+    queryOptions({
+      queryKey: ['waiting', 'email'],
+      queryFn: () => api<{ mode: WaitingMailMode }>('/waiting/email'),
+    }),
+};
+
+export const setWaitingMail = (mode: WaitingMailMode) =>
+  api<{ mode: WaitingMailMode }>('/waiting/email', { method: 'PUT', json: { mode } });
