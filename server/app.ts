@@ -31,6 +31,7 @@ import { mailboxRouter } from './modules/mailbox/mailbox.router';
 import { organizationRouter } from './modules/organizations/organizations.router';
 import { savedViewsRouter } from './modules/saved-views/saved-views.router';
 import { waitingRouter } from './modules/waiting/waiting.router';
+import { ageingRouter } from './modules/ageing/ageing.router';
 import { reviewRouter } from './modules/review/review.router';
 import { policiesRouter } from './modules/policies/policies.router';
 import { productsRouter } from './modules/products/products.router';
@@ -142,6 +143,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/organization', organizationRouter(ctx));
   api.use('/saved-views', savedViewsRouter(ctx));
   api.use('/waiting', waitingRouter(ctx));
+  api.use('/ageing', ageingRouter(ctx));
   if (config.mode === 'demo') api.use('/mailbox', mailboxRouter(ctx));
   opts.mountApi?.(api, ctx);
   api.use((req, _res, next) =>

@@ -34,6 +34,7 @@ export type SubjectName =
   | 'Reserve'
   | 'SavedView'
   | 'Waiting'
+  | 'Ageing'
   | 'all';
 
 export type AbilityUser = {
@@ -71,6 +72,8 @@ export function defineAbilityFor(user: AbilityUser | null, opts: { demoMode?: bo
     can('read', 'AuditEvent', { organizationId: orgId });
     if (opts.demoMode) can('read', 'Mailbox');
     if (kind === 'manufacturer') {
+      // The ageing of their open claims, and the target days per stage it is judged against.
+      can(['read', 'update'], 'Ageing', { manufacturerId: orgId });
       can(['create', 'update'], 'ProductModel', { manufacturerId: orgId });
       can(['create', 'update'], 'WarrantyPolicy', { manufacturerId: orgId });
     }

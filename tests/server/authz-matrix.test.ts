@@ -380,6 +380,10 @@ const ROUTES: Record<string, Entry> = {
     target: (w) => ({ token: unsubscribeToken(t.config.sessionSecret, w.users.installer.id) }),
   },
 
+  'GET /api/ageing': { ok: { mAdmin: 200 }, denied: 403 },
+  'GET /api/ageing/export': { ok: { mAdmin: 200 }, denied: 403 },
+  'PUT /api/ageing/targets': { ok: { mAdmin: 200 }, denied: 403, body: () => ({ targets: { filed: 3 } }) },
+
   'POST /api/evaluations': { ok: members(SIGNED_IN, 200), body: () => validClaim },
 
   'GET /api/products': { ok: members(SIGNED_IN, 200) },

@@ -1,6 +1,7 @@
 import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
 import { CreatedAtColumn } from './columns';
 import type { OrganizationKind } from '../../../shared/roles';
+import type { StageTargets } from '../../../shared/schemas/ageing';
 
 @Entity({ name: 'organizations' })
 export class Organization {
@@ -21,6 +22,10 @@ export class Organization {
   /** BCP 47 locale for what the server writes to its people (PDFs, e-mails); screens use the reader's own. */
   @Column({ type: 'varchar', length: 35, default: 'en-US' })
   locale: string;
+
+  /** Days a claim may wait in each stage before the ageing page flags it (shared/schemas/ageing.ts). */
+  @Column({ name: 'stage_targets', type: 'json', nullable: true })
+  stageTargets: StageTargets | null;
 
   @CreatedAtColumn()
   createdAt: Date;

@@ -17,6 +17,7 @@ import { OrganizationTimeZone1796285108743 } from './1796285108743-OrganizationT
 import { SavedViews1796288682971 } from './1796288682971-SavedViews';
 import { WaitingReads1796289213143 } from './1796289213143-WaitingReads';
 import { WaitingMailSettings1796289583379 } from './1796289583379-WaitingMailSettings';
+import { StageTargets1796289851958 } from './1796289851958-StageTargets';
 
 export const migrations = [
   Foundation1796165467051,
@@ -37,4 +38,5 @@ export const migrations = [
   SavedViews1796288682971,
   WaitingReads1796289213143,
   WaitingMailSettings1796289583379,
+  StageTargets1796289851958,
 ];
