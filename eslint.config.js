@@ -38,6 +38,12 @@ export default tseslint.config(
               message: 'Features do not import each other; compose them in app/routes.',
             },
             {
+              target: './src/features/ageing',
+              from: './src/features',
+              except: ['./ageing'],
+              message: 'Features do not import each other; compose them in app/routes.',
+            },
+            {
               target: './src/features/waiting',
               from: './src/features',
               except: ['./waiting'],

@@ -107,6 +107,10 @@ export const router = createBrowserRouter([
         path: 'waiting',
         lazy: () => import('./routes/waiting').then((m) => ({ Component: m.WaitingRoute })),
       },
+      {
+        path: 'ageing',
+        lazy: () => import('./routes/ageing').then((m) => ({ Component: m.AgeingRoute })),
+      },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
     ],
   },

@@ -3,6 +3,7 @@ import {
   ClipboardCheck,
   ClipboardList,
   Home,
+  Hourglass,
   Inbox,
   Landmark,
   Lightbulb,
@@ -28,6 +29,7 @@ export function navFor(ability: AppAbility): NavItem[] {
   if (ability.can('read', 'Analytics'))
     items.push({ to: '/analytics', label: 'Failure analysis', icon: Activity });
   if (ability.can('read', 'Reserve')) items.push({ to: '/reserve', label: 'Reserve', icon: Landmark });
+  if (ability.can('read', 'Ageing')) items.push({ to: '/ageing', label: 'Ageing', icon: Hourglass });
   if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });
   if (ability.can('read', 'Mailbox')) items.push({ to: '/admin/mailbox', label: 'Mailbox', icon: Inbox });
   return items;

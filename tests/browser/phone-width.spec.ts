@@ -56,6 +56,7 @@ const ROUTES: Record<keyof typeof ACCOUNTS, string[]> = {
     '/analytics',
     '/reserve',
     '/installations',
+    '/ageing',
   ],
 };
 
