@@ -48,6 +48,7 @@ describe('navigation by role', () => {
       'Sites',
       'Failure analysis',
       'Reserve',
+      'Ageing',
       'People',
     ]);
   });

@@ -43,7 +43,6 @@ export function approvedAmountOf(claim: Pick<Claim, 'expectedCredit' | 'currency
   return { amount: normalizeAmount(amount), currency: claim.currency };
 }
 
-
 type Parties = { manufacturer: Organization; contractor: Organization; product: ProductModel };
 
 async function partiesOf(m: EntityManager, claim: Claim): Promise<Parties> {
