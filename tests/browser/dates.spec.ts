@@ -22,7 +22,10 @@ test.describe('dates and times', () => {
     // Put the demo back for the other specs.
     await page.getByLabel('Time zone').selectOption('America/Los_Angeles');
     await page.getByRole('button', { name: 'Save' }).click();
-    await expect(page.getByText('Time zone and language saved.').first()).toBeVisible();
+    await expect(page.getByLabel('Time zone')).toHaveValue('America/Los_Angeles');
+    await expect(page.getByRole('button', { name: 'Save' })).toBeDisabled(); // saved: nothing left to change
+    await page.reload();
+    await expect(page.getByLabel('Time zone')).toHaveValue('America/Los_Angeles');
   });
 
   test("a claim's page shows its dates one way, in the organisation's zone, exact on hover", async ({
@@ -39,6 +42,8 @@ test.describe('dates and times', () => {
       .locator('dd', { has: page.locator('time') })
       .filter({ hasText: '·' })
       .first();
+    // The page loads the claim after the route: wait for both dates before reading them.
+    await expect(row.locator('time').nth(1)).toBeVisible();
     const [failed, filed] = await row.locator('time').all();
     // The failure date is a calendar date: the very day stored, in the browser's locale (en-US, CLDR "MMM d, y").
     await expect(failed).toHaveAttribute('datetime', claim.failedOn!);
