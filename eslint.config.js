@@ -38,6 +38,18 @@ export default tseslint.config(
               message: 'Features do not import each other; compose them in app/routes.',
             },
             {
+              target: './src/features/ageing',
+              from: './src/features',
+              except: ['./ageing'],
+              message: 'Features do not import each other; compose them in app/routes.',
+            },
+            {
+              target: './src/features/waiting',
+              from: './src/features',
+              except: ['./waiting'],
+              message: 'Features do not import each other; compose them in app/routes.',
+            },
+            {
               target: './src/features/mailbox',
               from: './src/features',
               except: ['./mailbox'],

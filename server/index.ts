@@ -11,6 +11,7 @@ import { createStorage } from './lib/storage';
 import { startStorageSweeper } from './lib/storage-sweep';
 import { startIdempotencyKeyPurge } from './lib/idempotency';
 import { startClaimCountsCompaction } from './lib/claim-counts';
+import { startWaitingMail } from './modules/waiting/waiting-mail';
 
 export async function startServer(config: AppConfig, databaseUrl: string) {
   const logger = createLogger(config.logLevel);
@@ -36,6 +37,16 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
   const keyPurge = startIdempotencyKeyPurge(ds, logger);
   // The claim counts' appended rows folded into one per organisation and stage, every minute.
   const counts = startClaimCountsCompaction(ds, logger);
+  // "What waits on me" by e-mail: at once or a daily summary, as each person chose.
+  const waitingMail = startWaitingMail(
+    ds,
+    {
+      secret: config.sessionSecret,
+      publicUrl: (p: string) =>
+        new URL(p, config.publicUrl ?? `http://${config.host}:${config.port}`).toString(),
+    },
+    logger,
+  );
 
   const server: Server = await new Promise((resolve, reject) => {
     // Express 5 passes the listen error (EADDRINUSE and the like) to the callback.
@@ -55,6 +66,7 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
       await webhooks?.stop();
       await sweeper.stop();
       keyPurge.stop();
+      waitingMail.stop();
       await counts.stop();
       await app.close();
       await ds.destroy();

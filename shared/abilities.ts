@@ -35,6 +35,9 @@ export type SubjectName =
   | 'Reserve'
   | 'ApiToken'
   | 'Webhook'
+  | 'SavedView'
+  | 'Waiting'
+  | 'Ageing'
   | 'all';
 
 export type AbilityUser = {
@@ -63,8 +66,12 @@ export function defineAbilityFor(
   can('create', 'Evaluation');
   can('read', 'ProductModel');
   can('read', 'WarrantyPolicy');
+  // What waits on them: their own list, and marking its items read.
+  can(['read', 'update'], 'Waiting');
 
   if (has('administrator')) {
+    // Their organisation's settings (the time zone and locale its dates are shown in).
+    can('update', 'Organization', { id: orgId });
     can('read', 'User', { organizationId: orgId });
     can(['invite', 'update', 'disable'], 'User', { organizationId: orgId });
     cannot(['disable'], 'User', { id: user.id }); // an administrator cannot lock themself out
@@ -80,6 +87,8 @@ export function defineAbilityFor(
     if (kind === 'manufacturer') {
       // Its settings: the amount above which a credit needs a second accountant.
       can('update', 'Organization', { id: orgId });
+      // The ageing of their open claims, and the target days per stage it is judged against.
+      can(['read', 'update'], 'Ageing', { manufacturerId: orgId });
       can(['create', 'update'], 'ProductModel', { manufacturerId: orgId });
       can(['create', 'update'], 'WarrantyPolicy', { manufacturerId: orgId });
     }
@@ -99,6 +108,8 @@ export function defineAbilityFor(
     can('read', 'Installation', { manufacturerId: orgId });
     can('read', 'Claim', { manufacturerId: orgId, stage: { $ne: 'draft' } });
     if (has('reviewer')) can(['review', 'decide'], 'Claim', { manufacturerId: orgId });
+    // The review desk's saved filters: each reviewer's own.
+    if (has('reviewer')) can(['read', 'create', 'delete'], 'SavedView', { userId: user.id });
     // Failure analysis is the reviewers' (and their administrator's); the reserve is the accountants'. Both read
     // only their own manufacturer's record: the server scopes every query to manufacturerId.
     if (has('reviewer') || has('administrator')) can('read', 'Analytics', { manufacturerId: orgId });

@@ -57,7 +57,8 @@ type Loaded = { id: string; user: User | null };
  */
 const SESSION_SQL = `SELECT s.data, s.expires, u.id AS u_id, u.organization_id, u.email, u.name, u.roles, u.status,
        u.last_sign_in_at, u.created_at, u.updated_at, u.version, u.totp_confirmed_at, o.name AS o_name,
-       o.kind AS o_kind, o.require_second_factor AS o_require_second_factor, o.created_at AS o_created_at
+       o.kind AS o_kind, o.require_second_factor AS o_require_second_factor, o.time_zone AS o_time_zone,
+       o.locale AS o_locale, o.created_at AS o_created_at
   FROM sessions s
   LEFT JOIN users u ON u.id = JSON_VALUE(s.data, '$.passport.user')
   LEFT JOIN organizations o ON o.id = u.organization_id
@@ -80,6 +81,8 @@ type SessionRow = {
   o_name: string;
   o_kind: Organization['kind'];
   o_require_second_factor: number;
+  o_time_zone: string;
+  o_locale: string;
   o_created_at: Date;
 };
 
@@ -89,6 +92,8 @@ function userOf(r: SessionRow): User {
     name: r.o_name,
     kind: r.o_kind,
     requireSecondFactor: Boolean(r.o_require_second_factor),
+    timeZone: r.o_time_zone,
+    locale: r.o_locale,
     createdAt: r.o_created_at,
   });
   return Object.assign(new User(), {

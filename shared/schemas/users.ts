@@ -55,5 +55,13 @@ export type MeDto = {
   email: string;
   name: string;
   roles: (typeof ROLES)[number][];
-  organization: { id: string; name: string; kind: 'manufacturer' | 'contractor' };
+  organization: {
+    id: string;
+    name: string;
+    kind: 'manufacturer' | 'contractor';
+    /** IANA zone every time is shown in (shared/dates.ts). */
+    timeZone: string;
+    /** Locale of the PDFs and e-mails the organisation receives. */
+    locale: string;
+  };
 };

@@ -130,6 +130,14 @@ export const router = createBrowserRouter([
         path: 'credits',
         lazy: () => import('./routes/credits').then((m) => ({ Component: m.CreditsRoute })),
       },
+      {
+        path: 'waiting',
+        lazy: () => import('./routes/waiting').then((m) => ({ Component: m.WaitingRoute })),
+      },
+      {
+        path: 'ageing',
+        lazy: () => import('./routes/ageing').then((m) => ({ Component: m.AgeingRoute })),
+      },
       { path: '*', lazy: () => import('./routes/not-found').then((m) => ({ Component: m.NotFoundRoute })) },
     ],
   },

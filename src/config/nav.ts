@@ -3,6 +3,7 @@ import {
   ClipboardCheck,
   ClipboardList,
   Home,
+  Hourglass,
   Inbox,
   Landmark,
   Lightbulb,
@@ -30,6 +31,7 @@ export function navFor(ability: AppAbility): NavItem[] {
   if (ability.can('read', 'Analytics'))
     items.push({ to: '/analytics', label: 'Failure analysis', icon: Activity });
   if (ability.can('read', 'Reserve')) items.push({ to: '/reserve', label: 'Reserve', icon: Landmark });
+  if (ability.can('read', 'Ageing')) items.push({ to: '/ageing', label: 'Ageing', icon: Hourglass });
   if (ability.can('invite', 'User')) items.push({ to: '/admin/users', label: 'People', icon: Users });
   if (ability.can('read', 'AuditEvent'))
     items.push({ to: '/admin/security-events', label: 'Security events', icon: ShieldAlert });

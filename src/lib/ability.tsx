@@ -8,6 +8,9 @@ const SessionContext = createContext<SessionDto | null>(null);
 
 export const useAbility = () => useContext(AbilityContext);
 
+/** The session on a signed-in screen, null elsewhere (the sign-in and invitation pages). */
+export const useOptionalSession = () => useContext(SessionContext);
+
 export function useSession(): SessionDto {
   const s = useContext(SessionContext);
   if (!s) throw new Error('useSession outside a signed-in screen');

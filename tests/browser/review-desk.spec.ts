@@ -12,6 +12,8 @@ test('a reviewer narrows the queue by product and by contractor, then hands a cl
   const rows = page.getByRole('list', { name: 'Claims' }).getByRole('link');
   await expect(rows.first()).toBeVisible();
 
+  // The filters fold behind one button; open them.
+  await page.getByRole('button', { name: 'Filters' }).click();
   // The product of the first claim on the desk: its model number leads its option's label.
   const firstText = (await rows.first().textContent()) ?? '';
   const product = page.getByLabel('Product');

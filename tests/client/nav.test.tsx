@@ -50,6 +50,7 @@ describe('navigation by role', () => {
       'Sites',
       'Failure analysis',
       'Reserve',
+      'Ageing',
       'People',
       'Security events',
       'Integrations',

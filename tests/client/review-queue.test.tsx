@@ -42,7 +42,7 @@ const asked: URL[] = [];
 const looked: URL[] = [];
 const json = (body: unknown) =>
   new Response(JSON.stringify(body), { status: 200, headers: { 'Content-Type': 'application/json' } });
-let lists: Record<string, () => Response>;
+let lists: Record<string, (init?: RequestInit) => Response>;
 const page = (items: QueueItemDto[]) =>
   new Response(JSON.stringify({ items, total: items.length, page: 1, pageSize: 25 }), {
     status: 200,
@@ -72,15 +72,16 @@ beforeEach(() => {
         ],
         more: false,
       }),
+    '/api/saved-views': () => json({ items: [] }),
   };
   vi.stubGlobal(
     'fetch',
-    vi.fn(async (input: string) => {
+    vi.fn(async (input: string, init?: RequestInit) => {
       const url = new URL(input, 'http://lumenproof.test');
       const list = lists[url.pathname];
       if (list) {
         looked.push(url);
-        return list();
+        return list(init);
       }
       asked.push(url);
       return answer(url);
@@ -108,6 +109,9 @@ function renderQueue() {
 }
 
 const lastQuery = () => asked.at(-1)!.searchParams;
+/** The filters fold behind one button in the desk's top row. */
+const openFilters = (user: ReturnType<typeof userEvent.setup>) =>
+  user.click(screen.getByRole('button', { name: /^(Filters|\d+ filters?)$/ }));
 
 describe('the review queue', () => {
   it('asks for the open stages, oldest in its stage first; each filter changes the query', async () => {
@@ -121,6 +125,7 @@ describe('the review queue', () => {
       sort: 'stageChangedAt',
     });
 
+    await openFilters(user);
     await user.selectOptions(screen.getByLabelText('Engine verdict'), 'excluded');
     await waitFor(() => expect(lastQuery().get('verdict')).toBe('excluded'));
     await user.selectOptions(screen.getByLabelText('Stage'), 'needs_info');
@@ -166,6 +171,7 @@ describe('the review queue', () => {
     });
     expect(looked.some((u) => u.pathname === '/api/review/contractors')).toBe(true);
 
+    await openFilters(user);
     const product = screen.getByLabelText('Product');
     await screen.findByRole('option', { name: 'TW-HB150 · High-bay 150 W' });
     await user.selectOptions(product, 'TW-HB150 · High-bay 150 W');
@@ -268,5 +274,72 @@ describe('the review queue', () => {
     expect(
       await screen.findByText('The queue could not be loaded. Try again in a moment.'),
     ).toBeInTheDocument();
+  });
+});
+
+describe('the folded filters and saved views', () => {
+  it('shows one row with a count of the active filters, and the list right under it', async () => {
+    const user = userEvent.setup();
+    renderQueue();
+    await screen.findByRole('list', { name: 'Claims' });
+    const toggle = screen.getByRole('button', { name: 'Filters' });
+    expect(toggle).toHaveAttribute('aria-expanded', 'false');
+    expect(screen.getByLabelText('Engine verdict')).not.toBeVisible(); // folded away
+    await user.click(toggle);
+    await user.selectOptions(screen.getByLabelText('Engine verdict'), 'excluded');
+    await user.selectOptions(screen.getByLabelText('Assigned'), 'me');
+    await user.type(screen.getByLabelText('Amount at least'), '50');
+    expect(await screen.findByRole('button', { name: '3 filters' })).toHaveAttribute('aria-expanded', 'true');
+    await user.selectOptions(screen.getByLabelText('Engine verdict'), '');
+    expect(await screen.findByRole('button', { name: '2 filters' })).toBeInTheDocument();
+  });
+
+  it('saves the filters as a named view and applies a saved view with one pick', async () => {
+    const views: { id: string; name: string; filters: Record<string, unknown>; createdAt: string }[] = [];
+    const sent: unknown[] = [];
+    lists['/api/saved-views'] = (init) => {
+      if (init?.method === 'POST') {
+        const body = JSON.parse(String(init.body));
+        sent.push(body);
+        const view = {
+          id: '00000000-0000-4000-8000-0000000000e1',
+          createdAt: '2026-12-01T00:00:00Z',
+          ...body,
+        };
+        views.push(view);
+        return new Response(JSON.stringify({ view }), {
+          status: 201,
+          headers: { 'Content-Type': 'application/json' },
+        });
+      }
+      return json({ items: views });
+    };
+    const user = userEvent.setup();
+    renderQueue();
+    await screen.findByRole('list', { name: 'Claims' });
+    await openFilters(user);
+    await user.selectOptions(screen.getByLabelText('Assigned'), 'me');
+    await user.type(screen.getByLabelText('Amount at least'), '40');
+    await user.type(screen.getByLabelText('Save these filters as a view'), 'My open, oldest first');
+    await user.click(screen.getByRole('button', { name: 'Save view' }));
+    await waitFor(() => expect(sent).toHaveLength(1));
+    expect(sent[0]).toEqual({
+      name: 'My open, oldest first',
+      filters: {
+        stage: 'filed,in_review,unit_received,return_requested,needs_info',
+        sort: 'stageChangedAt',
+        assignee: 'me',
+        minAmount: '40',
+      },
+    });
+    // Back to every open claim, then the saved view again: its filters come back, the typed ones too.
+    await user.selectOptions(await screen.findByLabelText('Saved view'), 'Every open claim');
+    await waitFor(() => expect(lastQuery().has('assignee')).toBe(false));
+    expect(screen.getByLabelText('Amount at least')).toHaveValue('');
+    await user.selectOptions(screen.getByLabelText('Saved view'), 'My open, oldest first');
+    await waitFor(() => expect(lastQuery().get('assignee')).toBe('me'));
+    expect(lastQuery().get('minAmount')).toBe('40');
+    expect(screen.getByLabelText('Amount at least')).toHaveValue('40');
+    expect(screen.getByRole('button', { name: '2 filters' })).toBeInTheDocument();
   });
 });

@@ -207,7 +207,7 @@ describe('the demo accounts', () => {
       expect(me.body.user).toMatchObject({
         email: account.email,
         roles: account.roles,
-        organization: { name: org.name, kind: org.kind },
+        organization: { name: org.name, kind: org.kind, timeZone: org.timeZone, locale: org.locale },
       });
     }
   }, 120_000); // loading the whole demo (its letters and memos too) on a busy machine

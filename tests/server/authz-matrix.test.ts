@@ -14,6 +14,7 @@ import type { User } from '../../server/db/entities/user.entity';
 import type { WarrantyPolicy } from '../../server/db/entities/warranty-policy.entity';
 import type { WarrantyPolicyVersion } from '../../server/db/entities/warranty-policy-version.entity';
 import { listRoutes } from '../../server/lib/routes';
+import { unsubscribeToken } from '../../server/modules/waiting/waiting-mail';
 import {
   createPolicy,
   createProduct,
@@ -27,6 +28,7 @@ import { createApprovedClaim } from '../support/credit-factories';
 import { createClaimAt, createReviewWorld, type ReviewWorld } from '../support/review-factories';
 import { pngImage } from '../support/upload-fixtures';
 import { Claim } from '../../server/db/entities/claim.entity';
+import { SavedView } from '../../server/db/entities/saved-view.entity';
 import type { Stage } from '../../shared/claims/stages';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
@@ -217,6 +219,13 @@ async function newWebhook(w: World, a: Actor) {
     }),
   );
   return { id: endpoint.id, deliveryId: delivery.id };
+}
+
+async function newSavedView(w: World) {
+  const view = await t.ds
+    .getRepository(SavedView)
+    .save({ userId: w.users.reviewer.id, name: `View ${unique()}`, filters: { assignee: 'me' as const } });
+  return view.id;
 }
 
 async function newDraft(w: World) {
@@ -519,6 +528,43 @@ const ROUTES: Record<string, Entry> = {
     denied: 404,
     target: (w, a) => newWebhook(w, a),
   },
+
+  // The signed-in person's own organisation: no id, so nothing foreign to reach.
+  'GET /api/organization': { ok: members(SIGNED_IN, 200) },
+  'PATCH /api/organization': {
+    ok: members(['cAdmin', 'mAdmin'], 200),
+    denied: 403,
+    body: () => ({ timeZone: 'America/Chicago' }),
+  },
+
+  // Each reviewer's own saved review-desk views; anyone else's view is hidden like a missing one.
+  'GET /api/saved-views': { ok: { reviewer: 200 }, denied: 403 },
+  'POST /api/saved-views': {
+    ok: { reviewer: 201 },
+    denied: 403,
+    body: () => ({ name: `View ${unique()}`, filters: { assignee: 'me', sort: 'stageChangedAt' } }),
+  },
+  'DELETE /api/saved-views/:id': {
+    ok: { reviewer: 204 },
+    denied: 404,
+    target: async (w) => ({ id: await newSavedView(w) }),
+  },
+
+  // What waits on the signed-in person: their own list, no record ids.
+  'GET /api/waiting': { ok: members(SIGNED_IN, 200) },
+  'POST /api/waiting/read': { ok: members(SIGNED_IN, 200), body: () => ({ keys: ['memo_due:none:0'] }) },
+  'GET /api/waiting/email': { ok: members(SIGNED_IN, 200) },
+  'PUT /api/waiting/email': { ok: members(SIGNED_IN, 200), body: () => ({ mode: 'daily' }) },
+  // The e-mail's unsubscribe link: the signed token is the credential, no sign-in; nothing to be foreign to.
+  'GET /api/waiting/unsubscribe/:token': {
+    ok: everyone(200),
+    foreign: 'none',
+    target: (w) => ({ token: unsubscribeToken(t.config.sessionSecret, w.users.installer.id) }),
+  },
+
+  'GET /api/ageing': { ok: { mAdmin: 200 }, denied: 403 },
+  'GET /api/ageing/export': { ok: { mAdmin: 200 }, denied: 403 },
+  'PUT /api/ageing/targets': { ok: { mAdmin: 200 }, denied: 403, body: () => ({ targets: { filed: 3 } }) },
 
   'POST /api/evaluations': { ok: members(SIGNED_IN, 200), body: () => validClaim },
 

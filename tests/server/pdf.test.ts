@@ -146,6 +146,20 @@ describe('determination letter', () => {
   });
 });
 
+describe("dates in the recipient's locale", () => {
+  it('prints the same calendar day, written the way the recipient reads it', async () => {
+    const us = await textOf(await renderDeterminationLetter(sampleApprovalLetter));
+    const gb = await textOf(await renderDeterminationLetter({ ...sampleApprovalLetter, locale: 'en-GB' }));
+    // CLDR long date patterns: en "MMMM d, y", en-GB "d MMMM y"
+    expect(us).toContain('June 12, 2025');
+    expect(gb).toContain('12 June 2025');
+    expect(gb).not.toContain('June 12, 2025');
+    const slip = await textOf(await renderPackingSlip({ ...samplePackingSlip, locale: 'fr-CA' }));
+    expect(samplePackingSlip.issuedOn).toBe('2025-06-03');
+    expect(slip).toContain('3 juin 2025'); // CLDR fr long "d MMMM y"
+  });
+});
+
 describe('the same input gives the same bytes', () => {
   it('for each document, rendered twice', async () => {
     const renders: [string, () => Promise<Buffer>][] = [
@@ -253,7 +267,8 @@ describe('credit memo', () => {
     expect(text).toContain('VOID / reversal');
     expect(text).toContain('Credit memo reversal');
     expect(text).toContain(sampleCreditReversal.memoNumber);
-    expect(text).toContain('This memo voids credit memo CM-2025-00031 of 16 June 2025');
+    // The recipient's locale, en-US by default: CLDR en long date "MMMM d, y"
+    expect(text).toContain('This memo voids credit memo CM-2025-00031 of June 16, 2025');
     expect(text).toContain('-$256.01 USD');
     expect(text).toContain(sampleCreditReversal.reversal!.reason);
     expect(text).not.toContain('This memo settles');

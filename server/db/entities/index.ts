@@ -29,6 +29,9 @@ import { ReturnAuthorization } from './return-authorization.entity';
 import { SignInChallenge } from './sign-in-challenge.entity';
 import { User } from './user.entity';
 import { WebhookDelivery, WebhookEndpoint } from './webhook.entity';
+import { SavedView } from './saved-view.entity';
+import { WaitingMailSetting } from './waiting-mail-setting.entity';
+import { WaitingRead } from './waiting-read.entity';
 import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 import { WarrantyPolicy } from './warranty-policy.entity';
 
@@ -60,6 +63,9 @@ export const entities = [
   PasswordResetRequest,
   AccountingMap,
   CreditApproval,
+  SavedView,
+  WaitingRead,
+  WaitingMailSetting,
   LedgerEntry,
   MemoSequence,
   MemoPrefix,

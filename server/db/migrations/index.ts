@@ -16,10 +16,15 @@ import { ClaimCounts1796188776668 } from './1796188776668-ClaimCounts';
 import { LoginLimits1796284670230 } from './1796284670230-LoginLimits';
 import { SecondFactorAndSessions1796284709610 } from './1796284709610-SecondFactorAndSessions';
 import { PasswordResets1796285107025 } from './1796285107025-PasswordResets';
+import { OrganizationTimeZone1796285108743 } from './1796285108743-OrganizationTimeZone';
 import { AccountingMaps1796285144565 } from './1796285144565-AccountingMaps';
 import { ApiTokens1796285274213 } from './1796285274213-ApiTokens';
 import { Webhooks1796285903802 } from './1796285903802-Webhooks';
 import { CreditSecondApproval1796287825007 } from './1796287825007-CreditSecondApproval';
+import { SavedViews1796288682971 } from './1796288682971-SavedViews';
+import { WaitingReads1796289213143 } from './1796289213143-WaitingReads';
+import { WaitingMailSettings1796289583379 } from './1796289583379-WaitingMailSettings';
+import { StageTargets1796289851958 } from './1796289851958-StageTargets';
 
 export const migrations = [
   Foundation1796165467051,
@@ -39,8 +44,13 @@ export const migrations = [
   LoginLimits1796284670230,
   SecondFactorAndSessions1796284709610,
   PasswordResets1796285107025,
+  OrganizationTimeZone1796285108743,
   AccountingMaps1796285144565,
   ApiTokens1796285274213,
   Webhooks1796285903802,
   CreditSecondApproval1796287825007,
+  SavedViews1796288682971,
+  WaitingReads1796289213143,
+  WaitingMailSettings1796289583379,
+  StageTargets1796289851958,
 ];

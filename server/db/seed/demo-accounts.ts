@@ -3,11 +3,42 @@ import type { OrganizationKind, Role } from '../../../shared/roles';
 // The fictional scenario's organisations and people (API.md). Every account's password is DEMO_PASSWORD.
 export const DEMO_PASSWORD = 'lumenproof-demo';
 
-export const DEMO_ORGANIZATIONS: { key: string; name: string; kind: OrganizationKind }[] = [
-  { key: 'harborview', name: 'Harborview Electric', kind: 'contractor' },
-  { key: 'copperline', name: 'Copperline Electrical', kind: 'contractor' },
-  { key: 'aldercrest', name: 'Aldercrest Lighting', kind: 'manufacturer' },
-  { key: 'veltra', name: 'Veltra Luminaires', kind: 'manufacturer' },
+// Each in its own zone, so the demo shows times moved into the reader's organisation's zone (shared/dates.ts).
+export const DEMO_ORGANIZATIONS: {
+  key: string;
+  name: string;
+  kind: OrganizationKind;
+  timeZone: string;
+  locale: string;
+}[] = [
+  {
+    key: 'harborview',
+    name: 'Harborview Electric',
+    kind: 'contractor',
+    timeZone: 'America/Los_Angeles',
+    locale: 'en-US',
+  },
+  {
+    key: 'copperline',
+    name: 'Copperline Electrical',
+    kind: 'contractor',
+    timeZone: 'America/Boise',
+    locale: 'en-US',
+  },
+  {
+    key: 'aldercrest',
+    name: 'Aldercrest Lighting',
+    kind: 'manufacturer',
+    timeZone: 'America/Chicago',
+    locale: 'en-US',
+  },
+  {
+    key: 'veltra',
+    name: 'Veltra Luminaires',
+    kind: 'manufacturer',
+    timeZone: 'America/Toronto',
+    locale: 'en-CA',
+  },
 ];
 
 export const DEMO_ACCOUNTS: { email: string; name: string; roles: Role[]; org: string }[] = [

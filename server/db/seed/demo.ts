@@ -37,7 +37,12 @@ export async function seedDemo(
   await ds.transaction(async (m) => {
     const orgs = new Map<string, Organization>();
     for (const o of DEMO_ORGANIZATIONS) {
-      const org = m.create(Organization, { name: o.name, kind: o.kind });
+      const org = m.create(Organization, {
+        name: o.name,
+        kind: o.kind,
+        timeZone: o.timeZone,
+        locale: o.locale,
+      });
       await m.save(org);
       orgs.set(o.key, org);
     }

@@ -29,6 +29,8 @@ export type CreditMemoData = {
   /** Present on a reversal: the memo it voids, and why. */
   reversal?: { originalMemoNumber: string; originalDate: string; reason: string };
   paper?: PaperSize;
+  /** The recipient's locale (their organisation's): how dates read. Default en-US. */
+  locale?: string;
 };
 
 const SECTIONS = ['void_notice', 'parties', 'lines', 'settles'] as const;
@@ -60,7 +62,7 @@ export function renderCreditMemo(data: CreditMemoData): Promise<Buffer> {
     contractor: data.contractor.name,
     claimNumber: data.claimNumber,
     originalMemoNumber: reversal?.originalMemoNumber ?? '',
-    originalDate: reversal ? formatDate(reversal.originalDate) : '',
+    originalDate: reversal ? formatDate(reversal.originalDate, data.locale) : '',
   };
   const pdf = new PdfBuilder({
     date: data.memoDate,
@@ -75,7 +77,7 @@ export function renderCreditMemo(data: CreditMemoData): Promise<Buffer> {
   const totalCents = sign * toCents(memoTotal(data));
 
   if (reversal) pdf.stamp(L('voidStamp'));
-  pdf.title(title, `${L('memoNumber')} ${data.memoNumber} · ${formatDate(data.memoDate)}`);
+  pdf.title(title, `${L('memoNumber')} ${data.memoNumber} · ${formatDate(data.memoDate, data.locale)}`);
 
   for (const section of layout.sections(SECTIONS)) {
     switch (section.id) {
@@ -93,7 +95,7 @@ export function renderCreditMemo(data: CreditMemoData): Promise<Buffer> {
         ];
         const rows: [string, string][] = [
           [L('memoNumber'), data.memoNumber],
-          [L('memoDate'), formatDate(data.memoDate)],
+          [L('memoDate'), formatDate(data.memoDate, data.locale)],
           [L('issuer'), [data.manufacturer.name, ...(data.manufacturer.address ?? [])].join('\n')],
           [L('account'), [...account, ...(data.contractor.address ?? [])].join('\n')],
           [L('claimNumber'), data.claimNumber],
@@ -102,7 +104,7 @@ export function renderCreditMemo(data: CreditMemoData): Promise<Buffer> {
         if (reversal)
           rows.push([
             L('originalMemo'),
-            `${reversal.originalMemoNumber} (${formatDate(reversal.originalDate)})`,
+            `${reversal.originalMemoNumber} (${formatDate(reversal.originalDate, data.locale)})`,
           ]);
         pdf.fields(rows);
         break;

@@ -44,6 +44,8 @@ export type DeterminationLetterData = {
         decidedOn: string;
       };
   paper?: PaperSize;
+  /** The recipient's locale (their organisation's): how dates read. Default en-US. */
+  locale?: string;
 };
 
 const SECTIONS = [
@@ -66,7 +68,7 @@ export function renderDeterminationLetter(data: DeterminationLetterData): Promis
     claimNumber: data.claimNumber,
     manufacturer: data.manufacturer.name,
     contractor: data.contractor.name,
-    filedOn: formatDate(data.filedOn),
+    filedOn: formatDate(data.filedOn, data.locale),
     engineVersion: data.evaluation.engineVersion,
     verdict: layout.word('verdict', data.evaluation.verdict),
   };
@@ -85,7 +87,10 @@ export function renderDeterminationLetter(data: DeterminationLetterData): Promis
   for (const section of layout.sections(SECTIONS)) {
     switch (section.id) {
       case 'opening':
-        pdf.title(layout.title, `${L('claimNumber')} ${data.claimNumber} · ${formatDate(data.letterDate)}`);
+        pdf.title(
+          layout.title,
+          `${L('claimNumber')} ${data.claimNumber} · ${formatDate(data.letterDate, data.locale)}`,
+        );
         if (section.text) pdf.paragraph(layout.fill(section.text, view));
         break;
       case 'claim':
@@ -93,11 +98,11 @@ export function renderDeterminationLetter(data: DeterminationLetterData): Promis
         pdf.fields(
           [
             [L('claimNumber'), data.claimNumber],
-            [L('filedOn'), formatDate(data.filedOn)],
-            [L('failedOn'), data.failedOn ? formatDate(data.failedOn) : ''],
+            [L('filedOn'), formatDate(data.filedOn, data.locale)],
+            [L('failedOn'), data.failedOn ? formatDate(data.failedOn, data.locale) : ''],
             [L('contractor'), partyText(data.contractor)],
             [L('manufacturer'), partyText(data.manufacturer)],
-            [L('letterDate'), formatDate(data.letterDate)],
+            [L('letterDate'), formatDate(data.letterDate, data.locale)],
           ],
           3,
         );
@@ -108,7 +113,7 @@ export function renderDeterminationLetter(data: DeterminationLetterData): Promis
           [
             [L('model'), data.product.model],
             [L('productName'), data.product.name],
-            [L('installedOn'), data.installedOn ? formatDate(data.installedOn) : ''],
+            [L('installedOn'), data.installedOn ? formatDate(data.installedOn, data.locale) : ''],
             [L('site'), [data.site.name, ...(data.site.address ?? [])].join('\n')],
             [L('units'), String(data.units.count)],
             [L('serials'), (data.units.serials ?? []).join(', ')],
@@ -150,7 +155,10 @@ export function renderDeterminationLetter(data: DeterminationLetterData): Promis
             rows.push([L('approvedUnits'), `${decision.approvedUnits} of ${data.units.count}`]);
           }
         }
-        rows.push([L('reviewer'), decision.reviewer], [L('decidedOn'), formatDate(decision.decidedOn)]);
+        rows.push(
+          [L('reviewer'), decision.reviewer],
+          [L('decidedOn'), formatDate(decision.decidedOn, data.locale)],
+        );
         pdf.fields(rows, 3);
         if (decision.outcome === 'denied') {
           pdf.paragraph(L('reasons'), { bold: true });

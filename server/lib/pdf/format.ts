@@ -1,31 +1,17 @@
+import { DEFAULT_LOCALE, formatCalendarDate } from '../../../shared/dates';
 import { formatCents, MONEY_PATTERN, parseCents } from '../../../shared/engine/money';
 
-// Formatting for documents: no time zones and no locale surprises, so the same data prints the same everywhere.
-
-const MONTHS = [
-  'January',
-  'February',
-  'March',
-  'April',
-  'May',
-  'June',
-  'July',
-  'August',
-  'September',
-  'October',
-  'November',
-  'December',
-];
+// Formatting for documents: dates in the recipient's locale (the organisation's), calendar dates never moved by a
+// zone, so the same data and locale print the same everywhere.
 
 const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
 
-/** "2025-03-04" -> "4 March 2025". */
-export function formatDate(iso: string): string {
-  const m = ISO_DATE.exec(iso);
-  if (!m) throw new Error(`expected a date as YYYY-MM-DD, got "${iso}"`);
-  const month = Number(m[2]);
-  if (month < 1 || month > 12) throw new Error(`no month ${m[2]} in "${iso}"`);
-  return `${Number(m[3])} ${MONTHS[month - 1]} ${m[1]}`;
+/**
+ * A calendar date as the recipient reads it, through the one date rule (shared/dates.ts): "2025-03-04" is
+ * "March 4, 2025" in en-US and "4 March 2025" in en-GB, and never another day whatever the zone.
+ */
+export function formatDate(iso: string, locale: string = DEFAULT_LOCALE): string {
+  return formatCalendarDate(iso, { locale }, 'long');
 }
 
 /** Noon UTC of a calendar date: the document's own date as its PDF metadata timestamp. */

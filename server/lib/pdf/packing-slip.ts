@@ -18,6 +18,8 @@ export type PackingSlipData = {
   /** The reviewer's own instructions, from the return request. */
   instructions?: string;
   paper?: PaperSize;
+  /** The recipient's locale (their organisation's): how dates read. Default en-US. */
+  locale?: string;
 };
 
 const SECTIONS = ['opening', 'barcode', 'addresses', 'contents', 'packing', 'handling'] as const;
@@ -55,12 +57,15 @@ export async function renderPackingSlip(data: PackingSlipData): Promise<Buffer> 
   for (const section of layout.sections(SECTIONS)) {
     switch (section.id) {
       case 'opening':
-        pdf.title(layout.title, `${L('raNumber')} ${data.raNumber} · ${formatDate(data.issuedOn)}`);
+        pdf.title(
+          layout.title,
+          `${L('raNumber')} ${data.raNumber} · ${formatDate(data.issuedOn, data.locale)}`,
+        );
         pdf.fields(
           [
             [L('raNumber'), data.raNumber],
             [L('claimNumber'), data.claimNumber],
-            [L('issuedOn'), formatDate(data.issuedOn)],
+            [L('issuedOn'), formatDate(data.issuedOn, data.locale)],
           ],
           3,
         );

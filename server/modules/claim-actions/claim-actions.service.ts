@@ -1,3 +1,4 @@
+import { formatCalendarDate } from '../../../shared/dates';
 import crypto from 'node:crypto';
 import { In, IsNull, type EntityManager } from 'typeorm';
 import type { ActionPayload, ClaimActionName, ClaimView } from '../../../shared/claims/stages';
@@ -143,12 +144,17 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
       headline: string;
       intro?: string;
       quote?: string;
-      details?: { label: string; value: string }[];
+      /** A detail with `date` is a calendar date, written for the recipient's organisation (shared/dates.ts). */
+      details?: ({ label: string; value: string } | { label: string; date: string })[];
       nextStep?: string;
       attachments?: OutboxAttachment[];
     },
   ) {
     if (to.length === 0) return;
+    const recipientOrg = side === 'manufacturer' ? parties.manufacturer : parties.contractor;
+    const details = view.details?.map((d) =>
+      'date' in d ? { label: d.label, value: formatCalendarDate(d.date, recipientOrg, 'long') } : d,
+    );
     await enqueueEmail(m, {
       to: to.map((r) => r.email),
       template: 'claim-update',
@@ -162,6 +168,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
           : undefined,
         link: linkFor(claim, side),
         ...view,
+        ...(details ? { details } : {}),
       },
       attachments: view.attachments,
     });
@@ -339,7 +346,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             headline: `${parties.manufacturer.name} needs more information`,
             intro: `The reviewer asks:`,
             quote: p.message,
-            details: [{ label: 'Please answer by', value: msg.dueOn! }],
+            details: [{ label: 'Please answer by', date: msg.dueOn! }],
             nextStep:
               'Answer on the claim, with photos or documents if they help. The claim returns to review when you do.',
           });
@@ -430,7 +437,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
                   p.shipTo.country,
                 ].join(', '),
               },
-              { label: 'Ship by', value: ra.shipBy },
+              { label: 'Ship by', date: ra.shipBy },
             ],
             nextStep: 'Record the carrier and tracking number on the claim once the box is on its way.',
             attachments: [
@@ -467,7 +474,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             details: [
               { label: 'Carrier', value: p.carrier },
               { label: 'Tracking number', value: p.trackingNumber },
-              { label: 'Shipped', value: p.shippedOn },
+              { label: 'Shipped', date: p.shippedOn },
             ],
             nextStep: 'Mark the unit received when it arrives.',
           });
@@ -495,7 +502,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             headline: `${parties.manufacturer.name} received the returned unit`,
             details: [
               { label: 'Return number', value: ra.number },
-              { label: 'Received', value: p.receivedOn },
+              { label: 'Received', date: p.receivedOn },
             ],
             nextStep: 'The manufacturer tests the unit and then decides. Nothing is needed from you now.',
           });

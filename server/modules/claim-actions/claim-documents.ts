@@ -1,6 +1,7 @@
 import crypto from 'node:crypto';
 import type { EntityManager } from 'typeorm';
 import type { Address, DenialCode, Resolution } from '../../../shared/claims/actions.schema';
+import { calendarDayIn } from '../../../shared/dates';
 import type { Evaluation } from '../../../shared/engine/schema';
 import { ClaimDocument, type ClaimDocumentKind } from '../../db/entities/claim-document.entity';
 import type { Claim } from '../../db/entities/claim.entity';
@@ -35,8 +36,10 @@ export async function loadParties(m: EntityManager, claim: Claim): Promise<Claim
   return { contractor, manufacturer, product, installation };
 }
 
-const isoDay = (d: Date | string | null | undefined) =>
-  d ? (typeof d === 'string' ? d.slice(0, 10) : d.toISOString().slice(0, 10)) : undefined;
+/** The day an instant falls on where the recipient is (their organisation's zone): a letter decided at 01:00 UTC
+ *  is dated the evening before in Chicago. A calendar date (a string) is already a day. */
+const dayFor = (d: Date | string | null | undefined, to: Organization) =>
+  d ? (typeof d === 'string' ? d.slice(0, 10) : calendarDayIn(d, to.timeZone)) : undefined;
 
 async function store(
   m: EntityManager,
@@ -89,11 +92,11 @@ export async function createDeterminationLetter(
   decidedAt: Date,
 ): Promise<ClaimDocument> {
   const { contractor, manufacturer, product, installation } = parties;
-  const day = isoDay(decidedAt)!;
+  const day = dayFor(decidedAt, contractor)!;
   const bytes = await renderDeterminationLetter({
     claimNumber: claim.number ?? claim.id,
     letterDate: day,
-    filedOn: isoDay(claim.filedAt) ?? day,
+    filedOn: dayFor(claim.filedAt, contractor) ?? day,
     failedOn: claim.failedOn ?? undefined,
     contractor: { name: contractor.name },
     manufacturer: { name: manufacturer.name },
@@ -119,6 +122,7 @@ export async function createDeterminationLetter(
     },
     decision: { ...decision, reviewer, decidedOn: day },
     paper: paperFor({ currency: claim.currency ?? undefined }),
+    locale: contractor.locale,
   });
   return store(m, storage, claim, 'letter', `${claim.number ?? claim.id}-determination.pdf`, bytes);
 }
@@ -138,7 +142,7 @@ export async function createPackingSlip(
   const bytes = await renderPackingSlip({
     raNumber: ra.number,
     claimNumber: claim.number ?? claim.id,
-    issuedOn: isoDay(issuedAt)!,
+    issuedOn: dayFor(issuedAt, contractor)!,
     manufacturer: { name: manufacturer.name },
     contractor: {
       name: contractor.name,
@@ -153,6 +157,7 @@ export async function createPackingSlip(
     units,
     instructions: ra.instructions ?? undefined,
     paper: paperFor({ currency: claim.currency ?? undefined }),
+    locale: contractor.locale,
   });
   return store(m, storage, claim, 'packing_slip', `${ra.number}-packing-slip.pdf`, bytes);
 }

@@ -1,3 +1,4 @@
+import { formatCalendarDate } from '../../../shared/dates';
 import { In, type EntityManager } from 'typeorm';
 import { newClaimNumber, normalizeClaimNumber } from '../../../shared/claims/claim-number';
 import type { ClaimEvidence } from '../../../shared/claims/engine-input';
@@ -503,16 +504,19 @@ export function createClaimsService(
     };
     let reviewers = await recipientsOf(m, c.manufacturerId, 'reviewer');
     if (!reviewers.length) reviewers = await recipientsOf(m, c.manufacturerId, 'administrator');
+    // The failure date written the way each recipient's organisation reads dates (shared/dates.ts).
+    const failedFor = (org: Organization) =>
+      c.failedOn ? formatCalendarDate(c.failedOn, org, 'long') : 'not given';
     if (reviewers.length)
       await enqueueEmail(m, {
         to: reviewers.map((r) => r.email),
         template: 'claim-filed-manufacturer',
-        view,
+        view: { ...view, failedOn: failedFor(c.manufacturer) },
       });
     await enqueueEmail(m, {
       to: [user.email],
       template: 'claim-filed-confirmation',
-      view: { ...view, name: user.name },
+      view: { ...view, name: user.name, failedOn: failedFor(c.contractor) },
     });
     await crashPoint('claim.file.before_commit', m);
     return { id: claimId, replayed: false };

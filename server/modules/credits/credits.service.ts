@@ -1,3 +1,4 @@
+import { calendarDayIn } from '../../../shared/dates';
 import { Decision } from '../../db/entities/decision.entity';
 import crypto from 'node:crypto';
 import type { EntityManager } from 'typeorm';
@@ -44,8 +45,6 @@ export function approvedAmountOf(claim: Pick<Claim, 'expectedCredit' | 'currency
   return { amount: normalizeAmount(amount), currency: claim.currency };
 }
 
-const isoDay = (d: Date) => d.toISOString().slice(0, 10);
-
 type Parties = { manufacturer: Organization; contractor: Organization; product: ProductModel };
 
 async function partiesOf(m: EntityManager, claim: Claim): Promise<Parties> {
@@ -66,7 +65,8 @@ function memoData(
   const units = claim.units && claim.units > 0 ? claim.units : 1;
   return {
     memoNumber: memo.number,
-    memoDate: isoDay(memo.date),
+    // The memo is dated the day it is where the contractor who receives it is.
+    memoDate: calendarDayIn(memo.date, p.contractor.timeZone),
     manufacturer: { name: p.manufacturer.name },
     contractor: { name: p.contractor.name },
     claimNumber: claim.number ?? claim.id,
@@ -83,6 +83,7 @@ function memoData(
     ],
     reversal,
     paper: paperFor({ currency: memo.currency }),
+    locale: p.contractor.locale,
   };
 }
 
@@ -429,7 +430,7 @@ export function createCreditsService(
               { number, date: now, amount: memo.amount, currency: memo.currency },
               {
                 originalMemoNumber: memo.number,
-                originalDate: isoDay(memo.issuedAt),
+                originalDate: calendarDayIn(memo.issuedAt, parties.contractor.timeZone),
                 reason,
               },
             ),

@@ -20,6 +20,12 @@ export function presentMe(u: SessionUser): MeDto {
     email: u.email,
     name: u.name,
     roles: u.roles,
-    organization: { id: u.organization.id, name: u.organization.name, kind: u.organization.kind },
+    organization: {
+      id: u.organization.id,
+      name: u.organization.name,
+      kind: u.organization.kind,
+      timeZone: u.organization.timeZone,
+      locale: u.organization.locale,
+    },
   };
 }

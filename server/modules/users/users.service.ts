@@ -1,3 +1,4 @@
+import { formatDateTime } from '../../../shared/dates';
 import crypto from 'node:crypto';
 import { ROLES_BY_KIND, ROLE_LABELS, type Role } from '../../../shared/roles';
 import type { InviteUserInput, UpdateUserInput, UserListQuery } from '../../../shared/schemas/users';
@@ -127,7 +128,8 @@ export function createUsersService(ds: AppDataSource, opts: { publicUrl: (path: 
             organizationName: inviter.organization.name,
             rolesText: input.roles.map((r) => ROLE_LABELS[r].toLowerCase()).join(' and '),
             link: opts.publicUrl(`/invitations/${token}`),
-            expiresOn: expiresAt.toISOString().slice(0, 10),
+            // In the inviting organisation's zone and locale (shared/dates.ts), to the minute.
+            expiresOn: formatDateTime(expiresAt, inviter.organization),
           },
         });
         await crashPoint('user.invite.before_commit', m);

@@ -6,6 +6,7 @@ import { Spinner } from '../../components/ui/spinner';
 import { navFor } from '../../config/nav';
 import { authQueries } from '../../features/auth/api/auth-queries';
 import { logout } from '../../features/auth/api/logout';
+import { WaitingBell } from '../../features/waiting/components/waiting-bell';
 import { SessionProvider, useAbility, useSession } from '../../lib/ability';
 
 function Shell() {
@@ -28,6 +29,7 @@ function Shell() {
       roleText={user.roles.map((r) => ROLE_LABELS[r]).join(', ')}
       onSignOut={() => signOut.mutate()}
       signingOut={signOut.isPending}
+      bell={<WaitingBell />}
     >
       <Outlet />
     </AppShell>

@@ -12,6 +12,8 @@ type Props = {
   roleText: string;
   onSignOut: () => void;
   signingOut?: boolean;
+  /** What waits on the person (a link with a count), beside "Sign out". */
+  bell?: ReactNode;
   children: ReactNode;
 };
 
@@ -26,6 +28,7 @@ export function AppShell({
   roleText,
   onSignOut,
   signingOut,
+  bell,
   children,
 }: Props) {
   return (
@@ -37,8 +40,9 @@ export function AppShell({
         Skip to content
       </a>
       <aside className="fixed inset-y-0 left-0 hidden w-60 flex-col border-r border-ink-200 bg-white lg:flex">
-        <div className="px-5 py-5">
+        <div className="flex items-center justify-between gap-2 py-4 pr-3 pl-5">
           <Logo className="text-lg text-ink-950" />
+          {bell}
         </div>
         <nav aria-label="Main" className="flex-1 space-y-1 px-3">
           {nav.map((item) => (
@@ -89,28 +93,28 @@ export function AppShell({
       </aside>
 
       <header className="sticky top-0 z-30 flex h-14 items-center justify-between gap-3 border-b border-ink-200 bg-white/95 px-4 backdrop-blur lg:hidden">
-        <Logo className="text-base text-ink-950" />
-        <div className="flex min-w-0 items-center gap-2">
-          <span className="truncate text-xs text-ink-600">{organizationName}</span>
+        {/* The organisation's name under the logo, where it has the width the sign-out button does not need;
+            the button never shrinks or wraps. */}
+        <div className="flex min-w-0 flex-col leading-tight">
+          <Logo className="text-base text-ink-950" />
+          <span className="truncate text-xs text-ink-600" title={organizationName}>
+            {organizationName}
+          </span>
+        </div>
+        <div className="flex shrink-0 items-center gap-1">
+          {bell}
           <NavLink
             to="/account"
-            aria-label="Your account"
-            className="inline-flex size-10 shrink-0 items-center justify-center rounded-lg text-ink-700 hover:bg-ink-100"
+            aria-label="Your account and security"
+            className="inline-flex size-11 shrink-0 items-center justify-center rounded-lg text-ink-700 hover:bg-ink-100"
           >
             <UserRound className="size-5" aria-hidden />
           </NavLink>
-          <Link
-            to="/security"
-            aria-label="Security"
-            className="inline-flex size-10 shrink-0 items-center justify-center rounded-lg text-ink-700 hover:bg-ink-100"
-          >
-            <ShieldCheck className="size-5" aria-hidden />
-          </Link>
           <button
             type="button"
             onClick={onSignOut}
             disabled={signingOut}
-            className="inline-flex h-10 items-center gap-1.5 rounded-lg px-2.5 text-sm font-medium text-ink-700 hover:bg-ink-100"
+            className="inline-flex h-11 shrink-0 items-center gap-1.5 rounded-lg px-2.5 text-sm font-medium whitespace-nowrap text-ink-700 hover:bg-ink-100"
           >
             <LogOut className="size-4" aria-hidden /> <span>Sign out</span>
           </button>

@@ -2,8 +2,13 @@ import type { HTMLAttributes, ReactNode } from 'react';
 import { cn } from '../../lib/cn';
 
 export function Card({ className, ...rest }: HTMLAttributes<HTMLDivElement>) {
+  // min-w-0: as a grid or flex item a card may be narrower than its content (a chart, a wide table), which then
+  // fits or scrolls inside it; without it the card grew to its content and the whole page scrolled sideways.
   return (
-    <div className={cn('rounded-card border border-ink-200 bg-white shadow-card', className)} {...rest} />
+    <div
+      className={cn('min-w-0 rounded-card border border-ink-200 bg-white shadow-card', className)}
+      {...rest}
+    />
   );
 }
 

@@ -6,7 +6,9 @@ import { Button } from './button';
 /** A table that scrolls inside its own box on a narrow screen instead of widening the page. */
 export function Table({ caption, children }: { caption: string; children: ReactNode }) {
   return (
-    <div className="overflow-x-auto">
+    // relative: a visually hidden note (sr-only, absolutely placed) in a far cell stays inside this scrolling box
+    // instead of widening the page.
+    <div className="relative overflow-x-auto">
       <table className="min-w-full divide-y divide-ink-200 text-left text-sm">
         <caption className="sr-only">{caption}</caption>
         {children}

@@ -9,10 +9,12 @@ import { StartClaimButton } from '../../../features/claims/components/start-clai
 import { ApiError } from '../../../lib/api-client';
 import { useAbility } from '../../../lib/ability';
 import { NotFoundRoute } from '../not-found';
+import { useDateText } from '../../../components/ui/date-time';
 
 export function InstallationRoute() {
   const { id = '' } = useParams();
   const ability = useAbility();
+  const dates = useDateText();
   const q = useQuery(installationQueries.detail(id));
   if (q.isPending) return <Spinner label="Loading the installation" />;
   if (q.error)
@@ -26,7 +28,7 @@ export function InstallationRoute() {
     <>
       <PageHeader
         title={i.siteName}
-        description={`${i.quantity} × ${i.product.modelNumber}, installed ${i.installDate}`}
+        description={`${i.quantity} × ${i.product.modelNumber}, installed ${dates.calendar(i.installDate)}`}
         actions={ability.can('create', 'Claim') ? <StartClaimButton installationId={i.id} /> : null}
       />
       <div className="space-y-5">

@@ -12,6 +12,7 @@ import { useLiveEvaluation } from '../../../features/evaluation/hooks/use-live-e
 import { ApiError } from '../../../lib/api-client';
 import { useAbility } from '../../../lib/ability';
 import { NotFoundRoute } from '../not-found';
+import { DateTime } from '../../../components/ui/date-time';
 
 const SUMMARY = {
   covered: ['ok', 'Likely covered'],
@@ -75,7 +76,7 @@ export function ClaimRoute() {
               <div className="space-y-1">
                 <EvaluationPanel evaluation={c.evaluation} />
                 <p className="text-xs text-ink-600">
-                  Evaluated when filed, {new Date(c.evaluation.evaluatedAt).toLocaleString()}, engine{' '}
+                  Evaluated when filed, <DateTime value={c.evaluation.evaluatedAt} />, engine{' '}
                   {c.evaluation.engineVersion}.
                 </p>
               </div>

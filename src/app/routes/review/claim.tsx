@@ -15,6 +15,7 @@ import {
   Thread,
 } from '../../../features/review/components/claim-workflow';
 import { useSession } from '../../../lib/ability';
+import { CalendarDate, DateTime, useDateText } from '../../../components/ui/date-time';
 
 /** The review screen: the evidence on the left, the engine's findings and the moves on the right (one column on a phone). */
 export function ReviewClaimRoute() {
@@ -23,6 +24,7 @@ export function ReviewClaimRoute() {
   const wf = useQuery(reviewQueries.workflow(id));
   const [zoom, setZoom] = useState<string | null>(null);
   const me = useSession().user.id;
+  const dates = useDateText();
   if (claim.isPending || wf.isPending) return <Spinner label="Loading the claim" />;
   if (claim.isError || wf.isError)
     return <p className="text-bad-700">This claim does not exist or is not shared with you.</p>;
@@ -113,7 +115,9 @@ export function ReviewClaimRoute() {
               </div>
               <div>
                 <dt className="text-ink-600">Installed</dt>
-                <dd>{c.installationDetail.installDate}</dd>
+                <dd>
+                  <CalendarDate value={c.installationDetail.installDate} />
+                </dd>
               </div>
               <div>
                 <dt className="text-ink-600">Conditions</dt>
@@ -150,7 +154,7 @@ export function ReviewClaimRoute() {
             <Card>
               <CardHeader
                 title="Engine on the bench readings"
-                description={`Tested ${latestBench.testedOn} by ${latestBench.testedBy}: ${latestBench.result.replace(/_/g, ' ')}`}
+                description={`Tested ${dates.calendar(latestBench.testedOn)} by ${latestBench.testedBy}: ${latestBench.result.replace(/_/g, ' ')}`}
               />
               <div className="p-4">
                 <EvaluationPanel evaluation={latestBench.evaluation} />
@@ -168,7 +172,7 @@ export function ReviewClaimRoute() {
             <ol className="space-y-1 px-4 py-4 text-sm sm:px-5">
               {w.history.map((h) => (
                 <li key={h.id}>
-                  <span className="text-ink-600">{h.occurredAt.slice(0, 16).replace('T', ' ')}</span> ·{' '}
+                  <DateTime value={h.occurredAt} className="text-ink-600" /> ·{' '}
                   {h.action.replace('claim.', '').replace(/_/g, ' ')}
                   {h.actor ? ` · ${h.actor.name}` : ''}
                 </li>

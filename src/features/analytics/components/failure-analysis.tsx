@@ -193,7 +193,7 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
       )}
 
       {modes.data ? (
-        <div className="grid gap-5 lg:grid-cols-2">
+        <div className="grid grid-cols-1 gap-5 lg:grid-cols-2">
           <ChartCard
             title="Failure modes"
             description="Covered claims by what failed (symptoms, site observations and the engine's findings)."
@@ -303,7 +303,7 @@ export function FailureAnalysis({ models }: { models: ModelOption[] }) {
       ) : null}
 
       {ageing.data ? (
-        <div className="grid gap-5 lg:grid-cols-2">
+        <div className="grid grid-cols-1 gap-5 lg:grid-cols-2">
           <ChartCard
             title="Open claims by age"
             description="Days since filing, and whether the claim waits on you or on the contractor."
@@ -367,7 +367,7 @@ function LifeSection({ life, filters }: { life: LifeAnalysisDto; filters: LifeFi
     <div className="space-y-5">
       <h2 className="text-lg font-semibold text-ink-900">{life.population.label}</h2>
       <FitCards life={life} />
-      <div className="grid gap-5 lg:grid-cols-2">
+      <div className="grid grid-cols-1 gap-5 lg:grid-cols-2">
         <ChartCard
           title="Probability plot"
           description="Weibull paper: failures on a straight line follow the fit."

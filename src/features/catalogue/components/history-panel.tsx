@@ -3,6 +3,7 @@ import { History } from 'lucide-react';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { Spinner } from '../../../components/ui/spinner';
 import type { productQueries } from '../api/product-queries';
+import { DateTime } from '../../../components/ui/date-time';
 
 const ACTION_TEXT: Record<string, string> = {
   'product.created': 'Added to the catalogue',
@@ -51,7 +52,7 @@ export function HistoryPanel({ query }: { query: ReturnType<typeof productQuerie
                     {ACTION_TEXT[e.action] ?? e.action}
                   </p>
                   <p className="text-xs text-ink-600">
-                    <time dateTime={e.occurredAt}>{new Date(e.occurredAt).toLocaleString()}</time>
+                    <DateTime value={e.occurredAt} />
                     {e.actor ? ` · ${e.actor.name}` : ' · system'}
                   </p>
                 </div>

@@ -8,16 +8,18 @@ import {
 import { Card, CardHeader } from '../../../components/ui/card';
 import { FitWarnings } from './fit-warnings';
 import { n } from './format';
+import { CalendarDate, useDateText } from '../../../components/ui/date-time';
 
 export function InstallationDetail({ installation: i }: { installation: InstallationDetailDto }) {
+  const dates = useDateText();
   const rows: [string, string][] = [
     ['Site', `${i.siteName}, ${i.siteAddress}, ${i.siteCity}, ${i.siteRegion} ${i.sitePostalCode}`],
     ['Contractor', i.contractor.name],
     ['Manufacturer', i.manufacturer.name],
     ['Quantity', `${i.quantity} units (${i.serialCount} serials on file)`],
     ['Lot (date code)', i.lot ?? 'Not given'],
-    ['Installed', i.installDate],
-    ['Purchased', i.purchaseDate ?? 'Not given'],
+    ['Installed', dates.calendar(i.installDate)],
+    ['Purchased', i.purchaseDate ? dates.calendar(i.purchaseDate) : 'Not given'],
     ['Distributor and invoice', [i.distributor, i.invoiceNumber].filter(Boolean).join(' · ') || 'Not given'],
     ['Location', LOCATION_LABELS[i.location]],
     ['Enclosure', ENCLOSURE_LABELS[i.enclosure]],
@@ -61,7 +63,7 @@ export function InstallationDetail({ installation: i }: { installation: Installa
                 >
                   {i.policyVersion.policyName}, version {i.policyVersion.versionNumber}
                 </Link>{' '}
-                (in force from {i.policyVersion.effectiveFrom}, on the{' '}
+                (in force from <CalendarDate value={i.policyVersion.effectiveFrom} />, on the{' '}
                 {i.purchaseDate ? 'purchase' : 'install'} date).
               </>
             ) : (

@@ -20,6 +20,7 @@ import {
 } from '../../../components/ui/data-table';
 import { useSession } from '../../../lib/ability';
 import { installationQueries } from '../api/installation-queries';
+import { CalendarDate } from '../../../components/ui/date-time';
 
 const SORTS = [
   ['-installDate', 'Installed, newest first'],
@@ -72,7 +73,7 @@ function columns(other: 'manufacturer' | 'contractor'): Column<InstallationDto>[
       sortKey: 'installDate',
       firstSort: 'descending',
       className: 'whitespace-nowrap tabular-nums',
-      cell: (i) => i.installDate,
+      cell: (i) => <CalendarDate value={i.installDate} />,
     },
     {
       key: 'conditions',

@@ -1,11 +1,12 @@
 import { EXCLUSION_LABELS, type PolicyVersionDto } from '../../../../shared/schemas/catalogue';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { cn } from '../../../lib/cn';
+import { useDateText, type DateText } from '../../../components/ui/date-time';
 
-type Row = { label: string; value: (v: PolicyVersionDto) => string };
+type Row = { label: string; value: (v: PolicyVersionDto, dates: DateText) => string };
 
 const ROWS: Row[] = [
-  { label: 'In force from', value: (v) => v.effectiveFrom },
+  { label: 'In force from', value: (v, dates) => dates.calendar(v.effectiveFrom) },
   { label: 'Term', value: (v) => `${v.termMonths} months` },
   { label: 'Full coverage', value: (v) => `${v.fullCoverageMonths} months, then pro-rated` },
   { label: 'Filing window', value: (v) => `${v.filingWindowDays} days` },
@@ -27,6 +28,7 @@ const ROWS: Row[] = [
 
 /** Every version side by side; a value that differs from the version before it is highlighted. */
 export function PolicyVersions({ versions }: { versions: PolicyVersionDto[] }) {
+  const dates = useDateText();
   return (
     <Table caption="Versions of this policy, side by side">
       <thead>
@@ -48,13 +50,13 @@ export function PolicyVersions({ versions }: { versions: PolicyVersionDto[] }) {
                 i > 0 &&
                 row.label !== 'Change note' &&
                 row.label !== 'In force from' &&
-                row.value(v) !== row.value(versions[i - 1]);
+                row.value(v, dates) !== row.value(versions[i - 1], dates);
               return (
                 <Td
                   key={v.id}
                   className={cn('min-w-44 align-top', changed && 'bg-warn-50 font-semibold text-warn-900')}
                 >
-                  {row.value(v)}
+                  {row.value(v, dates)}
                   {changed ? (
                     <span className="sr-only"> (changed from version {versions[i - 1].versionNumber})</span>
                   ) : null}

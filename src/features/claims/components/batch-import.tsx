@@ -10,6 +10,7 @@ import { Table, Td, Th } from '../../../components/ui/table';
 import { newIdempotencyKey } from '../../../lib/api-client';
 import { fileClaim, importClaimBatch } from '../api/claim-mutations';
 import { claimQueries } from '../api/claim-queries';
+import { CalendarDate } from '../../../components/ui/date-time';
 
 const VERDICT = {
   covered: 'Likely covered',
@@ -179,7 +180,7 @@ export function BatchImport() {
                     · {r.modelNumber}
                   </Td>
                   <Td className="font-mono text-xs">{r.serials.join(', ')}</Td>
-                  <Td>{r.failedOn}</Td>
+                  <Td>{r.failedOn ? <CalendarDate value={r.failedOn} /> : null}</Td>
                   <Td>{r.verdict ? VERDICT[r.verdict] : '—'}</Td>
                 </tr>
               ))}

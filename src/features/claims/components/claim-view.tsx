@@ -14,6 +14,7 @@ import { withdrawClaim } from '../api/claim-mutations';
 import { claimQueries } from '../api/claim-queries';
 import { AttachmentsPanel } from './attachments-panel';
 import { StageBadge, waitingText } from './stage-badge';
+import { CalendarDate, DateTime } from '../../../components/ui/date-time';
 
 const fmt = (v: number | undefined, unit: string, digits = 3) =>
   v === undefined ? '—' : `${v.toLocaleString('en-US', { maximumFractionDigits: digits })} ${unit}`;
@@ -97,7 +98,8 @@ export function ClaimView({
             <div>
               <dt className="text-xs font-medium text-ink-600 uppercase">Failed on · filed</dt>
               <dd>
-                {c.failedOn ?? '—'} · {c.filedAt ? new Date(c.filedAt).toLocaleString() : '—'}
+                {c.failedOn ? <CalendarDate value={c.failedOn} /> : '—'} ·{' '}
+                {c.filedAt ? <DateTime value={c.filedAt} /> : '—'}
               </dd>
             </div>
             <div className="sm:col-span-2">
@@ -191,7 +193,7 @@ export function ClaimView({
                       : ''}
                   </p>
                   <p className="text-xs text-ink-600">
-                    {new Date(h.occurredAt).toLocaleString()}
+                    <DateTime value={h.occurredAt} />
                     {h.actor ? ` · ${h.actor.name}` : ''}
                   </p>
                 </div>

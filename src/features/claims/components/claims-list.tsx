@@ -12,6 +12,7 @@ import { Spinner } from '../../../components/ui/spinner';
 import { Pagination } from '../../../components/ui/table';
 import { claimQueries, type ClaimFilters } from '../api/claim-queries';
 import { StageBadge, waitingText } from './stage-badge';
+import { DayOf } from '../../../components/ui/date-time';
 
 const VERDICT_TEXT = {
   covered: 'Likely covered',
@@ -155,9 +156,15 @@ export function ClaimsList({ canCreate }: { canCreate: boolean }) {
                     <span className="text-sm text-ink-700">
                       {c.evaluation ? VERDICT_TEXT[c.evaluation.verdict] : waitingText(c.stage, c.waitingOn)}
                       <span className="block text-xs text-ink-500">
-                        {c.filedAt
-                          ? `Filed ${c.filedAt.slice(0, 10)}`
-                          : `Changed ${c.updatedAt.slice(0, 10)}`}
+                        {c.filedAt ? (
+                          <>
+                            Filed <DayOf value={c.filedAt} />
+                          </>
+                        ) : (
+                          <>
+                            Changed <DayOf value={c.updatedAt} />
+                          </>
+                        )}
                       </span>
                     </span>
                   </Link>

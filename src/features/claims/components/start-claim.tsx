@@ -9,6 +9,7 @@ import { Spinner } from '../../../components/ui/spinner';
 import { newIdempotencyKey } from '../../../lib/api-client';
 import { createClaim } from '../api/claim-mutations';
 import { claimQueries } from '../api/claim-queries';
+import { CalendarDate } from '../../../components/ui/date-time';
 
 /** Starts a draft from an installation and opens it. */
 export function StartClaimButton({
@@ -78,7 +79,8 @@ export function InstallationPicker() {
               <div className="min-w-0">
                 <p className="font-medium text-ink-900">{i.siteName}</p>
                 <p className="text-sm text-ink-600">
-                  {i.quantity} × {i.product.modelNumber} · {i.manufacturer.name} · installed {i.installDate}
+                  {i.quantity} × {i.product.modelNumber} · {i.manufacturer.name} · installed{' '}
+                  <CalendarDate value={i.installDate} />
                 </p>
               </div>
               <StartClaimButton installationId={i.id} label={`Claim on ${i.siteName}`} />

@@ -7,8 +7,9 @@ import { Button, buttonClasses } from '../../../components/ui/button';
 import { DataTable, useListState, type Column } from '../../../components/ui/data-table';
 import { InputField, SelectField } from '../../../components/ui/field';
 import { creditPdfUrl, creditQueries } from '../api/credit-queries';
-import { Money, shortDate } from './money';
+import { Money } from './money';
 import { VoidCreditDialog } from './void-credit-dialog';
+import { DayOf } from '../../../components/ui/date-time';
 
 /** Memos and reversals, newest first, with the PDF of each; the accountant may void a standing credit. */
 export function CreditsTable({
@@ -76,7 +77,7 @@ export function CreditsTable({
       sortKey: 'issuedAt',
       firstSort: 'descending',
       className: 'whitespace-nowrap',
-      cell: (m) => shortDate(m.issuedAt),
+      cell: (m) => <DayOf value={m.issuedAt} />,
     },
     {
       key: 'actions',

@@ -7,6 +7,7 @@ import { Card, CardHeader } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { PageHeader } from '../../../components/ui/page-header';
 import { userQueries } from '../../users/api/user-queries';
+import { DateSettings } from '../../users/components/date-settings';
 
 function Step({ n, title, children }: { n: number; title: string; children: ReactNode }) {
   return (
@@ -111,6 +112,7 @@ export function AdministratorHome({ name, organization }: { name: string; organi
             other party.
           </p>
         </Card>
+        <DateSettings />
       </div>
     </>
   );

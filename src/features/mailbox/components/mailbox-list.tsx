@@ -7,9 +7,7 @@ import { PageHeader } from '../../../components/ui/page-header';
 import { Spinner } from '../../../components/ui/spinner';
 import { cn } from '../../../lib/cn';
 import { mailboxQueries } from '../api/mailbox-queries';
-
-const when = (iso: string) =>
-  new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { DateTime } from '../../../components/ui/date-time';
 
 /** Demo mode only: the messages the local fake SMTP server received for people of this organisation. */
 export function MailboxList() {
@@ -48,7 +46,7 @@ export function MailboxList() {
                   >
                     <p className="truncate text-sm font-semibold text-ink-950">{m.subject}</p>
                     <p className="truncate text-xs text-ink-600">
-                      To {m.to.join(', ')} · {when(m.receivedAt)}
+                      To {m.to.join(', ')} · <DateTime value={m.receivedAt} />
                     </p>
                   </button>
                 </li>
@@ -59,7 +57,7 @@ export function MailboxList() {
             <Card className="p-5">
               <h2 className="text-lg font-semibold text-ink-950">{open.subject}</h2>
               <p className="mt-1 text-sm text-ink-600">
-                From {open.from} · to {open.to.join(', ')} · {when(open.receivedAt)}
+                From {open.from} · to {open.to.join(', ')} · <DateTime value={open.receivedAt} />
               </p>
               {open.attachments.length ? (
                 <ul className="mt-3 flex flex-wrap gap-2">

@@ -30,6 +30,7 @@ import { ApiError } from '../../../lib/api-client';
 import { assignClaim, performClaimAction } from '../api/perform-claim-action';
 import { reviewQueries } from '../api/review-queries';
 import { uploadConversationFile } from '../api/upload-conversation-file';
+import { CalendarDate, DateTime, useDateText } from '../../../components/ui/date-time';
 
 // The workflow around one claim, for both sides: the thread, returns, the decision and its letter, and the
 // moves this user can make now. The server decides; these forms only offer what the stage machine allows.
@@ -124,8 +125,13 @@ export function Thread({ wf }: { wf: ClaimWorkflowDto }) {
           >
             <p className="text-xs text-ink-600">
               {m.kind === 'info_request' ? 'Asked' : 'Answered'} by {m.author.name} ({m.author.organization})
-              on {m.createdAt.slice(0, 10)}
-              {m.dueOn ? ` · answer due ${m.dueOn}` : ''}
+              on <DateTime value={m.createdAt} />
+              {m.dueOn ? (
+                <>
+                  {' '}
+                  · answer due <CalendarDate value={m.dueOn} />
+                </>
+              ) : null}
             </p>
             <p className="whitespace-pre-wrap text-sm text-ink-900">{m.body}</p>
             {m.attachments.length ? (
@@ -158,10 +164,11 @@ export function Thread({ wf }: { wf: ClaimWorkflowDto }) {
 
 export function DecisionCard({ wf }: { wf: ClaimWorkflowDto }) {
   const d = wf.decision;
+  const dates = useDateText();
   if (!d) return null;
   return (
     <Card>
-      <CardHeader title="Decision" description={`${d.decidedBy}, ${d.decidedAt.slice(0, 10)}`} />
+      <CardHeader title="Decision" description={`${d.decidedBy}, ${dates.dateTime(d.decidedAt)}`} />
       <div className="space-y-2 px-4 py-4 text-sm sm:px-5">
         <p className="text-base font-semibold">
           {d.outcome === 'denied'
@@ -204,18 +211,18 @@ export function Returns({ wf }: { wf: ClaimWorkflowDto }) {
             <p className="font-mono font-semibold">{r.number}</p>
             <p>
               Ship to {r.shipTo.name}, {r.shipTo.line1}, {r.shipTo.city} {r.shipTo.postalCode}{' '}
-              {r.shipTo.country} by {r.shipBy}
+              {r.shipTo.country} by <CalendarDate value={r.shipBy} />
             </p>
             {r.shippedOn ? (
               <p>
-                Shipped {r.shippedOn} with {r.carrier}, tracking {r.trackingNumber}
+                Shipped <CalendarDate value={r.shippedOn} /> with {r.carrier}, tracking {r.trackingNumber}
               </p>
             ) : (
               <p className="text-ink-600">Not shipped yet.</p>
             )}
             {r.receivedOn ? (
               <p>
-                Received {r.receivedOn} ({r.receivedCondition?.replace(/_/g, ' ')})
+                Received <CalendarDate value={r.receivedOn} /> ({r.receivedCondition?.replace(/_/g, ' ')})
               </p>
             ) : null}
             {r.packingSlip ? <DocLink doc={r.packingSlip} label="Download the packing slip" /> : null}
@@ -268,7 +275,14 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
           {wf.actions.includes('answer_info') && wf.openRequest ? (
             <form className="space-y-3" onSubmit={answer}>
               <p className="text-sm">
-                <strong>The manufacturer asks</strong> (answer by {wf.openRequest.dueOn}):
+                <strong>The manufacturer asks</strong>
+                {wf.openRequest.dueOn ? (
+                  <>
+                    {' '}
+                    (answer by <CalendarDate value={wf.openRequest.dueOn} />)
+                  </>
+                ) : null}
+                :
               </p>
               <blockquote className="rounded-lg bg-ink-50 p-3 text-sm whitespace-pre-wrap">
                 {wf.openRequest.body}

@@ -1,10 +1,10 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
-import { ClipboardCheck } from 'lucide-react';
+import { ClipboardCheck, SlidersHorizontal } from 'lucide-react';
 import { STAGE_LABELS } from '../../../../shared/claims/stages';
 import { Badge, type Tone } from '../../../components/ui/badge';
-import { buttonClasses } from '../../../components/ui/button';
+import { Button, buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { InputField, SelectField } from '../../../components/ui/field';
@@ -12,6 +12,7 @@ import { Spinner } from '../../../components/ui/spinner';
 import { Pagination } from '../../../components/ui/table';
 import { cn } from '../../../lib/cn';
 import { PRODUCT_PICKER_LIMIT, reviewQueries, type QueueFilters } from '../api/review-queries';
+import { SavedViewPicker, SaveViewForm } from './saved-views';
 
 const VERDICT: Record<string, { label: string; tone: Tone }> = {
   covered: { label: 'Likely covered', tone: 'ok' },
@@ -30,15 +31,18 @@ function TypedFilter({
   inputMode,
   pattern,
   hint,
+  initial,
   onValue,
 }: {
   label: string;
   inputMode: 'numeric' | 'decimal';
   pattern: RegExp;
   hint: string;
+  /** The value when the filter appears (a saved view's); the desk remounts it when a view is applied. */
+  initial?: string;
   onValue: (v: string | undefined) => void;
 }) {
-  const [text, setText] = useState('');
+  const [text, setText] = useState(initial ?? '');
   const ok = text.trim() === '' || pattern.test(text.trim());
   return (
     <InputField
@@ -113,12 +117,30 @@ function ContractorPicker(pick: PickerProps) {
   return <ListPicker label="Contractor" anyLabel="Any contractor" options={options} hint={hint} {...pick} />;
 }
 
+const OPEN_STAGES = 'filed,in_review,unit_received,return_requested,needs_info';
+const DEFAULT_FILTERS: QueueFilters = { stage: OPEN_STAGES, sort: 'stageChangedAt' };
+
+/** How many filters narrow the queue beyond the desk's default (every open claim); search and sort aside. */
+export function activeFilterCount(f: QueueFilters): number {
+  return [
+    (f.stage ?? '') !== OPEN_STAGES,
+    !!f.verdict,
+    !!f.assignee,
+    !!f.productModelId,
+    !!f.contractorId,
+    f.minAgeDays !== undefined,
+    !!f.minAmount,
+  ].filter(Boolean).length;
+}
+
 /** The reviewer's queue: filters, a keyboard-driven list (j/k or arrows, Enter opens), ageing in plain words. */
 export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
-  const [filters, setFilters] = useState<QueueFilters>({
-    stage: 'filed,in_review,unit_received,return_requested,needs_info',
-    sort: 'stageChangedAt',
-  });
+  const [filters, setFilters] = useState<QueueFilters>(DEFAULT_FILTERS);
+  // The filters fold into one row (search, a count, saved views) so that the first claim shows on a phone.
+  const [showFilters, setShowFilters] = useState(false);
+  const [formKey, setFormKey] = useState(0);
+  const [viewId, setViewId] = useState('');
+  const count = activeFilterCount(filters);
   const { data, isPending, isError } = useQuery(reviewQueries.queue(filters));
   const [active, setActive] = useState(0);
   const [announce, setAnnounce] = useState('');
@@ -128,6 +150,13 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
   const set = (patch: Partial<QueueFilters>) => {
     setFilters((f) => ({ ...f, page: 1, ...patch }));
     setActive(0);
+    setViewId('');
+  };
+  const apply = (id: string, next: QueueFilters) => {
+    setFilters({ ...next, page: 1 });
+    setActive(0);
+    setViewId(id);
+    setFormKey((k) => k + 1);
   };
 
   useEffect(() => {
@@ -163,76 +192,108 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
         title="Claims on your desk"
         description="j / k or the arrow keys move, Enter opens. Oldest in its stage first."
       />
-      <div className="grid gap-3 border-b border-ink-200 px-4 py-3 sm:grid-cols-2 sm:px-5 lg:grid-cols-4">
+      <div className="flex flex-wrap items-end gap-2 border-b border-ink-200 px-4 py-3 sm:px-5">
         <InputField
+          key={`q-${formKey}`}
+          className="min-w-0 flex-1 basis-48"
           label="Search"
           placeholder="Claim number, site, contractor, model, serial"
           value={filters.q ?? ''}
           onChange={(e) => set({ q: e.target.value })}
         />
-        <SelectField
-          label="Stage"
-          value={filters.stage ?? ''}
-          onChange={(e) => set({ stage: e.target.value || undefined })}
+        <Button
+          variant="secondary"
+          aria-expanded={showFilters}
+          aria-controls="queue-filters"
+          icon={<SlidersHorizontal className="size-4" aria-hidden />}
+          onClick={() => setShowFilters((v) => !v)}
         >
-          <option value="filed,in_review,unit_received,return_requested,needs_info">All open</option>
-          <option value="filed">{STAGE_LABELS.filed}</option>
-          <option value="in_review">{STAGE_LABELS.in_review}</option>
-          <option value="needs_info">{STAGE_LABELS.needs_info}</option>
-          <option value="return_requested">{STAGE_LABELS.return_requested}</option>
-          <option value="unit_received">{STAGE_LABELS.unit_received}</option>
-          <option value="approved,denied">Decided</option>
-          <option value="">Every stage</option>
-        </SelectField>
-        <SelectField
-          label="Engine verdict"
-          value={filters.verdict ?? ''}
-          onChange={(e) => set({ verdict: e.target.value || undefined })}
-        >
-          <option value="">Any</option>
-          <option value="covered">Likely covered</option>
-          <option value="review">Needs a person</option>
-          <option value="excluded">Likely excluded</option>
-        </SelectField>
-        <SelectField
-          label="Assigned"
-          value={filters.assignee ?? ''}
-          onChange={(e) => set({ assignee: e.target.value || undefined })}
-        >
-          <option value="">Anyone</option>
-          <option value="me">Me</option>
-          <option value="none">Nobody yet</option>
-        </SelectField>
-        <ProductPicker
-          manufacturerId={manufacturerId}
-          value={filters.productModelId ?? ''}
-          onValue={(v) => set({ productModelId: v })}
+          {count ? `${count} ${count === 1 ? 'filter' : 'filters'}` : 'Filters'}
+        </Button>
+        <SavedViewPicker
+          viewId={viewId}
+          onApply={(v) => apply(v.id, v.filters as QueueFilters)}
+          onClear={() => apply('', DEFAULT_FILTERS)}
         />
-        <ContractorPicker value={filters.contractorId ?? ''} onValue={(v) => set({ contractorId: v })} />
-        <TypedFilter
-          label="Filed at least (days ago)"
-          inputMode="numeric"
-          pattern={DAYS}
-          hint="Whole days, 0 to 3650."
-          onValue={(v) => set({ minAgeDays: v === undefined ? undefined : Number(v) })}
+      </div>
+      <div
+        id="queue-filters"
+        hidden={!showFilters}
+        className="space-y-3 border-b border-ink-200 bg-ink-50/50 px-4 py-3 sm:px-5"
+      >
+        <div key={formKey} className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
+          <SelectField
+            label="Stage"
+            value={filters.stage ?? ''}
+            onChange={(e) => set({ stage: e.target.value || undefined })}
+          >
+            <option value="filed,in_review,unit_received,return_requested,needs_info">All open</option>
+            <option value="filed">{STAGE_LABELS.filed}</option>
+            <option value="in_review">{STAGE_LABELS.in_review}</option>
+            <option value="needs_info">{STAGE_LABELS.needs_info}</option>
+            <option value="return_requested">{STAGE_LABELS.return_requested}</option>
+            <option value="unit_received">{STAGE_LABELS.unit_received}</option>
+            <option value="approved,denied">Decided</option>
+            <option value="">Every stage</option>
+          </SelectField>
+          <SelectField
+            label="Engine verdict"
+            value={filters.verdict ?? ''}
+            onChange={(e) => set({ verdict: e.target.value || undefined })}
+          >
+            <option value="">Any</option>
+            <option value="covered">Likely covered</option>
+            <option value="review">Needs a person</option>
+            <option value="excluded">Likely excluded</option>
+          </SelectField>
+          <SelectField
+            label="Assigned"
+            value={filters.assignee ?? ''}
+            onChange={(e) => set({ assignee: e.target.value || undefined })}
+          >
+            <option value="">Anyone</option>
+            <option value="me">Me</option>
+            <option value="none">Nobody yet</option>
+          </SelectField>
+          <ProductPicker
+            manufacturerId={manufacturerId}
+            value={filters.productModelId ?? ''}
+            onValue={(v) => set({ productModelId: v })}
+          />
+          <ContractorPicker value={filters.contractorId ?? ''} onValue={(v) => set({ contractorId: v })} />
+          <TypedFilter
+            label="Filed at least (days ago)"
+            inputMode="numeric"
+            pattern={DAYS}
+            hint="Whole days, 0 to 3650."
+            initial={filters.minAgeDays === undefined ? undefined : String(filters.minAgeDays)}
+            onValue={(v) => set({ minAgeDays: v === undefined ? undefined : Number(v) })}
+          />
+          <TypedFilter
+            label="Amount at least"
+            inputMode="decimal"
+            pattern={MONEY}
+            hint="An amount like 96.00."
+            initial={filters.minAmount}
+            onValue={(v) => set({ minAmount: v })}
+          />
+          <SelectField
+            label="Sort"
+            value={filters.sort ?? 'stageChangedAt'}
+            onChange={(e) => set({ sort: e.target.value })}
+          >
+            <option value="stageChangedAt">Waiting longest</option>
+            <option value="-filedAt">Newest filed</option>
+            <option value="-amount">Largest amount</option>
+            <option value="number">Claim number</option>
+          </SelectField>
+        </div>
+        <SaveViewForm
+          filters={filters}
+          viewId={viewId}
+          onSaved={(id) => setViewId(id)}
+          onDeleted={() => setViewId('')}
         />
-        <TypedFilter
-          label="Amount at least"
-          inputMode="decimal"
-          pattern={MONEY}
-          hint="An amount like 96.00."
-          onValue={(v) => set({ minAmount: v })}
-        />
-        <SelectField
-          label="Sort"
-          value={filters.sort ?? 'stageChangedAt'}
-          onChange={(e) => set({ sort: e.target.value })}
-        >
-          <option value="stageChangedAt">Waiting longest</option>
-          <option value="-filedAt">Newest filed</option>
-          <option value="-amount">Largest amount</option>
-          <option value="number">Claim number</option>
-        </SelectField>
       </div>
       <p className="sr-only" aria-live="polite">
         {announce}

@@ -1,0 +1,53 @@
+import { z } from 'zod';
+
+// Ageing for a manufacturer's administrators: open claims by stage and by how long they have waited in it, per
+// reviewer, against a target per stage the organisation sets.
+
+export const AGEING_STAGES = [
+  'filed',
+  'in_review',
+  'needs_info',
+  'return_requested',
+  'unit_received',
+  'approved',
+] as const;
+export type AgeingStage = (typeof AGEING_STAGES)[number];
+
+/** Whole days waited: 0-7, 8-14, 15-30, over 30 (issue 18). */
+export const AGEING_BUCKETS = ['0-7', '8-14', '15-30', '>30'] as const;
+export type AgeingBucket = (typeof AGEING_BUCKETS)[number];
+
+export function bucketOf(days: number): AgeingBucket {
+  if (days <= 7) return '0-7';
+  if (days <= 14) return '8-14';
+  if (days <= 30) return '15-30';
+  return '>30';
+}
+
+export const stageTargetsSchema = z.strictObject(
+  Object.fromEntries(
+    AGEING_STAGES.map((s) => [
+      s,
+      z.number().int('Whole days.').min(1, 'At least 1 day.').max(365, 'At most 365 days.').optional(),
+    ]),
+  ) as Record<AgeingStage, z.ZodOptional<z.ZodNumber>>,
+);
+export type StageTargets = z.infer<typeof stageTargetsSchema>;
+export const updateStageTargetsSchema = z.strictObject({ targets: stageTargetsSchema });
+
+export type AgeingRowDto = { counts: Record<AgeingBucket, number>; total: number; overTarget: number };
+export type AgeingClaimDto = {
+  id: string;
+  number: string;
+  stage: AgeingStage;
+  days: number;
+  reviewer: string | null;
+  overTarget: boolean;
+};
+export type AgeingDto = {
+  targets: StageTargets;
+  byStage: ({ stage: AgeingStage; target: number | null } & AgeingRowDto)[];
+  byReviewer: ({ reviewerId: string | null; reviewer: string } & AgeingRowDto)[];
+  /** The claims past their stage's target, longest first. */
+  overdue: AgeingClaimDto[];
+};

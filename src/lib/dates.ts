@@ -1,0 +1,13 @@
+import { useMemo } from 'react';
+import type { DateRule } from '../../shared/dates';
+import { useOptionalSession } from './ability';
+
+/** The reader's locale (the browser's) and their organisation's time zone: the rule every date here follows. */
+export function useDateRule(): DateRule {
+  const session = useOptionalSession();
+  const timeZone = session?.user.organization.timeZone;
+  return useMemo(
+    () => ({ locale: typeof navigator === 'undefined' ? undefined : navigator.language, timeZone }),
+    [timeZone],
+  );
+}
