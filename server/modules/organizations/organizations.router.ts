@@ -9,6 +9,7 @@ import { organizationSecuritySchema } from '../../../shared/schemas/security';
 import type { AppContext } from '../../context';
 import { Organization } from '../../db/entities/organization.entity';
 import { actorFromRequest, recordAudit } from '../../lib/audit';
+import { forbidden } from '../../lib/errors';
 import { authorize, requireUser } from '../../middleware/auth';
 import { parseBody, parseWith } from '../../middleware/validate';
 
@@ -44,6 +45,10 @@ export function organizationsRouter(ctx: AppContext) {
     const input = parseBody(organizationSettingsSchema, req);
     const org = await ctx.ds.getRepository(Organization).findOneBy({ id: req.user!.organizationId });
     authorize(req, 'update', 'Organization', org, 'organisation');
+    // The second-approval amount guards a manufacturer's credits; a contractor issues none. (A contractor's
+    // administrator may update the organisation's other settings, its time zone and locale.)
+    if (org.kind !== 'manufacturer')
+      throw forbidden('Only a manufacturer sets a second approval for credits.');
     const next =
       input.creditSecondApprovalAbove === null
         ? null
