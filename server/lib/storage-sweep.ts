@@ -21,7 +21,12 @@ export const STORAGE_KEY_COLUMNS = [
 ] as const;
 
 /** `*_key` columns that are not storage keys. */
-export const NOT_STORAGE_KEY_COLUMNS = [{ table: 'idempotency_keys', column: 'idem_key' }] as const;
+export const NOT_STORAGE_KEY_COLUMNS = [
+  { table: 'idempotency_keys', column: 'idem_key' },
+  // Sign-in limit counters (rate-limiter-flexible's key) and the "what waits on me" item read marks.
+  { table: 'login_limits', column: 'key' },
+  { table: 'waiting_reads', column: 'item_key' },
+] as const;
 
 /** E-mail attachments waiting in the outbox name their objects inside a JSON array. */
 const OUTBOX_REFERENCES = `SELECT jt.k AS k FROM outbox_messages o,

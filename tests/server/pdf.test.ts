@@ -84,7 +84,8 @@ describe('determination letter', () => {
     expect(text).toContain('Credit to the contractor');
     expect(text).toContain('$256.01 USD');
     expect(text).toContain('Rhea Okafor');
-    expect(text).toContain('12 June 2025'); // the decision date 2025-06-12, written out (day month year)
+    // The decision date 2025-06-12, written out for the default en-US recipient (CLDR en long "MMMM d, y").
+    expect(text).toContain('June 12, 2025');
     expect(text).toContain('likely covered');
     for (const f of d.evaluation.findings) {
       expect(text).toContain(fold(f.message));
