@@ -209,6 +209,8 @@ test.describe('the review desk on a phone', () => {
     expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
     expect(await seriousA11yViolations(page)).toEqual([]);
 
+    // On a phone the filters fold behind one button.
+    await page.getByRole('button', { name: 'Filters' }).click();
     await page.getByLabel('Engine verdict').selectOption('review');
     await expect(list.getByRole('link').first()).toContainText('Needs a person');
     await expect(list.getByText(/Likely (covered|excluded)/)).toHaveCount(0);

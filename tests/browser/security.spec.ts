@@ -34,6 +34,12 @@ test('enrol an authenticator app, sign in with a code and a recovery code, end t
   await expect(page.getByRole('heading', { level: 1, name: 'Security' })).toBeVisible();
   await expect(page.getByText('This device')).toBeVisible();
   expect(await seriousA11yViolations(page)).toEqual([]);
+  // Earlier specs may have left Sunniva signed in elsewhere: start from this one session.
+  const othersOut = page.getByRole('button', { name: 'Sign out everywhere else' });
+  if ((await othersOut.count()) > 0 && (await othersOut.isEnabled())) {
+    await othersOut.click();
+    await expect(page.getByText(/^Signed out \d+ other sessions?\.$/)).toBeVisible();
+  }
 
   await page.getByRole('button', { name: 'Set up an authenticator app' }).click();
   await expect(page.getByRole('img', { name: 'QR code for your authenticator app' })).toBeVisible();
