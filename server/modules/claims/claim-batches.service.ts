@@ -20,7 +20,8 @@ import { Installation } from '../../db/entities/installation.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { coerceRow, MAX_LISTED_ERRORS, readRows, tooManyRows, type ColumnSpec } from '../../lib/csv-import';
 import { AppError, notFound } from '../../lib/errors';
-import { todayIso, type ClaimsService } from './claims.service';
+import { todayIso } from './claims-reads.service';
+import type { ClaimsService } from './claims.service';
 import { engineContextOf } from './engine-input';
 
 // Bulk filing: a spreadsheet of failed units (one row per claim) for one or more installations becomes a batch

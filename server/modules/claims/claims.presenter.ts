@@ -1,7 +1,7 @@
 import type { AttachmentDto } from '../../../shared/schemas/attachments';
 import type { ClaimDetailDto, ClaimListItemDto, FilingIssue } from '../../../shared/schemas/claims';
 import type { HistoryEventDto } from '../../../shared/schemas/catalogue';
-import type { ClaimListRow, LoadedClaim } from './claims.service';
+import type { ClaimListRow, LoadedClaim } from './claims-reads.service';
 import { engineContextOf } from './engine-input';
 
 const iso = (v: Date | string) => (typeof v === 'string' ? v : v.toISOString());

@@ -28,14 +28,9 @@ import { attachmentsRouter } from '../attachments/attachments.router';
 import { listAttachments } from '../attachments/attachments.service';
 import { CLAIM_BATCH_COLUMNS, createClaimBatchesService } from './claim-batches.service';
 import { presentClaimDetail, presentClaimListItem } from './claims.presenter';
-import {
-  createClaimsService,
-  currentFilingIssues,
-  scopeOf,
-  type ClaimsService,
-  type EvidenceCounter,
-  type LoadedClaim,
-} from './claims.service';
+import { currentFilingIssues, type EvidenceCounter } from './claims-filing.service';
+import { scopeOf, type LoadedClaim } from './claims-reads.service';
+import { createClaimsService, type ClaimsService } from './claims.service';
 
 const asClaim = (c: LoadedClaim) =>
   subject('Claim', {
