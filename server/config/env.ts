@@ -63,8 +63,6 @@ const envSchema = z.object({
   WEBHOOK_WORKER: bool.optional(),
   /** Requests one API token may make per minute (server/modules/api-tokens). */
   API_TOKEN_RATE_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(600),
-  /** Tests only (NODE_ENV=test): the credit-issuing transaction sleeps this long after the memo insert. */
-  TEST_CREDIT_PAUSE_MS: z.coerce.number().int().min(0).max(120_000).default(0),
 });
 
 export type AppConfig = {
@@ -101,8 +99,6 @@ export type AppConfig = {
   secondFactorForRoles: boolean;
   apiTokenRatePerMinute: number;
   webhookWorker: boolean;
-  /** 0 unless NODE_ENV=test asks for a pause inside the issuing transaction (the crash test). */
-  testCreditPauseMs: number;
 };
 
 export class ConfigError extends Error {}
@@ -166,6 +162,5 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     apiTokenRatePerMinute: e.API_TOKEN_RATE_PER_MINUTE,
     // Test servers never send webhooks unless asked: the tests drive deliveries themselves.
     webhookWorker: e.WEBHOOK_WORKER ?? e.NODE_ENV !== 'test',
-    testCreditPauseMs: e.NODE_ENV === 'test' ? e.TEST_CREDIT_PAUSE_MS : 0,
   };
 }

@@ -1,6 +1,6 @@
 // A Lumenproof API server in a child process, for the crash test: createApp on the test database, listening on
-// a free port, which it prints as one JSON line. The test sets TEST_CREDIT_PAUSE_MS (honoured only with
-// NODE_ENV=test) so that the issuing transaction pauses after the memo insert, and kills this process there.
+// a free port, which it prints as one JSON line. The test arms a crash point with TEST_CRASH_POINT (honoured only
+// with NODE_ENV=test; server/lib/crash-point.ts) and kills this process there.
 import type { AddressInfo } from 'node:net';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config/env';

@@ -42,7 +42,7 @@ export async function seedDemoCredits(ds: AppDataSource, storage: Storage, confi
   const orgs = await ds.getRepository(Organization).find();
   const byName = (n: string) => orgs.find((o) => o.name === n);
   const users = await ds.getRepository(User).find();
-  const service = createCreditsService(ds, storage, config, (p) =>
+  const service = createCreditsService(ds, storage, (p) =>
     new URL(p, config.publicUrl ?? 'http://127.0.0.1:3000').toString(),
   );
   const rand = prng(7007);

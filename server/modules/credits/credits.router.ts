@@ -26,7 +26,7 @@ function services(ctx: AppContext, storage?: Storage) {
   const store = storage ?? createStorage(ctx.config);
   return {
     storage: store,
-    service: createCreditsService(ctx.ds, store, ctx.config, ctx.publicUrl),
+    service: createCreditsService(ctx.ds, store, ctx.publicUrl),
     reports: createCreditsReports(ctx.ds),
   };
 }

@@ -6,7 +6,6 @@ import type { AbilityUser } from '../../../shared/abilities';
 import { canPerform, REFUSAL_STATUS } from '../../../shared/claims/stages';
 import { negate, normalizeAmount, toDecimal } from '../../../shared/credits/money';
 import type { IssueCreditInput } from '../../../shared/schemas/credits';
-import type { AppConfig } from '../../config/env';
 import type { AppDataSource } from '../../db/data-source';
 import { Claim } from '../../db/entities/claim.entity';
 import { CreditApproval } from '../../db/entities/credit-approval.entity';
@@ -172,24 +171,13 @@ async function secondApproval(
 const lockClaim = (m: EntityManager, id: string) =>
   m.createQueryBuilder(Claim, 'c').setLock('pessimistic_write').where('c.id = :id', { id }).getOne();
 
-export function createCreditsService(
-  ds: AppDataSource,
-  storage: Storage,
-  config: AppConfig,
-  links: (p: string) => string,
-) {
+export function createCreditsService(ds: AppDataSource, storage: Storage, links: (p: string) => string) {
   async function storePdf(m: EntityManager, manufacturerId: string, memoId: string, pdf: Buffer) {
     const key = `credit-memos/${manufacturerId}/${memoId}.pdf`;
     // Written before the commit, never a memo without its PDF; a rollback (a refusal, a deadlock retried) deletes
     // it again, and a crash leaves it to the storage sweep.
     await putForTransaction(m, storage, key, pdf, 'application/pdf');
     return { key, sha256: sha256Hex(pdf) };
-  }
-
-  async function pauseForCrashTest(m: EntityManager) {
-    if (config.env === 'test' && config.testCreditPauseMs > 0) {
-      await m.query('SELECT SLEEP(?)', [config.testCreditPauseMs / 1000]);
-    }
   }
 
   return {
@@ -276,7 +264,6 @@ export function createCreditsService(
             issuedById: user.id,
             issuedAt: now,
           });
-          await pauseForCrashTest(m);
           await crashPoint('credit.issue.after_memo', m);
           await m.insert(LedgerEntry, {
             contractorId: claim.contractorId,
