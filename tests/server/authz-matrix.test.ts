@@ -687,13 +687,6 @@ const ROUTES: Record<string, Entry> = {
       filed: { ok: members(CONTRACTORS, 200), target: async (w) => ({ id: await newFiled(w) }) },
     },
   },
-  'POST /api/claims/:id/withdraw': {
-    body: () => ({ reason: 'Found a loose connector.' }),
-    variants: {
-      draft: { ok: members(CONTRACTORS, 200), denied: 404, target: async (w) => ({ id: await newDraft(w) }) },
-      filed: { ok: members(CONTRACTORS, 200), target: async (w) => ({ id: await newFiled(w) }) },
-    },
-  },
   'DELETE /api/claims/:id': {
     variants: {
       draft: { ok: members(CONTRACTORS, 204), denied: 404, target: async (w) => ({ id: await newDraft(w) }) },

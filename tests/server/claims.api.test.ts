@@ -506,18 +506,20 @@ describe('filing', () => {
     );
     await w.installer.agent.post(`/api/claims/${draft.id}/file`).send({});
     const r = await w.installer.agent
-      .post(`/api/claims/${draft.id}/withdraw`)
+      .post(`/api/claims/${draft.id}/actions/withdraw`)
       .send({ reason: 'Loose connector, fixed on site.' });
     expect(r.status).toBe(200);
     expect(r.body.claim.stage).toBe('withdrawn');
-    expect((await w.installer.agent.post(`/api/claims/${draft.id}/withdraw`).send({})).status).toBe(409);
+    expect((await w.installer.agent.post(`/api/claims/${draft.id}/actions/withdraw`).send({})).status).toBe(
+      409,
+    );
     const file = await w.installer.agent.post(`/api/claims/${draft.id}/file`).send({});
     expect(file.status).toBe(409);
     expect(file.body.error.code).toBe('claim.invalid_transition');
     expect(await auditActions(draft.id)).toEqual(['claim.created', 'claim.filed', 'claim.withdrawn']);
     expect((await outboxTo([w.reviewer.user.email])).map((m) => m.template).sort()).toEqual([
       'claim-filed-manufacturer',
-      'claim-withdrawn',
+      'claim-update',
     ]);
   });
 });
@@ -550,11 +552,11 @@ describe('who may see, edit and file what', () => {
     const seen = await w.reviewer.agent.get(url);
     expect(seen.status).toBe(200);
     expect(seen.body.claim.stage).toBe('filed');
-    expect((await w.reviewer.agent.post(`${url}/withdraw`).send({})).status).toBe(403);
+    expect((await w.reviewer.agent.post(`${url}/actions/withdraw`).send({})).status).toBe(403);
     expect((await w.reviewer.agent.post(`${url}/file`).send({})).status).toBe(403);
     for (const outsider of [w.otherInstaller, w.otherReviewer]) {
       expect((await outsider.agent.get(url)).status).toBe(404);
-      expect((await outsider.agent.post(`${url}/withdraw`).send({})).status).toBe(404);
+      expect((await outsider.agent.post(`${url}/actions/withdraw`).send({})).status).toBe(404);
     }
     expect((await claimRow(draft.id)).stage).toBe('filed');
   });

@@ -62,7 +62,7 @@ async function recipientsOf(m: EntityManager, organizationId: string, role: 'rev
   return users.filter((u) => u.roles.includes(role));
 }
 
-/** Filing a draft and withdrawing a claim. */
+/** Filing a draft. */
 export function createClaimFiling(
   ds: AppDataSource,
   reads: ClaimReads,
@@ -253,50 +253,6 @@ export function createClaimFiling(
       );
       const stored = answer.body as { claimId: string; replayed: boolean };
       return { id: stored.claimId, replayed: answer.replayed || stored.replayed };
-    },
-
-    async withdraw(target: LoadedClaim, reason: string | undefined, user: SessionUser, actor: Actor) {
-      const move = canPerform(
-        target,
-        toAbilityUser(user),
-        'withdraw',
-        reason === undefined ? {} : { reason },
-      );
-      if (!move.ok) refuse(move);
-      await ds.transaction(async (m) => {
-        const now = clock.now();
-        const result = await m
-          .createQueryBuilder()
-          .update(Claim)
-          .set({ stage: 'withdrawn', stageChangedAt: now, waitingOn: null, version: () => 'version + 1' })
-          .where('id = :id AND stage = :stage', { id: target.id, stage: target.stage })
-          .execute();
-        if (!result.affected)
-          throw conflict('claim.changed', 'This claim changed just now. Reload and try again.');
-        await recordAudit(m, actor, {
-          action: 'claim.withdrawn',
-          entityType: 'Claim',
-          entityId: target.id,
-          before: { stage: target.stage },
-          after: { stage: 'withdrawn', reason: reason ?? null },
-        });
-        if (target.stage !== 'draft') {
-          const reviewers = await recipientsOf(m, target.manufacturerId, 'reviewer');
-          if (reviewers.length) {
-            await enqueueEmail(m, {
-              to: reviewers.map((r) => r.email),
-              template: 'claim-withdrawn',
-              view: {
-                number: target.number,
-                contractor: target.contractor.name,
-                reason: reason || 'No reason given.',
-                by: user.name,
-                link: opts.publicUrl(`/claims/${target.id}`),
-              },
-            });
-          }
-        }
-      });
     },
   };
 }

@@ -9,7 +9,6 @@ import {
   batchRequestSchema,
 } from '../../../shared/schemas/claims';
 import { importQuerySchema } from '../../../shared/schemas/catalogue';
-import { withdrawSchema } from '../../../shared/claims/actions.schema';
 import type { AppContext } from '../../context';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { Installation } from '../../db/entities/installation.entity';
@@ -235,14 +234,6 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
       claim: await claimDetail(ctx, req, (await service.findById(claim.id))!),
       replayed: result.replayed,
     });
-  });
-
-  r.post('/:id/withdraw', async (req, res) => {
-    const input = parseBody(withdrawSchema, req);
-    // The stage machine's withdraw move asks for the same ability as filing.
-    const claim = await load(req, 'file');
-    await service.withdraw(claim, input.reason, req.user!, actorFromRequest(req));
-    res.json({ claim: await claimDetail(ctx, req, (await service.findById(claim.id))!) });
   });
 
   r.delete('/:id', async (req, res) => {

@@ -23,11 +23,16 @@ export const fileClaim = (id: string, idempotencyKey: string, version?: number) 
     headers: { 'Idempotency-Key': idempotencyKey },
   });
 
-export const withdrawClaim = (id: string, reason?: string) =>
-  api<{ claim: ClaimDetailDto }>(`/claims/${encodeURIComponent(id)}/withdraw`, {
-    method: 'POST',
-    json: reason ? { reason } : {},
-  });
+/** The stage machine's withdraw move; the version the page shows travels as If-Match. */
+export const withdrawClaim = (id: string, version: number, reason?: string) =>
+  api<{ claim: { id: string; stage: string; version: number } }>(
+    `/claims/${encodeURIComponent(id)}/actions/withdraw`,
+    {
+      method: 'POST',
+      json: reason ? { reason } : {},
+      headers: { 'If-Match': `"${version}"` },
+    },
+  );
 
 export const deleteClaim = (id: string) =>
   api<void>(`/claims/${encodeURIComponent(id)}`, { method: 'DELETE' });

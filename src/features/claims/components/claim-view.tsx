@@ -41,11 +41,9 @@ export function ClaimView({
   const qc = useQueryClient();
   const [reason, setReason] = useState('');
   const withdraw = useMutation({
-    mutationFn: () => withdrawClaim(c.id, reason || undefined),
-    onSuccess: async (r) => {
-      qc.setQueryData(claimQueries.detail(c.id).queryKey, { claim: r.claim });
-      await qc.invalidateQueries({ queryKey: claimQueries.all });
-    },
+    mutationFn: () => withdrawClaim(c.id, c.version, reason || undefined),
+    // The claim's page and the lists read the claim again (the move answers its stage and version only).
+    onSuccess: () => qc.invalidateQueries({ queryKey: claimQueries.all }),
   });
   const m = c.measurements;
   const readings: [string, string][] = [
