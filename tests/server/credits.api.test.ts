@@ -391,6 +391,10 @@ describe('the ledger', () => {
       number: expect.stringMatching(MEMO_NUMBER_PATTERN),
     });
     expect(await stageOf(claim.id)).toBe('approved');
+    // Approved again, like any approved claim: waiting on the manufacturer's accountants (shared/claims/workflow.ts).
+    expect((await t.ds.getRepository(Claim).findOneByOrFail({ id: claim.id })).waitingOn).toBe(
+      'manufacturer',
+    );
     expect((await entriesOf(claim.id)).map((e) => e.amount).sort()).toEqual(['-450.10', '450.10']);
     const reversal = await t.ds.getRepository(CreditMemo).findOneByOrFail({ id: v.body.creditMemo.id });
     expect(reversal).toMatchObject({

@@ -3,7 +3,6 @@ import crypto from 'node:crypto';
 import { In, IsNull, type EntityManager } from 'typeorm';
 import type { ActionPayload, ClaimActionName, ClaimView } from '../../../shared/claims/stages';
 import { ACTIONS, canPerform, needsReason, REFUSAL_STATUS } from '../../../shared/claims/stages';
-import type { Role } from '../../../shared/roles';
 import { engineContextFrom, engineInputFor } from '../../../shared/claims/engine-input';
 import {
   addDays,
@@ -12,7 +11,6 @@ import {
   INFO_RESPONSE_DAYS,
   newReturnNumber,
   RETURN_SHIP_DAYS,
-  WAITING_ON_BY_STAGE,
 } from '../../../shared/claims/workflow';
 import {
   DENIAL_CODE_LABELS,
@@ -32,6 +30,8 @@ import { Claim } from '../../db/entities/claim.entity';
 import { Decision } from '../../db/entities/decision.entity';
 import { ReturnAuthorization } from '../../db/entities/return-authorization.entity';
 import { User } from '../../db/entities/user.entity';
+import { CLAIM_CHANGED_MESSAGE, moveClaim, type Moved } from '../claims/move-claim';
+import { recipientsOf, type Recipient } from '../claims/recipients';
 import { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-version.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
@@ -71,9 +71,6 @@ export const MOVES_ELSEWHERE: Partial<Record<ClaimActionName, string>> = {
   void_credit: 'POST /api/credits/:id/void',
 };
 
-export const CLAIM_CHANGED_MESSAGE =
-  'Someone else moved this claim just now. Reload it to see what changed, then try again.';
-
 const today = () => clock.now().toISOString().slice(0, 10);
 
 /**
@@ -106,27 +103,6 @@ export function claimView(
 }
 
 type MoveResult = { claim: Claim; to: string };
-
-type Recipient = { email: string; name: string };
-
-async function usersWith(
-  m: EntityManager,
-  orgId: string,
-  roles: Role[],
-  only?: string | null,
-): Promise<Recipient[]> {
-  if (only) {
-    const u = await m.findOne(User, { where: { id: only, organizationId: orgId, status: 'active' } });
-    if (u) return [{ email: u.email, name: u.name }];
-  }
-  const all = await m.find(User, {
-    where: { organizationId: orgId, status: 'active' },
-    order: { createdAt: 'ASC' },
-  });
-  return all
-    .filter((u) => u.roles.some((r) => roles.includes(r)))
-    .map((u) => ({ email: u.email, name: u.name }));
-}
 
 export function createClaimActionsService(ctx: AppContext & { storage: Storage }) {
   const { ds, storage } = ctx;
@@ -172,34 +148,6 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
       },
       attachments: view.attachments,
     });
-  }
-
-  async function contractorPeople(m: EntityManager, claim: Claim) {
-    return usersWith(m, claim.contractorId, ['installer', 'administrator'], claim.filedById);
-  }
-  async function reviewers(m: EntityManager, claim: Claim) {
-    return usersWith(m, claim.manufacturerId, ['reviewer'], claim.assignedReviewerId);
-  }
-
-  /** The conditional move itself: 0 rows means someone else moved the claim since we loaded it. */
-  async function moveRow(
-    m: EntityManager,
-    claim: Claim,
-    to: Claim['stage'],
-    extra: { waitingOn?: WaitingOn | null; assignedReviewerId?: string | null } = {},
-  ) {
-    const now = clock.now();
-    const stageChangedAt = to === claim.stage ? claim.stageChangedAt : now;
-    const waitingOn = extra.waitingOn !== undefined ? extra.waitingOn : WAITING_ON_BY_STAGE[to];
-    const assignee =
-      extra.assignedReviewerId !== undefined ? extra.assignedReviewerId : claim.assignedReviewerId;
-    const result: { affectedRows?: number } = await m.query(
-      'UPDATE claims SET stage = ?, version = version + 1, stage_changed_at = ?, waiting_on = ?, assigned_reviewer_id = ?, updated_at = ? ' +
-        'WHERE id = ? AND stage = ? AND version = ?',
-      [to, stageChangedAt, waitingOn, assignee, now, claim.id, claim.stage, claim.version],
-    );
-    if (!result.affectedRows) throw conflict('claim.changed', CLAIM_CHANGED_MESSAGE);
-    return { stage: to, version: claim.version + 1, waitingOn, stageChangedAt, assignedReviewerId: assignee };
   }
 
   async function assertReviewer(m: EntityManager, claim: Claim, userId: string, path: string) {
@@ -316,20 +264,20 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
       const parties = await loadParties(m, claim);
       const before = { stage: claim.stage, version: claim.version, waitingOn: claim.waitingOn };
       let after: Record<string, unknown> = {};
-      let moved: Awaited<ReturnType<typeof moveRow>>;
+      let moved: Moved;
 
       switch (name) {
         case 'start_review': {
           const p = payload as ActionPayload<'start_review'>;
           const assignee = p.assigneeId ?? user.id;
           if (p.assigneeId) await assertReviewer(m, claim, p.assigneeId, 'assigneeId');
-          moved = await moveRow(m, claim, 'in_review', { assignedReviewerId: assignee });
+          moved = await moveClaim(m, claim, 'in_review', { assignedReviewerId: assignee });
           after = { assigneeId: assignee };
           break;
         }
         case 'request_info': {
           const p = payload as ActionPayload<'request_info'>;
-          moved = await moveRow(m, claim, 'needs_info');
+          moved = await moveClaim(m, claim, 'needs_info');
           const msg = m.create(ClaimMessage, {
             id: crypto.randomUUID(),
             claimId: claim.id,
@@ -342,7 +290,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
           });
           await m.insert(ClaimMessage, msg);
           after = { messageId: msg.id, dueOn: msg.dueOn };
-          await notify(m, claim, parties, 'contractor', await contractorPeople(m, claim), {
+          await notify(m, claim, parties, 'contractor', await recipientsOf(m, claim, 'contractor'), {
             headline: `${parties.manufacturer.name} needs more information`,
             intro: `The reviewer asks:`,
             quote: p.message,
@@ -354,7 +302,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         }
         case 'answer_info': {
           const p = payload as ActionPayload<'answer_info'>;
-          moved = await moveRow(m, claim, 'in_review');
+          moved = await moveClaim(m, claim, 'in_review');
           const open = await m.findOne(ClaimMessage, {
             where: { claimId: claim.id, kind: 'info_request', answeredAt: IsNull() },
             order: { createdAt: 'DESC' },
@@ -393,7 +341,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             await m.update(Attachment, { id: In(ids) }, { ownerType: CONVERSATION_SENT, ownerId: msg.id });
           }
           after = { messageId: msg.id, attachments: ids.length, answers: open?.id ?? null };
-          await notify(m, claim, parties, 'manufacturer', await reviewers(m, claim), {
+          await notify(m, claim, parties, 'manufacturer', await recipientsOf(m, claim, 'reviewer'), {
             headline: `${parties.contractor.name} answered your question`,
             quote: p.message,
             details: ids.length ? [{ label: 'Files attached', value: String(ids.length) }] : [],
@@ -403,7 +351,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         }
         case 'request_return': {
           const p = payload as ActionPayload<'request_return'>;
-          moved = await moveRow(m, claim, 'return_requested');
+          moved = await moveClaim(m, claim, 'return_requested');
           let number = newReturnNumber(now, (n) => crypto.randomInt(n));
           while (await m.exists(ReturnAuthorization, { where: { number } })) {
             number = newReturnNumber(now, (n) => crypto.randomInt(n));
@@ -421,7 +369,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
           ra.packingSlipId = slip.id;
           await m.insert(ReturnAuthorization, ra);
           after = { returnNumber: number, packingSlipSha256: slip.sha256 };
-          await notify(m, claim, parties, 'contractor', await contractorPeople(m, claim), {
+          await notify(m, claim, parties, 'contractor', await recipientsOf(m, claim, 'contractor'), {
             headline: `${parties.manufacturer.name} asks for the unit back`,
             intro: `Return authorisation ${number}: print the packing slip, put it in the box, and ship the unit to the address below.`,
             quote: p.instructions,
@@ -457,7 +405,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
               'claim.invalid_transition',
               'There is no open return authorisation on this claim.',
             );
-          moved = await moveRow(m, claim, 'return_requested', { waitingOn: 'manufacturer' });
+          moved = await moveClaim(m, claim, 'return_requested', { waitingOn: 'manufacturer' });
           await m.update(
             ReturnAuthorization,
             { id: ra.id },
@@ -469,7 +417,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             trackingNumber: p.trackingNumber,
             shippedOn: p.shippedOn,
           };
-          await notify(m, claim, parties, 'manufacturer', await reviewers(m, claim), {
+          await notify(m, claim, parties, 'manufacturer', await recipientsOf(m, claim, 'reviewer'), {
             headline: `The unit is on its way (${ra.number})`,
             details: [
               { label: 'Carrier', value: p.carrier },
@@ -491,14 +439,14 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
               'claim.invalid_transition',
               'There is no open return authorisation on this claim.',
             );
-          moved = await moveRow(m, claim, 'unit_received');
+          moved = await moveClaim(m, claim, 'unit_received');
           await m.update(
             ReturnAuthorization,
             { id: ra.id },
             { receivedOn: p.receivedOn, receivedCondition: p.condition, receivedNote: p.note ?? null },
           );
           after = { returnNumber: ra.number, receivedOn: p.receivedOn, condition: p.condition };
-          await notify(m, claim, parties, 'contractor', await contractorPeople(m, claim), {
+          await notify(m, claim, parties, 'contractor', await recipientsOf(m, claim, 'contractor'), {
             headline: `${parties.manufacturer.name} received the returned unit`,
             details: [
               { label: 'Return number', value: ra.number },
@@ -511,7 +459,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         case 'record_bench_test': {
           const p = payload as ActionPayload<'record_bench_test'>;
           const evaluationNow = await benchEvaluation(m, claim, p.readings);
-          moved = await moveRow(m, claim, verdict.to);
+          moved = await moveClaim(m, claim, verdict.to);
           const ra = await m.findOne(ReturnAuthorization, {
             where: { claimId: claim.id },
             order: { createdAt: 'DESC' },
@@ -546,10 +494,10 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         }
         case 'reopen': {
           const p = payload as ActionPayload<'reopen'>;
-          moved = await moveRow(m, claim, 'in_review');
+          moved = await moveClaim(m, claim, 'in_review');
           await m.update(Decision, { currentClaimId: claim.id }, { currentClaimId: null, supersededAt: now });
           after = { reason: p.reason };
-          await notify(m, claim, parties, 'contractor', await contractorPeople(m, claim), {
+          await notify(m, claim, parties, 'contractor', await recipientsOf(m, claim, 'contractor'), {
             headline: `${parties.manufacturer.name} reopened its decision`,
             quote: p.reason,
             nextStep: 'The claim is back in review; a new decision and letter will follow.',
@@ -558,17 +506,17 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         }
         case 'close': {
           const p = payload as ActionPayload<'close'>;
-          moved = await moveRow(m, claim, 'closed');
+          moved = await moveClaim(m, claim, 'closed');
           after = { note: p.note ?? null };
           break;
         }
         case 'withdraw': {
           const p = payload as ActionPayload<'withdraw'>;
-          moved = await moveRow(m, claim, 'withdrawn');
+          moved = await moveClaim(m, claim, 'withdrawn');
           after = { reason: p.reason ?? null };
           // A draft was never shown to the manufacturer: nobody there to tell.
           if (claim.stage !== 'draft') {
-            await notify(m, claim, parties, 'manufacturer', await reviewers(m, claim), {
+            await notify(m, claim, parties, 'manufacturer', await recipientsOf(m, claim, 'reviewer'), {
               headline: `${parties.contractor.name} withdrew the claim`,
               quote: p.reason,
               nextStep: 'Nothing: the claim is closed.',
@@ -669,7 +617,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         note: p.note,
       };
     }
-    const moved = await moveRow(m, claim, name === 'approve' ? 'approved' : 'denied');
+    const moved = await moveClaim(m, claim, name === 'approve' ? 'approved' : 'denied');
     const letter = await createDeterminationLetter(
       m,
       storage,
@@ -702,7 +650,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
       storageKey: letter.storageKey,
     };
     if (letterDecision.outcome === 'denied') {
-      await notify(m, claim, parties, 'contractor', await contractorPeople(m, claim), {
+      await notify(m, claim, parties, 'contractor', await recipientsOf(m, claim, 'contractor'), {
         headline: `${parties.manufacturer.name} denied the claim`,
         intro: 'The determination letter, attached, gives the reasons and the screening behind them.',
         details: letterDecision.reasonCodes.map((c) => ({ label: 'Reason', value: DENIAL_CODE_LABELS[c] })),
@@ -715,7 +663,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         { label: 'Resolution', value: RESOLUTION_LABELS[letterDecision.resolution] },
         { label: 'Amount', value: `${letterDecision.amount} ${letterDecision.currency}` },
       ];
-      await notify(m, claim, parties, 'contractor', await contractorPeople(m, claim), {
+      await notify(m, claim, parties, 'contractor', await recipientsOf(m, claim, 'contractor'), {
         headline: `${parties.manufacturer.name} ${letterDecision.outcome === 'partly_approved' ? 'partly approved' : 'approved'} the claim`,
         intro: 'The determination letter is attached.',
         details,
@@ -725,18 +673,11 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             : 'The credit memo follows from the manufacturer’s accounts team.',
         attachments: [letterFile],
       });
-      await notify(
-        m,
-        claim,
-        parties,
-        'manufacturer',
-        await usersWith(m, claim.manufacturerId, ['accountant']),
-        {
-          headline: 'Approved and ready for a credit memo',
-          details: [...details, { label: 'Contractor', value: parties.contractor.name }],
-          nextStep: 'Issue the credit memo in Lumenproof.',
-        },
-      );
+      await notify(m, claim, parties, 'manufacturer', await recipientsOf(m, claim, 'accountants'), {
+        headline: 'Approved and ready for a credit memo',
+        details: [...details, { label: 'Contractor', value: parties.contractor.name }],
+        nextStep: 'Issue the credit memo in Lumenproof.',
+      });
     }
     await crashPoint('claim.move.after_outbox', m);
     return {
@@ -793,7 +734,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
           claim,
           parties,
           'manufacturer',
-          await usersWith(m, claim.manufacturerId, ['reviewer'], assigneeId),
+          await recipientsOf(m, claim, { reviewer: assigneeId }),
           {
             headline: `${user.name} handed you a claim`,
             nextStep: 'Open it from your review desk.',

@@ -10,7 +10,6 @@ import { toAbilityUser } from '../../middleware/auth';
 import type { AppDataSource } from '../../db/data-source';
 import { Claim } from '../../db/entities/claim.entity';
 import { type Organization } from '../../db/entities/organization.entity';
-import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
 import { crashPoint } from '../../lib/crash-point';
@@ -20,6 +19,8 @@ import { enqueueEmail } from '../../lib/outbox';
 import { claimRef, enqueueWebhookEvent } from '../../lib/webhooks';
 import { claimFieldsOf, engineInputOfClaim } from './engine-input';
 import { todayIso, type ClaimReads, type LoadedClaim } from './claims-reads.service';
+import { moveClaim } from './move-claim';
+import { recipientsOf } from './recipients';
 
 export const FILE_ROUTE = 'POST /claims/:id/file';
 
@@ -52,14 +53,6 @@ export function filingContextOf(c: LoadedClaim) {
 
 export function currentFilingIssues(c: LoadedClaim): FilingIssue[] {
   return filingIssues(claimFieldsOf(c), filingContextOf(c));
-}
-
-async function recipientsOf(m: EntityManager, organizationId: string, role: 'reviewer' | 'administrator') {
-  const users = await m.find(User, {
-    where: { organizationId, status: 'active' },
-    select: { id: true, email: true, name: true, roles: true },
-  });
-  return users.filter((u) => u.roles.includes(role));
 }
 
 /** Filing a draft. */
@@ -136,14 +129,10 @@ export function createClaimFiling(
     for (let attempt = 0; ; attempt++) {
       number = newClaimNumber(now);
       try {
-        await m
-          .createQueryBuilder()
-          .update(Claim)
-          .set({
+        await moveClaim(m, c, 'filed', {
+          now,
+          set: {
             number,
-            stage: 'filed',
-            stageChangedAt: now,
-            waitingOn: 'manufacturer',
             units: c.units ?? c.serials.length,
             evaluation,
             engineVersion: evaluation.engineVersion,
@@ -153,10 +142,8 @@ export function createClaimFiling(
             currency: evaluation.computed.currency,
             filedAt: now,
             filedById: user.id,
-            version: () => 'version + 1',
-          })
-          .where("id = :id AND stage = 'draft'", { id: claimId })
-          .execute();
+          },
+        });
         break;
       } catch (err) {
         // A number already taken (about one in 20 million a month): draw again. InnoDB undoes only the statement.
@@ -206,8 +193,7 @@ export function createClaimFiling(
       link: opts.publicUrl(`/claims/${claimId}`),
       filerName: user.name,
     };
-    let reviewers = await recipientsOf(m, c.manufacturerId, 'reviewer');
-    if (!reviewers.length) reviewers = await recipientsOf(m, c.manufacturerId, 'administrator');
+    const reviewers = await recipientsOf(m, c, 'intake');
     // The failure date written the way each recipient's organisation reads dates (shared/dates.ts).
     const failedFor = (org: Organization) =>
       c.failedOn ? formatCalendarDate(c.failedOn, org, 'long') : 'not given';

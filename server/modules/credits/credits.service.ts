@@ -13,7 +13,6 @@ import { CreditMemo } from '../../db/entities/credit-memo.entity';
 import { LedgerEntry } from '../../db/entities/ledger-entry.entity';
 import { Organization } from '../../db/entities/organization.entity';
 import { ProductModel } from '../../db/entities/product-model.entity';
-import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
 import { AppError, AuditedRefusal, conflict } from '../../lib/errors';
@@ -28,6 +27,8 @@ import type { Storage } from '../../lib/storage';
 import { putForTransaction } from '../../lib/transaction-objects';
 import { nextMemoNumber } from './memo-numbers';
 import { presentMemoSummary } from './credits.presenter';
+import { moveClaim } from '../claims/move-claim';
+import { recipientsOf } from '../claims/recipients';
 
 export const ISSUE_ROUTE = 'POST /claims/:id/credits';
 export const VOID_ROUTE = 'POST /credits/:id/void';
@@ -84,14 +85,6 @@ function memoData(
     paper: paperFor({ currency: memo.currency }),
     locale: p.contractor.locale,
   };
-}
-
-/** The contractor's people who hear about credits: its administrators and whoever filed the claim. */
-async function contractorRecipients(m: EntityManager, claim: Claim) {
-  const users = await m.find(User, { where: { organizationId: claim.contractorId, status: 'active' } });
-  return users
-    .filter((u) => u.roles.includes('administrator') || u.id === claim.filedById)
-    .map((u) => u.email);
 }
 
 function refuse(code: keyof typeof REFUSAL_STATUS, message: string): never {
@@ -274,18 +267,10 @@ export function createCreditsService(ds: AppDataSource, storage: Storage, links:
             createdAt: now,
           });
           await crashPoint('credit.issue.after_ledger', m);
-          const moved = await m
-            .createQueryBuilder()
-            .update(Claim)
-            .set({ stage: 'credited', stageChangedAt: now, waitingOn: null, version: () => 'version + 1' })
-            .where('id = :id AND stage = :stage AND version = :v', {
-              id: claim.id,
-              stage: 'approved',
-              v: claim.version,
-            })
-            .execute();
-          if (moved.affected !== 1)
-            throw conflict('claim.changed', 'The claim changed while the credit was issued. Try again.');
+          await moveClaim(m, claim, 'credited', {
+            now,
+            changedMessage: 'The claim changed while the credit was issued. Try again.',
+          });
           await crashPoint('credit.issue.after_move', m);
 
           await recordAudit(m, actor, {
@@ -336,7 +321,7 @@ export function createCreditsService(ds: AppDataSource, storage: Storage, links:
               creditMemo: { id: memoId, number, amount: approved.amount, currency: approved.currency },
             },
           });
-          const to = await contractorRecipients(m, claim);
+          const to = (await recipientsOf(m, claim, 'contractor_accounts')).map((r) => r.email);
           if (to.length) {
             await enqueueEmail(m, {
               to,
@@ -449,14 +434,11 @@ export function createCreditsService(ds: AppDataSource, storage: Storage, links:
             createdAt: now,
           });
           await m.update(CreditMemo, { id: memo.id }, { creditedClaimId: null });
-          const moved = await m
-            .createQueryBuilder()
-            .update(Claim)
-            .set({ stage: 'approved', stageChangedAt: now, version: () => 'version + 1' })
-            .where('id = :id AND stage = :stage', { id: claim.id, stage: 'credited' })
-            .execute();
-          if (moved.affected !== 1)
-            throw conflict('claim.changed', 'The claim changed while the credit was voided. Try again.');
+          // Back to approved, waiting again on the manufacturer's accountants for a credit.
+          await moveClaim(m, claim, 'approved', {
+            now,
+            changedMessage: 'The claim changed while the credit was voided. Try again.',
+          });
           await recordAudit(m, actor, {
             action: 'claim.credit_voided',
             entityType: 'Claim',
@@ -481,7 +463,7 @@ export function createCreditsService(ds: AppDataSource, storage: Storage, links:
               reason,
             },
           });
-          const to = await contractorRecipients(m, claim);
+          const to = (await recipientsOf(m, claim, 'contractor_accounts')).map((r) => r.email);
           if (to.length) {
             await enqueueEmail(m, {
               to,
