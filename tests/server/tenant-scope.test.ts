@@ -72,7 +72,7 @@ describe('scopeConditions', () => {
   ])('selects exactly the claims CASL lets %s read', async (_name, who) => {
     const ability = defineAbilityFor(who());
     const ours = [mfr, otherMfr, contractor, otherContractor].map((o) => o.id);
-    const all = await readRows<{ id: string; contractorId: string; manufacturerId: string; stage: string }>(
+    const all = await readRows<Record<string, unknown> & { id: string }>(
       t.ds,
       'SELECT id, contractor_id AS contractorId, manufacturer_id AS manufacturerId, stage FROM claims WHERE contractor_id IN (?)',
       [ours],
