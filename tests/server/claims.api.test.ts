@@ -570,7 +570,7 @@ describe('statements per request', () => {
     const a = await createDraft(w.installer.agent, w.installation.id, goodClaimFields(s1));
     await w.installer.agent.post(`/api/claims/${a.id}/file`).send({});
     const b = await createDraft(w.installer.agent, w.installation.id, goodClaimFields(s2));
-    const run = (path: string) => t.ds.countQueries(() => w.installer.agent.get(path));
+    const run = (path: string) => t.countQueries(() => w.installer.agent.get(path));
     for (const qs of ['pageSize=1', 'pageSize=50', 'pageSize=50&stage=draft', 'pageSize=50&q=SN']) {
       const r = await run(`/api/claims?${qs}`);
       expect(r.result.status).toBe(200);
