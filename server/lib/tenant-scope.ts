@@ -65,3 +65,21 @@ export function scopeConditions(
   if (!ast) return { sql: '1 = 0', params: [] };
   return toSql(ast, (field) => `${alias}.${opts.columns?.[field] ?? snake(field)}`);
 }
+
+/**
+ * The same part for TypeORM's query builder, whose parameters are named: `?` becomes `:<prefix>0`, `:<prefix>1`, …
+ * (a list `(:...<prefix>n)`).
+ */
+export function namedScope(
+  part: ScopePart,
+  prefix = 'scope',
+): { sql: string; params: Record<string, unknown> } {
+  let i = 0;
+  const params: Record<string, unknown> = {};
+  const sql = part.sql.replace(/\(\?\)|\?/g, (match) => {
+    const key = `${prefix}${i}`;
+    params[key] = part.params[i++];
+    return match === '(?)' && Array.isArray(params[key]) ? `(:...${key})` : `:${key}`;
+  });
+  return { sql, params };
+}

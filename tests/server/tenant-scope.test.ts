@@ -4,7 +4,7 @@ import { defineAbilityFor, type AbilityUser } from '../../shared/abilities';
 import type { Role } from '../../shared/roles';
 import type { Organization } from '../../server/db/entities/organization.entity';
 import { Conditions, readRows } from '../../server/db/read';
-import { scopeConditions } from '../../server/lib/tenant-scope';
+import { namedScope, scopeConditions } from '../../server/lib/tenant-scope';
 import { createOrganization } from '../support/factories';
 import { createClaimAt, createReviewWorld } from '../support/review-factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
@@ -52,6 +52,18 @@ describe('scopeConditions', () => {
     expect(scopeConditions(installer, 'Claim', 'c')).toEqual({
       sql: 'c.contractor_id = ?',
       params: [contractor.id],
+    });
+  });
+
+  it('names the parameters for the query builder, a list as a spread', () => {
+    expect(
+      namedScope({
+        sql: '(c.manufacturer_id = ? AND c.stage IN (?))',
+        params: ['m1', ['filed', 'approved']],
+      }),
+    ).toEqual({
+      sql: '(c.manufacturer_id = :scope0 AND c.stage IN (:...scope1))',
+      params: { scope0: 'm1', scope1: ['filed', 'approved'] },
     });
   });
 
