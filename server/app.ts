@@ -117,7 +117,7 @@ export function createApp(opts: CreateAppOptions): App {
     }),
   );
 
-  const sessionStore = createSessionStore(opts.databaseUrl);
+  const sessionStore = createSessionStore(ds);
   const pp = createPassport(ds);
   const api = express.Router();
   api.use((_req, res, next) => {

@@ -4,6 +4,7 @@ import { createApp } from './app';
 import { startCluster } from './cluster';
 import { loadConfig, type AppConfig } from './config/env';
 import { createDataSource } from './db/data-source';
+import { PinoQueryLogger } from './db/query-logger';
 import { createLogger } from './lib/logger';
 import { startOutboxWorker } from './lib/outbox';
 import { startWebhookWorker } from './lib/webhooks';
@@ -15,7 +16,11 @@ import { startWaitingMail } from './modules/waiting/waiting-mail';
 
 export async function startServer(config: AppConfig, databaseUrl: string) {
   const logger = createLogger(config.logLevel);
-  const ds = createDataSource(databaseUrl);
+  // Failed and slow statements go to the log (server/db/query-logger.ts).
+  const ds = createDataSource(databaseUrl, {
+    logger: new PinoQueryLogger(logger.child({ component: 'db' })),
+    slowQueryMs: config.slowQueryMs,
+  });
   await ds.initialize();
   const pending = await ds.showMigrations();
   if (pending)

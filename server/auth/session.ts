@@ -1,8 +1,9 @@
 import type { Request } from 'express';
 import session from 'express-session';
 import MySQLStoreFactory from 'express-mysql-session';
-import mysql from 'mysql2';
 import type { AppConfig } from '../config/env';
+import type { AppDataSource } from '../db/data-source';
+import { readRows } from '../db/read';
 import { Organization } from '../db/entities/organization.entity';
 import { User } from '../db/entities/user.entity';
 
@@ -34,17 +35,6 @@ const MySQLStore = MySQLStoreFactory(session as never) as unknown as new (
   options: Record<string, unknown>,
   connection?: unknown,
 ) => session.Store & { close(): Promise<void>; onReady(): Promise<void> };
-
-function parseUrl(url: string) {
-  const u = new URL(url);
-  return {
-    host: u.hostname,
-    port: Number(u.port || 3306),
-    user: decodeURIComponent(u.username),
-    password: decodeURIComponent(u.password),
-    database: u.pathname.replace(/^\//, ''),
-  };
-}
 
 /** Where the store leaves the user it read with the session, for passport's deserializer (server/auth/passport.ts). */
 const LOADED_USER = Symbol('lumenproof.sessionUser');
@@ -123,21 +113,25 @@ export function loadedSessionUser(req: object, id: string): User | null | undefi
   return loaded && loaded.id === id ? loaded.user : undefined;
 }
 
+/**
+ * What express-mysql-session sends its statements through: its writes (save, destroy, the expiry sweep) go through
+ * TypeORM like every write; the one read on every request is SESSION_SQL, through readRows (SessionStore.get).
+ */
+function storeConnection(ds: AppDataSource) {
+  return {
+    query(sql: string, params: unknown[]) {
+      return ds.query(sql, params).then((rows: unknown) => [rows, []]);
+    },
+  };
+}
+
 export class SessionStore extends MySQLStore {
-  private readonly pool: mysql.Pool;
+  private readonly ds: AppDataSource;
   // Written by express-mysql-session (its prototype), declared for TypeScript.
   declare set: session.Store['set'];
   declare destroy: session.Store['destroy'];
 
-  constructor(databaseUrl: string) {
-    // A callback pool of its own, with TypeORM's date handling (UTC, Date objects).
-    const pool = mysql.createPool({
-      ...parseUrl(databaseUrl),
-      timezone: 'Z',
-      dateStrings: false,
-      charset: 'utf8mb4_bin',
-      connectionLimit: 10, // every authenticated request reads its session first: enough for 16 at once
-    });
+  constructor(ds: AppDataSource) {
     super(
       {
         createDatabaseTable: false, // the table comes from a migration
@@ -145,20 +139,19 @@ export class SessionStore extends MySQLStore {
         checkExpirationInterval: 15 * 60 * 1000,
         expiration: IDLE_TIMEOUT_MS,
         disableTouch: true, // the row is written when lastSeenAt moves (sessionPolicy), not on every request
-        endConnectionOnClose: false, // close() below ends the pool
+        endConnectionOnClose: false, // the data source is the application's, closed with it
         schema: {
           tableName: 'sessions',
           columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' },
         },
       },
-      pool,
+      storeConnection(ds),
     );
-    this.pool = pool;
+    this.ds = ds;
   }
 
   override get(sid: string, cb: (err: unknown, data?: session.SessionData | null) => void) {
-    this.pool.query<(SessionRow & mysql.RowDataPacket)[]>(SESSION_SQL, [sid], (err, rows) => {
-      if (err) return cb(err);
+    readRows<SessionRow>(this.ds, SESSION_SQL, [sid]).then((rows) => {
       const row = rows[0];
       if (!row || row.expires < Math.round(Date.now() / 1000)) return cb(null, null);
       let data: session.SessionData & { passport?: { user?: string } };
@@ -175,18 +168,13 @@ export class SessionStore extends MySQLStore {
           user: row.u_id ? userOf(row) : null,
         };
       cb(null, data);
-    });
+    }, cb);
   }
 
   override createSession(req: Request, data: session.SessionData) {
     const loaded = (data as unknown as { [LOADED_USER]?: Loaded })[LOADED_USER];
     if (loaded) (req as unknown as { [LOADED_USER]: Loaded })[LOADED_USER] = loaded;
     return super.createSession(req, data);
-  }
-
-  override async close() {
-    await super.close();
-    await new Promise<void>((resolve) => this.pool.end(() => resolve()));
   }
 }
 
@@ -196,8 +184,8 @@ export function recordSessionDevice(req: Request) {
   req.session.ip = req.ip ?? '';
 }
 
-export function createSessionStore(databaseUrl: string) {
-  return new SessionStore(databaseUrl);
+export function createSessionStore(ds: AppDataSource) {
+  return new SessionStore(ds);
 }
 
 export function sessionMiddleware(config: AppConfig, store: session.Store) {

@@ -53,6 +53,8 @@ const envSchema = z.object({
     .max(7 * 24 * 60)
     .default(60),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  /** A database statement slower than this many milliseconds is logged as a warning; 0 logs none. */
+  SLOW_QUERY_MS: z.coerce.number().int().min(0).max(600_000).default(500),
   OUTBOX_WORKER: bool.default(true),
   /**
    * Accountants and administrators of manufacturers must have a second factor. On by default in production mode,
@@ -94,6 +96,7 @@ export type AppConfig = {
     sweep: { graceMs: number; intervalMs: number };
   };
   logLevel: string;
+  slowQueryMs: number;
   outboxWorker: boolean;
   /** Accountants and administrators of manufacturers must have a second factor (SECOND_FACTOR_FOR_ROLES). */
   secondFactorForRoles: boolean;
@@ -157,6 +160,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
       },
     },
     logLevel: e.LOG_LEVEL,
+    slowQueryMs: e.SLOW_QUERY_MS,
     outboxWorker: e.OUTBOX_WORKER,
     secondFactorForRoles: e.SECOND_FACTOR_FOR_ROLES ?? mode === 'production',
     apiTokenRatePerMinute: e.API_TOKEN_RATE_PER_MINUTE,

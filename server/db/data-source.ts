@@ -1,30 +1,25 @@
 import 'reflect-metadata';
 import { DataSource, type Logger as TypeOrmLogger } from 'typeorm';
+import { createLogger } from '../lib/logger';
 import { TransactionObjectsSubscriber } from '../lib/transaction-objects';
 import { entities } from './entities';
 import { migrations } from './migrations';
+import { PinoQueryLogger } from './query-logger';
 
-export type QueryCounter = { count: number; queries: string[] };
+export type DataSourceOptions = {
+  poolSize?: number;
+  /**
+   * Where TypeORM reports statements, failures and slow statements: the server passes its pino logger wrapped in a
+   * PinoQueryLogger; tests pass their statement counter (tests/support/statement-counter.ts). Without one,
+   * failures and slow statements go to a pino logger at warn.
+   */
+  logger?: TypeOrmLogger;
+  /** A statement slower than this many milliseconds is logged as slow (SLOW_QUERY_MS); 0 logs none. */
+  slowQueryMs?: number;
+};
 
-// Counts the queries a piece of code runs (tests assert list endpoints run a fixed number).
-class CountingLogger implements TypeOrmLogger {
-  counter: QueryCounter | null = null;
-  logQuery(query: string) {
-    if (this.counter) {
-      this.counter.count += 1;
-      this.counter.queries.push(query);
-    }
-  }
-  logQueryError() {}
-  logQuerySlow() {}
-  logSchemaBuild() {}
-  logMigration() {}
-  log() {}
-}
-
-export function createDataSource(url: string, opts: { poolSize?: number } = {}) {
-  const logger = new CountingLogger();
-  const ds = new DataSource({
+export function createDataSource(url: string, opts: DataSourceOptions = {}) {
+  return new DataSource({
     type: 'mariadb',
     url,
     entities,
@@ -40,22 +35,12 @@ export function createDataSource(url: string, opts: { poolSize?: number } = {}) 
     supportBigNumbers: true,
     bigNumberStrings: true,
     poolSize: opts.poolSize ?? 20,
+    // The logger decides what to keep; TypeORM hands it every statement.
     logging: true,
-    logger,
+    logger: opts.logger ?? new PinoQueryLogger(createLogger('warn')),
+    maxQueryExecutionTime: opts.slowQueryMs || undefined,
     extra: { connectionLimit: opts.poolSize ?? 20 },
-  });
-  return Object.assign(ds, {
-    /** Runs fn and returns how many SQL statements it sent. */
-    async countQueries<T>(fn: () => Promise<T>): Promise<{ result: T; counter: QueryCounter }> {
-      const counter: QueryCounter = { count: 0, queries: [] };
-      logger.counter = counter;
-      try {
-        return { result: await fn(), counter };
-      } finally {
-        logger.counter = null;
-      }
-    },
   });
 }
 
-export type AppDataSource = ReturnType<typeof createDataSource>;
+export type AppDataSource = DataSource;

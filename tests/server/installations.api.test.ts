@@ -248,7 +248,7 @@ describe('installations', () => {
       );
     }
     const run = (size: number) =>
-      t.ds.countQueries(() => installer.agent.get(`/api/installations?pageSize=${size}`));
+      t.countQueries(() => installer.agent.get(`/api/installations?pageSize=${size}`));
     const small = await run(2);
     const large = await run(10);
     expect(large.result.body.items).toHaveLength(10);

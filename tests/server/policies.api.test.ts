@@ -217,9 +217,7 @@ describe('warranty policies', () => {
       );
     }
     const run = (size: number) =>
-      t.ds.countQueries(() =>
-        admin.agent.get(`/api/policies?manufacturerId=${admin.org.id}&pageSize=${size}`),
-      );
+      t.countQueries(() => admin.agent.get(`/api/policies?manufacturerId=${admin.org.id}&pageSize=${size}`));
     const small = await run(1);
     const large = await run(6);
     expect(large.result.body.items).toHaveLength(6);

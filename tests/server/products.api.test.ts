@@ -180,9 +180,7 @@ describe('product models', () => {
     const admin = await member('manufacturer', ['administrator']);
     for (let i = 0; i < 12; i++) await createProduct(t.ds, admin.org);
     const run = (size: number) =>
-      t.ds.countQueries(() =>
-        admin.agent.get(`/api/products?manufacturerId=${admin.org.id}&pageSize=${size}`),
-      );
+      t.countQueries(() => admin.agent.get(`/api/products?manufacturerId=${admin.org.id}&pageSize=${size}`));
     const small = await run(2);
     const large = await run(12);
     expect(small.result.body.items).toHaveLength(2);

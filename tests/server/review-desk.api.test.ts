@@ -92,3 +92,22 @@ describe('GET /api/review/reviewers', () => {
     await t.request().get('/api/review/reviewers').expect(401);
   });
 });
+
+describe('GET /api/review/queue', () => {
+  it('runs the session read and two statements whatever the page size, and never shows a draft or another manufacturer', async () => {
+    const w = await createReviewWorld(t.ds, filing, manufacturer);
+    for (let i = 0; i < 3; i++) await createClaimAt(t.ds, w, 'in_review');
+    // Signed in just now, so that no request here is the once-a-minute write of the session's last activity.
+    const agent = await signIn(t.request(), reviewer.email);
+    const small = await t.countQueries(() => agent.get('/api/review/queue?pageSize=1'));
+    const large = await t.countQueries(() => agent.get('/api/review/queue?pageSize=50'));
+    expect(large.result.status).toBe(200);
+    // The session with its user and organisation (one statement), then the page and its total side by side.
+    expect(small.counter.count).toBe(1 + 2);
+    expect(large.counter.count).toBe(1 + 2);
+    const items = large.result.body.items as { stage: string; contractor: { id: string } }[];
+    expect(large.result.body.total).toBe(4);
+    expect(items.map((x) => x.stage).sort()).toEqual(['filed', 'in_review', 'in_review', 'in_review']);
+    expect(items.every((x) => x.contractor.id === filing.id)).toBe(true);
+  });
+});

@@ -4,8 +4,16 @@ import { createApp, type App, type CreateAppOptions } from '../../server/app';
 import { loadConfig, type AppConfig } from '../../server/config/env';
 import { createDataSource, type AppDataSource } from '../../server/db/data-source';
 import { createLogger } from '../../server/lib/logger';
+import { StatementCounter, type QueryCounter } from './statement-counter';
 
-export type TestContext = { app: App; ds: AppDataSource; config: AppConfig; request: () => supertest.Agent };
+export type TestContext = {
+  app: App;
+  ds: AppDataSource;
+  config: AppConfig;
+  request: () => supertest.Agent;
+  /** Runs fn and returns how many SQL statements it sent (tests/support/statement-counter.ts). */
+  countQueries: <T>(fn: () => Promise<T>) => Promise<{ result: T; counter: QueryCounter }>;
+};
 
 /** createApp() on the real test database, as the server would build it, without listening. */
 export async function createTestApp(
@@ -21,10 +29,17 @@ export async function createTestApp(
     DATA_DIR: '.data/test-run',
     ...overrides,
   });
-  const ds = createDataSource(databaseUrl, { poolSize: 5 });
+  const statements = new StatementCounter();
+  const ds = createDataSource(databaseUrl, { poolSize: 5, logger: statements });
   await ds.initialize();
   const app = createApp({ config, ds, logger: createLogger('silent'), databaseUrl, ...options });
-  return { app, ds, config, request: () => supertest.agent(app) };
+  return {
+    app,
+    ds,
+    config,
+    request: () => supertest.agent(app),
+    countQueries: (fn) => statements.count(fn),
+  };
 }
 
 export async function closeTestApp(ctx: TestContext | undefined) {

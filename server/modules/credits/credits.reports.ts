@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import type { AbilityUser } from '../../../shared/abilities';
+import type { AbilityUser, AppAbility } from '../../../shared/abilities';
 import { negate, normalizeAmount, sumAmounts, toDecimal } from '../../../shared/credits/money';
 import type {
   BalanceDto,
@@ -15,16 +15,12 @@ import { Claim } from '../../db/entities/claim.entity';
 import { CreditMemo } from '../../db/entities/credit-memo.entity';
 import { clock } from '../../lib/clock';
 import { likeContains, parseSort } from '../../lib/pagination';
+import { namedScope, scopeConditions } from '../../lib/tenant-scope';
 import { presentMemo, presentQueueItem, type FirstApproval, type LoadedMemo } from './credits.presenter';
 
 // Read side of the credits: lists, the accountant's queue, balances, the export and the cost view. Every query
-// is scoped to the user's organisation (the manufacturer's memos, or the contractor's).
-
-type Scope = { column: 'manufacturer_id' | 'contractor_id'; orgId: string };
-export const scopeOf = (user: AbilityUser): Scope => ({
-  column: user.organization.kind === 'manufacturer' ? 'manufacturer_id' : 'contractor_id',
-  orgId: user.organization.id,
-});
+// is scoped to the user's organisation (the manufacturer's memos, or the contractor's): the lists take that scope
+// from the CASL rules (server/lib/tenant-scope.ts); ledger entries follow their memos' rule.
 
 const MEMO_SORTS = { issuedAt: 'cm.issued_at', number: 'cm.number', amount: 'cm.amount' };
 const QUEUE_SORTS = { approvedAt: 'c.stage_changed_at', amount: 'c.expected_credit', number: 'c.number' };
@@ -51,11 +47,11 @@ export function createCreditsReports(ds: AppDataSource) {
       return memo;
     },
 
-    async list(user: AbilityUser, q: CreditListQuery) {
-      const s = scopeOf(user);
+    async list(ability: AppAbility, user: AbilityUser, q: CreditListQuery) {
+      const scope = namedScope(scopeConditions(ability, 'CreditMemo', 'cm'));
       const sort = parseSort(q.sort, MEMO_SORTS)!;
       const qb = memoQuery()
-        .where(`cm.${s.column} = :org`, { org: s.orgId })
+        .where(scope.sql, scope.params)
         .orderBy(sort.column, sort.direction)
         .addOrderBy('cm.number', sort.direction)
         .offset((q.page - 1) * q.pageSize)
@@ -72,7 +68,9 @@ export function createCreditsReports(ds: AppDataSource) {
       return { items: (items as LoadedMemo[]).map((m) => presentMemo(m, user.organization.id)), total };
     },
 
-    async queue(user: AbilityUser, q: CreditQueueQuery) {
+    async queue(ability: AppAbility, user: AbilityUser, q: CreditQueueQuery) {
+      const creditable = scopeConditions(ability, 'Claim', 'c', { action: 'credit' });
+      const scope = namedScope(creditable);
       const sort = parseSort(q.sort, QUEUE_SORTS)!;
       const now = clock.now();
       const qb = ds
@@ -80,10 +78,8 @@ export function createCreditsReports(ds: AppDataSource) {
         .createQueryBuilder('c')
         .innerJoinAndSelect('c.contractor', 'con')
         .innerJoinAndSelect('c.productModel', 'pm')
-        .where('c.manufacturer_id = :org AND c.stage = :stage', {
-          org: user.organization.id,
-          stage: 'approved',
-        })
+        .where(scope.sql, scope.params)
+        .andWhere('c.stage = :stage', { stage: 'approved' })
         // Only what can be credited: an approved claim with an amount (a replacement without credit is not money).
         .andWhere('c.expected_credit > 0')
         .orderBy(sort.column, sort.direction)
@@ -103,8 +99,9 @@ export function createCreditsReports(ds: AppDataSource) {
         });
       const [items, total] = await qb.getManyAndCount();
       const totals: { currency: string; amount: string; n: string }[] = await ds.query(
-        "SELECT currency, SUM(expected_credit) AS amount, COUNT(*) AS n FROM claims WHERE manufacturer_id = ? AND stage = 'approved' GROUP BY currency ORDER BY currency",
-        [user.organization.id],
+        `SELECT c.currency, SUM(c.expected_credit) AS amount, COUNT(*) AS n FROM claims c
+          WHERE ${creditable.sql} AND c.stage = 'approved' GROUP BY c.currency ORDER BY c.currency`,
+        creditable.params,
       );
       // First approvals of credits above the second-approval amount, for this page's claims (the amount must
       // still be the claim's: a changed decision starts over).
@@ -141,8 +138,8 @@ export function createCreditsReports(ds: AppDataSource) {
     },
 
     /** Balances: the sum of the ledger entries per contractor, manufacturer and currency. */
-    async balances(user: AbilityUser): Promise<BalanceDto[]> {
-      const s = scopeOf(user);
+    async balances(ability: AppAbility): Promise<BalanceDto[]> {
+      const scope = scopeConditions(ability, 'CreditMemo', 'l');
       const rows: {
         cid: string;
         cname: string;
@@ -157,10 +154,10 @@ export function createCreditsReports(ds: AppDataSource) {
              FROM ledger_entries l
              JOIN organizations con ON con.id = l.contractor_id
              JOIN organizations mfr ON mfr.id = l.manufacturer_id
-            WHERE l.${s.column} = ?
+            WHERE ${scope.sql}
             GROUP BY l.contractor_id, con.name, l.manufacturer_id, mfr.name, l.currency
             ORDER BY mfr.name, con.name, l.currency`,
-        [s.orgId],
+        scope.params,
       );
       return rows.map((r) => ({
         contractor: { id: r.cid, name: r.cname },

@@ -65,21 +65,21 @@ export function creditsRouter(ctx: AppContext, storage?: Storage) {
   r.get('/', async (req, res) => {
     authorizeType(req, 'read', 'CreditMemo');
     const q = parseQuery(creditListQuerySchema, req);
-    const { items, total } = await reports.list(toAbilityUser(req.user!), q);
+    const { items, total } = await reports.list(req.ability, toAbilityUser(req.user!), q);
     res.json(pageOf(items, total, q));
   });
 
   r.get('/queue', async (req, res) => {
     authorizeType(req, 'credit', 'Claim');
     const q = parseQuery(creditQueueQuerySchema, req);
-    const { items, total, totals } = await reports.queue(toAbilityUser(req.user!), q);
+    const { items, total, totals } = await reports.queue(req.ability, toAbilityUser(req.user!), q);
     res.json({ ...pageOf(items, total, q), totals });
   });
 
   r.get('/balances', async (req, res) => {
     authorizeType(req, 'read', 'CreditMemo');
     parseQuery(z.strictObject({}), req);
-    res.json({ items: await reports.balances(toAbilityUser(req.user!)) });
+    res.json({ items: await reports.balances(req.ability) });
   });
 
   r.get('/export', async (req, res) => {

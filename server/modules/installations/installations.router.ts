@@ -18,7 +18,6 @@ import {
   createInstallationsService,
   INSTALLATION_COLUMNS,
   installationSchemasNow,
-  scopeOf,
 } from './installations.service';
 
 const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
@@ -31,7 +30,7 @@ export function installationsRouter(ctx: AppContext) {
   r.get('/', async (req, res) => {
     authorizeType(req, 'read', 'Installation');
     const q = parseQuery(installationListQuerySchema, req);
-    const { items, total } = await service.list(scopeOf(req.user!), q);
+    const { items, total } = await service.list(req.ability, q);
     res.json(pageOf(items.map(presentInstallation), total, q));
   });
 

@@ -1,5 +1,6 @@
 import crypto from 'node:crypto';
 import { In, type EntityManager } from 'typeorm';
+import type { AppAbility } from '../../../shared/abilities';
 import { coverageDate, versionInForce } from '../../../shared/catalogue/policy-version';
 import {
   installationSchemas,
@@ -11,7 +12,6 @@ import {
   type InstallationValues,
   type UpdateInstallationInput,
 } from '../../../shared/schemas/catalogue';
-import type { SessionUser } from '../../auth/passport';
 import type { AppDataSource } from '../../db/data-source';
 import { Conditions, readRows as readDbRows } from '../../db/read';
 import { InstallationUnit } from '../../db/entities/installation-unit.entity';
@@ -32,6 +32,7 @@ import { clock } from '../../lib/clock';
 import { AppError, conflict } from '../../lib/errors';
 import { changedFields } from '../../lib/history';
 import { likeContains, parseSort } from '../../lib/pagination';
+import { scopeConditions } from '../../lib/tenant-scope';
 import { installationAuditView, type InstallationListRow } from './installations.presenter';
 
 const SORTS = {
@@ -221,15 +222,6 @@ export const INSTALLATION_COLUMNS: ColumnSpec[] = [
 /** The payload schemas as of the server's clock: an install date after today (anywhere) is refused. */
 export const installationSchemasNow = () => installationSchemas(latestInstallDate(clock.now()));
 
-type Scope = { kind: 'contractor' | 'manufacturer'; orgId: string };
-export const scopeOf = (u: SessionUser): Scope => ({ kind: u.organization.kind, orgId: u.organization.id });
-
-function applyScope(w: Conditions, s: Scope) {
-  return s.kind === 'contractor'
-    ? w.and('i.contractor_id = ?', s.orgId)
-    : w.and('i.manufacturer_id = ?', s.orgId);
-}
-
 function dupError(serials: string[]) {
   const list =
     serials.slice(0, 20).join(', ') + (serials.length > 20 ? ` and ${serials.length - 20} more` : '');
@@ -329,9 +321,11 @@ export function createInstallationsService(ds: AppDataSource) {
   const repo = ds.getRepository(Installation);
 
   return {
-    async list(scope: Scope, q: InstallationListQuery) {
+    /** The installations the user may read (the CASL rules, server/lib/tenant-scope.ts), filtered and paged. */
+    async list(ability: AppAbility, q: InstallationListQuery) {
       const sort = parseSort(q.sort, SORTS)!;
-      const w = applyScope(new Conditions(), scope);
+      const scope = scopeConditions(ability, 'Installation', 'i');
+      const w = new Conditions().and(scope.sql, ...scope.params);
       if (q.productModelId) w.and('i.product_model_id = ?', q.productModelId);
       if (q.manufacturerId) w.and('i.manufacturer_id = ?', q.manufacturerId);
       if (q.contractorId) w.and('i.contractor_id = ?', q.contractorId);

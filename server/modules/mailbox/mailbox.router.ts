@@ -1,8 +1,7 @@
 import { Router } from 'express';
 import type { AppContext } from '../../context';
-import { User } from '../../db/entities/user.entity';
 import { authorizeType, requireUser } from '../../middleware/auth';
-import { readMailbox } from './mailbox.service';
+import { organizationMailbox } from './mailbox.service';
 
 // Demo mode only: lets an administrator read what the fake SMTP server received for their own organisation.
 export function mailboxRouter(ctx: AppContext) {
@@ -10,11 +9,7 @@ export function mailboxRouter(ctx: AppContext) {
   r.use(requireUser);
   r.get('/', async (req, res) => {
     authorizeType(req, 'read', 'Mailbox');
-    const members = await ctx.ds
-      .getRepository(User)
-      .find({ where: { organizationId: req.user!.organizationId }, select: { email: true } });
-    const emails = new Set(members.map((m) => m.email.toLowerCase()));
-    const items = (await readMailbox(ctx.config.mailboxDir)).filter((m) => m.to.some((t) => emails.has(t)));
+    const items = await organizationMailbox(ctx.ds, ctx.config.mailboxDir, req.user!.organizationId);
     res.json({ items, total: items.length, page: 1, pageSize: items.length });
   });
   return r;

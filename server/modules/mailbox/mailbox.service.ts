@@ -1,6 +1,8 @@
 import fs from 'node:fs/promises';
 import path from 'node:path';
 import { simpleParser } from 'mailparser';
+import type { AppDataSource } from '../../db/data-source';
+import { readRows } from '../../db/read';
 
 export type MailboxMessage = {
   id: string;
@@ -42,4 +44,13 @@ export async function readMailbox(dir: string, limit = 200): Promise<MailboxMess
     });
   }
   return out;
+}
+
+/** What the fake SMTP server received for any member of the organisation (demo mode's mailbox page). */
+export async function organizationMailbox(ds: AppDataSource, dir: string, organizationId: string) {
+  const members = await readRows<{ email: string }>(ds, 'SELECT email FROM users WHERE organization_id = ?', [
+    organizationId,
+  ]);
+  const emails = new Set(members.map((m) => m.email.toLowerCase()));
+  return (await readMailbox(dir)).filter((m) => m.to.some((t) => emails.has(t)));
 }
