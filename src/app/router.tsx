@@ -1,4 +1,4 @@
-import { createBrowserRouter } from 'react-router-dom';
+import { createBrowserRouter } from 'react-router';
 import { ErrorRoute } from './routes/error';
 
 // Every screen is its own lazily loaded module; the sign-in screen stays small.

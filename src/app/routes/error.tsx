@@ -1,4 +1,4 @@
-import { isRouteErrorResponse, Link, useRouteError } from 'react-router-dom';
+import { isRouteErrorResponse, Link, useRouteError } from 'react-router';
 import { buttonClasses } from '../../components/ui/button';
 import { Logo } from '../../components/layout/logo';
 

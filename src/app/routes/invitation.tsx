@@ -1,7 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery } from '@tanstack/react-query';
 import { useForm } from 'react-hook-form';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router';
 import { acceptInvitationSchema, type AcceptInvitationInput } from '../../../shared/schemas/auth';
 import { Logo } from '../../components/layout/logo';
 import { Button, buttonClasses } from '../../components/ui/button';

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useParams } from 'react-router-dom';
+import { useParams } from 'react-router';
 import { subject } from '@casl/ability';
 import { Badge } from '../../../components/ui/badge';
 import { PageHeader } from '../../../components/ui/page-header';

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router';
 import { STAGE_LABELS } from '../../../../shared/claims/stages';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { PageHeader } from '../../../components/ui/page-header';

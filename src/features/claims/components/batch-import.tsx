@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { Download, FileSpreadsheet } from 'lucide-react';
 import { useRef, useState } from 'react';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import type { ClaimBatchResult } from '../../../../shared/schemas/claims';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';

@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { FilePlus2, Files, Search } from 'lucide-react';
 import { useState } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router';
 import { CLAIM_STAGE_LABELS, CLAIM_STAGES } from '../../../../shared/schemas/claims';
 import { buttonClasses } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';

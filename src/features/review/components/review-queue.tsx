@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
-import { Link, useNavigate } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router';
 import { ClipboardCheck, SlidersHorizontal } from 'lucide-react';
 import { STAGE_LABELS } from '../../../../shared/claims/stages';
 import { Badge, type Tone } from '../../../components/ui/badge';
