@@ -4,11 +4,12 @@ import { CheckCircle2, AlertTriangle, Receipt } from 'lucide-react';
 import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
-import { InputField, SelectField } from '../../../components/ui/field';
+import { SearchField, useListState } from '../../../components/ui/data-table';
+import { SelectField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { Pagination, Table, Td, Th } from '../../../components/ui/table';
 import { ApiError } from '../../../lib/api-client';
-import { creditPdfUrl, creditQueries, type QueueFilters } from '../api/credit-queries';
+import { creditPdfUrl, creditQueries } from '../api/credit-queries';
 import { issueCredit } from '../api/issue-credit';
 import { Money } from './money';
 
@@ -21,7 +22,7 @@ type Result = { claimId: string; label: string; ok: boolean; text: string; memoI
  */
 export function CreditDesk() {
   const qc = useQueryClient();
-  const [filters, setFilters] = useState<QueueFilters>({ page: 1 });
+  const { values, params: filters, set, setPage } = useListState({ q: '', currency: '', minAgeDays: '' });
   const queue = useQuery(creditQueries.queue(filters));
   const [selected, setSelected] = useState<Set<string>>(new Set());
   const [running, setRunning] = useState(false);
@@ -101,16 +102,17 @@ export function CreditDesk() {
         onSubmit={(e) => e.preventDefault()}
         role="search"
       >
-        <InputField
+        <SearchField
+          type="text"
           label="Search claims"
           placeholder="Claim number, contractor or model"
-          value={filters.q ?? ''}
-          onChange={(e) => setFilters({ ...filters, page: 1, q: e.target.value })}
+          value={values.q}
+          onChange={(q) => set({ q })}
         />
         <SelectField
           label="Currency"
-          value={filters.currency ?? ''}
-          onChange={(e) => setFilters({ ...filters, page: 1, currency: e.target.value || undefined })}
+          value={values.currency}
+          onChange={(e) => set({ currency: e.target.value })}
         >
           <option value="">All currencies</option>
           <option value="USD">USD</option>
@@ -119,8 +121,8 @@ export function CreditDesk() {
         </SelectField>
         <SelectField
           label="Waiting at least"
-          value={filters.minAgeDays ?? ''}
-          onChange={(e) => setFilters({ ...filters, page: 1, minAgeDays: e.target.value || undefined })}
+          value={values.minAgeDays}
+          onChange={(e) => set({ minAgeDays: e.target.value })}
         >
           <option value="">Any time</option>
           <option value="7">7 days</option>
@@ -253,12 +255,7 @@ export function CreditDesk() {
               </p>
             ))}
           </div>
-          <Pagination
-            page={filters.page}
-            pageSize={50}
-            total={queue.data?.total ?? 0}
-            onPage={(page) => setFilters({ ...filters, page })}
-          />
+          <Pagination page={filters.page} pageSize={50} total={queue.data?.total ?? 0} onPage={setPage} />
         </>
       )}
     </Card>
