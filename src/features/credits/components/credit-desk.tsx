@@ -1,5 +1,5 @@
 import { useMemo, useRef, useState } from 'react';
-import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { CheckCircle2, AlertTriangle, Receipt } from 'lucide-react';
 import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
@@ -9,7 +9,7 @@ import { SelectField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { Pagination, Table, Td, Th } from '../../../components/ui/table';
 import { ApiError } from '../../../lib/api-client';
-import { creditPdfUrl, creditQueries } from '../api/credit-queries';
+import { creditPdfUrl, creditQueries, invalidateAfterCredit } from '../api/credit-queries';
 import { issueCredit } from '../api/issue-credit';
 import { Money } from './money';
 
@@ -30,6 +30,10 @@ export function CreditDesk() {
   const [total, setTotal] = useState(0);
   const [results, setResults] = useState<Result[]>([]);
   const keys = useRef(new Map<string, string>());
+  // One request per claim, one after another; the lists are refreshed once, after the last.
+  const issue = useMutation({
+    mutationFn: ({ claimId, key }: { claimId: string; key: string }) => issueCredit(claimId, key),
+  });
 
   const items = useMemo(() => queue.data?.items ?? [], [queue.data]);
   const allOnPage = items.length > 0 && items.every((i) => selected.has(i.claimId));
@@ -52,7 +56,7 @@ export function CreditDesk() {
       let key = keys.current.get(item.claimId);
       if (!key) keys.current.set(item.claimId, (key = crypto.randomUUID()));
       try {
-        const r = await issueCredit(item.claimId, key);
+        const r = await issue.mutateAsync({ claimId: item.claimId, key });
         keys.current.delete(item.claimId);
         setResults((rs) => [
           ...rs,
@@ -81,7 +85,7 @@ export function CreditDesk() {
     }
     setSelected(new Set());
     setRunning(false);
-    await qc.invalidateQueries({ queryKey: creditQueries.all });
+    await invalidateAfterCredit(qc);
   }
 
   const percent = total ? Math.round((done / total) * 100) : 0;
