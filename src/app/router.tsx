@@ -1,7 +1,8 @@
 import { createBrowserRouter } from 'react-router';
 import { ErrorRoute } from './routes/error';
 
-// Every screen is its own lazily loaded module; the sign-in screen stays small.
+// Every screen is its own lazily loaded module; the sign-in screen stays small. A screen that cannot draw
+// without its record exports a `loader` that prefetches it into the query cache (see app/query-client.ts).
 export const router = createBrowserRouter([
   {
     path: '/sign-in',
@@ -64,7 +65,11 @@ export const router = createBrowserRouter([
       },
       {
         path: 'catalogue/:id',
-        lazy: () => import('./routes/catalogue/product').then((m) => ({ Component: m.ProductRoute })),
+        lazy: () =>
+          import('./routes/catalogue/product').then((m) => ({
+            Component: m.ProductRoute,
+            loader: m.loader,
+          })),
       },
       {
         path: 'policies',
@@ -72,7 +77,8 @@ export const router = createBrowserRouter([
       },
       {
         path: 'policies/:id',
-        lazy: () => import('./routes/catalogue/policy').then((m) => ({ Component: m.PolicyRoute })),
+        lazy: () =>
+          import('./routes/catalogue/policy').then((m) => ({ Component: m.PolicyRoute, loader: m.loader })),
       },
       {
         path: 'installations',
@@ -82,12 +88,17 @@ export const router = createBrowserRouter([
       {
         path: 'installations/new',
         lazy: () =>
-          import('./routes/catalogue/installation-new').then((m) => ({ Component: m.InstallationNewRoute })),
+          import('./routes/catalogue/installation-new').then((m) => ({
+            Component: m.InstallationNewRoute,
+          })),
       },
       {
         path: 'installations/:id',
         lazy: () =>
-          import('./routes/catalogue/installation').then((m) => ({ Component: m.InstallationRoute })),
+          import('./routes/catalogue/installation').then((m) => ({
+            Component: m.InstallationRoute,
+            loader: m.loader,
+          })),
       },
       {
         path: 'review',
@@ -95,11 +106,19 @@ export const router = createBrowserRouter([
       },
       {
         path: 'review/:id',
-        lazy: () => import('./routes/review/claim').then((m) => ({ Component: m.ReviewClaimRoute })),
+        lazy: () =>
+          import('./routes/review/claim').then((m) => ({
+            Component: m.ReviewClaimRoute,
+            loader: m.loader,
+          })),
       },
       {
         path: 'claims/:id/workflow',
-        lazy: () => import('./routes/claims/workflow').then((m) => ({ Component: m.ClaimWorkflowRoute })),
+        lazy: () =>
+          import('./routes/claims/workflow').then((m) => ({
+            Component: m.ClaimWorkflowRoute,
+            loader: m.loader,
+          })),
       },
       {
         path: 'claims',
@@ -115,12 +134,15 @@ export const router = createBrowserRouter([
       },
       {
         path: 'claims/:id',
-        lazy: () => import('./routes/claims/claim').then((m) => ({ Component: m.ClaimRoute })),
+        lazy: () =>
+          import('./routes/claims/claim').then((m) => ({ Component: m.ClaimRoute, loader: m.loader })),
       },
       {
         path: 'analytics',
         lazy: () =>
-          import('./routes/analytics/failure-analysis').then((m) => ({ Component: m.FailureAnalysisRoute })),
+          import('./routes/analytics/failure-analysis').then((m) => ({
+            Component: m.FailureAnalysisRoute,
+          })),
       },
       {
         path: 'reserve',

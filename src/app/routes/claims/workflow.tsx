@@ -4,8 +4,14 @@ import { PageHeader } from '../../../components/ui/page-header';
 import { Spinner } from '../../../components/ui/spinner';
 import { reviewQueries } from '../../../features/review/api/review-queries';
 import { InstallerWorkflow } from '../../../features/review/components/claim-workflow';
+import type { LoaderFunctionArgs } from 'react-router';
+import { prefetched, queryClient } from '../../query-client';
 
 /** The installer's view of the review: what was asked and by when, the return, the decision and its letter. */
+/** The workflow is needed before anything draws: fetched while the route loads. */
+export const loader = ({ params }: LoaderFunctionArgs) =>
+  prefetched(queryClient.ensureQueryData(reviewQueries.workflow(params.id ?? '')));
+
 export function ClaimWorkflowRoute() {
   const { id = '' } = useParams();
   const wf = useQuery(reviewQueries.workflow(id));

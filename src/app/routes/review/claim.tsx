@@ -16,6 +16,15 @@ import {
 } from '../../../features/review/components/claim-workflow';
 import { useSession } from '../../../lib/ability';
 import { CalendarDate, DateTime, useDateText } from '../../../components/ui/date-time';
+import type { LoaderFunctionArgs } from 'react-router';
+import { prefetched, queryClient } from '../../query-client';
+
+/** The claim and its workflow are needed before anything draws: fetched together while the route loads. */
+export const loader = ({ params }: LoaderFunctionArgs) =>
+  prefetched(
+    queryClient.ensureQueryData(reviewQueries.detail(params.id ?? '')),
+    queryClient.ensureQueryData(reviewQueries.workflow(params.id ?? '')),
+  );
 
 /** The review screen: the evidence on the left, the engine's findings and the moves on the right (one column on a phone). */
 export function ReviewClaimRoute() {
