@@ -1,9 +1,9 @@
 import { RotateCcw } from 'lucide-react';
-import { isRouteErrorResponse, Link, useRouteError } from 'react-router';
-import { buttonClasses } from '../../components/ui/button';
+import { isRouteErrorResponse, useRouteError } from 'react-router';
 import { Card } from '../../components/ui/card';
 import { EmptyState } from '../../components/ui/empty-state';
 import { ApiError } from '../../lib/api-client';
+import { ErrorActions } from './error';
 import { NotFoundRoute } from './not-found';
 
 /**
@@ -21,20 +21,7 @@ export function RouteError() {
       <EmptyState
         icon={<RotateCcw className="size-6" />}
         title="This screen could not be shown"
-        action={
-          <span className="flex flex-wrap justify-center gap-2">
-            <button
-              type="button"
-              className={buttonClasses('secondary')}
-              onClick={() => window.location.reload()}
-            >
-              Reload
-            </button>
-            <Link to="/" className={buttonClasses('primary')}>
-              Go to home
-            </Link>
-          </span>
-        }
+        action={<ErrorActions />}
       >
         Reload the page; if it happens again, tell your administrator.
       </EmptyState>
