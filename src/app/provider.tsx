@@ -1,23 +1,11 @@
-import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { useState, type ReactNode } from 'react';
+import { QueryClientProvider } from '@tanstack/react-query';
+import type { ReactNode } from 'react';
 import { ToastProvider } from '../components/ui/toast';
-import { ApiError } from '../lib/api-client';
+import { queryClient } from './query-client';
 
 export function AppProvider({ children }: { children: ReactNode }) {
-  const [client] = useState(
-    () =>
-      new QueryClient({
-        defaultOptions: {
-          queries: {
-            retry: (count, err) =>
-              !(err instanceof ApiError && err.status >= 400 && err.status < 500) && count < 2,
-            refetchOnWindowFocus: false,
-          },
-        },
-      }),
-  );
   return (
-    <QueryClientProvider client={client}>
+    <QueryClientProvider client={queryClient}>
       <ToastProvider>{children}</ToastProvider>
     </QueryClientProvider>
   );

@@ -1,6 +1,7 @@
-import { cleanup, render, screen, within } from '@testing-library/react';
+import { act, cleanup, render, renderHook, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
+import { MemoryRouter, useLocation, useNavigate } from 'react-router';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 
 import type { Paginated } from '../../shared/schemas/users';
@@ -8,10 +9,13 @@ import {
   DataTable,
   nextSort,
   readSort,
+  SearchField,
+  useListState,
   type Column,
   type PagedResult,
 } from '../../src/components/ui/data-table';
 import { ApiError } from '../../src/lib/api-client';
+import { SEARCH_PAUSE_MS } from '../../src/lib/use-debounced-text';
 
 // Vitest runs without globals here, so Testing Library cannot register its own cleanup.
 afterEach(cleanup);
@@ -154,5 +158,81 @@ describe('sort parameters', () => {
     expect(nextSort('-name', 'name')).toBe('name');
     expect(nextSort('name', 'amount', 'descending')).toBe('-amount');
     expect(nextSort('-amount', 'name')).toBe('name');
+  });
+});
+
+describe('useListState: the list in the address', () => {
+  const DEFAULTS = { q: '', status: 'active', sort: 'name' };
+  /** The hook inside a memory router, with the router's own location and Back at hand. */
+  function renderList(at: string) {
+    let location = '';
+    let back = () => {};
+    function Probe() {
+      location = useLocation().search;
+      const navigate = useNavigate();
+      back = () => navigate(-1);
+      return null;
+    }
+    const wrapper = ({ children }: { children: ReactNode }) => (
+      <MemoryRouter initialEntries={[at]}>
+        <Probe />
+        {children}
+      </MemoryRouter>
+    );
+    const hook = renderHook(() => useListState(DEFAULTS), { wrapper });
+    return { hook, location: () => location, back: () => act(() => back()) };
+  }
+
+  it('reads filters, sort and page from the address, defaults where it says nothing', () => {
+    const { hook } = renderList('/things?q=lamp&sort=-name&page=3&other=kept');
+    expect(hook.result.current.values).toEqual({ q: 'lamp', status: 'active', sort: '-name', page: 3 });
+    expect(hook.result.current.params).toEqual({ q: 'lamp', status: 'active', sort: '-name', page: 3 });
+    // "" is a value of its own when the default is not empty ("any status"), and is left out of the query.
+    const any = renderList('/things?status=').hook;
+    expect(any.result.current.values.status).toBe('');
+    expect(any.result.current.params).toEqual({ sort: 'name', page: 1 });
+  });
+
+  it('writes a filter into the address, back to page 1, leaving defaults and other parameters alone', () => {
+    const { hook, location } = renderList('/things?page=4&other=kept');
+    act(() => hook.result.current.set({ q: 'flood', status: '' }));
+    expect(new URLSearchParams(location())).toEqual(new URLSearchParams('other=kept&q=flood&status='));
+    act(() => hook.result.current.set({ status: 'active', q: '' }));
+    expect(location()).toBe('?other=kept');
+    expect(hook.result.current.values.page).toBe(1);
+  });
+
+  it('adds a history entry per page turned (Back returns to the page before); filters replace theirs', () => {
+    const { hook, location, back } = renderList('/things?q=flood');
+    act(() => hook.result.current.setPage(2));
+    act(() => hook.result.current.setPage(3));
+    expect(hook.result.current.values.page).toBe(3);
+    back();
+    expect(hook.result.current.values).toMatchObject({ q: 'flood', page: 2 });
+    act(() => hook.result.current.set({ sort: '-name' }));
+    expect(location()).toBe('?q=flood&sort=-name');
+    back(); // the filter replaced page 2's entry, so Back goes to the first page
+    expect(hook.result.current.values).toMatchObject({ q: 'flood', sort: 'name', page: 1 });
+  });
+
+  it('reset puts every filter at once', () => {
+    const { hook, location } = renderList('/things?q=lamp&page=2');
+    act(() => hook.result.current.reset({ status: '' }));
+    expect(location()).toBe('?status=');
+  });
+});
+
+describe('SearchField', () => {
+  it('applies the search once typing pauses, and at once on Enter', async () => {
+    const user = userEvent.setup();
+    const onChange = vi.fn();
+    render(<SearchField label="Search" placeholder="Name" value="" onChange={onChange} />);
+    await user.type(screen.getByLabelText('Search'), 'lamp');
+    expect(onChange).not.toHaveBeenCalled(); // not on every key
+    await waitFor(() => expect(onChange).toHaveBeenCalledWith('lamp'), { timeout: SEARCH_PAUSE_MS * 4 });
+    expect(onChange).toHaveBeenCalledTimes(1);
+    onChange.mockClear();
+    await user.type(screen.getByLabelText('Search'), 's{Enter}');
+    expect(onChange).toHaveBeenCalledWith('lamps');
   });
 });

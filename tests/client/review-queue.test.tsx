@@ -1,7 +1,7 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { cleanup, render, screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { MemoryRouter, Route, Routes, useParams } from 'react-router-dom';
+import { MemoryRouter, Route, Routes, useLocation, useParams } from 'react-router';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { QueueItemDto } from '../../shared/claims/workflow';
 import { ReviewQueue } from '../../src/features/review/components/review-queue';
@@ -94,11 +94,20 @@ function Opened() {
   return <p>Opened claim {useParams().id}</p>;
 }
 
-function renderQueue() {
+/** Where the router is: the queue keeps its filters in the address. */
+let address = '';
+function Address() {
+  const l = useLocation();
+  address = l.search;
+  return null;
+}
+
+function renderQueue(at = '/review') {
   const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   return render(
     <QueryClientProvider client={client}>
-      <MemoryRouter initialEntries={['/review']}>
+      <MemoryRouter initialEntries={[at]}>
+        <Address />
         <Routes>
           <Route path="/review" element={<ReviewQueue manufacturerId={MANUFACTURER_ID} />} />
           <Route path="/review/:id" element={<Opened />} />
@@ -114,6 +123,7 @@ const openFilters = (user: ReturnType<typeof userEvent.setup>) =>
   user.click(screen.getByRole('button', { name: /^(Filters|\d+ filters?)$/ }));
 
 describe('the review queue', () => {
+  // Many steps, one of them waiting for the search's pause: more than the default 5 s on a busy machine.
   it('asks for the open stages, oldest in its stage first; each filter changes the query', async () => {
     const user = userEvent.setup();
     renderQueue();
@@ -136,13 +146,13 @@ describe('the review queue', () => {
     await waitFor(() => expect(lastQuery().get('sort')).toBe('-amount'));
     await user.type(screen.getByLabelText('Search'), 'Depot');
     await waitFor(() => expect(lastQuery().get('q')).toBe('Depot'));
-    // Every filter applies together, and a change goes back to the first page.
+    // Every filter applies together, and a change goes back to the first page (sent without a page).
     expect(Object.fromEntries(lastQuery())).toMatchObject({
       verdict: 'excluded',
       stage: 'needs_info',
       assignee: 'me',
-      page: '1',
     });
+    expect(lastQuery().has('page')).toBe(false);
     // Age since filing and amount: sent once they read as numbers; until then the field says what it needs.
     await user.type(screen.getByLabelText('Filed at least (days ago)'), '30');
     await waitFor(() => expect(lastQuery().get('minAgeDays')).toBe('30'));
@@ -156,7 +166,7 @@ describe('the review queue', () => {
     await user.selectOptions(screen.getByLabelText('Stage'), '');
     await waitFor(() => expect(lastQuery().has('verdict')).toBe(false));
     expect(lastQuery().has('stage')).toBe(false);
-  });
+  }, 15_000);
 
   it('filters by one of the manufacturer’s product models and by a contractor that files with it', async () => {
     const user = userEvent.setup();
@@ -176,7 +186,7 @@ describe('the review queue', () => {
     await screen.findByRole('option', { name: 'TW-HB150 · High-bay 150 W' });
     await user.selectOptions(product, 'TW-HB150 · High-bay 150 W');
     await waitFor(() => expect(lastQuery().get('productModelId')).toBe(PRODUCT_ID));
-    expect(lastQuery().get('page')).toBe('1');
+    expect(lastQuery().has('page')).toBe(false);
 
     const contractor = screen.getByLabelText('Contractor');
     await screen.findByRole('option', { name: 'Tidewater Electric' });
@@ -274,6 +284,51 @@ describe('the review queue', () => {
     expect(
       await screen.findByText('The queue could not be loaded. Try again in a moment.'),
     ).toBeInTheDocument();
+  });
+});
+
+describe('the queue in the address', () => {
+  it('reads its filters and page from the address (reload, Back, a shared link)', async () => {
+    renderQueue('/review?verdict=excluded&stage=&q=Depot&minAgeDays=30&page=3');
+    await screen.findByRole('list', { name: 'Claims' });
+    expect(Object.fromEntries(asked[0].searchParams)).toEqual({
+      pageSize: '25',
+      verdict: 'excluded',
+      q: 'Depot',
+      minAgeDays: '30',
+      sort: 'stageChangedAt',
+      page: '3',
+    });
+    expect(screen.getByLabelText('Search')).toHaveValue('Depot');
+    expect(screen.getByLabelText('Engine verdict')).toHaveValue('excluded');
+    expect(screen.getByLabelText('Stage')).toHaveValue(''); // "Every stage", not the default open ones
+    expect(screen.getByLabelText('Filed at least (days ago)')).toHaveValue('30');
+  });
+
+  it('writes a change of filter into the address and goes back to the first page', async () => {
+    const user = userEvent.setup();
+    renderQueue('/review?page=2');
+    await screen.findByRole('list', { name: 'Claims' });
+    await openFilters(user);
+    await user.selectOptions(screen.getByLabelText('Assigned'), 'me');
+    await waitFor(() => expect(new URLSearchParams(address).get('assignee')).toBe('me'));
+    expect(new URLSearchParams(address).has('page')).toBe(false);
+    // A default value stays out of the address.
+    await user.selectOptions(screen.getByLabelText('Sort'), 'stageChangedAt');
+    expect(new URLSearchParams(address).has('sort')).toBe(false);
+  });
+
+  it('searches once typing pauses, not on every key', async () => {
+    const user = userEvent.setup();
+    renderQueue();
+    await screen.findByRole('list', { name: 'Claims' });
+    await user.type(screen.getByLabelText('Search'), 'Depot 7');
+    await waitFor(() => expect(lastQuery().get('q')).toBe('Depot 7'));
+    // One request for the whole word: none for "D", "De", … on the way.
+    expect(asked.filter((u) => u.searchParams.has('q')).map((u) => u.searchParams.get('q'))).toEqual([
+      'Depot 7',
+    ]);
+    expect(new URLSearchParams(address).get('q')).toBe('Depot 7');
   });
 });
 

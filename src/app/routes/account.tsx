@@ -1,4 +1,4 @@
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { ShieldCheck } from 'lucide-react';
 import { Card } from '../../components/ui/card';
 import { PageHeader } from '../../components/ui/page-header';

@@ -1,5 +1,5 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { Navigate, Outlet, useLocation, useNavigate } from 'react-router-dom';
+import { Navigate, Outlet, useLocation, useNavigate } from 'react-router';
 import { ROLE_LABELS } from '../../../shared/roles';
 import { AppShell } from '../../components/layout/app-shell';
 import { Spinner } from '../../components/ui/spinner';

@@ -1,6 +1,7 @@
-import { isRouteErrorResponse, Link, useRouteError } from 'react-router-dom';
+import { isRouteErrorResponse, Link, useRouteError } from 'react-router';
 import { buttonClasses } from '../../components/ui/button';
 import { Logo } from '../../components/layout/logo';
+import { cn } from '../../lib/cn';
 
 export function ErrorRoute() {
   const error = useRouteError();
@@ -17,19 +18,22 @@ export function ErrorRoute() {
             ? 'That address does not lead anywhere in Lumenproof.'
             : 'The screen could not be shown. Reload the page; if it happens again, tell your administrator.'}
         </p>
-        <div className="mt-6 flex justify-center gap-2">
-          <button
-            type="button"
-            className={buttonClasses('secondary')}
-            onClick={() => window.location.reload()}
-          >
-            Reload
-          </button>
-          <Link to="/" className={buttonClasses('primary')}>
-            Go to home
-          </Link>
-        </div>
+        <ErrorActions className="mt-6" />
       </div>
     </main>
+  );
+}
+
+/** The two ways out of a screen that could not be shown: reload it, or go home. */
+export function ErrorActions({ className }: { className?: string }) {
+  return (
+    <div className={cn('flex flex-wrap justify-center gap-2', className)}>
+      <button type="button" className={buttonClasses('secondary')} onClick={() => window.location.reload()}>
+        Reload
+      </button>
+      <Link to="/" className={buttonClasses('primary')}>
+        Go to home
+      </Link>
+    </div>
   );
 }

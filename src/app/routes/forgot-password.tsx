@@ -1,4 +1,4 @@
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { Logo } from '../../components/layout/logo';
 import { Card } from '../../components/ui/card';
 import { ForgotPasswordForm } from '../../features/auth/components/password-forms';

@@ -1,12 +1,12 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery } from '@tanstack/react-query';
 import { useForm } from 'react-hook-form';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router';
 import { acceptInvitationSchema, type AcceptInvitationInput } from '../../../shared/schemas/auth';
 import { Logo } from '../../components/layout/logo';
 import { Button, buttonClasses } from '../../components/ui/button';
 import { Card } from '../../components/ui/card';
-import { InputField } from '../../components/ui/field';
+import { apiErrorText, FormError, TextField } from '../../components/ui/form';
 import { Spinner } from '../../components/ui/spinner';
 import { acceptInvitation, getInvitation } from '../../features/auth/api/invitations';
 import { ApiError } from '../../lib/api-client';
@@ -62,17 +62,13 @@ export function InvitationRoute() {
                 sentence works well.
               </p>
               <form noValidate className="space-y-4" onSubmit={form.handleSubmit((v) => accept.mutate(v))}>
-                {accept.error ? (
-                  <p role="alert" className="rounded-lg bg-bad-50 px-3 py-2 text-sm text-bad-800">
-                    {accept.error instanceof ApiError ? accept.error.message : 'Could not save the password.'}
-                  </p>
-                ) : null}
-                <InputField
+                <FormError message={apiErrorText(accept.error, 'Could not save the password.')} />
+                <TextField
+                  form={form}
+                  name="password"
                   label="New password"
                   type="password"
                   autoComplete="new-password"
-                  error={form.formState.errors.password?.message}
-                  {...form.register('password')}
                 />
                 <Button type="submit" size="lg" className="w-full" loading={accept.isPending}>
                   Set password

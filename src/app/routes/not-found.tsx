@@ -1,4 +1,4 @@
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { SearchX } from 'lucide-react';
 import { buttonClasses } from '../../components/ui/button';
 import { Card } from '../../components/ui/card';

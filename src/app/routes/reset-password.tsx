@@ -1,4 +1,4 @@
-import { useParams } from 'react-router-dom';
+import { useParams } from 'react-router';
 import { Logo } from '../../components/layout/logo';
 import { Card } from '../../components/ui/card';
 import { ResetPasswordForm } from '../../features/auth/components/password-forms';

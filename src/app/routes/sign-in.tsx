@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router';
 import { Logo } from '../../components/layout/logo';
 import { Card } from '../../components/ui/card';
 import { authQueries } from '../../features/auth/api/auth-queries';

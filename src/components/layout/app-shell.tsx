@@ -1,5 +1,5 @@
 import { useEffect, useState, type ReactNode } from 'react';
-import { Link, NavLink, useLocation } from 'react-router-dom';
+import { Link, NavLink, useLocation } from 'react-router';
 import { LogOut, MoreHorizontal, ShieldCheck, UserRound } from 'lucide-react';
 import type { NavItem } from '../../config/nav';
 import { cn } from '../../lib/cn';

@@ -1,8 +1,10 @@
-import { useState, type ReactNode } from 'react';
+import { type ReactNode } from 'react';
+import { useSearchParams } from 'react-router';
 import { ArrowDown, ArrowUp, ArrowUpDown } from 'lucide-react';
 import type { Paginated } from '../../../shared/schemas/users';
 import { ApiError } from '../../lib/api-client';
 import { cn } from '../../lib/cn';
+import { useDebouncedText } from '../../lib/use-debounced-text';
 import { Card } from './card';
 import { EmptyState } from './empty-state';
 import { InputField, optionsOf, SelectField } from './field';
@@ -164,7 +166,10 @@ export function TableToolbar({ className, children }: { className?: string; chil
   return <div className={cn('border-b border-ink-100 p-3 sm:p-4', className)}>{children}</div>;
 }
 
-/** The search box of a list; the label may be for screen readers only where the placeholder says enough. */
+/**
+ * The search box of a list; the label may be for screen readers only where the placeholder says enough. `value`
+ * is the applied search: `onChange` is called once typing pauses (or on Enter), not on every key.
+ */
 export function SearchField({
   label,
   placeholder,
@@ -172,6 +177,7 @@ export function SearchField({
   onChange,
   hideLabel = false,
   className,
+  type = 'search',
 }: {
   label: string;
   placeholder: string;
@@ -179,14 +185,20 @@ export function SearchField({
   onChange: (value: string) => void;
   hideLabel?: boolean;
   className?: string;
+  /** A plain text box where the screen has always had one. */
+  type?: 'search' | 'text';
 }) {
+  const { text, setText, commit } = useDebouncedText(value, onChange);
   return (
     <InputField
       label={label}
-      type="search"
+      type={type}
       placeholder={placeholder}
-      value={value}
-      onChange={(e) => onChange(e.target.value)}
+      value={text}
+      onChange={(e) => setText(e.target.value)}
+      onKeyDown={(e) => {
+        if (e.key === 'Enter') commit();
+      }}
       hideLabel={hideLabel}
       className={className}
     />
@@ -239,22 +251,66 @@ export function FilterSelect<V extends string | number>({
 }
 
 /**
- * The state of a server-paged list: its page and its filters (sort included). Changing a filter goes back to
- * the first page; `params` gives the filters with empty ones left out, ready for the query, and `tableProps`
- * connects the table's sort headers (when there is a `sort` filter) and its pages.
+ * The state of a server-paged list: its page and its filters (sort included), kept in the address so that Back,
+ * reload and a shared link show the same list. A value equal to its default stays out of the address; a filter
+ * whose default is not empty but is set to "" is written as `key=` (for example "every stage").
+ *
+ * Changing a filter goes back to the first page and replaces the history entry (typing does not fill the Back
+ * button); turning a page adds one, so Back returns to the page before. `params` gives the filters with empty
+ * ones left out, ready for the query, and `tableProps` connects the table's sort
+ * headers (when there is a `sort` filter) and its pages. `reset` puts every filter at once (a saved view).
  */
-export function useListState<F extends Record<string, string>>(initial: F) {
-  const [state, setState] = useState<F & { page: number }>({ ...initial, page: 1 });
-  const set = (patch: Partial<F>) => setState((s) => ({ ...s, ...patch, page: 1 }));
-  const setPage = (page: number) => setState((s) => ({ ...s, page }));
-  const params = Object.fromEntries(Object.entries(state).filter(([, v]) => v !== '')) as Partial<F> & {
+export function useListState<F extends Record<string, string>>(defaults: F) {
+  const [search, setSearch] = useSearchParams();
+  const values = { ...defaults } as F & { page: number };
+  for (const key of Object.keys(defaults) as (keyof F & string)[]) {
+    const v = search.get(key);
+    if (v !== null) (values as Record<string, string>)[key] = v;
+  }
+  values.page = Math.max(1, Math.trunc(Number(search.get('page'))) || 1);
+
+  const write = (next: URLSearchParams, patch: Partial<F>) => {
+    for (const [key, v] of Object.entries(patch)) {
+      if (v === undefined || v === defaults[key]) next.delete(key);
+      else next.set(key, v);
+    }
+  };
+  const set = (patch: Partial<F>) =>
+    setSearch(
+      (prev) => {
+        const next = new URLSearchParams(prev);
+        write(next, patch);
+        next.delete('page');
+        return next;
+      },
+      { replace: true },
+    );
+  const reset = (all: Partial<F>) =>
+    setSearch(
+      (prev) => {
+        const next = new URLSearchParams(prev);
+        for (const key of Object.keys(defaults)) next.delete(key);
+        next.delete('page');
+        write(next, all);
+        return next;
+      },
+      { replace: true },
+    );
+  const setPage = (page: number) =>
+    setSearch((prev) => {
+      const next = new URLSearchParams(prev);
+      if (page <= 1) next.delete('page');
+      else next.set('page', String(page));
+      return next;
+    });
+  const params = Object.fromEntries(Object.entries(values).filter(([, v]) => v !== '')) as Partial<F> & {
     page: number;
   };
   /** Spread on the DataTable: its sort headers and its pages drive this state. */
   const tableProps = {
-    sort: (state as { sort?: string }).sort,
+    sort: (values as { sort?: string }).sort,
     onSort: (sort: string) => set({ sort } as unknown as Partial<F>),
     onPage: setPage,
   };
-  return { values: state, params, set, setPage, tableProps };
+  return { values, params, set, reset, setPage, tableProps };
 }

@@ -1,4 +1,4 @@
-import { NavLink } from 'react-router-dom';
+import { NavLink } from 'react-router';
 import { cn } from '../../../lib/cn';
 
 /** Products and policies are two views of one catalogue. */

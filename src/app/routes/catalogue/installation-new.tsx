@@ -1,4 +1,4 @@
-import { useNavigate } from 'react-router-dom';
+import { useNavigate } from 'react-router';
 import { PageHeader } from '../../../components/ui/page-header';
 import { useToast } from '../../../components/ui/toast';
 import { InstallationForm } from '../../../features/catalogue/components/installation-form';

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useParams } from 'react-router-dom';
+import { useParams } from 'react-router';
 import { PageHeader } from '../../../components/ui/page-header';
 import { Spinner } from '../../../components/ui/spinner';
 import { installationQueries } from '../../../features/catalogue/api/installation-queries';
@@ -10,6 +10,12 @@ import { ApiError } from '../../../lib/api-client';
 import { useAbility } from '../../../lib/ability';
 import { NotFoundRoute } from '../not-found';
 import { useDateText } from '../../../components/ui/date-time';
+import type { LoaderFunctionArgs } from 'react-router';
+import { prefetched, queryClient } from '../../query-client';
+
+/** The record is needed before anything draws: fetched while the route loads. */
+export const loader = ({ params }: LoaderFunctionArgs) =>
+  prefetched(queryClient.ensureQueryData(installationQueries.detail(params.id ?? '')));
 
 export function InstallationRoute() {
   const { id = '' } = useParams();

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { Plus, ShieldCheck } from 'lucide-react';
 import { Button } from '../../../components/ui/button';
 import type { PolicyDto } from '../../../../shared/schemas/catalogue';

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router';
 import { subject } from '@casl/ability';
 import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
@@ -13,6 +13,12 @@ import { PolicyVersions } from '../../../features/catalogue/components/policy-ve
 import { useAbility } from '../../../lib/ability';
 import { ApiError } from '../../../lib/api-client';
 import { NotFoundRoute } from '../not-found';
+import type { LoaderFunctionArgs } from 'react-router';
+import { prefetched, queryClient } from '../../query-client';
+
+/** The record is needed before anything draws: fetched while the route loads. */
+export const loader = ({ params }: LoaderFunctionArgs) =>
+  prefetched(queryClient.ensureQueryData(policyQueries.detail(params.id ?? '')));
 
 export function PolicyRoute() {
   const { id = '' } = useParams();

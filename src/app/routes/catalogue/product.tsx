@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { useParams } from 'react-router-dom';
+import { useParams } from 'react-router';
 import { subject } from '@casl/ability';
 import { Button } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page-header';
@@ -13,6 +13,12 @@ import { ProductForm } from '../../../features/catalogue/components/product-form
 import { useAbility } from '../../../lib/ability';
 import { ApiError } from '../../../lib/api-client';
 import { NotFoundRoute } from '../not-found';
+import type { LoaderFunctionArgs } from 'react-router';
+import { prefetched, queryClient } from '../../query-client';
+
+/** The record is needed before anything draws: fetched while the route loads. */
+export const loader = ({ params }: LoaderFunctionArgs) =>
+  prefetched(queryClient.ensureQueryData(productQueries.detail(params.id ?? '')));
 
 export function ProductRoute() {
   const { id = '' } = useParams();

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useParams } from 'react-router-dom';
+import { useParams } from 'react-router';
 import { subject } from '@casl/ability';
 import { Badge } from '../../../components/ui/badge';
 import { PageHeader } from '../../../components/ui/page-header';
@@ -13,6 +13,8 @@ import { ApiError } from '../../../lib/api-client';
 import { useAbility } from '../../../lib/ability';
 import { NotFoundRoute } from '../not-found';
 import { DateTime } from '../../../components/ui/date-time';
+import type { LoaderFunctionArgs } from 'react-router';
+import { prefetched, queryClient } from '../../query-client';
 
 const SUMMARY = {
   covered: ['ok', 'Likely covered'],
@@ -36,6 +38,10 @@ function LiveEvaluation({ input, variant }: { input: unknown; variant: 'panel' |
     </div>
   );
 }
+
+/** The claim is needed before anything draws: fetched while the route loads. */
+export const loader = ({ params }: LoaderFunctionArgs) =>
+  prefetched(queryClient.ensureQueryData(claimQueries.detail(params.id ?? '')));
 
 export function ClaimRoute() {
   const { id = '' } = useParams();

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router';
 import { STAGE_LABELS } from '../../../../shared/claims/stages';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { PageHeader } from '../../../components/ui/page-header';
@@ -16,6 +16,15 @@ import {
 } from '../../../features/review/components/claim-workflow';
 import { useSession } from '../../../lib/ability';
 import { CalendarDate, DateTime, useDateText } from '../../../components/ui/date-time';
+import type { LoaderFunctionArgs } from 'react-router';
+import { prefetched, queryClient } from '../../query-client';
+
+/** The claim and its workflow are needed before anything draws: fetched together while the route loads. */
+export const loader = ({ params }: LoaderFunctionArgs) =>
+  prefetched(
+    queryClient.ensureQueryData(reviewQueries.detail(params.id ?? '')),
+    queryClient.ensureQueryData(reviewQueries.workflow(params.id ?? '')),
+  );
 
 /** The review screen: the evidence on the left, the engine's findings and the moves on the right (one column on a phone). */
 export function ReviewClaimRoute() {

@@ -1,7 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation } from '@tanstack/react-query';
-import { useForm, type FieldValues, type Path, type UseFormReturn } from 'react-hook-form';
-import { Link } from 'react-router-dom';
+import { useForm } from 'react-hook-form';
+import { Link } from 'react-router';
 import {
   changePasswordFormSchema,
   forgotPasswordSchema,
@@ -13,37 +13,17 @@ import {
   type ResetPasswordForm,
 } from '../../../../shared/schemas/auth';
 import { Button, buttonClasses } from '../../../components/ui/button';
-import { InputField } from '../../../components/ui/field';
+import {
+  apiErrorText,
+  FormError,
+  formErrorText,
+  showFieldErrors,
+  TextField,
+} from '../../../components/ui/form';
 import { ApiError } from '../../../lib/api-client';
 import { changePassword, requestPasswordReset, resetPassword } from '../api/passwords';
 
 const PASSWORD_HINT = `At least ${PASSWORD_MIN_LENGTH} characters, and not a commonly used password. A short sentence works well.`;
-
-/** Puts the server's field errors on the form's fields (renamed where the form and the payload differ). */
-function showFieldErrors<T extends FieldValues>(
-  form: UseFormReturn<T>,
-  error: unknown,
-  rename: Record<string, Path<T>> = {},
-): boolean {
-  if (!(error instanceof ApiError) || !error.details.length) return false;
-  let shown = false;
-  for (const d of error.details) {
-    const field = rename[d.path] ?? (d.path in form.getValues() ? (d.path as Path<T>) : undefined);
-    if (!field) continue;
-    form.setError(field, { message: d.message }, { shouldFocus: !shown });
-    shown = true;
-  }
-  return shown;
-}
-
-function FormAlert({ error, fallback }: { error: unknown; fallback: string }) {
-  if (!error) return null;
-  return (
-    <p role="alert" className="rounded-lg bg-bad-50 px-3 py-2 text-sm text-bad-800">
-      {error instanceof ApiError ? error.message : fallback}
-    </p>
-  );
-}
 
 export function ForgotPasswordForm() {
   const form = useForm<ForgotPasswordInput>({
@@ -71,16 +51,16 @@ export function ForgotPasswordForm() {
         Enter the e-mail address you sign in with. We will send a link to choose a new password; it works
         once, for {PASSWORD_RESET_MINUTES} minutes.
       </p>
-      <FormAlert error={send.error} fallback="The request could not be sent. Try again." />
-      <InputField
+      <FormError message={apiErrorText(send.error, 'The request could not be sent. Try again.')} />
+      <TextField
+        form={form}
+        name="email"
         label="E-mail"
         type="email"
         autoComplete="username"
         inputMode="email"
         autoCapitalize="none"
         spellCheck={false}
-        error={form.formState.errors.email?.message}
-        {...form.register('email')}
       />
       <Button type="submit" size="lg" className="w-full" loading={send.isPending}>
         Send the link
@@ -115,30 +95,27 @@ export function ResetPasswordForm({ token }: { token: string }) {
   const linkGone = reset.error instanceof ApiError && reset.error.status === 404;
   return (
     <form noValidate className="space-y-4" onSubmit={form.handleSubmit((v) => reset.mutate(v))}>
-      {reset.error && !(reset.error instanceof ApiError && reset.error.details.length) ? (
-        <div role="alert" className="rounded-lg bg-bad-50 px-3 py-2 text-sm text-bad-800">
-          <p>{reset.error instanceof ApiError ? reset.error.message : 'The password could not be saved.'}</p>
-          {linkGone ? (
-            <Link to="/forgot-password" className="mt-1 inline-block font-semibold underline">
-              Ask for a new link
-            </Link>
-          ) : null}
-        </div>
-      ) : null}
-      <InputField
+      <FormError message={formErrorText(reset.error, 'The password could not be saved.')}>
+        {linkGone ? (
+          <Link to="/forgot-password" className="mt-1 inline-block font-semibold underline">
+            Ask for a new link
+          </Link>
+        ) : null}
+      </FormError>
+      <TextField
+        form={form}
+        name="password"
         label="New password"
         type="password"
         autoComplete="new-password"
         hint={PASSWORD_HINT}
-        error={form.formState.errors.password?.message}
-        {...form.register('password')}
       />
-      <InputField
+      <TextField
+        form={form}
+        name="repeat"
         label="New password again"
         type="password"
         autoComplete="new-password"
-        error={form.formState.errors.repeat?.message}
-        {...form.register('repeat')}
       />
       <Button type="submit" size="lg" className="w-full" loading={reset.isPending}>
         Set the new password
@@ -174,30 +151,28 @@ export function ChangePasswordForm() {
           here.
         </p>
       ) : null}
-      {change.error && !(change.error instanceof ApiError && change.error.details.length) ? (
-        <FormAlert error={change.error} fallback="The password could not be changed." />
-      ) : null}
-      <InputField
+      <FormError message={formErrorText(change.error, 'The password could not be changed.')} />
+      <TextField
+        form={form}
+        name="currentPassword"
         label="Current password"
         type="password"
         autoComplete="current-password"
-        error={form.formState.errors.currentPassword?.message}
-        {...form.register('currentPassword')}
       />
-      <InputField
+      <TextField
+        form={form}
+        name="password"
         label="New password"
         type="password"
         autoComplete="new-password"
         hint={PASSWORD_HINT}
-        error={form.formState.errors.password?.message}
-        {...form.register('password')}
       />
-      <InputField
+      <TextField
+        form={form}
+        name="repeat"
         label="New password again"
         type="password"
         autoComplete="new-password"
-        error={form.formState.errors.repeat?.message}
-        {...form.register('repeat')}
       />
       <Button type="submit" loading={change.isPending}>
         Change password

@@ -1,4 +1,4 @@
-import { useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import Papa from 'papaparse';
 import { useRef, useState } from 'react';
 import { Download, FileUp } from 'lucide-react';
@@ -97,18 +97,22 @@ export function ImportDialog({
     setStage({ kind: 'preview', rows, result: merged });
   }
 
-  async function commit(rows: Record<string, string>[]) {
-    const ctl = new AbortController();
-    abort.current = ctl;
-    setStage({ kind: 'working', label: `Importing ${rows.length.toLocaleString()} rows`, done: 0, total: 0 });
-    try {
-      const result = await importRows(target, rows, { dryRun: false, signal: ctl.signal });
+  const importing = useMutation({
+    mutationFn: ({ rows, signal }: { rows: Record<string, string>[]; signal: AbortSignal }) =>
+      importRows(target, rows, { dryRun: false, signal }),
+    onSuccess: async (result) => {
       setStage({ kind: 'done', result });
       notify(`${result.imported.toLocaleString()} ${WHAT[target]} imported.`);
       await qc.invalidateQueries({ queryKey: [target] });
-    } catch (e) {
-      fail(e);
-    }
+    },
+    onError: (e) => fail(e),
+  });
+
+  function commit(rows: Record<string, string>[]) {
+    const ctl = new AbortController();
+    abort.current = ctl;
+    setStage({ kind: 'working', label: `Importing ${rows.length.toLocaleString()} rows`, done: 0, total: 0 });
+    importing.mutate({ rows, signal: ctl.signal });
   }
 
   const busy = stage.kind === 'working';
@@ -126,7 +130,7 @@ export function ImportDialog({
             {stage.kind === 'done' ? 'Close' : 'Cancel'}
           </Button>
           {stage.kind === 'preview' ? (
-            <Button disabled={stage.result.valid === 0} onClick={() => void commit(stage.rows)}>
+            <Button disabled={stage.result.valid === 0} onClick={() => commit(stage.rows)}>
               Import {stage.result.valid.toLocaleString()} valid {stage.result.valid === 1 ? 'row' : 'rows'}
             </Button>
           ) : null}

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { FileUp, Plus } from 'lucide-react';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import type { ImportTarget } from '../api/import-rows';

@@ -1,4 +1,4 @@
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import {
   DIMMER_LABELS,
   ENCLOSURE_LABELS,

@@ -14,6 +14,7 @@ import {
 import { Button } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
 import { FieldShell, InputField } from '../../../components/ui/field';
+import { FormError, formErrorText, TextField } from '../../../components/ui/form';
 import { useToast } from '../../../components/ui/toast';
 import { ApiError } from '../../../lib/api-client';
 import { useSession } from '../../../lib/ability';
@@ -109,16 +110,16 @@ export function PolicyTermsDialog({
     },
   });
   const te = form.formState.errors.terms;
-  const formError = save.error instanceof ApiError && !save.error.details.length ? save.error.message : null;
   const num = (k: keyof PolicyTermsInput, label: string, unit?: string) => (
-    <InputField
+    <TextField
+      form={form}
+      name={`terms.${k}`}
+      options={{ setValueAs: numberOrUndefined }}
       label={label}
       unit={unit}
       type="number"
       inputMode="decimal"
       step="any"
-      error={te?.[k]?.message as string | undefined}
-      {...form.register(`terms.${k}` as const, { setValueAs: numberOrUndefined })}
     />
   );
 
@@ -149,18 +150,10 @@ export function PolicyTermsDialog({
         className="space-y-4"
         onSubmit={form.handleSubmit((v) => save.mutate(v))}
       >
-        {formError ? (
-          <p role="alert" className="rounded-lg bg-bad-50 px-3 py-2 text-sm text-bad-800">
-            {formError}
-          </p>
-        ) : null}
+        <FormError message={formErrorText(save.error)} />
         {!policy ? (
           <>
-            <InputField
-              label="Policy name"
-              error={form.formState.errors.name?.message}
-              {...form.register('name')}
-            />
+            <TextField form={form} name="name" label="Policy name" />
             <fieldset>
               <legend className="text-sm font-medium text-ink-800">Product models covered</legend>
               <div className="mt-1 max-h-40 space-y-1 overflow-y-auto rounded-lg border border-ink-200 p-2">
@@ -257,11 +250,7 @@ export function PolicyTermsDialog({
             </FieldShell>
           )}
         />
-        <InputField
-          label="What changed (optional)"
-          error={te?.changeNote?.message}
-          {...form.register('terms.changeNote')}
-        />
+        <TextField form={form} name="terms.changeNote" label="What changed (optional)" />
       </form>
     </Dialog>
   );

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import type { ProductDto } from '../../../../shared/schemas/catalogue';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { policyQueries } from '../api/policy-queries';

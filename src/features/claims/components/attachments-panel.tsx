@@ -1,4 +1,5 @@
 import { Camera, FileText, ImagePlus, RotateCcw, Trash2, X } from 'lucide-react';
+import { useMutation } from '@tanstack/react-query';
 import { useCallback, useId, useRef, useState, type DragEvent } from 'react';
 import {
   ACCEPTED_ATTACHMENT_TYPES,
@@ -99,15 +100,15 @@ export function AttachmentsPanel({
     }
   };
 
-  const remove = async (a: AttachmentDto) => {
-    try {
-      await removeClaimFile(claimId, a.id);
+  const removal = useMutation({
+    mutationFn: (a: AttachmentDto) => removeClaimFile(claimId, a.id),
+    onSuccess: (_, a) => {
       latest.current = latest.current.filter((x) => x.id !== a.id);
       onChange(latest.current);
-    } catch (err) {
-      setMessage((err as Error).message);
-    }
-  };
+    },
+    onError: (err) => setMessage(err.message),
+  });
+  const remove = (a: AttachmentDto) => removal.mutate(a);
 
   const onDrop = (e: DragEvent) => {
     e.preventDefault();
@@ -211,7 +212,7 @@ export function AttachmentsPanel({
                 variant="ghost"
                 size="md"
                 aria-label={`Remove ${a.name}`}
-                onClick={() => void remove(a)}
+                onClick={() => remove(a)}
                 icon={<Trash2 className="size-4" aria-hidden />}
               />
             ) : null}

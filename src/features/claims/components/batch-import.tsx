@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { Download, FileSpreadsheet } from 'lucide-react';
 import { useRef, useState } from 'react';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import type { ClaimBatchResult } from '../../../../shared/schemas/claims';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
@@ -34,6 +34,9 @@ export function BatchImport() {
   });
   // A key per claim, kept for a second "file all" after failures: the ones already filed replay.
   const fileKeys = useRef(new Map<string, string>());
+  const fileOne = useMutation({
+    mutationFn: ({ id, key }: { id: string; key: string }) => fileClaim(id, key),
+  });
   const fileAll = async () => {
     const ids = (result?.rows ?? []).map((r) => r.claimId).filter((x): x is string => !!x);
     const failed: { id: string; message: string }[] = [];
@@ -42,7 +45,7 @@ export function BatchImport() {
       try {
         let key = fileKeys.current.get(id);
         if (!key) fileKeys.current.set(id, (key = newIdempotencyKey('file')));
-        await fileClaim(id, key);
+        await fileOne.mutateAsync({ id, key });
       } catch (err) {
         failed.push({ id, message: (err as Error).message });
       }

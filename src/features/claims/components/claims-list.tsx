@@ -1,7 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { FilePlus2, Files, Search } from 'lucide-react';
-import { useState } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router';
 import { CLAIM_STAGE_LABELS, CLAIM_STAGES } from '../../../../shared/schemas/claims';
 import { buttonClasses } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
@@ -13,6 +12,7 @@ import { Pagination } from '../../../components/ui/table';
 import { claimQueries, type ClaimFilters } from '../api/claim-queries';
 import { StageBadge, waitingText } from './stage-badge';
 import { DayOf } from '../../../components/ui/date-time';
+import { useDebouncedText } from '../../../lib/use-debounced-text';
 
 const VERDICT_TEXT = {
   covered: 'Likely covered',
@@ -29,15 +29,20 @@ export function ClaimsList({ canCreate }: { canCreate: boolean }) {
     const v = params.get(k);
     if (v) filters[k] = v;
   }
-  const [q, setQ] = useState(filters.q ?? '');
   const list = useQuery(claimQueries.list(filters));
-  const set = (k: string, v: string) => {
-    const next = new URLSearchParams(params);
-    if (v) next.set(k, v);
-    else next.delete(k);
-    next.delete('page');
-    setParams(next, { replace: true });
-  };
+  const set = (k: string, v: string) =>
+    setParams(
+      (prev) => {
+        const next = new URLSearchParams(prev);
+        if (v) next.set(k, v);
+        else next.delete(k);
+        next.delete('page');
+        return next;
+      },
+      { replace: true },
+    );
+  // The search applies itself once typing pauses; Enter or the button applies it at once.
+  const search = useDebouncedText(filters.q ?? '', (q) => set('q', q.trim()));
 
   return (
     <>
@@ -63,15 +68,15 @@ export function ClaimsList({ canCreate }: { canCreate: boolean }) {
           className="grid gap-3 border-b border-ink-100 p-4 sm:grid-cols-2 lg:grid-cols-6"
           onSubmit={(e) => {
             e.preventDefault();
-            set('q', q.trim());
+            search.commit();
           }}
         >
           <div className="flex items-end gap-2 sm:col-span-2">
             <InputField
               className="flex-1"
               label="Claim number or serial"
-              value={q}
-              onChange={(e) => setQ(e.target.value)}
+              value={search.text}
+              onChange={(e) => search.setText(e.target.value)}
               placeholder="LP-2612-7K4-QXM"
             />
             <button type="submit" className={buttonClasses('secondary', 'md')} aria-label="Search">

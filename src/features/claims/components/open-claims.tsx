@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { HardHat } from 'lucide-react';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { Spinner } from '../../../components/ui/spinner';
 import { claimQueries } from '../api/claim-queries';

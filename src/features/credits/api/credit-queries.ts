@@ -1,4 +1,4 @@
-import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, type QueryClient } from '@tanstack/react-query';
 import type { Paginated } from '../../../../shared/schemas/users';
 import type {
   AccountingMapDto,
@@ -60,6 +60,16 @@ export const creditQueries = {
       queryFn: () => api<WarrantyCostDto>(`/credits/cost${toQuery(f)}`),
     }),
 };
+
+/**
+ * What issuing or voiding a memo changes, by key prefix: the memo lists, queue and balances, and the claim's
+ * own queries (its stage moves to credited or back to approved: its detail, workflow and list rows, which live
+ * under 'claims' in the claims and review features), and the stage-derived waiting and ageing views.
+ */
+export const CREDIT_CHANGES = [creditQueries.all, ['claims'], ['waiting'], ['ageing']] as const;
+
+export const invalidateAfterCredit = (qc: QueryClient) =>
+  Promise.all(CREDIT_CHANGES.map((queryKey) => qc.invalidateQueries({ queryKey })));
 
 export const creditPdfUrl = (id: string) => `/api/credits/${encodeURIComponent(id)}/pdf`;
 export const creditExportUrl = (from: string, to: string) => `/api/credits/export${toQuery({ from, to })}`;

@@ -1,4 +1,4 @@
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { buttonClasses } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page-header';
 import { CreditDesk } from './credit-desk';

@@ -1,14 +1,15 @@
 import { useMemo, useRef, useState } from 'react';
-import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { CheckCircle2, AlertTriangle, Receipt } from 'lucide-react';
 import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
-import { InputField, SelectField } from '../../../components/ui/field';
+import { SearchField, useListState } from '../../../components/ui/data-table';
+import { SelectField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { Pagination, Table, Td, Th } from '../../../components/ui/table';
 import { ApiError } from '../../../lib/api-client';
-import { creditPdfUrl, creditQueries, type QueueFilters } from '../api/credit-queries';
+import { creditPdfUrl, creditQueries, invalidateAfterCredit } from '../api/credit-queries';
 import { issueCredit } from '../api/issue-credit';
 import { Money } from './money';
 
@@ -21,7 +22,7 @@ type Result = { claimId: string; label: string; ok: boolean; text: string; memoI
  */
 export function CreditDesk() {
   const qc = useQueryClient();
-  const [filters, setFilters] = useState<QueueFilters>({ page: 1 });
+  const { values, params: filters, set, setPage } = useListState({ q: '', currency: '', minAgeDays: '' });
   const queue = useQuery(creditQueries.queue(filters));
   const [selected, setSelected] = useState<Set<string>>(new Set());
   const [running, setRunning] = useState(false);
@@ -29,6 +30,10 @@ export function CreditDesk() {
   const [total, setTotal] = useState(0);
   const [results, setResults] = useState<Result[]>([]);
   const keys = useRef(new Map<string, string>());
+  // One request per claim, one after another; the lists are refreshed once, after the last.
+  const issue = useMutation({
+    mutationFn: ({ claimId, key }: { claimId: string; key: string }) => issueCredit(claimId, key),
+  });
 
   const items = useMemo(() => queue.data?.items ?? [], [queue.data]);
   const allOnPage = items.length > 0 && items.every((i) => selected.has(i.claimId));
@@ -51,7 +56,7 @@ export function CreditDesk() {
       let key = keys.current.get(item.claimId);
       if (!key) keys.current.set(item.claimId, (key = crypto.randomUUID()));
       try {
-        const r = await issueCredit(item.claimId, key);
+        const r = await issue.mutateAsync({ claimId: item.claimId, key });
         keys.current.delete(item.claimId);
         setResults((rs) => [
           ...rs,
@@ -80,7 +85,7 @@ export function CreditDesk() {
     }
     setSelected(new Set());
     setRunning(false);
-    await qc.invalidateQueries({ queryKey: creditQueries.all });
+    await invalidateAfterCredit(qc);
   }
 
   const percent = total ? Math.round((done / total) * 100) : 0;
@@ -101,16 +106,17 @@ export function CreditDesk() {
         onSubmit={(e) => e.preventDefault()}
         role="search"
       >
-        <InputField
+        <SearchField
+          type="text"
           label="Search claims"
           placeholder="Claim number, contractor or model"
-          value={filters.q ?? ''}
-          onChange={(e) => setFilters({ ...filters, page: 1, q: e.target.value })}
+          value={values.q}
+          onChange={(q) => set({ q })}
         />
         <SelectField
           label="Currency"
-          value={filters.currency ?? ''}
-          onChange={(e) => setFilters({ ...filters, page: 1, currency: e.target.value || undefined })}
+          value={values.currency}
+          onChange={(e) => set({ currency: e.target.value })}
         >
           <option value="">All currencies</option>
           <option value="USD">USD</option>
@@ -119,8 +125,8 @@ export function CreditDesk() {
         </SelectField>
         <SelectField
           label="Waiting at least"
-          value={filters.minAgeDays ?? ''}
-          onChange={(e) => setFilters({ ...filters, page: 1, minAgeDays: e.target.value || undefined })}
+          value={values.minAgeDays}
+          onChange={(e) => set({ minAgeDays: e.target.value })}
         >
           <option value="">Any time</option>
           <option value="7">7 days</option>
@@ -253,12 +259,7 @@ export function CreditDesk() {
               </p>
             ))}
           </div>
-          <Pagination
-            page={filters.page}
-            pageSize={50}
-            total={queue.data?.total ?? 0}
-            onPage={(page) => setFilters({ ...filters, page })}
-          />
+          <Pagination page={filters.page} pageSize={50} total={queue.data?.total ?? 0} onPage={setPage} />
         </>
       )}
     </Card>

@@ -4,7 +4,7 @@ import { Download, Receipt } from 'lucide-react';
 import type { CreditMemoDto } from '../../../../shared/schemas/credits';
 import { Badge } from '../../../components/ui/badge';
 import { Button, buttonClasses } from '../../../components/ui/button';
-import { DataTable, useListState, type Column } from '../../../components/ui/data-table';
+import { DataTable, SearchField, useListState, type Column } from '../../../components/ui/data-table';
 import { InputField, SelectField } from '../../../components/ui/field';
 import { creditPdfUrl, creditQueries } from '../api/credit-queries';
 import { Money } from './money';
@@ -123,11 +123,12 @@ export function CreditsTable({
           className="grid gap-3 border-b border-ink-100 px-4 py-3 sm:grid-cols-4 sm:px-5"
           onSubmit={(e) => e.preventDefault()}
         >
-          <InputField
+          <SearchField
+            type="text"
             label="Search memos"
             placeholder="Memo or claim number"
             value={values.q}
-            onChange={(e) => set({ q: e.target.value })}
+            onChange={(q) => set({ q })}
           />
           <SelectField label="Kind" value={values.kind} onChange={(e) => set({ kind: e.target.value })}>
             <option value="">Memos and reversals</option>

@@ -1,13 +1,13 @@
 import { useState } from 'react';
-import { useQueryClient } from '@tanstack/react-query';
-import type { CreditMemoDto } from '../../../../shared/schemas/credits';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { CreditMemoDto, VoidCreditInput } from '../../../../shared/schemas/credits';
 import { voidCreditSchema } from '../../../../shared/schemas/credits';
 import { Button } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
 import { FieldShell } from '../../../components/ui/field';
+import { apiErrorText } from '../../../components/ui/form';
 import { useToast } from '../../../components/ui/toast';
-import { ApiError } from '../../../lib/api-client';
-import { creditQueries } from '../api/credit-queries';
+import { invalidateAfterCredit } from '../api/credit-queries';
 import { voidCredit } from '../api/void-credit';
 
 /** Voiding never edits the memo: it issues a reversal memo with the reason, and the claim returns to approved. */
@@ -15,26 +15,26 @@ export function VoidCreditDialog({ memo, onClose }: { memo: CreditMemoDto | null
   const qc = useQueryClient();
   const { notify } = useToast();
   const [reason, setReason] = useState('');
-  const [error, setError] = useState<string>();
-  const [busy, setBusy] = useState(false);
-
-  async function submit() {
-    if (!memo) return;
-    const parsed = voidCreditSchema.safeParse({ reason });
-    if (!parsed.success) return setError(parsed.error.issues[0].message);
-    setBusy(true);
-    try {
-      const r = await voidCredit(memo.id, parsed.data);
+  const [invalid, setInvalid] = useState<string>();
+  const mutation = useMutation({
+    mutationFn: ({ memo, input }: { memo: CreditMemoDto; input: VoidCreditInput }) =>
+      voidCredit(memo.id, input),
+    onSuccess: async (r, { memo }) => {
       notify(`Memo ${memo.number} voided by reversal ${r.creditMemo.number}.`);
       setReason('');
-      setError(undefined);
+      setInvalid(undefined);
       onClose();
-      await qc.invalidateQueries({ queryKey: creditQueries.all });
-    } catch (err) {
-      setError(err instanceof ApiError ? err.message : 'The memo could not be voided. Try again.');
-    } finally {
-      setBusy(false);
-    }
+      await invalidateAfterCredit(qc);
+    },
+  });
+  const error = invalid ?? apiErrorText(mutation.error, 'The memo could not be voided. Try again.');
+
+  function submit() {
+    if (!memo) return;
+    const parsed = voidCreditSchema.safeParse({ reason });
+    if (!parsed.success) return setInvalid(parsed.error.issues[0].message);
+    setInvalid(undefined);
+    mutation.mutate({ memo, input: parsed.data });
   }
 
   return (
@@ -48,7 +48,7 @@ export function VoidCreditDialog({ memo, onClose }: { memo: CreditMemoDto | null
           <Button variant="secondary" onClick={onClose}>
             Keep the memo
           </Button>
-          <Button variant="danger" onClick={submit} loading={busy}>
+          <Button variant="danger" onClick={submit} loading={mutation.isPending}>
             Void with reversal
           </Button>
         </>

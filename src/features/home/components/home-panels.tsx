@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { HardHat, ShieldCheck, Users } from 'lucide-react';
 import type { ReactNode } from 'react';
 import { buttonClasses } from '../../../components/ui/button';

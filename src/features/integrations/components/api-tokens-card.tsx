@@ -14,7 +14,8 @@ import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { Dialog } from '../../../components/ui/dialog';
 import { EmptyState } from '../../../components/ui/empty-state';
-import { InputField, SelectField } from '../../../components/ui/field';
+import { SelectField } from '../../../components/ui/field';
+import { FormError, formErrorText, showFieldErrors, TextField } from '../../../components/ui/form';
 import { Spinner } from '../../../components/ui/spinner';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { useToast } from '../../../components/ui/toast';
@@ -139,10 +140,7 @@ function NewTokenDialog({
       form.reset();
       await qc.invalidateQueries({ queryKey: integrationQueries.tokens });
     },
-    onError: (e) => {
-      if (e instanceof ApiError)
-        for (const d of e.details) form.setError(d.path as keyof CreateApiTokenInput, { message: d.message });
-    },
+    onError: (e) => showFieldErrors(form, e),
   });
   const close = () => {
     setSecret(null);
@@ -180,17 +178,13 @@ function NewTokenDialog({
           className="space-y-4"
           onSubmit={form.handleSubmit((v) => mutation.mutate(v))}
         >
-          {mutation.error instanceof ApiError && !mutation.error.details.length ? (
-            <p role="alert" className="rounded-lg bg-bad-50 px-3 py-2 text-sm text-bad-800">
-              {mutation.error.message}
-            </p>
-          ) : null}
-          <InputField
+          <FormError message={formErrorText(mutation.error)} />
+          <TextField
+            form={form}
+            name="name"
             label="Name"
             hint="What uses it, e.g. “Accounting sync”."
             autoComplete="off"
-            error={form.formState.errors.name?.message}
-            {...form.register('name')}
           />
           <Controller
             control={form.control}

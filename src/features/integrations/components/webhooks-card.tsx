@@ -16,7 +16,7 @@ import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { Dialog } from '../../../components/ui/dialog';
 import { EmptyState } from '../../../components/ui/empty-state';
-import { InputField } from '../../../components/ui/field';
+import { FormError, formErrorText, showFieldErrors, TextField } from '../../../components/ui/form';
 import { Spinner } from '../../../components/ui/spinner';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { useToast } from '../../../components/ui/toast';
@@ -220,10 +220,7 @@ function RegisterDialog({ open, onClose }: { open: boolean; onClose: () => void 
       form.reset();
       await qc.invalidateQueries({ queryKey: integrationQueries.webhooks });
     },
-    onError: (e) => {
-      if (e instanceof ApiError)
-        for (const d of e.details) form.setError(d.path as keyof CreateWebhookInput, { message: d.message });
-    },
+    onError: (e) => showFieldErrors(form, e),
   });
   const close = () => {
     setSecret(null);
@@ -264,19 +261,15 @@ function RegisterDialog({ open, onClose }: { open: boolean; onClose: () => void 
           className="space-y-4"
           onSubmit={form.handleSubmit((v) => mutation.mutate(v))}
         >
-          {mutation.error instanceof ApiError && !mutation.error.details.length ? (
-            <p role="alert" className="rounded-lg bg-bad-50 px-3 py-2 text-sm text-bad-800">
-              {mutation.error.message}
-            </p>
-          ) : null}
-          <InputField
+          <FormError message={formErrorText(mutation.error)} />
+          <TextField
+            form={form}
+            name="url"
             label="Endpoint address"
             type="url"
             inputMode="url"
             placeholder="https://erp.example.com/lumenproof"
             autoComplete="off"
-            error={form.formState.errors.url?.message}
-            {...form.register('url')}
           />
           <Controller
             control={form.control}

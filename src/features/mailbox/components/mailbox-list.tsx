@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useSearchParams } from 'react-router';
 import { Inbox, Paperclip } from 'lucide-react';
 import { Card } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
@@ -12,7 +12,18 @@ import { DateTime } from '../../../components/ui/date-time';
 /** Demo mode only: the messages the local fake SMTP server received for people of this organisation. */
 export function MailboxList() {
   const list = useQuery(mailboxQueries.list());
-  const [openId, setOpenId] = useState<string | null>(null);
+  // The open message is kept in the address, so Back and reload show the same one.
+  const [search, setSearch] = useSearchParams();
+  const openId = search.get('message');
+  const setOpenId = (id: string) =>
+    setSearch(
+      (prev) => {
+        const next = new URLSearchParams(prev);
+        next.set('message', id);
+        return next;
+      },
+      { replace: true },
+    );
   const items = list.data?.items ?? [];
   const open = items.find((m) => m.id === openId) ?? items[0];
   return (

@@ -65,9 +65,14 @@ export const reviewQueries = {
       queryKey: ['claims', 'workflow', id],
       queryFn: () => api<ClaimWorkflowDto>(`/claims/${id}/workflow`),
     }),
+  /**
+   * The claim itself. Its key is the claims feature's, so the cached answer must keep that feature's shape
+   * ({ claim }); `select` gives this feature the claim alone.
+   */
   detail: (id: string) =>
     queryOptions({
       queryKey: ['claims', 'detail', id],
-      queryFn: () => api<{ claim: ClaimDetailDto }>(`/claims/${id}`).then((r) => r.claim),
+      queryFn: () => api<{ claim: ClaimDetailDto }>(`/claims/${encodeURIComponent(id)}`),
+      select: (r) => r.claim,
     }),
 };

@@ -1,12 +1,13 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
-import { Link, useNavigate } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router';
 import { ClipboardCheck, SlidersHorizontal } from 'lucide-react';
 import { STAGE_LABELS } from '../../../../shared/claims/stages';
 import { Badge, type Tone } from '../../../components/ui/badge';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
+import { SearchField, useListState } from '../../../components/ui/data-table';
 import { InputField, SelectField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { Pagination } from '../../../components/ui/table';
@@ -31,18 +32,23 @@ function TypedFilter({
   inputMode,
   pattern,
   hint,
-  initial,
+  value,
   onValue,
 }: {
   label: string;
   inputMode: 'numeric' | 'decimal';
   pattern: RegExp;
   hint: string;
-  /** The value when the filter appears (a saved view's); the desk remounts it when a view is applied. */
-  initial?: string;
+  /** The applied value (from the address); the box follows it when it changes from outside (Back, a view). */
+  value: string;
   onValue: (v: string | undefined) => void;
 }) {
-  const [text, setText] = useState(initial ?? '');
+  const [text, setText] = useState(value);
+  const [seen, setSeen] = useState(value);
+  if (value !== seen) {
+    setSeen(value);
+    setText(value);
+  }
   const ok = text.trim() === '' || pattern.test(text.trim());
   return (
     <InputField
@@ -120,6 +126,57 @@ function ContractorPicker(pick: PickerProps) {
 const OPEN_STAGES = 'filed,in_review,unit_received,return_requested,needs_info';
 const DEFAULT_FILTERS: QueueFilters = { stage: OPEN_STAGES, sort: 'stageChangedAt' };
 
+/** The queue's state as the address holds it: every filter a string, the default where it is not given. */
+const LIST_DEFAULTS = {
+  q: '',
+  stage: OPEN_STAGES,
+  verdict: '',
+  assignee: '',
+  productModelId: '',
+  contractorId: '',
+  minAgeDays: '',
+  minAmount: '',
+  sort: 'stageChangedAt',
+  /** The saved view being looked at; any change of a filter leaves it. */
+  view: '',
+};
+type ListValues = typeof LIST_DEFAULTS;
+
+/** The API's filters from the address: empty ones left out, the age a number, no page on the first. */
+function queueFiltersOf(v: ListValues & { page: number }): QueueFilters {
+  const f: QueueFilters = {};
+  for (const k of [
+    'q',
+    'stage',
+    'verdict',
+    'assignee',
+    'productModelId',
+    'contractorId',
+    'minAmount',
+    'sort',
+  ] as const)
+    if (v[k] !== '') f[k] = v[k];
+  if (v.minAgeDays !== '') f.minAgeDays = Number(v.minAgeDays);
+  if (v.page > 1) f.page = v.page;
+  return f;
+}
+
+/** The address's values for a saved view's filters (the ones it leaves out go back to their defaults). */
+function listValuesOf(f: QueueFilters, view: string): Partial<ListValues> {
+  return {
+    q: f.q ?? '',
+    stage: f.stage ?? '',
+    verdict: f.verdict ?? '',
+    assignee: f.assignee ?? '',
+    productModelId: f.productModelId ?? '',
+    contractorId: f.contractorId ?? '',
+    minAgeDays: f.minAgeDays === undefined ? '' : String(f.minAgeDays),
+    minAmount: f.minAmount ?? '',
+    sort: f.sort ?? LIST_DEFAULTS.sort,
+    view,
+  };
+}
+
 /** How many filters narrow the queue beyond the desk's default (every open claim); search and sort aside. */
 export function activeFilterCount(f: QueueFilters): number {
   return [
@@ -133,13 +190,16 @@ export function activeFilterCount(f: QueueFilters): number {
   ].filter(Boolean).length;
 }
 
-/** The reviewer's queue: filters, a keyboard-driven list (j/k or arrows, Enter opens), ageing in plain words. */
+/**
+ * The reviewer's queue: filters, a keyboard-driven list (j/k or arrows, Enter opens), ageing in plain words.
+ * The filters, the page and the saved view live in the address (Back and reload keep them).
+ */
 export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
-  const [filters, setFilters] = useState<QueueFilters>(DEFAULT_FILTERS);
+  const list = useListState(LIST_DEFAULTS);
+  const filters = queueFiltersOf(list.values);
+  const viewId = list.values.view;
   // The filters fold into one row (search, a count, saved views) so that the first claim shows on a phone.
   const [showFilters, setShowFilters] = useState(false);
-  const [formKey, setFormKey] = useState(0);
-  const [viewId, setViewId] = useState('');
   const count = activeFilterCount(filters);
   const { data, isPending, isError } = useQuery(reviewQueries.queue(filters));
   const [active, setActive] = useState(0);
@@ -147,16 +207,13 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
   const rows = useRef<(HTMLAnchorElement | null)[]>([]);
   const navigate = useNavigate();
   const items = useMemo(() => data?.items ?? [], [data]);
-  const set = (patch: Partial<QueueFilters>) => {
-    setFilters((f) => ({ ...f, page: 1, ...patch }));
+  const set = (patch: Partial<ListValues>) => {
+    list.set({ ...patch, view: '' });
     setActive(0);
-    setViewId('');
   };
   const apply = (id: string, next: QueueFilters) => {
-    setFilters({ ...next, page: 1 });
+    list.reset(listValuesOf(next, id));
     setActive(0);
-    setViewId(id);
-    setFormKey((k) => k + 1);
   };
 
   useEffect(() => {
@@ -193,13 +250,13 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
         description="j / k or the arrow keys move, Enter opens. Oldest in its stage first."
       />
       <div className="flex flex-wrap items-end gap-2 border-b border-ink-200 px-4 py-3 sm:px-5">
-        <InputField
-          key={`q-${formKey}`}
+        <SearchField
+          type="text"
           className="min-w-0 flex-1 basis-48"
           label="Search"
           placeholder="Claim number, site, contractor, model, serial"
-          value={filters.q ?? ''}
-          onChange={(e) => set({ q: e.target.value })}
+          value={list.values.q}
+          onChange={(q) => set({ q })}
         />
         <Button
           variant="secondary"
@@ -221,11 +278,11 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
         hidden={!showFilters}
         className="space-y-3 border-b border-ink-200 bg-ink-50/50 px-4 py-3 sm:px-5"
       >
-        <div key={formKey} className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
+        <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
           <SelectField
             label="Stage"
-            value={filters.stage ?? ''}
-            onChange={(e) => set({ stage: e.target.value || undefined })}
+            value={list.values.stage}
+            onChange={(e) => set({ stage: e.target.value })}
           >
             <option value="filed,in_review,unit_received,return_requested,needs_info">All open</option>
             <option value="filed">{STAGE_LABELS.filed}</option>
@@ -239,7 +296,7 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
           <SelectField
             label="Engine verdict"
             value={filters.verdict ?? ''}
-            onChange={(e) => set({ verdict: e.target.value || undefined })}
+            onChange={(e) => set({ verdict: e.target.value })}
           >
             <option value="">Any</option>
             <option value="covered">Likely covered</option>
@@ -249,7 +306,7 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
           <SelectField
             label="Assigned"
             value={filters.assignee ?? ''}
-            onChange={(e) => set({ assignee: e.target.value || undefined })}
+            onChange={(e) => set({ assignee: e.target.value })}
           >
             <option value="">Anyone</option>
             <option value="me">Me</option>
@@ -258,24 +315,27 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
           <ProductPicker
             manufacturerId={manufacturerId}
             value={filters.productModelId ?? ''}
-            onValue={(v) => set({ productModelId: v })}
+            onValue={(v) => set({ productModelId: v ?? '' })}
           />
-          <ContractorPicker value={filters.contractorId ?? ''} onValue={(v) => set({ contractorId: v })} />
+          <ContractorPicker
+            value={filters.contractorId ?? ''}
+            onValue={(v) => set({ contractorId: v ?? '' })}
+          />
           <TypedFilter
             label="Filed at least (days ago)"
             inputMode="numeric"
             pattern={DAYS}
             hint="Whole days, 0 to 3650."
-            initial={filters.minAgeDays === undefined ? undefined : String(filters.minAgeDays)}
-            onValue={(v) => set({ minAgeDays: v === undefined ? undefined : Number(v) })}
+            value={list.values.minAgeDays}
+            onValue={(v) => set({ minAgeDays: v ?? '' })}
           />
           <TypedFilter
             label="Amount at least"
             inputMode="decimal"
             pattern={MONEY}
             hint="An amount like 96.00."
-            initial={filters.minAmount}
-            onValue={(v) => set({ minAmount: v })}
+            value={list.values.minAmount}
+            onValue={(v) => set({ minAmount: v ?? '' })}
           />
           <SelectField
             label="Sort"
@@ -291,8 +351,8 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
         <SaveViewForm
           filters={filters}
           viewId={viewId}
-          onSaved={(id) => setViewId(id)}
-          onDeleted={() => setViewId('')}
+          onSaved={(id) => list.set({ view: id })}
+          onDeleted={() => list.set({ view: '' })}
         />
       </div>
       <p className="sr-only" aria-live="polite">
@@ -352,12 +412,7 @@ export function ReviewQueue({ manufacturerId }: { manufacturerId: string }) {
               </li>
             ))}
           </ul>
-          <Pagination
-            page={data.page}
-            pageSize={data.pageSize}
-            total={data.total}
-            onPage={(p) => setFilters((f) => ({ ...f, page: p }))}
-          />
+          <Pagination page={data.page} pageSize={data.pageSize} total={data.total} onPage={list.setPage} />
         </>
       )}
     </Card>

@@ -5,7 +5,7 @@ import type { Role } from '../../../../shared/roles';
 import { inviteUserSchema, type InviteUserInput } from '../../../../shared/schemas/users';
 import { Button } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
-import { InputField } from '../../../components/ui/field';
+import { FormError, formErrorText, showFieldErrors, TextField } from '../../../components/ui/form';
 import { useToast } from '../../../components/ui/toast';
 import { ApiError } from '../../../lib/api-client';
 import { inviteUser } from '../api/invite-user';
@@ -36,18 +36,16 @@ export function InviteUserDialog({
       await qc.invalidateQueries({ queryKey: userQueries.all });
     },
     onError: (e) => {
-      if (e instanceof ApiError) {
-        for (const d of e.details) form.setError(d.path as keyof InviteUserInput, { message: d.message });
-        if (e.code === 'user.email_taken') form.setError('email', { message: e.message });
-      }
+      showFieldErrors(form, e);
+      if (e instanceof ApiError && e.code === 'user.email_taken')
+        form.setError('email', { message: e.message });
     },
   });
+  // A taken e-mail is said beside the e-mail field.
   const formError =
-    mutation.error instanceof ApiError &&
-    !mutation.error.details.length &&
-    mutation.error.code !== 'user.email_taken'
-      ? mutation.error.message
-      : null;
+    mutation.error instanceof ApiError && mutation.error.code === 'user.email_taken'
+      ? undefined
+      : formErrorText(mutation.error);
 
   return (
     <Dialog
@@ -72,24 +70,9 @@ export function InviteUserDialog({
         className="space-y-4"
         onSubmit={form.handleSubmit((v) => mutation.mutate(v))}
       >
-        {formError ? (
-          <p role="alert" className="rounded-lg bg-bad-50 px-3 py-2 text-sm text-bad-800">
-            {formError}
-          </p>
-        ) : null}
-        <InputField
-          label="Name"
-          autoComplete="off"
-          error={form.formState.errors.name?.message}
-          {...form.register('name')}
-        />
-        <InputField
-          label="E-mail"
-          type="email"
-          autoComplete="off"
-          error={form.formState.errors.email?.message}
-          {...form.register('email')}
-        />
+        <FormError message={formError} />
+        <TextField form={form} name="name" label="Name" autoComplete="off" />
+        <TextField form={form} name="email" label="E-mail" type="email" autoComplete="off" />
         <Controller
           control={form.control}
           name="roles"

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { Bell } from 'lucide-react';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { cn } from '../../../lib/cn';
 import { waitingQueries } from '../api/waiting-queries';
 

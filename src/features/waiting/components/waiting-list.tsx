@@ -1,6 +1,6 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Inbox } from 'lucide-react';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { WAITING_TEXT, type WaitingItemDto } from '../../../../shared/schemas/waiting';
 import { Badge } from '../../../components/ui/badge';
 import { Button } from '../../../components/ui/button';
