@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idSchema, instantSchema } from './answer-parts';
 
 // The events an organisation's endpoints may ask for. Names are part of the interface: never rename one.
 export const WEBHOOK_EVENTS = [
@@ -35,23 +36,27 @@ export const createWebhookSchema = z.strictObject({
 });
 export type CreateWebhookInput = z.infer<typeof createWebhookSchema>;
 
-export type WebhookEndpointView = {
-  id: string;
-  url: string;
-  events: WebhookEvent[];
-  createdAt: string;
-  disabledAt: string | null;
-};
+// Answers
 
-export type WebhookDeliveryView = {
-  id: string;
-  eventId: string;
-  event: string;
-  status: 'pending' | 'delivered' | 'failed';
-  attempts: number;
-  lastStatusCode: number | null;
-  lastError: string | null;
-  lastAttemptAt: string | null;
-  deliveredAt: string | null;
-  createdAt: string;
-};
+export const webhookEndpointSchema = z.object({
+  id: idSchema,
+  url: z.string(),
+  events: z.array(z.enum(WEBHOOK_EVENTS)),
+  createdAt: instantSchema,
+  disabledAt: instantSchema.nullable(),
+});
+export type WebhookEndpointView = z.infer<typeof webhookEndpointSchema>;
+
+export const webhookDeliverySchema = z.object({
+  id: idSchema,
+  eventId: idSchema,
+  event: z.string(),
+  status: z.enum(['pending', 'delivered', 'failed']),
+  attempts: z.number().int().min(0),
+  lastStatusCode: z.number().int().nullable(),
+  lastError: z.string().nullable(),
+  lastAttemptAt: instantSchema.nullable(),
+  deliveredAt: instantSchema.nullable(),
+  createdAt: instantSchema,
+});
+export type WebhookDeliveryView = z.infer<typeof webhookDeliverySchema>;
