@@ -1,5 +1,12 @@
 import { z } from 'zod';
-import { idSchema, instantSchema } from './answer-parts';
+import {
+  calendarDateSchema,
+  currencySchema,
+  decimalSchema,
+  idSchema,
+  instantSchema,
+  orgRefSchema,
+} from './answer-parts';
 
 // The events an organisation's endpoints may ask for. Names are part of the interface: never rename one.
 export const WEBHOOK_EVENTS = [
@@ -60,3 +67,62 @@ export const webhookDeliverySchema = z.object({
   createdAt: instantSchema,
 });
 export type WebhookDeliveryView = z.infer<typeof webhookDeliverySchema>;
+
+// What each delivery's body holds: `{ id, type, createdAt, data }`. Claims are named with their parties as
+// organisations only, never their people (server/lib/webhooks.ts claimRef).
+
+export const webhookClaimRefSchema = z.object({
+  id: idSchema,
+  number: z.string().nullable(),
+  stage: z.string(),
+  contractor: orgRefSchema,
+  manufacturer: orgRefSchema,
+});
+
+const memoRef = z.object({
+  id: idSchema,
+  number: z.string(),
+  amount: decimalSchema,
+  currency: currencySchema,
+});
+
+export const WEBHOOK_EVENT_DATA = {
+  'claim.filed': z.object({
+    claim: webhookClaimRefSchema,
+    verdict: z.enum(['covered', 'excluded', 'review']),
+    expectedCredit: decimalSchema.nullable(),
+    currency: currencySchema.nullable(),
+  }),
+  'claim.information_requested': z.object({
+    claim: webhookClaimRefSchema,
+    dueOn: calendarDateSchema.nullable().optional(),
+  }),
+  'claim.return_authorised': z.object({ claim: webhookClaimRefSchema, returnNumber: z.string().optional() }),
+  'claim.decided': z.object({
+    claim: webhookClaimRefSchema,
+    outcome: z.enum(['approved', 'partly_approved', 'denied']).optional(),
+    resolution: z.string().nullable().optional(),
+    amount: decimalSchema.nullable().optional(),
+    reasonCodes: z.array(z.string()).optional(),
+  }),
+  'claim.credited': z.object({ claim: webhookClaimRefSchema, creditMemo: memoRef }),
+  'credit_memo.voided': z.object({
+    claim: webhookClaimRefSchema,
+    creditMemo: memoRef,
+    reversal: z.object({ id: idSchema, number: z.string() }),
+    reason: z.string(),
+  }),
+} satisfies Record<WebhookEvent, z.ZodType>;
+
+/** The body of one delivery of `event`. */
+export function webhookBodySchema<E extends WebhookEvent | 'webhook.test'>(event: E) {
+  return z.object({
+    id: idSchema.meta({ description: 'The event’s id: the same on every retry and on "send again".' }),
+    type: z.literal(event),
+    createdAt: instantSchema,
+    data:
+      event === 'webhook.test'
+        ? z.object({ endpoint: z.object({ id: idSchema, url: z.string() }) })
+        : WEBHOOK_EVENT_DATA[event as WebhookEvent],
+  });
+}
