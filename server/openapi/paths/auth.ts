@@ -31,6 +31,17 @@ export function authPaths(reg: Registry) {
     errors: [503],
   });
   op(reg, {
+    method: 'get',
+    path: '/api/openapi.json',
+    tag: 'Service',
+    summary: 'This document',
+    auth: 'public',
+    answer: {
+      file: 'application/json',
+      description: 'The OpenAPI 3.1 document (cached five minutes, with an ETag).',
+    },
+  });
+  op(reg, {
     method: 'post',
     path: '/api/auth/login',
     tag,

@@ -150,7 +150,10 @@ export function creditPaths(reg: Registry) {
     summary: 'Void a memo: issues a reversal memo',
     body: voidCreditSchema,
     status: 201,
-    answer: { json: z.object({ creditMemo: creditMemoSchema }) },
+    answer: {
+      json: z.object({ creditMemo: creditMemoSummarySchema }),
+      description: 'The reversal memo (read it in full at GET /api/credits/{id}).',
+    },
     errors: [409],
   });
   op(reg, {
