@@ -40,6 +40,11 @@ function webhooks(reg: Registry) {
               description: SIGNATURE_TEXT,
               example: 't=1796300000,v1=5d41402abc4b2a76b9719d911017c592…',
             }),
+          'Lumenproof-Event': z.literal(event).meta({ description: 'The event’s type, as in the body.' }),
+          'Lumenproof-Event-Id': z
+            .uuid()
+            .meta({ description: 'The same on every retry and on “Send again”.' }),
+          'Lumenproof-Delivery': z.uuid().meta({ description: 'This delivery (one endpoint, one event).' }),
         }),
         body: { required: true, content: { 'application/json': { schema: webhookBodySchema(event) } } },
       },
