@@ -48,6 +48,7 @@ import { securityEventsRouter } from './modules/security-events/security-events.
 import { sessionsRouter } from './modules/sessions/sessions.router';
 import { usersRouter } from './modules/users/users.router';
 import { webhooksRouter } from './modules/webhooks/webhooks.router';
+import { openApiRouter } from './openapi/openapi.router';
 
 export type CreateAppOptions = {
   config: AppConfig;
@@ -127,6 +128,8 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(sameOrigin(config.publicUrl));
   api.use(requireJsonBody);
   api.use('/health', healthRouter(ctx));
+  // The API's own description: public, before any session or token is read.
+  api.use(openApiRouter());
   // A bearer token authenticates on its own: no session is read or written for it.
   const tokens = apiTokenAuth(ctx);
   api.use(tokens.authenticate);

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { str } from './text';
 import { ROLES } from '../roles';
+import { idSchema, instantSchema, orgRefSchema } from './answer-parts';
 
 /** Every token starts with this, so secret scanners and people recognise a Lumenproof token. */
 export const API_TOKEN_PREFIX = 'lpt_';
@@ -21,15 +22,17 @@ export const createApiTokenSchema = z.strictObject({
 });
 export type CreateApiTokenInput = z.infer<typeof createApiTokenSchema>;
 
-export type ApiTokenView = {
-  id: string;
-  name: string;
-  roles: string[];
-  hint: string;
-  createdAt: string;
-  createdBy: { id: string; name: string } | null;
-  expiresAt: string;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
-  state: 'active' | 'expired' | 'revoked';
-};
+export const apiTokenSchema = z.object({
+  id: idSchema,
+  name: z.string(),
+  roles: z.array(z.enum(ROLES)),
+  /** The token's last characters, to tell tokens apart; the secret itself is shown once. */
+  hint: z.string(),
+  createdAt: instantSchema,
+  createdBy: orgRefSchema.nullable(),
+  expiresAt: instantSchema,
+  lastUsedAt: instantSchema.nullable(),
+  revokedAt: instantSchema.nullable(),
+  state: z.enum(['active', 'expired', 'revoked']),
+});
+export type ApiTokenView = z.infer<typeof apiTokenSchema>;

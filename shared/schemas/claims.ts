@@ -1,15 +1,17 @@
 import { z } from 'zod';
 import { str } from './text';
 import { STAGE_LABELS, STAGES, type Stage } from '../claims/stages';
-import { SYMPTOMS, type Evaluation, type Verdict } from '../engine';
-import type { AttachmentDto } from './attachments';
+import { SYMPTOMS, VERDICTS, type Evaluation, type Verdict } from '../engine';
 import {
-  isoDateSchema,
-  uuidSchema,
-  type HistoryEventDto,
-  type OrgRef,
-  type ProductFamily,
-} from './catalogue';
+  calendarDateSchema,
+  currencySchema,
+  decimalSchema,
+  idSchema,
+  instantSchema,
+  orgRefSchema,
+} from './answer-parts';
+import type { AttachmentDto } from './attachments';
+import { isoDateSchema, uuidSchema, PRODUCT_FAMILIES, type HistoryEventDto } from './catalogue';
 import { listQuerySchema } from './users';
 
 // Claims: one strict schema per payload, shared by the claim form (its resolver and the live checks), the CSV
@@ -291,29 +293,36 @@ export function filingIssues(c: ClaimFields, ctx: FilingContext): FilingIssue[] 
 // ---------------------------------------------------------------------------------------------------------
 // Answers
 
-export type ClaimProductRef = { id: string; modelNumber: string; name: string; family: ProductFamily };
+export const claimProductRefSchema = z.object({
+  id: idSchema,
+  modelNumber: z.string(),
+  name: z.string(),
+  family: z.enum(PRODUCT_FAMILIES),
+});
+export type ClaimProductRef = z.infer<typeof claimProductRefSchema>;
 
-export type ClaimListItemDto = {
-  id: string;
-  number: string | null;
-  stage: ClaimStage;
-  waitingOn: WaitingOn | null;
-  contractor: OrgRef;
-  manufacturer: OrgRef;
-  product: ClaimProductRef;
-  installation: { id: string; siteName: string; siteCity: string };
-  serials: string[];
-  units: number;
-  failedOn: string | null;
-  filedAt: string | null;
-  stageChangedAt: string;
-  evaluation: { verdict: Verdict; engineVersion: string } | null;
-  expectedCredit: string | null;
-  currency: string | null;
-  createdAt: string;
-  updatedAt: string;
-  version: number;
-};
+export const claimListItemSchema = z.object({
+  id: idSchema,
+  number: z.string().nullable(),
+  stage: z.enum(CLAIM_STAGES),
+  waitingOn: z.enum(WAITING_ON).nullable(),
+  contractor: orgRefSchema,
+  manufacturer: orgRefSchema,
+  product: claimProductRefSchema,
+  installation: z.object({ id: idSchema, siteName: z.string(), siteCity: z.string() }),
+  serials: z.array(z.string()),
+  units: z.number().int(),
+  failedOn: calendarDateSchema.nullable(),
+  filedAt: instantSchema.nullable(),
+  stageChangedAt: instantSchema,
+  evaluation: z.object({ verdict: z.enum(VERDICTS), engineVersion: z.string() }).nullable(),
+  expectedCredit: decimalSchema.nullable(),
+  currency: currencySchema.nullable(),
+  createdAt: instantSchema,
+  updatedAt: instantSchema,
+  version: z.number().int().min(1),
+});
+export type ClaimListItemDto = z.infer<typeof claimListItemSchema>;
 
 /** What the engine needs besides the claim itself, in the engine's own shape (ENGINE.md input). */
 export type ClaimEngineContext = {

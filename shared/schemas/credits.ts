@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { JournalLine, JournalTotal } from '../credits/journal';
 import { str } from './text';
 import { listQuerySchema } from './users';
+import { currencySchema, decimalSchema, idSchema, instantSchema, orgRefSchema } from './answer-parts';
 
 // Payloads of the credits API: issuing a memo, voiding one, the lists, the export and the cost view.
 
@@ -137,50 +138,56 @@ export const warrantyCostQuerySchema = z
   .refine(rangeInOrder, rangeMessage);
 export type WarrantyCostQuery = z.infer<typeof warrantyCostQuerySchema>;
 
-// Answers
+// Answers (zod, so that the types below and the OpenAPI document cannot drift apart)
 
-export type CreditMemoSummary = {
-  id: string;
-  number: string;
-  amount: string;
-  currency: string;
-  claimId: string;
-};
+export const creditMemoSummarySchema = z.object({
+  id: idSchema,
+  number: z.string(),
+  amount: decimalSchema,
+  currency: currencySchema,
+  claimId: idSchema,
+});
+export type CreditMemoSummary = z.infer<typeof creditMemoSummarySchema>;
 
-export type CreditMemoDto = CreditMemoSummary & {
-  kind: MemoKind;
-  claim: { id: string; number: string | null };
-  contractor: { id: string; name: string };
-  manufacturer: { id: string; name: string };
-  issuedAt: string;
+export const creditMemoSchema = creditMemoSummarySchema.extend({
+  kind: z.enum(MEMO_KINDS),
+  claim: z.object({ id: idSchema, number: z.string().nullable() }),
+  contractor: orgRefSchema,
+  manufacturer: orgRefSchema,
+  issuedAt: instantSchema,
   /** Named to the issuer's own organisation; to the other side, the organisation's name and no id. */
-  issuedBy: { id: string | null; name: string } | null;
-  reason: string | null;
-  reverses: { id: string; number: string } | null;
-  reversedBy: { id: string; number: string } | null;
-  pdfSha256: string;
-};
+  issuedBy: z.object({ id: idSchema.nullable(), name: z.string() }).nullable(),
+  reason: z.string().nullable(),
+  reverses: z.object({ id: idSchema, number: z.string() }).nullable(),
+  reversedBy: z.object({ id: idSchema, number: z.string() }).nullable(),
+  pdfSha256: z.string().regex(/^[0-9a-f]{64}$/),
+});
+export type CreditMemoDto = z.infer<typeof creditMemoSchema>;
 
-export type QueueItemDto = {
-  claimId: string;
-  number: string | null;
-  contractor: { id: string; name: string };
-  product: { id: string; modelNumber: string; name: string };
-  amount: string | null;
-  currency: string | null;
-  approvedAt: string;
-  ageDays: number;
+export const creditQueueItemSchema = z.object({
+  claimId: idSchema,
+  number: z.string().nullable(),
+  contractor: orgRefSchema,
+  product: z.object({ id: idSchema, modelNumber: z.string(), name: z.string() }),
+  amount: decimalSchema.nullable(),
+  currency: currencySchema.nullable(),
+  approvedAt: instantSchema,
+  ageDays: z.number().int(),
   /** Above the organisation's second-approval amount, once one accountant has approved: who, and whether it was you. */
-  secondApproval: { approvedBy: { id: string; name: string }; approvedAt: string; mine: boolean } | null;
-};
+  secondApproval: z
+    .object({ approvedBy: orgRefSchema, approvedAt: instantSchema, mine: z.boolean() })
+    .nullable(),
+});
+export type QueueItemDto = z.infer<typeof creditQueueItemSchema>;
 
-export type BalanceDto = {
-  contractor: { id: string; name: string };
-  manufacturer: { id: string; name: string };
-  currency: string;
-  balance: string;
-  memos: number;
-};
+export const creditBalanceSchema = z.object({
+  contractor: orgRefSchema,
+  manufacturer: orgRefSchema,
+  currency: currencySchema,
+  balance: decimalSchema,
+  memos: z.number().int(),
+});
+export type BalanceDto = z.infer<typeof creditBalanceSchema>;
 
 export type AccountingMapDto = AccountingMapInput & { updatedAt: string | null };
 

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { str } from './text';
 import { ROLES, USER_STATUSES } from '../roles';
 import { emailSchema } from './auth';
+import { idSchema, instantSchema } from './answer-parts';
 
 const rolesSchema = z
   .array(z.enum(ROLES, { error: 'Pick a known role.' }))
@@ -40,28 +41,30 @@ export type UserListQuery = z.infer<typeof userListQuerySchema>;
 
 export type Paginated<T> = { items: T[]; total: number; page: number; pageSize: number };
 
-export type UserDto = {
-  id: string;
-  email: string;
-  name: string;
-  roles: (typeof ROLES)[number][];
-  status: (typeof USER_STATUSES)[number];
-  lastSignInAt: string | null;
-  createdAt: string;
-};
+export const userSchema = z.object({
+  id: idSchema,
+  email: z.string(),
+  name: z.string(),
+  roles: z.array(z.enum(ROLES)),
+  status: z.enum(USER_STATUSES),
+  lastSignInAt: instantSchema.nullable(),
+  createdAt: instantSchema,
+});
+export type UserDto = z.infer<typeof userSchema>;
 
-export type MeDto = {
-  id: string;
-  email: string;
-  name: string;
-  roles: (typeof ROLES)[number][];
-  organization: {
-    id: string;
-    name: string;
-    kind: 'manufacturer' | 'contractor';
+export const meSchema = z.object({
+  id: idSchema,
+  email: z.string(),
+  name: z.string(),
+  roles: z.array(z.enum(ROLES)),
+  organization: z.object({
+    id: idSchema,
+    name: z.string(),
+    kind: z.enum(['manufacturer', 'contractor']),
     /** IANA zone every time is shown in (shared/dates.ts). */
-    timeZone: string;
+    timeZone: z.string(),
     /** Locale of the PDFs and e-mails the organisation receives. */
-    locale: string;
-  };
-};
+    locale: z.string(),
+  }),
+});
+export type MeDto = z.infer<typeof meSchema>;

@@ -1,4 +1,12 @@
 import { z } from 'zod';
+import {
+  calendarDateSchema,
+  currencySchema,
+  decimalSchema,
+  idSchema,
+  instantSchema,
+  orgRefSchema,
+} from './answer-parts';
 
 // The events an organisation's endpoints may ask for. Names are part of the interface: never rename one.
 export const WEBHOOK_EVENTS = [
@@ -35,23 +43,86 @@ export const createWebhookSchema = z.strictObject({
 });
 export type CreateWebhookInput = z.infer<typeof createWebhookSchema>;
 
-export type WebhookEndpointView = {
-  id: string;
-  url: string;
-  events: WebhookEvent[];
-  createdAt: string;
-  disabledAt: string | null;
-};
+// Answers
 
-export type WebhookDeliveryView = {
-  id: string;
-  eventId: string;
-  event: string;
-  status: 'pending' | 'delivered' | 'failed';
-  attempts: number;
-  lastStatusCode: number | null;
-  lastError: string | null;
-  lastAttemptAt: string | null;
-  deliveredAt: string | null;
-  createdAt: string;
-};
+export const webhookEndpointSchema = z.object({
+  id: idSchema,
+  url: z.string(),
+  events: z.array(z.enum(WEBHOOK_EVENTS)),
+  createdAt: instantSchema,
+  disabledAt: instantSchema.nullable(),
+});
+export type WebhookEndpointView = z.infer<typeof webhookEndpointSchema>;
+
+export const webhookDeliverySchema = z.object({
+  id: idSchema,
+  eventId: idSchema,
+  event: z.string(),
+  status: z.enum(['pending', 'delivered', 'failed']),
+  attempts: z.number().int().min(0),
+  lastStatusCode: z.number().int().nullable(),
+  lastError: z.string().nullable(),
+  lastAttemptAt: instantSchema.nullable(),
+  deliveredAt: instantSchema.nullable(),
+  createdAt: instantSchema,
+});
+export type WebhookDeliveryView = z.infer<typeof webhookDeliverySchema>;
+
+// What each delivery's body holds: `{ id, type, createdAt, data }`. Claims are named with their parties as
+// organisations only, never their people (server/lib/webhooks.ts claimRef).
+
+export const webhookClaimRefSchema = z.object({
+  id: idSchema,
+  number: z.string().nullable(),
+  stage: z.string(),
+  contractor: orgRefSchema,
+  manufacturer: orgRefSchema,
+});
+
+const memoRef = z.object({
+  id: idSchema,
+  number: z.string(),
+  amount: decimalSchema,
+  currency: currencySchema,
+});
+
+export const WEBHOOK_EVENT_DATA = {
+  'claim.filed': z.object({
+    claim: webhookClaimRefSchema,
+    verdict: z.enum(['covered', 'excluded', 'review']),
+    expectedCredit: decimalSchema.nullable(),
+    currency: currencySchema.nullable(),
+  }),
+  'claim.information_requested': z.object({
+    claim: webhookClaimRefSchema,
+    dueOn: calendarDateSchema.nullable().optional(),
+  }),
+  'claim.return_authorised': z.object({ claim: webhookClaimRefSchema, returnNumber: z.string().optional() }),
+  'claim.decided': z.object({
+    claim: webhookClaimRefSchema,
+    outcome: z.enum(['approved', 'partly_approved', 'denied']).optional(),
+    resolution: z.string().nullable().optional(),
+    amount: decimalSchema.nullable().optional(),
+    reasonCodes: z.array(z.string()).optional(),
+  }),
+  'claim.credited': z.object({ claim: webhookClaimRefSchema, creditMemo: memoRef }),
+  'credit_memo.voided': z.object({
+    claim: webhookClaimRefSchema,
+    creditMemo: memoRef,
+    reversal: z.object({ id: idSchema, number: z.string() }),
+    reason: z.string(),
+  }),
+} satisfies Record<WebhookEvent, z.ZodType>;
+
+/** The body of one delivery of `event`. */
+export function webhookBodySchema<E extends WebhookEvent | 'webhook.test'>(event: E) {
+  return z.object({
+    id: idSchema.meta({ description: 'The event’s id: the same on every retry and on "send again".' }),
+    type: z.literal(event),
+    createdAt: instantSchema,
+    data:
+      event === 'webhook.test'
+        ? z.object({ endpoint: z.object({ id: idSchema, url: z.string() }) })
+        : WEBHOOK_EVENT_DATA[event as WebhookEvent],
+  });
+}

@@ -55,6 +55,10 @@ export const router = createBrowserRouter([
           lazy: () => import('./routes/admin/integrations').then((m) => ({ Component: m.IntegrationsRoute })),
         },
         {
+          path: 'api-reference',
+          lazy: () => import('./routes/api-reference').then((m) => ({ Component: m.ApiReferenceRoute })),
+        },
+        {
           path: 'admin/mailbox',
           lazy: () => import('./routes/admin/mailbox').then((m) => ({ Component: m.MailboxRoute })),
         },

@@ -381,6 +381,8 @@ const DRAFT_READ: Partial<Entry> = { ok: members(CONTRACTORS, 200), denied: memb
 // The table.
 const ROUTES: Record<string, Entry> = {
   'GET /api/health': { ok: everyone(200) },
+  // The API's description: public, the same for everyone.
+  'GET /api/openapi.json': { ok: everyone(200) },
   'POST /api/auth/login': {
     ok: everyone(200),
     freshSession: true,

@@ -1,3 +1,6 @@
+import { BookOpen } from 'lucide-react';
+import { Link } from 'react-router-dom';
+import { buttonClasses } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page-header';
 import { ApiTokensCard } from '../../../features/integrations/components/api-tokens-card';
 import { WebhooksCard } from '../../../features/integrations/components/webhooks-card';
@@ -13,6 +16,12 @@ export function IntegrationsRoute() {
       <PageHeader
         title="Integrations"
         description={`How ${user.organization.name}'s own systems read from and hear from Lumenproof.`}
+        actions={
+          <Link to="/api-reference" className={buttonClasses('secondary')}>
+            <BookOpen aria-hidden className="size-4" />
+            API reference
+          </Link>
+        }
       />
       <div className="space-y-5">
         <ApiTokensCard />

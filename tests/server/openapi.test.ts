@@ -1,0 +1,310 @@
+import crypto from 'node:crypto';
+import { Validator } from '@seriousme/openapi-schema-validator';
+import Ajv2020 from 'ajv/dist/2020';
+import addFormats from 'ajv-formats';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { listRoutes } from '../../server/lib/routes';
+import { OPEN_MARK } from '../../server/openapi/answers';
+import { openApiPath } from '../../server/openapi/registry';
+import { WEBHOOK_EVENTS, WEBHOOK_SIGNATURE_HEADER } from '../../shared/schemas/webhooks';
+import { createApprovedClaim } from '../support/credit-factories';
+import { creditWorld } from '../support/credit-world';
+import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
+
+// The OpenAPI document (GET /api/openapi.json) against the router it describes: every route is in it with its
+// method, its request and its answer, the document is valid OpenAPI 3.1, and real answers fit the schemas it
+// declares (checked with the document's own JSON Schema, not with the zod it was generated from).
+
+type Schema = Record<string, unknown>;
+type Operation = {
+  operationId: string;
+  parameters?: { in: string; name: string; required?: boolean }[];
+  requestBody?: { content: Record<string, { schema: Schema }> };
+  responses: Record<string, { description: string; content?: Record<string, { schema: Schema }> }>;
+  security?: Record<string, string[]>[];
+};
+type Doc = {
+  openapi: string;
+  paths: Record<string, Record<string, Operation>>;
+  webhooks: Record<string, { post: Operation }>;
+  components: { schemas: Record<string, Schema>; securitySchemes: Record<string, Schema> };
+};
+
+let t: TestContext;
+let doc: Doc;
+beforeAll(async () => {
+  t = await createTestApp();
+  const r = await t.request().get('/api/openapi.json');
+  expect(r.status).toBe(200);
+  doc = r.body as Doc;
+});
+afterAll(() => closeTestApp(t));
+
+const routes = () => listRoutes(t.app).filter((r) => r.method !== 'HEAD');
+const operation = (method: string, path: string) => doc.paths[openApiPath(path)]?.[method.toLowerCase()];
+const successOf = (o: Operation) => Object.keys(o.responses).filter((s) => /^2\d\d$/.test(s));
+
+// Routes that change something without reading a body (the action is the address itself).
+const NO_BODY = new Set([
+  'POST /api/auth/logout',
+  'POST /api/auth/sessions/sign-out-others',
+  'POST /api/auth/second-factor/enrollment',
+  'POST /api/users/:id/second-factor/reset',
+  'POST /api/webhooks/:id/test',
+  'POST /api/webhooks/:id/deliveries/:deliveryId/resend',
+  // Always refused: a version of a policy's terms is never changed.
+  'PATCH /api/policies/:id/versions/:versionId',
+]);
+
+// The routes whose handler validates a query with parseQuery (read from the routers); each must document it.
+const TAKES_QUERY = [
+  'GET /api/users',
+  'GET /api/security-events',
+  'GET /api/products',
+  'POST /api/products/import',
+  'GET /api/policies',
+  'GET /api/installations',
+  'POST /api/installations/import',
+  'GET /api/claims',
+  'POST /api/claims/batches',
+  'GET /api/review/queue',
+  'GET /api/review/contractors',
+  'GET /api/credits',
+  'GET /api/credits/queue',
+  'GET /api/credits/export',
+  'GET /api/credits/cost',
+  'GET /api/credits/journal',
+  'GET /api/analytics/life',
+  'GET /api/analytics/failure-modes',
+  'GET /api/analytics/claims-ageing',
+  'GET /api/reserve',
+];
+
+describe('the OpenAPI document', () => {
+  it('is valid OpenAPI 3.1', async () => {
+    const validator = new Validator();
+    const result = await validator.validate(structuredClone(doc));
+    expect(result.errors ?? []).toEqual([]);
+    expect(result.valid).toBe(true);
+    expect(validator.version).toBe('3.1');
+    expect(doc.openapi).toMatch(/^3\.1\./);
+  });
+
+  it('holds every route of the router with its method, and nothing the router lacks', () => {
+    const inRouter = routes().map((r) => `${r.method} ${openApiPath(r.path)}`);
+    const inDoc = Object.entries(doc.paths).flatMap(([p, ops]) =>
+      Object.keys(ops).map((m) => `${m.toUpperCase()} ${p}`),
+    );
+    expect(inRouter.length).toBeGreaterThan(100);
+    expect(inDoc.filter((k) => !inRouter.includes(k))).toEqual([]);
+    expect(inRouter.filter((k) => !inDoc.includes(k))).toEqual([]);
+  });
+
+  it('gives every route that takes a body its request schema', () => {
+    const missing = routes()
+      .filter((r) => ['POST', 'PUT', 'PATCH'].includes(r.method))
+      .filter((r) => !NO_BODY.has(`${r.method} ${r.path}`))
+      .filter((r) => {
+        const content = operation(r.method, r.path)!.requestBody?.content ?? {};
+        const media = content['application/json'] ?? content['multipart/form-data'];
+        return !media?.schema || Object.keys(media.schema).length === 0;
+      })
+      .map((r) => `${r.method} ${r.path}`);
+    expect(missing).toEqual([]);
+    // And the ones that take none really say none.
+    for (const k of NO_BODY) {
+      const [m, p] = k.split(' ');
+      expect(operation(m!, p!)!.requestBody, k).toBeUndefined();
+    }
+  });
+
+  it('documents the query of every route that validates one, and of every paged list', () => {
+    const queryOf = (o: Operation) => (o.parameters ?? []).filter((p) => p.in === 'query').map((p) => p.name);
+    for (const k of TAKES_QUERY) {
+      const [m, p] = k.split(' ');
+      expect(
+        routes().some((r) => r.method === m && r.path === p),
+        `${k} is a route`,
+      ).toBe(true);
+      expect(queryOf(operation(m!, p!)!).length, k).toBeGreaterThan(0);
+    }
+    for (const r of routes()) {
+      const o = operation(r.method, r.path)!;
+      const json = o.responses['200']?.content?.['application/json']?.schema as
+        { properties?: Record<string, unknown> } | undefined;
+      if (json?.properties?.page && json.properties.pageSize && r.path !== '/api/mailbox') {
+        expect(queryOf(o), `${r.method} ${r.path}`).toEqual(expect.arrayContaining(['page', 'pageSize']));
+      }
+    }
+  });
+
+  it('gives every route an answer for its success status, and the error shape for its refusals', () => {
+    for (const r of routes()) {
+      const k = `${r.method} ${r.path}`;
+      const o = operation(r.method, r.path)!;
+      const ok = successOf(o);
+      expect(ok.length, k).toBeGreaterThan(0);
+      for (const s of ok) {
+        const content = o.responses[s]!.content;
+        if (s === '204' || k === 'PATCH /api/policies/:id/versions/:versionId')
+          expect(content, k).toBeUndefined();
+        else expect(Object.values(content ?? {})[0]?.schema, `${k} ${s}`).toBeTruthy();
+      }
+      for (const [s, res] of Object.entries(o.responses)) {
+        if (Number(s) >= 400) {
+          expect(res.content?.['application/json']?.schema, `${k} ${s}`).toEqual({
+            $ref: '#/components/schemas/Error',
+          });
+        }
+      }
+    }
+    // API.md: { error: { code, message, details? } }
+    expect(doc.components.schemas.Error).toMatchObject({ required: ['error'] });
+  });
+
+  it('names the session cookie and API tokens as its security schemes, and the headers routes take', () => {
+    expect(doc.components.securitySchemes.session).toMatchObject({
+      type: 'apiKey',
+      in: 'cookie',
+      name: 'lp.sid',
+    });
+    expect(doc.components.securitySchemes.apiToken).toMatchObject({ type: 'http', scheme: 'bearer' });
+    expect(operation('GET', '/api/claims')!.security).toEqual([{ session: [] }, { apiToken: [] }]);
+    expect(operation('GET', '/api/health')!.security).toEqual([]);
+    expect(operation('POST', '/api/api-tokens')!.security).toEqual([{ session: [] }]);
+    const header = (m: string, p: string, name: string) =>
+      operation(m, p)!.parameters?.find((x) => x.in === 'header' && x.name === name);
+    expect(header('POST', '/api/claims/:id/credits', 'Idempotency-Key')).toMatchObject({ required: true });
+    expect(header('POST', '/api/claims', 'Idempotency-Key')).toMatchObject({ required: false });
+    expect(header('POST', '/api/claims/:id/file', 'Idempotency-Key')).toBeTruthy();
+    expect(header('POST', '/api/claims/:id/actions/:action', 'If-Match')).toBeTruthy();
+    expect(header('POST', '/api/claims/:id/assign', 'If-Match')).toBeTruthy();
+  });
+
+  it('describes each webhook event with its body and the signature header', () => {
+    for (const event of WEBHOOK_EVENTS) {
+      const hook = doc.webhooks[event]?.post;
+      expect(hook, event).toBeTruthy();
+      expect(hook!.parameters).toEqual(
+        expect.arrayContaining([expect.objectContaining({ in: 'header', name: WEBHOOK_SIGNATURE_HEADER })]),
+      );
+      const body = hook!.requestBody!.content['application/json']!.schema as {
+        properties: { type: { const?: string; enum?: string[] } };
+      };
+      expect(body.properties.type.const ?? body.properties.type.enum?.[0]).toBe(event);
+    }
+  });
+
+  it('says which answers are not spelt out field by field (and they stay a minority)', () => {
+    let open = 0;
+    let all = 0;
+    JSON.stringify(doc.paths, (key, value: unknown) => {
+      if (key === 'description' && typeof value === 'string' && value.endsWith(OPEN_MARK)) open++;
+      if (key === 'schema') all++;
+      return value;
+    });
+    expect(open).toBeLessThan(all / 2);
+  });
+
+  it('is served without sign-in, cached, with a validator, under the app’s security headers', async () => {
+    const r = await t.request().get('/api/openapi.json');
+    expect(r.status).toBe(200);
+    expect(r.headers['content-type']).toMatch(/^application\/json/);
+    expect(r.headers['cache-control']).toBe('public, max-age=300, must-revalidate');
+    expect(r.headers['content-security-policy']).toContain("default-src 'self'");
+    expect(r.headers['etag']).toMatch(/^"[\w-]+"$/);
+    const again = await t.request().get('/api/openapi.json').set('If-None-Match', r.headers['etag']!);
+    expect(again.status).toBe(304);
+  });
+});
+
+describe('real answers fit the schemas the document declares', () => {
+  const ajv = new Ajv2020({ strict: false, allErrors: true });
+  addFormats(ajv);
+  let compiled = false;
+  const check = (method: string, path: string, status: number, body: unknown) => {
+    if (!compiled) {
+      ajv.addSchema({ $id: 'doc', components: doc.components }, 'doc');
+      compiled = true;
+    }
+    const o = operation(method, path)!;
+    const schema = o.responses[String(status)]!.content!['application/json']!.schema;
+    // Refs point into the document's components: resolve them against the copy registered above.
+    const validate = ajv.compile(
+      JSON.parse(JSON.stringify(schema).replaceAll('"#/components', '"doc#/components')),
+    );
+    const ok = validate(body);
+    expect(validate.errors ?? [], `${method} ${path} ${status}`).toEqual([]);
+    expect(ok).toBe(true);
+  };
+
+  it('GET /api/claims, GET /api/credits/:id, GET /api/credits, POST credits, errors, tokens and hooks', async () => {
+    const w = await creditWorld(t);
+    const claim = await createApprovedClaim(t.ds, {
+      manufacturer: w.mfr,
+      contractor: w.contractor,
+      amount: '96.00',
+    });
+    await createApprovedClaim(t.ds, { manufacturer: w.mfr, contractor: w.contractor, amount: null });
+
+    const list = await w.installer.agent.get('/api/claims?pageSize=10');
+    expect(list.status).toBe(200);
+    expect(list.body.items.length).toBeGreaterThan(0);
+    check('GET', '/api/claims', 200, list.body);
+
+    const issued = await w.accountant.agent
+      .post(`/api/claims/${claim.id}/credits`)
+      .set('Idempotency-Key', crypto.randomUUID())
+      .send({});
+    expect(issued.status).toBe(201);
+    check('POST', '/api/claims/:id/credits', 201, issued.body);
+
+    const memoId = issued.body.creditMemo.id as string;
+    for (const who of [w.accountant, w.installer]) {
+      const memo = await who.agent.get(`/api/credits/${memoId}`);
+      expect(memo.status).toBe(200);
+      check('GET', '/api/credits/:id', 200, memo.body);
+    }
+    const voided = await w.accountant.agent
+      .post(`/api/credits/${memoId}/void`)
+      .send({ reason: 'Entered twice.' });
+    expect(voided.status).toBe(201);
+    check('POST', '/api/credits/:id/void', 201, voided.body);
+    const memos = await w.accountant.agent.get('/api/credits');
+    expect(memos.body.items.length).toBeGreaterThanOrEqual(2);
+    check('GET', '/api/credits', 200, memos.body);
+    check('GET', '/api/credits/queue', 200, (await w.accountant.agent.get('/api/credits/queue')).body);
+    check('GET', '/api/credits/balances', 200, (await w.accountant.agent.get('/api/credits/balances')).body);
+
+    check('GET', '/api/auth/me', 200, (await w.installer.agent.get('/api/auth/me')).body);
+    check('GET', '/api/users', 200, (await w.contractorAdmin.agent.get('/api/users')).body);
+
+    const token = await w.contractorAdmin.agent
+      .post('/api/api-tokens')
+      .send({ name: 'Field tool', roles: ['installer'], expiresInDays: 30 });
+    expect(token.status).toBe(201);
+    check('POST', '/api/api-tokens', 201, token.body);
+    const viaToken = await t.request().get('/api/claims').set('Authorization', `Bearer ${token.body.secret}`);
+    expect(viaToken.status).toBe(200);
+    check('GET', '/api/claims', 200, viaToken.body);
+    check('GET', '/api/api-tokens', 200, (await w.contractorAdmin.agent.get('/api/api-tokens')).body);
+
+    const hook = await w.contractorAdmin.agent
+      .post('/api/webhooks')
+      .send({ url: 'https://receiver.example.test/hooks', events: ['claim.filed'] });
+    expect(hook.status).toBe(201);
+    check('POST', '/api/webhooks', 201, hook.body);
+    check('GET', '/api/webhooks', 200, (await w.contractorAdmin.agent.get('/api/webhooks')).body);
+
+    // Refusals: a missing record, bad input, no sign-in.
+    const missing = await w.accountant.agent.get(`/api/credits/${crypto.randomUUID()}`);
+    expect(missing.status).toBe(404);
+    check('GET', '/api/credits/:id', 404, missing.body);
+    const bad = await w.installer.agent.get('/api/claims?pageSize=0');
+    expect(bad.status).toBe(400);
+    check('GET', '/api/claims', 400, bad.body);
+    const anonymous = await t.request().get('/api/claims');
+    expect(anonymous.status).toBe(401);
+    check('GET', '/api/claims', 401, anonymous.body);
+  });
+});
