@@ -18,7 +18,7 @@ fs.mkdirSync(reportDir, { recursive: true });
 const { dataDir } = loadConfig();
 // The profiles whose servers this run starts: the API tests' (and the migration check's), the browser tests',
 // the restore test's.
-const PROFILES = ['test', 'e2e', 'restore'] as const;
+const PROFILES = ['test', 'e2e', 'restore', 'repl-test', 'repl-test-replica'] as const;
 let before: DbServerProcess[] = [];
 let current: ChildProcess | null = null;
 let interrupted = false;
