@@ -15,7 +15,7 @@ import { startWaitingMail } from './modules/waiting/waiting-mail';
 
 export async function startServer(config: AppConfig, databaseUrl: string) {
   const logger = createLogger(config.logLevel);
-  const ds = createDataSource(databaseUrl);
+  const ds = createDataSource(databaseUrl, { replicaUrls: config.databaseReplicaUrls });
   await ds.initialize();
   const pending = await ds.showMigrations();
   if (pending)

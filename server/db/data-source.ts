@@ -22,11 +22,37 @@ class CountingLogger implements TypeOrmLogger {
   log() {}
 }
 
-export function createDataSource(url: string, opts: { poolSize?: number } = {}) {
+export type DataSourceOptions = {
+  poolSize?: number;
+  /**
+   * Read replicas of `url` (DATABASE_REPLICA_URLS). With any, TypeORM's own `replication` setting opens a pool
+   * cluster: MASTER for `url` and SLAVEn for each replica. Only readRows(…, { from: 'replica' }) and its default
+   * read from a replica (server/db/read.ts); everything else TypeORM runs, the query builder's reads included
+   * (`defaultMode: 'master'`), stays on the primary.
+   */
+  replicaUrls?: string[];
+};
+
+export function createDataSource(url: string, opts: DataSourceOptions = {}) {
   const logger = new CountingLogger();
+  const replicas = opts.replicaUrls ?? [];
   const ds = new DataSource({
     type: 'mariadb',
-    url,
+    ...(replicas.length
+      ? {
+          replication: {
+            master: { url },
+            slaves: replicas.map((u) => ({ url: u })),
+            defaultMode: 'master' as const,
+            selector: 'RR' as const,
+            // A replica that refuses connections is left out for a while, then tried again; meanwhile its reads
+            // go to another replica or to the primary (readRows).
+            canRetry: true,
+            removeNodeErrorCount: 1,
+            restoreNodeTimeout: 5_000,
+          },
+        }
+      : { url }),
     entities,
     migrations,
     // Deletes the stored objects of a transaction that rolls back (server/lib/transaction-objects.ts).
