@@ -187,7 +187,15 @@ export async function startLocalDb(opts: {
       // GTID replication: the primary keeps a row-based binary log (a replica then applies rows, never re-runs
       // triggers), each server has its own id.
       ...(BINLOG_PROFILES.includes(opts.profile)
-        ? ['--server-id=1', '--log-bin=mariadb-bin', '--binlog-format=ROW', '--expire-logs-days=2']
+        ? [
+            '--server-id=1',
+            '--log-bin=mariadb-bin',
+            '--binlog-format=ROW',
+            '--expire-logs-days=2',
+            // The migrations create triggers as the application account (no SUPER), which a binary log
+            // otherwise refuses; with row-based logging their effects, not the triggers, go to the replica.
+            '--log-bin-trust-function-creators=1',
+          ]
         : []),
       ...(opts.replicaArgs ?? []),
       ...(process.getuid?.() === 0 ? ['--user=root'] : []),
