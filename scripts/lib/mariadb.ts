@@ -373,7 +373,7 @@ async function startLocalReplica(opts: {
         );
       }
       await conn.query('START SLAVE');
-      await waitForReplication(conn);
+      await waitForReplication(conn, replicaBase);
     } finally {
       await conn.end();
     }
@@ -411,13 +411,17 @@ async function copyDatabase(fromSocket: string, toSocket: string) {
   execFileSync(clientBin, ['--no-defaults', `--socket=${toSocket}`, '--user=root'], { input: dump });
 }
 
-async function waitForReplication(conn: mysql.Connection, timeoutMs = 30_000) {
+async function waitForReplication(conn: mysql.Connection, base: string, timeoutMs = 30_000) {
   const started = Date.now();
   for (;;) {
     const [[s]] = (await conn.query('SHOW SLAVE STATUS')) as unknown as [Record<string, string>[]];
     if (s?.Slave_IO_Running === 'Yes' && s.Slave_SQL_Running === 'Yes') return;
     if (s?.Last_SQL_Error || (s?.Last_IO_Error && Date.now() - started > 5_000))
-      throw new Error(`The replica does not replicate: ${s.Last_SQL_Error || s.Last_IO_Error}`);
+      throw new Error(
+        `The replica does not replicate: ${s.Last_SQL_Error || s.Last_IO_Error}\n` +
+          `(A replica stopped longer than the primary keeps its binary log cannot resume: stop it and remove ${base} ` +
+          'to start a fresh copy.)',
+      );
     if (Date.now() - started > timeoutMs) throw new Error('The replica did not start replicating.');
     await new Promise((r) => setTimeout(r, 100));
   }
