@@ -2,8 +2,9 @@
 // item 1), on the replication tests' primary and replica (profile test-replica, ports DB_PORT + 7 and + 8).
 // Baseline, same run: the old readRows (a query straight on TypeORM's internal ds.driver.pool). A 50-row page
 // shaped like the claims list (uuids, text, a decimal, three DATETIME(3) read with dateStrings), then `SELECT 1`,
-// which shows the fixed cost per call. Calls per second at 8 in flight, median of 5 interleaved rounds, and the
-// ratio to the baseline. Prints; asserts nothing.
+// which shows the fixed cost per call. Calls per second at 8 in flight and this process's CPU time per call (the
+// Node-side cost, steadier than wall time on a shared machine), medians of 7 interleaved rounds, with the ratio
+// to the baseline. Prints; asserts nothing.
 import { QueryFailedError, type DataSource } from 'typeorm';
 import { loadConfig } from '../../server/config/env';
 import { createDataSource } from '../../server/db/data-source';
@@ -32,19 +33,23 @@ function oldReadRows<T>(
   );
 }
 
-const CALLS = 1000;
+const CALLS = 600;
 const IN_FLIGHT = 8;
-const ROUNDS = 5;
+const ROUNDS = 7;
 
+/** Calls per second with IN_FLIGHT at once, and this process's CPU time per call (µs): the Node-side cost. */
 async function rate(fn: () => Promise<unknown>) {
   let next = 0;
+  const cpu = process.cpuUsage();
   const started = process.hrtime.bigint();
   await Promise.all(
     Array.from({ length: IN_FLIGHT }, async () => {
       while (next++ < CALLS) await fn();
     }),
   );
-  return CALLS / (Number(process.hrtime.bigint() - started) / 1e9);
+  const seconds = Number(process.hrtime.bigint() - started) / 1e9;
+  const used = process.cpuUsage(cpu);
+  return { perSecond: CALLS / seconds, cpuMicros: (used.user + used.system) / CALLS };
 }
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
@@ -112,13 +117,21 @@ async function main() {
     for (const [title, fns] of variants) {
       for (const fn of Object.values(fns)) await rate(fn); // warm-up
       const rates: Record<string, number[]> = {};
+      const cpu: Record<string, number[]> = {};
       for (let r = 0; r < ROUNDS; r++)
-        for (const [name, fn] of Object.entries(fns)) (rates[name] ??= []).push(await rate(fn));
-      const base = median(rates['old readRows (ds.driver.pool)']);
-      console.log(`\n${title} (calls/s at ${IN_FLIGHT} in flight, median of ${ROUNDS})`);
-      for (const [name, xs] of Object.entries(rates))
+        for (const [name, fn] of Object.entries(fns)) {
+          const m = await rate(fn);
+          (rates[name] ??= []).push(m.perSecond);
+          (cpu[name] ??= []).push(m.cpuMicros);
+        }
+      const base = 'old readRows (ds.driver.pool)';
+      console.log(
+        `\n${title}: calls/s at ${IN_FLIGHT} in flight and Node CPU µs per call, medians of ${ROUNDS} interleaved rounds`,
+      );
+      for (const name of Object.keys(rates))
         console.log(
-          `  ${name.padEnd(34)} ${median(xs).toFixed(0).padStart(7)}   x${(median(xs) / base).toFixed(2)}`,
+          `  ${name.padEnd(34)} ${median(rates[name]).toFixed(0).padStart(7)}/s x${(median(rates[name]) / median(rates[base])).toFixed(2)}` +
+            `   ${median(cpu[name]).toFixed(0).padStart(5)} µs x${(median(cpu[name]) / median(cpu[base])).toFixed(2)}`,
         );
     }
   } finally {
