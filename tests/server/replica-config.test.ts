@@ -2,7 +2,7 @@ import express from 'express';
 import supertest from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { ConfigError, loadConfig } from '../../server/config/env';
-import { heldToPrimary } from '../../server/db/read';
+import { heldToPrimary, withReadRouting } from '../../server/db/read';
 import { clock } from '../../server/lib/clock';
 import { readYourWrites, WROTE_COOKIE } from '../../server/middleware/read-your-writes';
 
@@ -54,5 +54,17 @@ describe('read-your-writes routing', () => {
     expect((await get(`${WROTE_COOKIE}=soon`)).body.primary).toBe(false);
     expect((await get(at(now + 3_600_000))).body.primary).toBe(false);
     expect((await get()).headers['set-cookie']).toBeUndefined();
+  });
+});
+
+describe('background work started on the primary (server/index.ts)', () => {
+  it('stays on the primary in every timer it sets, while other code is routed as it asks', async () => {
+    const seen: boolean[] = [];
+    const timer = withReadRouting(true, () => setInterval(() => seen.push(heldToPrimary()), 5));
+    await new Promise((r) => setTimeout(r, 30));
+    clearInterval(timer);
+    expect(seen.length).toBeGreaterThan(1);
+    expect(seen.every(Boolean)).toBe(true);
+    expect(heldToPrimary()).toBe(false);
   });
 });
