@@ -17,8 +17,8 @@ fs.mkdirSync(reportDir, { recursive: true });
 
 const { dataDir } = loadConfig();
 // The profiles whose servers this run starts: the API tests' (and the migration check's), the browser tests',
-// the restore test's.
-const PROFILES = ['test', 'e2e', 'restore'] as const;
+// the restore test's, the replication tests' primary and replica.
+const PROFILES = ['test', 'e2e', 'restore', 'repl-test', 'repl-test-replica'] as const;
 let before: DbServerProcess[] = [];
 let current: ChildProcess | null = null;
 let interrupted = false;

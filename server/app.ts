@@ -16,6 +16,7 @@ import type { Logger } from './lib/logger';
 import { createStorage, type Storage } from './lib/storage';
 import { apiTokenAuth } from './middleware/api-token';
 import { sessionPolicy } from './middleware/auth';
+import { readYourWrites } from './middleware/read-your-writes';
 import { bodyGate, jsonBodies } from './middleware/body';
 import { errorHandler } from './middleware/error-handler';
 import { requireSecondFactorEnrollment } from './middleware/second-factor';
@@ -118,6 +119,10 @@ export function createApp(opts: CreateAppOptions): App {
     }),
   );
 
+  // With read replicas: a client's reads right after its own write go to the primary.
+  const readRouting = ds.driver.isReplicated ? readYourWrites(config) : null;
+  if (readRouting) app.use(readRouting);
+
   const sessionStore = createSessionStore(ds);
   const pp = createPassport(ds);
   const api = express.Router();
@@ -139,6 +144,7 @@ export function createApp(opts: CreateAppOptions): App {
   api.use(sessionPolicy({ demoMode: config.mode === 'demo' }));
   // The session first, then the body: a signed-out request is refused on its headers, and each route reads at
   // most its own limit (server/middleware/body.ts).
+  if (readRouting) api.use(readRouting);
   api.use(bodyGate);
   api.use(jsonBodies());
   api.use(requireSecondFactorEnrollment(config));

@@ -4,6 +4,7 @@ import { createApp } from './app';
 import { startCluster } from './cluster';
 import { loadConfig, type AppConfig } from './config/env';
 import { createDataSource } from './db/data-source';
+import { withReadRouting } from './db/read';
 import { PinoQueryLogger } from './db/query-logger';
 import { createLogger } from './lib/logger';
 import { startOutboxWorker } from './lib/outbox';
@@ -20,6 +21,7 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
   const ds = createDataSource(databaseUrl, {
     logger: new PinoQueryLogger(logger.child({ component: 'db' })),
     slowQueryMs: config.slowQueryMs,
+    replicaUrls: config.databaseReplicaUrls,
   });
   await ds.initialize();
   const pending = await ds.showMigrations();
@@ -27,30 +29,37 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
     throw new Error('The database has migrations still to run: run `npm run migrate` (npm start does it).');
   const storage = createStorage(config);
   const app = createApp({ config, ds, logger, databaseUrl, clientDir: path.resolve('dist'), storage });
+  // Background work decides what to send or delete from what it reads, so it reads the primary, never a replica
+  // that may be behind: the routing set here holds in every timer these start (AsyncLocalStorage).
+  const onPrimary = <T>(fn: () => T) => withReadRouting(true, fn);
   // E-mail attachments (letters, packing slips) are read from the same storage the documents were written to.
   const worker = config.outboxWorker
-    ? startOutboxWorker(ds, config, logger, { loadAttachment: (a) => storage.getBuffer(a.storageKey) })
+    ? onPrimary(() =>
+        startOutboxWorker(ds, config, logger, { loadAttachment: (a) => storage.getBuffer(a.storageKey) }),
+      )
     : null;
   // Webhook deliveries: from the same process that sends e-mail (the first of a cluster).
   const webhooks =
     config.outboxWorker && config.webhookWorker
-      ? startWebhookWorker(ds, logger, { strict: config.mode === 'production' })
+      ? onPrimary(() => startWebhookWorker(ds, logger, { strict: config.mode === 'production' }))
       : null;
   // Objects a killed process wrote without committing their rows: swept now and then periodically.
-  const sweeper = startStorageSweeper(ds, storage, logger, config.storage.sweep);
+  const sweeper = onPrimary(() => startStorageSweeper(ds, storage, logger, config.storage.sweep));
   // Idempotency keys are kept IDEMPOTENCY_KEY_DAYS, then purged daily.
-  const keyPurge = startIdempotencyKeyPurge(ds, logger);
+  const keyPurge = onPrimary(() => startIdempotencyKeyPurge(ds, logger));
   // The claim counts' appended rows folded into one per organisation and stage, every minute.
-  const counts = startClaimCountsCompaction(ds, logger);
+  const counts = onPrimary(() => startClaimCountsCompaction(ds, logger));
   // "What waits on me" by e-mail: at once or a daily summary, as each person chose.
-  const waitingMail = startWaitingMail(
-    ds,
-    {
-      secret: config.sessionSecret,
-      publicUrl: (p: string) =>
-        new URL(p, config.publicUrl ?? `http://${config.host}:${config.port}`).toString(),
-    },
-    logger,
+  const waitingMail = onPrimary(() =>
+    startWaitingMail(
+      ds,
+      {
+        secret: config.sessionSecret,
+        publicUrl: (p: string) =>
+          new URL(p, config.publicUrl ?? `http://${config.host}:${config.port}`).toString(),
+      },
+      logger,
+    ),
   );
 
   const server: Server = await new Promise((resolve, reject) => {

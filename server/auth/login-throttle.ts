@@ -2,6 +2,7 @@ import crypto from 'node:crypto';
 import type { Request, Response } from 'express';
 import { RateLimiterMySQL, RateLimiterRes } from 'rate-limiter-flexible';
 import type { AppDataSource } from '../db/data-source';
+import { primaryPool } from '../db/read';
 import { AppError } from '../lib/errors';
 
 /**
@@ -123,9 +124,9 @@ export function createLoginThrottle(
   let limiters: Record<LimitScope, RateLimiterMySQL> | null = null;
   const limiter = (scope: LimitScope) => {
     if (!limiters) {
-      // TypeORM's own mysql2 pool (callback API), which rate-limiter-flexible drives as storeType 'pool'; the
+      // The primary's mysql2 pool (callback API; primaryPool works with or without replicas), which rate-limiter-flexible drives as storeType 'pool'; the
       // table comes from a migration.
-      const pool = (ds.driver as unknown as { pool: unknown }).pool;
+      const pool = primaryPool(ds);
       const dbName = (ds.driver as unknown as { database: string }).database;
       const make = (s: LimitScope) =>
         new RateLimiterMySQL({

@@ -151,7 +151,8 @@ export class SessionStore extends MySQLStore {
   }
 
   override get(sid: string, cb: (err: unknown, data?: session.SessionData | null) => void) {
-    readRows<SessionRow>(this.ds, SESSION_SQL, [sid]).then((rows) => {
+    // From the primary: a session signed out or a role changed a moment ago must not be read from a lagging replica.
+    readRows<SessionRow>(this.ds, SESSION_SQL, [sid], { from: 'primary' }).then((rows) => {
       const row = rows[0];
       if (!row || row.expires < Math.round(Date.now() / 1000)) return cb(null, null);
       let data: session.SessionData & { passport?: { user?: string } };

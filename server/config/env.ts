@@ -20,6 +20,19 @@ const envSchema = z.object({
   WEB_CONCURRENCY: z.coerce.number().int().min(1).max(64).default(1),
   PUBLIC_URL: z.url().optional(),
   DATABASE_URL: z.string().optional(),
+  /** Read replicas of DATABASE_URL, comma-separated mysql:// URLs (server/db/data-source.ts). */
+  DATABASE_REPLICA_URLS: z
+    .string()
+    .optional()
+    .transform((v) =>
+      (v ?? '')
+        .split(',')
+        .map((u) => u.trim())
+        .filter(Boolean),
+    )
+    .pipe(z.array(z.string().regex(/^(mysql|mariadb):\/\//, 'each replica URL starts with mysql://'))),
+  /** A client that wrote in the last this many seconds reads from the primary (server/db/read-routing.ts). */
+  READ_YOUR_WRITES_SECONDS: z.coerce.number().int().min(0).max(3600).default(10),
   DB_PORT: z.coerce.number().int().min(1).max(65535).default(3307),
   SESSION_SECRET: z.string().min(32).optional(),
   TRUST_PROXY: bool.default(false),
@@ -77,6 +90,10 @@ export type AppConfig = {
   workers: number;
   publicUrl: string | undefined;
   databaseUrl: string | undefined;
+  /** Read replicas of databaseUrl; empty: every read goes to the primary. */
+  databaseReplicaUrls: string[];
+  /** Seconds after its own write during which a client's reads go to the primary. */
+  readYourWritesSeconds: number;
   dbPort: number;
   sessionSecret: string;
   trustProxy: boolean;
@@ -130,6 +147,8 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     workers: e.WEB_CONCURRENCY,
     publicUrl: e.PUBLIC_URL,
     databaseUrl: e.DATABASE_URL,
+    databaseReplicaUrls: e.DATABASE_REPLICA_URLS,
+    readYourWritesSeconds: e.READ_YOUR_WRITES_SECONDS,
     dbPort: e.DB_PORT,
     // Outside production a fixed development secret keeps sessions across restarts of the demo.
     sessionSecret: e.SESSION_SECRET ?? 'lumenproof-development-secret-not-for-production',

@@ -16,12 +16,37 @@ export type DataSourceOptions = {
   logger?: TypeOrmLogger;
   /** A statement slower than this many milliseconds is logged as slow (SLOW_QUERY_MS); 0 logs none. */
   slowQueryMs?: number;
+  /**
+   * Read replicas of `url` (DATABASE_REPLICA_URLS). With any, TypeORM's own `replication` setting opens a pool
+   * cluster: MASTER for `url` and SLAVEn for each replica. Only readRows(…, { from: 'replica' }) and its default
+   * read from a replica (server/db/read.ts); everything else TypeORM runs, the query builder's reads included
+   * (`defaultMode: 'master'`), stays on the primary.
+   */
+  replicaUrls?: string[];
 };
 
 export function createDataSource(url: string, opts: DataSourceOptions = {}) {
+  const replicas = opts.replicaUrls ?? [];
   return new DataSource({
     type: 'mariadb',
-    url,
+    ...(replicas.length
+      ? {
+          replication: {
+            master: { url },
+            slaves: replicas.map((u) => ({ url: u })),
+            defaultMode: 'master' as const,
+            selector: 'RR' as const,
+            // A replica that refuses connections is left out for a while, then tried again; meanwhile its reads
+            // go to another replica or to the primary (readRows).
+            canRetry: true,
+            removeNodeErrorCount: 1,
+            restoreNodeTimeout: 5_000,
+          },
+          // A replica host that is down without refusing (no answer at all) would hold each read mysql2's
+          // default 10 s before the primary is asked; 5 s is still far beyond a healthy connect.
+          connectTimeout: 5_000,
+        }
+      : { url }),
     entities,
     migrations,
     // Deletes the stored objects of a transaction that rolls back (server/lib/transaction-objects.ts).

@@ -1,36 +1,128 @@
+import { AsyncLocalStorage } from 'node:async_hooks';
 import { QueryFailedError, type DataSource } from 'typeorm';
 
+/** Where a read goes: a replica (the default where one is configured) or the primary. */
+export type ReadFrom = 'replica' | 'primary';
+
+export type ReadOptions = {
+  /**
+   * DATE and DATETIME columns as MariaDB writes them (`2026-12-02`, `2026-12-02 05:41:59.123`, UTC as stored):
+   * a list that only prints them skips making a Date of each (see isoOfDateTime).
+   */
+  dateStrings?: boolean;
+  /**
+   * `replica` (the default): a replica when DATABASE_REPLICA_URLS names any, unless the request is held to the
+   * primary (its client wrote a moment ago: readYourWrites in server/middleware/read-your-writes.ts); the primary
+   * when there is no replica or none answers. `primary`: always the primary, for a read that must see every
+   * committed write at once (a record just named in a link, a check before a write).
+   */
+  from?: ReadFrom;
+};
+
+// The request's routing: set by the read-your-writes middleware, read by every readRows under it.
+const routing = new AsyncLocalStorage<{ primary: boolean }>();
+
+/** Runs fn with the reads inside it sent to the primary (`primary`) or routed as each asks. */
+export function withReadRouting<T>(primary: boolean, fn: () => T): T {
+  return routing.run({ primary }, fn);
+}
+
+/** Whether reads here go to the primary whatever they ask (a request right after its client's write). */
+export const heldToPrimary = () => routing.getStore()?.primary ?? false;
+
+type CallbackConnection = {
+  query(
+    o: { sql: string; values: unknown[]; dateStrings?: boolean },
+    cb: (err: (Error & { fatal?: boolean; errno?: number }) | null, rows: unknown) => void,
+  ): void;
+};
+
+// Errors after which a replica's read is asked of the primary instead: no replica reachable, a connection lost
+// mid-query, or a table or column the replica has not received yet (a migration still replicating).
+const RETRY_ON_PRIMARY_CODES = new Set([
+  'POOL_NONEONLINE',
+  'POOL_NOEXIST',
+  'POOL_CLOSED',
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EPIPE',
+  'PROTOCOL_CONNECTION_LOST',
+]);
+const RETRY_ON_PRIMARY_ERRNOS = new Set([1146 /* ER_NO_SUCH_TABLE */, 1054 /* ER_BAD_FIELD_ERROR */]);
+
+function retryOnPrimary(err: unknown) {
+  const e = (err instanceof QueryFailedError ? err.driverError : err) as {
+    code?: string;
+    errno?: number;
+    fatal?: boolean;
+  };
+  return Boolean(
+    e && (e.fatal || RETRY_ON_PRIMARY_CODES.has(e.code ?? '') || RETRY_ON_PRIMARY_ERRNOS.has(e.errno ?? 0)),
+  );
+}
+
+async function runOn<T>(
+  ds: DataSource,
+  mode: 'master' | 'slave',
+  sql: string,
+  params: unknown[],
+  opts: ReadOptions,
+): Promise<T[]> {
+  // TypeORM's public query runner picks the pool (the primary's, or a replica's from its pool cluster); its
+  // connection takes mysql2's per-query options, so `dateStrings` stays a per-read choice.
+  const qr = ds.createQueryRunner(mode);
+  try {
+    const conn = (await qr.connect()) as CallbackConnection;
+    return await new Promise<T[]>((resolve, reject) =>
+      conn.query({ sql, values: params, dateStrings: opts.dateStrings }, (err, rows) =>
+        err ? reject(new QueryFailedError(sql, params, err)) : resolve(rows as T[]),
+      ),
+    );
+  } finally {
+    await qr.release();
+  }
+}
+
 /**
- * Runs one read statement straight on TypeORM's own mysql2 pool: the same connections and the same type handling
- * (UTC dates, decimals and big numbers as strings), without a query runner or the query builder around it. The
- * hot lists read this way: for a 50-row page and its count, TypeORM's query builder and query runner cost more time
- * in Node than MariaDB took to answer both. Writes and transactions stay with TypeORM.
+ * Runs one read statement through TypeORM's public query runner, with the same connections and type handling as
+ * the rest of the app (UTC dates, decimals and big numbers as strings) but without the query builder or
+ * hydration: for a 50-row page and its count, those cost more time in Node than MariaDB took to answer both.
+ * Writes and transactions stay with TypeORM, on the primary.
  *
- * Placeholders are `?`, filled in by mysql2's escaping; an array fills an `IN (?)` list. With `dateStrings`, DATE
- * and DATETIME columns arrive as MariaDB writes them (`2026-12-02`, `2026-12-02 05:41:59.123`, UTC as stored): a
- * list that only prints them skips making a Date of each (see isoOfDateTime).
+ * Placeholders are `?`, filled in by mysql2's escaping; an array fills an `IN (?)` list. With replicas
+ * configured, the read goes to one of them unless `from: 'primary'` or the request is held to the primary; a
+ * replica that cannot answer (down, or behind on the schema) sends the read to the primary, so a dead replica
+ * never fails a request.
  */
-export function readRows<T>(
+export async function readRows<T>(
   ds: DataSource,
   sql: string,
   params: unknown[] = [],
-  opts: { dateStrings?: boolean } = {},
+  opts: ReadOptions = {},
 ): Promise<T[]> {
   // Through TypeORM's logger, so that tests counting a route's statements see these too.
   ds.logger.logQuery(sql, params);
-  const { pool } = ds.driver as unknown as {
-    pool: {
-      query(
-        o: { sql: string; values: unknown[]; dateStrings?: boolean },
-        cb: (err: Error | null, rows: unknown) => void,
-      ): void;
-    };
+  if (ds.driver.isReplicated && opts.from !== 'primary' && !heldToPrimary()) {
+    try {
+      return await runOn<T>(ds, 'slave', sql, params, opts);
+    } catch (err) {
+      if (!retryOnPrimary(err)) throw err;
+    }
+  }
+  return runOn<T>(ds, 'master', sql, params, opts);
+}
+
+/**
+ * The primary's mysql2 pool (callback API), in both modes: TypeORM's own pool without replicas, the pool
+ * cluster's MASTER node with them. For libraries that take a pool (rate-limiter-flexible's storeType 'pool').
+ */
+export function primaryPool(ds: DataSource): unknown {
+  const driver = ds.driver as unknown as {
+    pool?: unknown;
+    poolCluster?: { of(pattern: string): unknown };
   };
-  return new Promise((resolve, reject) =>
-    pool.query({ sql, values: params, dateStrings: opts.dateStrings }, (err, rows) =>
-      err ? reject(new QueryFailedError(sql, params, err)) : resolve(rows as T[]),
-    ),
-  );
+  return driver.poolCluster ? driver.poolCluster.of('MASTER') : driver.pool;
 }
 
 /** The conditions of a WHERE clause and their parameters, in order. */

@@ -59,6 +59,8 @@ export async function loadHistory(
       ORDER BY e.id ASC
       LIMIT ${HISTORY_LIMIT}`,
     [entityType, entityId],
+    // A record's page reads the record from the primary; its history comes from the same place.
+    { from: 'primary' },
   );
   return rows.map((e) =>
     historyEventOf(

@@ -4,6 +4,7 @@ import type { SessionUser } from '../auth/passport';
 import type { AppContext } from '../context';
 import { ApiToken } from '../db/entities/api-token.entity';
 import { User } from '../db/entities/user.entity';
+import { primaryPool } from '../db/read';
 import { recordAudit } from '../lib/audit';
 import { clock } from '../lib/clock';
 import { AppError } from '../lib/errors';
@@ -38,7 +39,7 @@ export function apiTokenAuth(ctx: AppContext) {
   let limiter: RateLimiterMySQL | null = null;
   const limiterOf = () =>
     (limiter ??= new RateLimiterMySQL({
-      storeClient: (ctx.ds.driver as unknown as { pool: unknown }).pool,
+      storeClient: primaryPool(ctx.ds),
       storeType: 'pool',
       dbName: (ctx.ds.driver as unknown as { database: string }).database,
       tableName: API_TOKEN_RATE_TABLE,

@@ -258,12 +258,12 @@ export function createClaimReads(ds: AppDataSource) {
   }
 
   async function findById(id: string, m: EntityManager = ds.manager): Promise<LoadedClaim | null> {
-    // Inside a transaction the statement runs on the transaction's connection; outside, straight on the pool.
+    // Inside a transaction the statement runs on the transaction's connection; outside, on the primary: a claim
+    // is loaded to be moved, and its version must be the latest.
     const sql = detailSqlOf(false);
-    const [row] = (m === ds.manager ? await readRows(ds, sql, [id]) : await m.query(sql, [id])) as Record<
-      string,
-      unknown
-    >[];
+    const [row] = (
+      m === ds.manager ? await readRows(ds, sql, [id], { from: 'primary' }) : await m.query(sql, [id])
+    ) as Record<string, unknown>[];
     return row ? loadedClaimOf(row) : null;
   }
 
@@ -272,7 +272,10 @@ export function createClaimReads(ds: AppDataSource) {
    * statement. The caller authorises on the claim before it shows any of it.
    */
   async function findForPage(id: string) {
-    const [row] = await readRows<Record<string, unknown>>(ds, detailSqlOf(true), [id, id, id]);
+    // From the primary: a claim is on its page the moment it is filed, for whoever follows a link to it.
+    const [row] = await readRows<Record<string, unknown>>(ds, detailSqlOf(true), [id, id, id], {
+      from: 'primary',
+    });
     if (!row) return null;
     return {
       claim: loadedClaimOf(row),
