@@ -17,6 +17,7 @@ import {
   type LocalReplicaSet,
 } from '../../scripts/lib/mariadb';
 import { claimWorld, createDraft, goodClaimFields } from '../support/claim-factories';
+import { StatementCounter } from '../support/statement-counter';
 import { closeTestApp, type TestContext } from '../support/test-app';
 
 // Issue 15 item 1: the app against a real primary and a real read replica (profile test-replica: Debian's
@@ -81,10 +82,15 @@ beforeAll(async () => {
     DATABASE_REPLICA_URLS: set.replica.url,
     READ_YOUR_WRITES_SECONDS: String(RYW_SECONDS),
   });
-  const ds = createDataSource(set.primary.url, { poolSize: 5, replicaUrls: config.databaseReplicaUrls });
+  const statements = new StatementCounter();
+  const ds = createDataSource(set.primary.url, {
+    poolSize: 5,
+    replicaUrls: config.databaseReplicaUrls,
+    logger: statements,
+  });
   await ds.initialize();
   const app = createApp({ config, ds, logger: createLogger('silent'), databaseUrl: set.primary.url });
-  t = { app, ds, config, request: () => supertest.agent(app) };
+  t = { app, ds, config, request: () => supertest.agent(app), countQueries: (fn) => statements.count(fn) };
 }, 120_000);
 
 afterAll(async () => {
@@ -134,7 +140,7 @@ describe('where readRows reads', () => {
 
   it('keeps mysql2 dateStrings per read on a replica, and counts each read once', async () => {
     const sql = "SELECT CAST('2026-12-02 05:41:59.123' AS DATETIME(3)) AS at";
-    const { result, counter } = await t.ds.countQueries(async () => [
+    const { result, counter } = await t.countQueries(async () => [
       await readRows<{ at: unknown }>(t.ds, sql, [], { dateStrings: true }),
       await readRows<{ at: unknown }>(t.ds, sql),
     ]);

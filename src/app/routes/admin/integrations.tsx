@@ -1,5 +1,5 @@
 import { BookOpen } from 'lucide-react';
-import { Link } from 'react-router-dom';
+import { Link } from 'react-router';
 import { buttonClasses } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page-header';
 import { ApiTokensCard } from '../../../features/integrations/components/api-tokens-card';
