@@ -13,6 +13,7 @@ import {
   resetDatabase,
   startLocalReplicaSet,
   stopLocalDb,
+  stopLocalReplicaSet,
   type LocalDb,
   type LocalReplicaSet,
 } from '../../scripts/lib/mariadb';
@@ -95,7 +96,8 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await closeTestApp(t);
-  await set?.stop();
+  // Both by their pid files: the set restarted mid-test did not start the primary, so its stop() would leave it.
+  await stopLocalReplicaSet(env.dataDir, 'repl-test');
 });
 
 const serverId = async (from?: 'primary' | 'replica') =>
