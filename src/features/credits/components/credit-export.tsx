@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { BookOpenCheck, FileSpreadsheet } from 'lucide-react';
-import { groupAmount } from '../../../../shared/credits/money';
+import { formatAmount } from '../../../../shared/money';
 import { buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { InputField, SelectField } from '../../../components/ui/field';
@@ -75,7 +75,7 @@ export function CreditExport() {
                     : totals
                         .map(
                           (t) =>
-                            `${t.entries} ${t.entries === 1 ? 'entry' : 'entries'} in ${t.currency}: debits ${groupAmount(t.debit)}, credits ${groupAmount(t.credit)}`,
+                            `${t.entries} ${t.entries === 1 ? 'entry' : 'entries'} in ${t.currency}: debits ${formatAmount(t.debit)}, credits ${formatAmount(t.credit)}`,
                         )
                         .join('; ')}
             </p>
