@@ -74,8 +74,6 @@ export const MOVES_ELSEWHERE: Partial<Record<ClaimActionName, string>> = {
 export const CLAIM_CHANGED_MESSAGE =
   'Someone else moved this claim just now. Reload it to see what changed, then try again.';
 
-const today = () => clock.now().toISOString().slice(0, 10);
-
 /**
  * The engine's latest word on a claim (the newest bench test's evaluation, else the one made at filing) and what
  * the newest bench test found.
@@ -261,7 +259,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
         photos: files.filter((f) => f.kind === 'photo').length,
         proofOfPurchase: files.some((f) => f.purpose === 'proof_of_purchase'),
       },
-      claim.filedAt ? claim.filedAt.toISOString().slice(0, 10) : today(),
+      claim.filedAt ? claim.filedAt.toISOString().slice(0, 10) : clock.today(),
     ) as { claim: { measurements: unknown } };
     // The bench readings replace the field readings; everything else is judged as at filing.
     input.claim.measurements = readings;
@@ -337,7 +335,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             authorOrgId: user.organizationId,
             authorId: user.id,
             body: p.message,
-            dueOn: addDays(today(), INFO_RESPONSE_DAYS),
+            dueOn: addDays(clock.today(), INFO_RESPONSE_DAYS),
             answeredAt: null,
           });
           await m.insert(ClaimMessage, msg);
@@ -414,7 +412,7 @@ export function createClaimActionsService(ctx: AppContext & { storage: Storage }
             claimId: claim.id,
             shipTo: p.shipTo,
             instructions: p.instructions ?? null,
-            shipBy: addDays(today(), RETURN_SHIP_DAYS),
+            shipBy: addDays(clock.today(), RETURN_SHIP_DAYS),
             requestedById: user.id,
           });
           const slip = await createPackingSlip(m, storage, claim, parties, ra, now);

@@ -18,9 +18,10 @@ import { Claim } from '../../db/entities/claim.entity';
 import { InstallationUnit } from '../../db/entities/installation-unit.entity';
 import { Installation } from '../../db/entities/installation.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
+import { clock } from '../../lib/clock';
 import { coerceRow, MAX_LISTED_ERRORS, readRows, tooManyRows, type ColumnSpec } from '../../lib/csv-import';
 import { AppError, notFound } from '../../lib/errors';
-import { todayIso, type ClaimsService } from './claims.service';
+import type { ClaimsService } from './claims.service';
 import { engineContextOf } from './engine-input';
 
 // Bulk filing: a spreadsheet of failed units (one row per claim) for one or more installations becomes a batch
@@ -240,7 +241,7 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
             installDate: inst.installDate,
             quantity: inst.quantity,
             serials: inst.units.map((u) => u.serial),
-            today: todayIso(),
+            today: clock.today(),
             hasPolicy: inst.policyVersion !== null,
             ledStrings: inst.productModel.ledStrings,
             ledsPerString: inst.productModel.ledsPerString,
@@ -254,7 +255,7 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
                 engineContextOf(inst.productModel, inst.policyVersion, inst),
                 fields,
                 { photos: 0, proofOfPurchase: false },
-                todayIso(),
+                clock.today(),
               ),
             );
             good.push({ row, inst, fields, verdict: r.ok ? r.evaluation.verdict : null });

@@ -207,8 +207,6 @@ export type LoadedClaim = Claim & {
 type Scope = { kind: 'contractor' | 'manufacturer'; orgId: string };
 export const scopeOf = (u: SessionUser): Scope => ({ kind: u.organization.kind, orgId: u.organization.id });
 
-export const todayIso = () => clock.now().toISOString().slice(0, 10);
-
 /** The evidence the engine counts. Attachments plug in here (photos and proof of purchase on the claim). */
 export type EvidenceCounter = (m: EntityManager, claimId: string) => Promise<ClaimEvidence>;
 const noEvidence: EvidenceCounter = async () => ({ photos: 0, proofOfPurchase: false });
@@ -237,7 +235,7 @@ export function filingContextOf(c: LoadedClaim) {
     installDate: c.installation.installDate,
     quantity: c.installation.quantity,
     serials: c.installation.units.map((u) => u.serial),
-    today: todayIso(),
+    today: clock.today(),
     hasPolicy: c.policyVersion !== null,
     ledStrings: c.productModel.ledStrings,
     ledsPerString: c.productModel.ledsPerString,

@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { CloudOff, CloudUpload, Check, Send } from 'lucide-react';
 import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useForm, useWatch, type FieldErrors, type Resolver } from 'react-hook-form';
+import { todayIn } from '../../../../shared/dates';
 import { engineInputFor } from '../../../../shared/claims/engine-input';
 import {
   filingIssues,
@@ -35,7 +36,6 @@ import { MeterField } from './meter-field';
 import { SafetyCallout } from './safety-callout';
 
 const UNITS_KEY = 'lumenproof.reading-units';
-const todayIso = () => new Date().toISOString().slice(0, 10);
 
 function loadUnits(): ReadingUnits {
   try {
@@ -181,7 +181,7 @@ export function ClaimForm({
         claim.engineContext,
         fieldsFromValues(values, units).fields as ClaimFields,
         evidence,
-        todayIso(),
+        todayIn(),
       ),
     [key, evidence, claim.engineContext], // eslint-disable-line react-hooks/exhaustive-deps
   );
@@ -192,7 +192,7 @@ export function ClaimForm({
           installDate: inst.installDate,
           quantity: inst.quantity,
           serials: inst.serials,
-          today: todayIso(),
+          today: todayIn(),
           hasPolicy: inst.policyVersion !== null,
           ledStrings: claim.engineContext.product.ledStrings,
           ledsPerString: claim.engineContext.product.ledsPerString,
@@ -343,7 +343,7 @@ export function ClaimForm({
             <InputField
               label="Failure date"
               type="date"
-              max={todayIso()}
+              max={todayIn()}
               error={err('failedOn')}
               {...register('failedOn')}
             />

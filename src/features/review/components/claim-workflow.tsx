@@ -27,6 +27,7 @@ import { Button } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { InputField, SelectField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
+import { useToday } from '../../../lib/dates';
 import { assignClaim, performClaimAction } from '../api/perform-claim-action';
 import { reviewQueries } from '../api/review-queries';
 import { uploadConversationFile } from '../api/upload-conversation-file';
@@ -242,7 +243,7 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
   const [ship, setShip] = useState({
     carrier: '',
     trackingNumber: '',
-    shippedOn: new Date().toISOString().slice(0, 10),
+    shippedOn: useToday(),
   });
   const [uploadError, setUploadError] = useState<ApiError | null>(null);
   async function answer(e: FormEvent) {
@@ -700,7 +701,7 @@ export function BenchTestForm({
   const form = useForm<BenchFormInput, unknown, BenchPayload>({
     resolver: zodResolver(recordBenchTestSchema),
     defaultValues: {
-      testedOn: new Date().toISOString().slice(0, 10),
+      testedOn: useToday(),
       result: 'failure_confirmed',
       readings: {},
       next: 'decide',
@@ -779,7 +780,7 @@ export function ReceiveUnitForm({
 }) {
   const form = useForm<ReceiptFormInput, unknown, ReceiptPayload>({
     resolver: zodResolver(receiveUnitSchema),
-    defaultValues: { receivedOn: new Date().toISOString().slice(0, 10), condition: 'as_described' },
+    defaultValues: { receivedOn: useToday(), condition: 'as_described' },
   });
   const errors = form.formState.errors;
   return (
