@@ -19,7 +19,13 @@ import { InstallationUnit } from '../../db/entities/installation-unit.entity';
 import { Installation } from '../../db/entities/installation.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
-import { coerceRow, MAX_LISTED_ERRORS, readRows, tooManyRows, type ColumnSpec } from '../../lib/csv-import';
+import {
+  coerceRow,
+  MAX_LISTED_ERRORS,
+  parseCsvRows,
+  tooManyRows,
+  type ColumnSpec,
+} from '../../lib/csv-import';
 import { AppError, notFound } from '../../lib/errors';
 import type { ClaimsService } from './claims.service';
 import { engineContextOf } from './engine-input';
@@ -110,7 +116,7 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
       filename: string | null,
     ): Promise<ClaimBatchResult> {
       const contractorId = user.organization.id;
-      const { rows, fileErrors } = readRows(input, CLAIM_BATCH_COLUMNS);
+      const { rows, fileErrors } = parseCsvRows(input, CLAIM_BATCH_COLUMNS);
       tooManyRows(rows.length, CLAIM_BATCH_MAX_ROWS);
       const errors: ClaimBatchRowError[] = [...fileErrors];
       const coerced = rows.map((raw) => ({ raw, ...coerceRow(raw, CLAIM_BATCH_COLUMNS) }));
