@@ -1,4 +1,4 @@
-import type { EntityTarget, ObjectLiteral } from 'typeorm';
+import type { EntityTarget, ObjectLiteral, QueryDeepPartialEntity } from 'typeorm';
 import type { AppDataSource } from '../db/data-source';
 import { clock } from './clock';
 
@@ -49,7 +49,11 @@ export async function claimDue<T extends QueueRow>(
       await m
         .createQueryBuilder()
         .update(entity)
-        .set({ nextAttemptAt: new Date(clock.nowMs() + leaseMs), attempts: () => 'attempts + 1' } as never)
+        // Every queue entity has these two columns; TypeScript cannot see that through the generic T.
+        .set({
+          nextAttemptAt: new Date(clock.nowMs() + leaseMs),
+          attempts: () => 'attempts + 1',
+        } as unknown as QueryDeepPartialEntity<T>)
         .whereInIds(rows.map((r) => r.id))
         .execute();
     }
