@@ -36,7 +36,6 @@ import { invitationsRouter } from './modules/invitations/invitations.router';
 import { mailboxRouter } from './modules/mailbox/mailbox.router';
 import { passwordsRouter } from './modules/passwords/passwords.router';
 import { organizationsRouter } from './modules/organizations/organizations.router';
-import { organizationRouter } from './modules/organizations/organization.router';
 import { savedViewsRouter } from './modules/saved-views/saved-views.router';
 import { waitingRouter } from './modules/waiting/waiting.router';
 import { ageingRouter } from './modules/ageing/ageing.router';
@@ -186,7 +185,6 @@ export function createApp(opts: CreateAppOptions): App {
   api.use('/credits', creditsRouter(ctx));
   api.use('/analytics', analyticsRouter(ctx));
   api.use('/reserve', reserveRouter(ctx));
-  api.use('/organization', organizationRouter(ctx));
   api.use('/saved-views', savedViewsRouter(ctx));
   api.use('/waiting', waitingRouter(ctx));
   api.use('/ageing', ageingRouter(ctx));

@@ -133,6 +133,12 @@ export function calendarDayIn(value: string | Date, timeZone?: string): string {
   return `${get('year')}-${get('month')}-${get('day')}`;
 }
 
+/** Today ("YYYY-MM-DD") in a zone, UTC when none is given: the one "today" of both sides. The server passes
+ *  its clock (`clock.today()`), the client its organisation's zone (`useToday()`). */
+export function todayIn(timeZone?: string, now: Date = new Date()): string {
+  return calendarDayIn(now, timeZone);
+}
+
 /** Every IANA zone this runtime knows, for a picker (UTC first). */
 export function timeZones(): string[] {
   const intl = Intl as unknown as { supportedValuesOf?: (k: string) => string[] };

@@ -19,8 +19,8 @@ export type RawRow = { row: number; values: Record<string, unknown> };
 
 export const MAX_LISTED_ERRORS = 500;
 
-/** Turns the request (CSV text or JSON rows) into raw rows keyed by lower-case column name. */
-export function readRows(
+/** Parses the import's CSV text (or the same rows sent as JSON) into raw rows keyed by lower-case column name. */
+export function parseCsvRows(
   input: ImportRequest,
   specs: ColumnSpec[],
 ): { rows: RawRow[]; fileErrors: ImportRowError[] } {

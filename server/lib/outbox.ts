@@ -4,6 +4,7 @@ import type { AppConfig } from '../config/env';
 import type { AppDataSource } from '../db/data-source';
 import { OutboxMessage, type OutboxAttachment } from '../db/entities/outbox-message.entity';
 import { clock } from './clock';
+import { afterFailure, claimDue, startQueueWorker, type ClaimOptions } from './delivery-queue';
 import type { Logger } from './logger';
 import { renderEmail } from './templates';
 
@@ -36,48 +37,16 @@ export function createTransport(config: AppConfig): Transporter {
   });
 }
 
-const MAX_ATTEMPTS = 8;
-export const backoffMs = (attempt: number) => Math.min(60 * 60 * 1000, 5_000 * 2 ** (attempt - 1));
-
-/**
- * Sends due messages. Each one is claimed by pushing its next attempt into the future inside a short
- * transaction (FOR UPDATE SKIP LOCKED), so several workers never send the same row at once, and a worker killed
- * mid-send leaves the row to be retried when that lease runs out.
- */
+/** Sends due messages, claimed with a lease (server/lib/delivery-queue.ts) so that none is sent twice at once. */
 export async function deliverDue(
   ds: AppDataSource,
   transport: Transporter,
-  opts: {
+  opts: ClaimOptions & {
     from: string;
-    batch?: number;
-    leaseMs?: number;
     loadAttachment?: (a: OutboxAttachment) => Promise<Buffer>;
-    /** Only these messages (a resend of chosen ones; tests that share the queue with other workers). */
-    ids?: string[];
   },
 ) {
-  const leaseMs = opts.leaseMs ?? 120_000;
-  const claimed = await ds.transaction(async (m) => {
-    const qb = m
-      .createQueryBuilder(OutboxMessage, 'o')
-      .where('o.status = :s AND o.next_attempt_at <= :now', { s: 'pending', now: clock.now() });
-    if (opts.ids) qb.andWhere('o.id IN (:...ids)', { ids: opts.ids.length ? opts.ids : ['none'] });
-    const rows = await qb
-      .orderBy('o.id', 'ASC')
-      .limit(opts.batch ?? 20)
-      .setLock('pessimistic_write')
-      .setOnLocked('skip_locked')
-      .getMany();
-    if (rows.length) {
-      await m
-        .createQueryBuilder()
-        .update(OutboxMessage)
-        .set({ nextAttemptAt: new Date(clock.nowMs() + leaseMs), attempts: () => 'attempts + 1' })
-        .whereInIds(rows.map((r) => r.id))
-        .execute();
-    }
-    return rows;
-  });
+  const claimed = await claimDue(ds, OutboxMessage, opts);
 
   let sent = 0;
   for (const row of claimed) {
@@ -108,12 +77,10 @@ export async function deliverDue(
         );
       sent += 1;
     } catch (err) {
-      const attempts = row.attempts + 1;
       await ds.getRepository(OutboxMessage).update(
         { id: row.id },
         {
-          status: attempts >= MAX_ATTEMPTS ? 'failed' : 'pending',
-          nextAttemptAt: new Date(clock.nowMs() + backoffMs(attempts)),
+          ...afterFailure(row.attempts + 1),
           lastError: String((err as Error).message ?? err).slice(0, 2000),
         },
       );
@@ -129,23 +96,13 @@ export function startOutboxWorker(
   opts: { intervalMs?: number; loadAttachment?: (a: OutboxAttachment) => Promise<Buffer> } = {},
 ) {
   const transport = createTransport(config);
-  let stopped = false;
-  let running: Promise<unknown> = Promise.resolve();
-  const tick = async () => {
-    if (stopped) return;
-    running = deliverDue(ds, transport, { from: config.smtp.from, loadAttachment: opts.loadAttachment })
-      .then((r) => r.sent && logger.info({ sent: r.sent }, 'outbox delivered'))
-      .catch((err) => logger.warn({ err }, 'outbox run failed'));
-    await running;
-    if (!stopped) timer = setTimeout(tick, opts.intervalMs ?? 1000);
-  };
-  let timer = setTimeout(tick, 200);
-  return {
-    async stop() {
-      stopped = true;
-      clearTimeout(timer);
-      await running;
-      transport.close();
-    },
-  };
+  return startQueueWorker({
+    firstDelayMs: 200,
+    intervalMs: opts.intervalMs,
+    run: () =>
+      deliverDue(ds, transport, { from: config.smtp.from, loadAttachment: opts.loadAttachment })
+        .then((r) => r.sent && logger.info({ sent: r.sent }, 'outbox delivered'))
+        .catch((err) => logger.warn({ err }, 'outbox run failed')),
+    close: () => transport.close(),
+  });
 }

@@ -10,7 +10,7 @@ import { WebhookDelivery, WebhookEndpoint } from '../db/entities/webhook.entity'
 import { clock } from './clock';
 import { AppError } from './errors';
 import type { Logger } from './logger';
-import { backoffMs } from './outbox';
+import { afterFailure, claimDue, startQueueWorker, type ClaimOptions } from './delivery-queue';
 
 // Webhooks ride the same transactional-outbox pattern as e-mail (server/lib/outbox.ts): a delivery row per
 // subscribed endpoint is written in the transaction of the change, and a worker sends it with retries and backoff.
@@ -132,7 +132,6 @@ export async function enqueueWebhookEvent(
   return eventId;
 }
 
-const MAX_ATTEMPTS = 8;
 const TIMEOUT_MS = 10_000;
 
 type LookupCallback = (err: NodeJS.ErrnoException | null, address: unknown, family?: number) => void;
@@ -175,36 +174,9 @@ function post(url: URL, body: string, headers: Record<string, string>, strict: b
   });
 }
 
-/**
- * Sends due deliveries. Each is claimed by pushing its next attempt into the future inside a short transaction
- * (FOR UPDATE SKIP LOCKED), exactly as the e-mail outbox does, so two workers never send the same row at once.
- */
-export async function deliverDueWebhooks(
-  ds: AppDataSource,
-  opts: { strict: boolean; batch?: number; leaseMs?: number; ids?: string[] },
-) {
-  const leaseMs = opts.leaseMs ?? 120_000;
-  const claimed = await ds.transaction(async (m) => {
-    const qb = m
-      .createQueryBuilder(WebhookDelivery, 'd')
-      .where('d.status = :s AND d.next_attempt_at <= :now', { s: 'pending', now: clock.now() });
-    if (opts.ids) qb.andWhere('d.id IN (:...ids)', { ids: opts.ids.length ? opts.ids : ['0'] });
-    const rows = await qb
-      .orderBy('d.id', 'ASC')
-      .limit(opts.batch ?? 20)
-      .setLock('pessimistic_write')
-      .setOnLocked('skip_locked')
-      .getMany();
-    if (rows.length) {
-      await m
-        .createQueryBuilder()
-        .update(WebhookDelivery)
-        .set({ nextAttemptAt: new Date(clock.nowMs() + leaseMs), attempts: () => 'attempts + 1' })
-        .whereInIds(rows.map((r) => r.id))
-        .execute();
-    }
-    return rows;
-  });
+/** Sends due deliveries, claimed with a lease exactly as the e-mail outbox's (server/lib/delivery-queue.ts). */
+export async function deliverDueWebhooks(ds: AppDataSource, opts: ClaimOptions & { strict: boolean }) {
+  const claimed = await claimDue(ds, WebhookDelivery, opts);
 
   const repo = ds.getRepository(WebhookDelivery);
   let delivered = 0;
@@ -251,8 +223,7 @@ export async function deliverDueWebhooks(
       await repo.update(
         { id: row.id },
         {
-          status: gone || attempts >= MAX_ATTEMPTS ? 'failed' : 'pending',
-          nextAttemptAt: new Date(clock.nowMs() + backoffMs(attempts)),
+          ...afterFailure(attempts, gone),
           lastStatusCode: status,
           lastError: error.slice(0, 500),
           lastAttemptAt: now,
@@ -268,22 +239,12 @@ export function startWebhookWorker(
   logger: Logger,
   opts: { strict: boolean; intervalMs?: number },
 ) {
-  let stopped = false;
-  let running: Promise<unknown> = Promise.resolve();
-  const tick = async () => {
-    if (stopped) return;
-    running = deliverDueWebhooks(ds, { strict: opts.strict })
-      .then((r) => r.delivered && logger.info({ delivered: r.delivered }, 'webhooks delivered'))
-      .catch((err) => logger.warn({ err }, 'webhook run failed'));
-    await running;
-    if (!stopped) timer = setTimeout(tick, opts.intervalMs ?? 1000);
-  };
-  let timer = setTimeout(tick, 300);
-  return {
-    async stop() {
-      stopped = true;
-      clearTimeout(timer);
-      await running;
-    },
-  };
+  return startQueueWorker({
+    firstDelayMs: 300,
+    intervalMs: opts.intervalMs,
+    run: () =>
+      deliverDueWebhooks(ds, { strict: opts.strict })
+        .then((r) => r.delivered && logger.info({ delivered: r.delivered }, 'webhooks delivered'))
+        .catch((err) => logger.warn({ err }, 'webhook run failed')),
+  });
 }

@@ -30,11 +30,3 @@ export function normalizeAmount(amount: string | number | Decimal): string {
 export function amountsEqual(a: string, b: string): boolean {
   return new D(a).equals(b);
 }
-
-/** "12345.5" -> "12,345.50" for the screens (the CSV keeps plain decimals). */
-export function groupAmount(amount: string): string {
-  const fixed = new D(amount).toFixed(2);
-  const neg = fixed.startsWith('-');
-  const [whole, frac] = (neg ? fixed.slice(1) : fixed).split('.');
-  return `${neg ? '-' : ''}${whole.replace(/\B(?=(\d{3})+(?!\d))/g, ',')}.${frac}`;
-}

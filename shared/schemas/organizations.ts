@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { isLocale, isTimeZone } from '../dates';
 import { str } from './text';
 
-/** What an administrator sets for their organisation. */
+/** The credit second-approval amount, as the form checks it (also part of updateOrganizationSchema). */
 export const organizationSettingsSchema = z.strictObject({
   /** Credits above this amount need a second accountant's approval; null: none do. Manufacturers only. */
   creditSecondApprovalAbove: str()
@@ -13,16 +13,10 @@ export const organizationSettingsSchema = z.strictObject({
     )
     .nullable(),
 });
-export type OrganizationSettingsInput = z.input<typeof organizationSettingsSchema>;
-
-export type OrganizationSettingsDto = {
-  id: string;
-  name: string;
-  kind: 'manufacturer' | 'contractor';
-  creditSecondApprovalAbove: string | null;
-};
-
-/** What an administrator may change about their own organisation: the zone and locale dates are shown in. */
+/**
+ * PATCH /api/organizations/current: what an administrator may change about their own organisation, any of them
+ * at once: the zone and locale dates are shown in, and (manufacturers only) the credit second-approval amount.
+ */
 export const updateOrganizationSchema = z
   .strictObject({
     timeZone: str()
@@ -33,14 +27,18 @@ export const updateOrganizationSchema = z
       .trim()
       .refine(isLocale, 'Pick a language and region from the list (such as en-US).')
       .optional(),
+    creditSecondApprovalAbove: organizationSettingsSchema.shape.creditSecondApprovalAbove.optional(),
   })
   .refine((v) => Object.keys(v).length > 0, 'Nothing to change.');
 export type UpdateOrganizationInput = z.infer<typeof updateOrganizationSchema>;
 
+/** GET /api/organizations/current: the organisation and its settings. */
 export type OrganizationDto = {
   id: string;
   name: string;
   kind: 'manufacturer' | 'contractor';
   timeZone: string;
   locale: string;
+  /** Credits above this amount need a second accountant's approval; null: none do. */
+  creditSecondApprovalAbove: string | null;
 };

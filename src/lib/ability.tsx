@@ -1,6 +1,6 @@
 import { createContext, useContext, type ReactNode } from 'react';
 import { defineAbilityFor, type AppAbility } from '../../shared/abilities';
-import type { SessionDto } from '../features/auth/api/auth-queries';
+import type { SessionDto } from './session';
 
 // The same abilities the server enforces, used here only to hide what the user cannot do.
 const AbilityContext = createContext<AppAbility>(defineAbilityFor(null));

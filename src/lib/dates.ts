@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import type { DateRule } from '../../shared/dates';
+import { todayIn, type DateRule } from '../../shared/dates';
 import { useOptionalSession } from './ability';
 
 /** The reader's locale (the browser's) and their organisation's time zone: the rule every date here follows. */
@@ -10,4 +10,9 @@ export function useDateRule(): DateRule {
     () => ({ locale: typeof navigator === 'undefined' ? undefined : navigator.language, timeZone }),
     [timeZone],
   );
+}
+
+/** Today ("YYYY-MM-DD") in the organisation's time zone: the default of a date the user records. */
+export function useToday(): string {
+  return todayIn(useDateRule().timeZone);
 }

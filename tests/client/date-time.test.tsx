@@ -1,6 +1,6 @@
 import { cleanup, render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, it } from 'vitest';
-import type { SessionDto } from '../../src/features/auth/api/auth-queries';
+import type { SessionDto } from '../../src/lib/session';
 import { CalendarDate, DateTime, DayOf } from '../../src/components/ui/date-time';
 import { SessionProvider } from '../../src/lib/ability';
 

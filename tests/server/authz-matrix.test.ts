@@ -139,7 +139,6 @@ const validClaim = JSON.parse(fs.readFileSync('tests/shared/engine/fixtures/vali
 const unique = () => crypto.randomBytes(4).toString('hex');
 const colleagueOf = (w: World, a: Actor) =>
   a !== 'anon' && KIND[a] === 'manufacturer' ? w.colleague.manufacturer : w.colleague.contractor;
-const orgOf = (w: World, a: Actor) => (a !== 'anon' && KIND[a] === 'manufacturer' ? w.m : w.c);
 /** Another session of the actor's counterpart in that world (the installer's for anon), by its public id. */
 async function otherSessionOf(w: World, a: Actor) {
   const agent = await signIn(t.request(), w.users[a === 'anon' ? 'installer' : a].email);
@@ -432,14 +431,12 @@ const ROUTES: Record<string, Entry> = {
     ok: members(SIGNED_IN, 204),
     target: (w, a) => otherSessionOf(w, a),
   },
-  // The organisation's security settings: its members read them, its administrators change them.
-  'GET /api/organizations/:id/security': {
-    ok: members(SIGNED_IN, 200),
-    target: (w, a) => ({ id: orgOf(w, a).id }),
-  },
-  'PATCH /api/organizations/:id/security': {
+  // The organisation's security settings: its members read them, its administrators change them. Always the
+  // signed-in person's own organisation: no id, so nothing foreign to reach.
+  'GET /api/organizations/current/security': { ok: members(SIGNED_IN, 200) },
+  'PATCH /api/organizations/current/security': {
     ok: members(['cAdmin', 'mAdmin'], 200),
-    target: (w, a) => ({ id: orgOf(w, a).id }),
+    denied: 403,
     // Never true here: every matrix user would be held at enrolment.
     body: () => ({ requireSecondFactor: false }),
   },
@@ -529,14 +526,6 @@ const ROUTES: Record<string, Entry> = {
     ok: members(['cAdmin', 'mAdmin'], 201),
     denied: 404,
     target: (w, a) => newWebhook(w, a),
-  },
-
-  // The signed-in person's own organisation: no id, so nothing foreign to reach.
-  'GET /api/organization': { ok: members(SIGNED_IN, 200) },
-  'PATCH /api/organization': {
-    ok: members(['cAdmin', 'mAdmin'], 200),
-    denied: 403,
-    body: () => ({ timeZone: 'America/Chicago' }),
   },
 
   // Each reviewer's own saved review-desk views; anyone else's view is hidden like a missing one.

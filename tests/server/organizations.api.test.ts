@@ -23,7 +23,7 @@ describe("the organisation's time zone and locale", () => {
     const agent = await signIn(t.request(), installer.email);
     const me = await agent.get('/api/auth/me');
     expect(me.body.user.organization).toMatchObject({ id: org.id, timeZone: 'UTC', locale: 'en-US' });
-    const r = await agent.get('/api/organization');
+    const r = await agent.get('/api/organizations/current');
     expect(r.status).toBe(200);
     expect(r.body.organization).toEqual({
       id: org.id,
@@ -31,6 +31,7 @@ describe("the organisation's time zone and locale", () => {
       kind: 'contractor',
       timeZone: 'UTC',
       locale: 'en-US',
+      creditSecondApprovalAbove: null,
     });
   });
 
@@ -38,7 +39,9 @@ describe("the organisation's time zone and locale", () => {
     const org = await createOrganization(t.ds, 'manufacturer');
     const admin = await createUser(t.ds, org, ['administrator']);
     const agent = await signIn(t.request(), admin.email);
-    const r = await agent.patch('/api/organization').send({ timeZone: 'America/Chicago', locale: 'en-CA' });
+    const r = await agent
+      .patch('/api/organizations/current')
+      .send({ timeZone: 'America/Chicago', locale: 'en-CA' });
     expect(r.status).toBe(200);
     expect(r.body.organization).toMatchObject({ timeZone: 'America/Chicago', locale: 'en-CA' });
     const row = await t.ds.getRepository(Organization).findOneByOrFail({ id: org.id });
@@ -56,18 +59,46 @@ describe("the organisation's time zone and locale", () => {
     const admin = await createUser(t.ds, org, ['administrator']);
     const agent = await signIn(t.request(), admin.email);
     for (const body of [{ timeZone: 'Mars/Olympus_Mons' }, { locale: 'not a locale' }, {}, { name: 'x' }]) {
-      const r = await agent.patch('/api/organization').send(body);
+      const r = await agent.patch('/api/organizations/current').send(body);
       expect(r.status, JSON.stringify(body)).toBe(400);
       expect(r.body.error.code).toBe('validation.failed');
     }
     expect(await zoneOf(org.id)).toBe('UTC');
   });
 
+  it("refuses a contractor's second-approval amount whole: the zone sent with it is not changed", async () => {
+    const org = await createOrganization(t.ds, 'contractor');
+    const admin = await createUser(t.ds, org, ['administrator']);
+    const agent = await signIn(t.request(), admin.email);
+    const r = await agent
+      .patch('/api/organizations/current')
+      .send({ timeZone: 'Europe/Berlin', creditSecondApprovalAbove: '5000.00' });
+    expect(r.status).toBe(403);
+    const row = await t.ds.getRepository(Organization).findOneByOrFail({ id: org.id });
+    expect([row.timeZone, row.creditSecondApprovalAbove]).toEqual(['UTC', null]);
+  });
+
+  it('sets the zone and the second-approval amount in one request, each audited under its own action', async () => {
+    const org = await createOrganization(t.ds, 'manufacturer');
+    const admin = await createUser(t.ds, org, ['administrator']);
+    const agent = await signIn(t.request(), admin.email);
+    const r = await agent
+      .patch('/api/organizations/current')
+      .send({ timeZone: 'America/Denver', creditSecondApprovalAbove: '2500' });
+    expect(r.status).toBe(200);
+    expect(r.body.organization).toMatchObject({
+      timeZone: 'America/Denver',
+      creditSecondApprovalAbove: '2500.00',
+    });
+    const actions = (await t.ds.getRepository(AuditEvent).findBy({ entityId: org.id })).map((a) => a.action);
+    expect(actions.sort()).toEqual(['organization.settings_changed', 'organization.updated']);
+  });
+
   it('refuses members who are not administrators with 403 and changes nothing', async () => {
     const org = await createOrganization(t.ds, 'manufacturer');
     const reviewer = await createUser(t.ds, org, ['reviewer']);
     const agent = await signIn(t.request(), reviewer.email);
-    const r = await agent.patch('/api/organization').send({ timeZone: 'Europe/Berlin' });
+    const r = await agent.patch('/api/organizations/current').send({ timeZone: 'Europe/Berlin' });
     expect(r.status).toBe(403);
     expect(await zoneOf(org.id)).toBe('UTC');
   });

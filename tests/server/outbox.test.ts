@@ -1,6 +1,7 @@
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { OutboxMessage } from '../../server/db/entities/outbox-message.entity';
-import { backoffMs, createTransport, deliverDue, enqueueEmail } from '../../server/lib/outbox';
+import { backoffMs } from '../../server/lib/delivery-queue';
+import { createTransport, deliverDue, enqueueEmail } from '../../server/lib/outbox';
 import { clock } from '../../server/lib/clock';
 import { startFakeSmtp } from '../../scripts/fake-smtp';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';

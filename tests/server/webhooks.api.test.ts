@@ -4,7 +4,7 @@ import type { AddressInfo } from 'node:net';
 import type supertest from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { WebhookDelivery, WebhookEndpoint } from '../../server/db/entities/webhook.entity';
-import { backoffMs } from '../../server/lib/outbox';
+import { backoffMs } from '../../server/lib/delivery-queue';
 import { clock } from '../../server/lib/clock';
 import { deliverDueWebhooks, isPrivateAddress } from '../../server/lib/webhooks';
 import { WEBHOOK_EVENTS } from '../../shared/schemas/webhooks';

@@ -1,7 +1,8 @@
 import { formatCents, scaleCentsHalfUp } from '../../../shared/engine/money';
 import { PdfBuilder, type PaperSize } from './document';
 import type { Party } from './determination-letter';
-import { formatDate, formatMoney, formatPercent, groupCents, toCents } from './format';
+import { formatAmount, formatMoney } from '../../../shared/money';
+import { formatDate, formatPercent, toCents } from './format';
 import { loadLayout } from './layout';
 
 export type CreditMemoLine = {
@@ -73,7 +74,7 @@ export function renderCreditMemo(data: CreditMemoData): Promise<Buffer> {
     content: { kind: 'credit-memo', data },
   });
   const L = (k: string) => layout.label(k);
-  const money = (cents: number) => groupCents(cents);
+  const money = (cents: number) => formatAmount(formatCents(cents));
   const totalCents = sign * toCents(memoTotal(data));
 
   if (reversal) pdf.stamp(L('voidStamp'));
@@ -127,7 +128,7 @@ export function renderCreditMemo(data: CreditMemoData): Promise<Buffer> {
               formatPercent(l.coveragePercent),
               money(sign * lineCents(l)),
             ]),
-            [L('total'), '', '', '', formatMoney(totalCents, data.currency)],
+            [L('total'), '', '', '', formatMoney(formatCents(totalCents), data.currency)],
           ],
           { totalRow: true },
         );

@@ -1,7 +1,8 @@
 import type { DenialCode, Resolution } from '../../../shared/claims/actions.schema';
 import type { Finding, Verdict } from '../../../shared/engine/schema';
 import { PdfBuilder, type PaperSize } from './document';
-import { formatDate, formatMoney } from './format';
+import { formatMoney } from '../../../shared/money';
+import { formatDate } from './format';
 import { loadLayout } from './layout';
 
 export type Party = { name: string; address?: readonly string[] };

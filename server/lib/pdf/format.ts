@@ -1,5 +1,5 @@
 import { DEFAULT_LOCALE, formatCalendarDate } from '../../../shared/dates';
-import { formatCents, MONEY_PATTERN, parseCents } from '../../../shared/engine/money';
+import { MONEY_PATTERN, parseCents } from '../../../shared/engine/money';
 
 // Formatting for documents: dates in the recipient's locale (the organisation's), calendar dates never moved by a
 // zone, so the same data and locale print the same everywhere.
@@ -18,25 +18,6 @@ export function formatDate(iso: string, locale: string = DEFAULT_LOCALE): string
 export function dateAsTimestamp(iso: string): Date {
   if (!ISO_DATE.test(iso)) throw new Error(`expected a date as YYYY-MM-DD, got "${iso}"`);
   return new Date(`${iso}T12:00:00Z`);
-}
-
-const SYMBOLS: Record<string, string> = { USD: '$', CAD: 'CA$', EUR: '€', GBP: '£', AUD: 'A$', MXN: 'MX$' };
-
-/** Integer cents as "1,234.50" with thousands separators; negative amounts keep their sign. */
-export function groupCents(cents: number): string {
-  const plain = formatCents(cents);
-  const negative = plain.startsWith('-');
-  const [whole, fraction] = (negative ? plain.slice(1) : plain).split('.');
-  const grouped = whole.replace(/\B(?=(\d{3})+(?!\d))/g, ',');
-  return `${negative ? '-' : ''}${grouped}.${fraction}`;
-}
-
-/** "96.5", "USD" -> "$96.50 USD"; the code always follows so that no amount is ambiguous. */
-export function formatMoney(amount: string | number, currency: string): string {
-  const cents = typeof amount === 'number' ? amount : toCents(amount);
-  const symbol = SYMBOLS[currency] ?? '';
-  const text = groupCents(Math.abs(cents));
-  return `${cents < 0 ? '-' : ''}${symbol}${text} ${currency}`;
 }
 
 /** A decimal string ("96", "96.5", "-96.50") as integer cents. */

@@ -33,8 +33,6 @@ import {
   type Population,
 } from './analytics.service';
 
-export const today = () => clock.now().toISOString().slice(0, 10);
-
 /**
  * The population a query names, loaded and authorised: a model of another manufacturer (or none) is 404, as is
  * a lot the manufacturer has never installed; a family is the manufacturer's own models of that family.
@@ -75,7 +73,7 @@ export function analyticsRouter(ctx: AppContext) {
     authorizeType(req, 'read', 'Analytics');
     const q = parseQuery(lifeQuerySchema, req);
     const population = await resolvePopulation(req, service, q);
-    const asOf = q.asOf ?? today();
+    const asOf = q.asOf ?? clock.today();
     // By default ages at the middle of the month (or day) they fell in, so a failure in the first month can be fitted.
     const life = await service.lifeData(req.user!.organizationId, population, {
       asOf,
@@ -111,7 +109,7 @@ export function analyticsRouter(ctx: AppContext) {
     authorizeType(req, 'read', 'Analytics');
     const q = parseQuery(failureModesQuerySchema, req);
     const population = await resolvePopulation(req, service, q);
-    const asOf = q.asOf ?? today();
+    const asOf = q.asOf ?? clock.today();
     const { envRows, lotRows, cells } = await service.failureGroups(
       req.user!.organizationId,
       population,
@@ -138,7 +136,7 @@ export function analyticsRouter(ctx: AppContext) {
   r.get('/claims-ageing', async (req, res) => {
     authorizeType(req, 'read', 'Analytics');
     const q = parseQuery(claimsAgeingQuerySchema, req);
-    const asOf = q.asOf ?? today();
+    const asOf = q.asOf ?? clock.today();
     const dto: ClaimsAgeingDto = {
       asOf,
       ...(await service.claimsAgeing(req.user!.organizationId, asOf, q.weeks)),

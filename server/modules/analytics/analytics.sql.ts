@@ -1,5 +1,6 @@
 // SQL fragments for the reliability analytics, built from the definitions in shared/ so that the database
-// counts exactly what the shared functions would count from the rows (tests/server/analytics.sql.test.ts).
+// counts exactly what the shared functions would count from the rows ("the SQL matches the shared definitions" in
+// tests/server/analytics.api.test.ts).
 // Every fragment here is made from constants of ours, never from request input: values go in as parameters.
 
 import { APPROVED_STAGES, COVERED_IF_VERDICT_STAGES } from '../../../shared/analytics/covered';

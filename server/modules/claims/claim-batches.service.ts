@@ -18,9 +18,15 @@ import { Claim } from '../../db/entities/claim.entity';
 import { InstallationUnit } from '../../db/entities/installation-unit.entity';
 import { Installation } from '../../db/entities/installation.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
-import { coerceRow, MAX_LISTED_ERRORS, readRows, tooManyRows, type ColumnSpec } from '../../lib/csv-import';
+import { clock } from '../../lib/clock';
+import {
+  coerceRow,
+  MAX_LISTED_ERRORS,
+  parseCsvRows,
+  tooManyRows,
+  type ColumnSpec,
+} from '../../lib/csv-import';
 import { AppError, notFound } from '../../lib/errors';
-import { todayIso } from './claims-reads.service';
 import type { ClaimsService } from './claims.service';
 import { engineContextOf } from './engine-input';
 
@@ -110,7 +116,7 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
       filename: string | null,
     ): Promise<ClaimBatchResult> {
       const contractorId = user.organization.id;
-      const { rows, fileErrors } = readRows(input, CLAIM_BATCH_COLUMNS);
+      const { rows, fileErrors } = parseCsvRows(input, CLAIM_BATCH_COLUMNS);
       tooManyRows(rows.length, CLAIM_BATCH_MAX_ROWS);
       const errors: ClaimBatchRowError[] = [...fileErrors];
       const coerced = rows.map((raw) => ({ raw, ...coerceRow(raw, CLAIM_BATCH_COLUMNS) }));
@@ -241,7 +247,7 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
             installDate: inst.installDate,
             quantity: inst.quantity,
             serials: inst.units.map((u) => u.serial),
-            today: todayIso(),
+            today: clock.today(),
             hasPolicy: inst.policyVersion !== null,
             ledStrings: inst.productModel.ledStrings,
             ledsPerString: inst.productModel.ledsPerString,
@@ -255,7 +261,7 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
                 engineContextOf(inst.productModel, inst.policyVersion, inst),
                 fields,
                 { photos: 0, proofOfPurchase: false },
-                todayIso(),
+                clock.today(),
               ),
             );
             good.push({ row, inst, fields, verdict: r.ok ? r.evaluation.verdict : null });

@@ -18,7 +18,7 @@ import { runIdempotent } from '../../lib/idempotency';
 import { enqueueEmail } from '../../lib/outbox';
 import { claimRef, enqueueWebhookEvent } from '../../lib/webhooks';
 import { claimFieldsOf, engineInputOfClaim } from './engine-input';
-import { todayIso, type ClaimReads, type LoadedClaim } from './claims-reads.service';
+import { type ClaimReads, type LoadedClaim } from './claims-reads.service';
 import { moveClaim } from './move-claim';
 import { recipientsOf } from './recipients';
 
@@ -44,7 +44,7 @@ export function filingContextOf(c: LoadedClaim) {
     installDate: c.installation.installDate,
     quantity: c.installation.quantity,
     serials: c.installation.units.map((u) => u.serial),
-    today: todayIso(),
+    today: clock.today(),
     hasPolicy: c.policyVersion !== null,
     ledStrings: c.productModel.ledStrings,
     ledsPerString: c.productModel.ledsPerString,

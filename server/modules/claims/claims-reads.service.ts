@@ -15,7 +15,6 @@ import { ProductModel } from '../../db/entities/product-model.entity';
 import { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-version.entity';
 import { WarrantyPolicy } from '../../db/entities/warranty-policy.entity';
 import { stageTotal } from '../../lib/claim-counts';
-import { clock } from '../../lib/clock';
 import { HISTORY_LIMIT } from '../../lib/history';
 import { likeContains, parseSort } from '../../lib/pagination';
 
@@ -175,8 +174,6 @@ export type LoadedClaim = Claim & {
 
 type Scope = { kind: 'contractor' | 'manufacturer'; orgId: string };
 export const scopeOf = (u: SessionUser): Scope => ({ kind: u.organization.kind, orgId: u.organization.id });
-
-export const todayIso = () => clock.now().toISOString().slice(0, 10);
 
 /** Reading claims: one claim with everything its checks read, a claim's page, the claims list. */
 export function createClaimReads(ds: AppDataSource) {

@@ -3,7 +3,7 @@ import { toDecimal } from '../../../shared/credits/money';
 
 // The auditor's check: recompute every balance from the memos and compare it with the ledger, and check that
 // each memo has its one entry, each credited claim its one standing credit, each voided credit its reversal.
-// Used by the tests after every scenario and by scripts/check-ledger.ts.
+// Used by the credit, accounting and demo tests after every scenario.
 
 export type LedgerReport = {
   problems: string[];

@@ -24,7 +24,7 @@ import {
   coerceRow,
   issuesToRowErrors,
   MAX_LISTED_ERRORS,
-  readRows,
+  parseCsvRows,
   tooManyRows,
   type ColumnSpec,
 } from '../../lib/csv-import';
@@ -500,7 +500,7 @@ export function createInstallationsService(ds: AppDataSource) {
       dryRun: boolean,
       actor: Actor,
     ): Promise<ImportResult> {
-      const { rows, fileErrors } = readRows(input, INSTALLATION_COLUMNS);
+      const { rows, fileErrors } = parseCsvRows(input, INSTALLATION_COLUMNS);
       tooManyRows(rows.length, 20_000);
       const errors: ImportRowError[] = [...fileErrors];
       const { input: rowSchema } = installationSchemasNow();

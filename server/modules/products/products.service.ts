@@ -16,7 +16,7 @@ import {
   coerceRow,
   issuesToRowErrors,
   MAX_LISTED_ERRORS,
-  readRows,
+  parseCsvRows,
   tooManyRows,
   type ColumnSpec,
 } from '../../lib/csv-import';
@@ -175,7 +175,7 @@ export function createProductsService(ds: AppDataSource) {
       dryRun: boolean,
       actor: Actor,
     ): Promise<ImportResult> {
-      const { rows, fileErrors } = readRows(input, PRODUCT_COLUMNS);
+      const { rows, fileErrors } = parseCsvRows(input, PRODUCT_COLUMNS);
       tooManyRows(rows.length, 20_000);
       const errors: ImportRowError[] = [...fileErrors];
       const good: { row: number; value: ProductValues }[] = [];

@@ -1,6 +1,7 @@
 import { OpenClaims } from '../../features/claims/components/open-claims';
 import { AccountantDesk } from '../../features/credits/components/accountant-desk';
-import { AdministratorHome, InstallerHome } from '../../features/home/components/home-panels';
+import { InstallerHome } from '../../features/home/components/home-panels';
+import { AdministratorHome } from '../../features/users/components/administrator-home';
 import { useSession } from '../../lib/ability';
 import { PageHeader } from '../../components/ui/page-header';
 import { ReviewDeskSummary } from '../../features/review/components/review-queue';

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   calendarDayIn,
+  todayIn,
   formatCalendarDate,
   formatDateTime,
   formatDay,
@@ -80,5 +81,17 @@ describe('one rule for dates and times', () => {
     );
     expect(timeZones()[0]).toBe('UTC');
     expect(timeZones()).toContain('Europe/Berlin');
+  });
+});
+
+describe("today in the organisation's time zone", () => {
+  it('is the calendar day of now in that zone, UTC when none is given', () => {
+    // IANA tz database: America/Chicago is UTC-6 (CST) in December; Asia/Tokyo is UTC+9 (JST) with no DST.
+    const evening = new Date('2026-12-03T04:00:00Z'); // 22:00 on Dec 2 in Chicago
+    expect(todayIn('America/Chicago', evening)).toBe('2026-12-02');
+    expect(todayIn(undefined, evening)).toBe('2026-12-03');
+    const afternoon = new Date('2026-12-03T16:00:00Z'); // 01:00 on Dec 4 in Tokyo
+    expect(todayIn('Asia/Tokyo', afternoon)).toBe('2026-12-04');
+    expect(todayIn('Not/A_Zone', afternoon)).toBe('2026-12-03');
   });
 });

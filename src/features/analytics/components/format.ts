@@ -11,8 +11,8 @@ export const formatNumber = (v: number, digits = 0) =>
   v.toLocaleString('en-US', { minimumFractionDigits: digits, maximumFractionDigits: digits });
 export const formatPercent = (share: number, digits = 0) =>
   `${(share * 100).toLocaleString('en-US', { maximumFractionDigits: digits })} %`;
-export const formatMoney = (amount: string | number, currency: string) =>
-  Number(amount).toLocaleString('en-US', { style: 'currency', currency, maximumFractionDigits: 0 });
+/** Money in a summary: whole units, the currency as its symbol ("$1,235"); see shared/money.ts. */
+export const WHOLE_MONEY = { whole: true, code: false } as const;
 
 /** Compact tick labels for a time axis. */
 export function formatTick(value: number, unit: 'months' | 'hours'): string {

@@ -7,7 +7,8 @@ import { Spinner } from '../../../components/ui/spinner';
 import { RESERVE_AGE_RULE, RESERVE_ROUNDING_RULE } from '../../../../shared/analytics/reserve';
 import { analyticsQueries, csvUrl } from '../api/analytics-queries';
 import { ChartCard, NumbersTable } from './chart-card';
-import { formatMoney, formatNumber } from './format';
+import { formatMoney } from '../../../../shared/money';
+import { formatNumber, WHOLE_MONEY } from './format';
 import { MonthlyBars } from './reliability-charts';
 
 const COLORS = ['#167b71', '#2850c9', '#c25e06', '#ad281a'];
@@ -47,7 +48,7 @@ export function WarrantyReserve() {
                 className="mt-1 text-2xl font-bold text-ink-950 tabular-nums"
                 data-testid={`reserve-total-${t.currency}`}
               >
-                {formatMoney(t.amount, t.currency)}
+                {formatMoney(t.amount, t.currency, WHOLE_MONEY)}
               </dd>
               <dd className="mt-1 text-xs text-ink-700">
                 About {formatNumber(t.expectedClaims)} claimed units expected, prorated by coverage.
@@ -75,7 +76,7 @@ export function WarrantyReserve() {
           r.totals
             .map(
               (t) =>
-                `${t.currency}: ${formatMoney(t.amount, t.currency)} over ${r.months} months, ${formatMoney(t.monthlyAmounts[0], t.currency)} in the first.`,
+                `${t.currency}: ${formatMoney(t.amount, t.currency, WHOLE_MONEY)} over ${r.months} months, ${formatMoney(t.monthlyAmounts[0], t.currency, WHOLE_MONEY)} in the first.`,
             )
             .join(' ') || 'Nothing to forecast.'
         }
@@ -148,10 +149,12 @@ export function WarrantyReserve() {
                   <td className="px-3 py-1.5 tabular-nums">{c.ageMonths}</td>
                   <td className="px-3 py-1.5 tabular-nums">{formatNumber(c.survivors)}</td>
                   <td className="px-3 py-1.5 tabular-nums">{c.termMonths} mo</td>
-                  <td className="px-3 py-1.5 tabular-nums">{formatMoney(c.unitCredit, c.currency)}</td>
+                  <td className="px-3 py-1.5 tabular-nums">
+                    {formatMoney(c.unitCredit, c.currency, WHOLE_MONEY)}
+                  </td>
                   <td className="px-3 py-1.5 tabular-nums">{formatNumber(c.expectedClaims, 2)}</td>
                   <td className="px-3 py-1.5 font-semibold tabular-nums">
-                    {formatMoney(c.amount, c.currency)}
+                    {formatMoney(c.amount, c.currency, WHOLE_MONEY)}
                   </td>
                 </tr>
               ))}

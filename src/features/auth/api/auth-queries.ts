@@ -1,13 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { MeDto } from '../../../../shared/schemas/users';
 import { api, ApiError } from '../../../lib/api-client';
-
-export type SessionDto = {
-  user: MeDto;
-  app: { mode: 'demo' | 'production' };
-  /** Whether the person has a second factor and must have one (then they are held at /security until they do). */
-  secondFactor?: { enrolled: boolean; required: boolean };
-};
+import type { SessionDto } from '../../../lib/session';
 
 export const authQueries = {
   me: () =>

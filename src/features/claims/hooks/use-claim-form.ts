@@ -11,6 +11,7 @@ import {
 import type { AttachmentDto } from '../../../../shared/schemas/attachments';
 import { ApiError, newIdempotencyKey } from '../../../lib/api-client';
 import { fileClaim } from '../api/claim-mutations';
+import { todayIn } from '../../../../shared/dates';
 import { claimQueries } from '../api/claim-queries';
 import {
   checkValues,
@@ -23,7 +24,6 @@ import {
 import { readLocalDraft, useDraftSync } from './use-draft-sync';
 
 const UNITS_KEY = 'lumenproof.reading-units';
-export const todayIso = () => new Date().toISOString().slice(0, 10);
 
 function loadUnits(): ReadingUnits {
   try {
@@ -134,7 +134,7 @@ export function useClaimForm(claim: ClaimDetailDto) {
         claim.engineContext,
         fieldsFromValues(values, units).fields as ClaimFields,
         evidence,
-        todayIso(),
+        todayIn(),
       ),
     [key, evidence, claim.engineContext], // eslint-disable-line react-hooks/exhaustive-deps
   );
@@ -145,7 +145,7 @@ export function useClaimForm(claim: ClaimDetailDto) {
           installDate: inst.installDate,
           quantity: inst.quantity,
           serials: inst.serials,
-          today: todayIso(),
+          today: todayIn(),
           hasPolicy: inst.policyVersion !== null,
           ledStrings: claim.engineContext.product.ledStrings,
           ledsPerString: claim.engineContext.product.ledsPerString,

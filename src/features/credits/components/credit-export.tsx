@@ -1,15 +1,16 @@
 import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { BookOpenCheck, FileSpreadsheet } from 'lucide-react';
-import { groupAmount } from '../../../../shared/credits/money';
+import { todayIn } from '../../../../shared/dates';
+import { formatAmount } from '../../../../shared/money';
 import { buttonClasses } from '../../../components/ui/button';
 import { Card, CardHeader } from '../../../components/ui/card';
 import { InputField, SelectField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
 import { creditExportUrl, creditQueries, journalUrl } from '../api/credit-queries';
 
-const today = () => new Date().toISOString().slice(0, 10);
-const monthStart = () => `${today().slice(0, 8)}01`;
+// The export's range is in UTC days, so its defaults are too.
+const monthStart = () => `${todayIn().slice(0, 8)}01`;
 
 /**
  * The files for the accounting system: the memo CSV (memos and reversals, negative, with a total per currency),
@@ -17,7 +18,7 @@ const monthStart = () => `${today().slice(0, 8)}01`;
  */
 export function CreditExport() {
   const [from, setFrom] = useState(monthStart());
-  const [to, setTo] = useState(today());
+  const [to, setTo] = useState(todayIn());
   const [currency, setCurrency] = useState('');
   const bad = !from || !to || from > to;
   const journal = useQuery({ ...creditQueries.journal(from, to), enabled: !bad });
@@ -75,7 +76,7 @@ export function CreditExport() {
                     : totals
                         .map(
                           (t) =>
-                            `${t.entries} ${t.entries === 1 ? 'entry' : 'entries'} in ${t.currency}: debits ${groupAmount(t.debit)}, credits ${groupAmount(t.credit)}`,
+                            `${t.entries} ${t.entries === 1 ? 'entry' : 'entries'} in ${t.currency}: debits ${formatAmount(t.debit)}, credits ${formatAmount(t.credit)}`,
                         )
                         .join('; ')}
             </p>

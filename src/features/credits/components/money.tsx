@@ -1,4 +1,4 @@
-import { groupAmount } from '../../../../shared/credits/money';
+import { formatAmount } from '../../../../shared/money';
 
 export function Money({
   amount,
@@ -12,7 +12,7 @@ export function Money({
   if (amount === null) return <span className={className}>–</span>;
   return (
     <span className={`tabular-nums ${className ?? ''}`}>
-      {groupAmount(amount)} <span className="text-xs text-ink-600">{currency}</span>
+      {formatAmount(amount)} <span className="text-xs text-ink-600">{currency}</span>
     </span>
   );
 }

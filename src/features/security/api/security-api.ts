@@ -22,11 +22,13 @@ export const securityQueries = {
       queryKey: ['security', 'sessions'],
       queryFn: () => api<{ items: SessionDto[] }>('/auth/sessions'),
     }),
-  organization: (id: string) =>
+  organization: () =>
     queryOptions({
-      queryKey: ['security', 'organization', id],
+      queryKey: ['security', 'organization'],
       queryFn: () =>
-        api<{ organization: { id: string; requireSecondFactor: boolean } }>(`/organizations/${id}/security`),
+        api<{ organization: { id: string; requireSecondFactor: boolean } }>(
+          '/organizations/current/security',
+        ),
     }),
   events: (f: SecurityEventFilters) =>
     queryOptions({
@@ -55,8 +57,8 @@ export const removeSecondFactor = (password: string) =>
 export const endSession = (id: string) => api<void>(`/auth/sessions/${id}`, { method: 'DELETE' });
 export const endOtherSessions = () =>
   api<{ ended: number }>('/auth/sessions/sign-out-others', { method: 'POST', json: {} });
-export const setOrganizationSecurity = (id: string, requireSecondFactor: boolean) =>
-  api<{ organization: { id: string; requireSecondFactor: boolean } }>(`/organizations/${id}/security`, {
+export const setOrganizationSecurity = (requireSecondFactor: boolean) =>
+  api<{ organization: { id: string; requireSecondFactor: boolean } }>('/organizations/current/security', {
     method: 'PATCH',
     json: { requireSecondFactor },
   });

@@ -9,10 +9,10 @@ import { securityQueries, setOrganizationSecurity } from '../api/security-api';
 export function OrganizationSecurityCard({ organization }: { organization: { id: string; name: string } }) {
   const qc = useQueryClient();
   const { notify } = useToast();
-  const setting = useQuery(securityQueries.organization(organization.id));
+  const setting = useQuery(securityQueries.organization());
   const required = setting.data?.organization.requireSecondFactor ?? false;
   const change = useMutation({
-    mutationFn: (v: boolean) => setOrganizationSecurity(organization.id, v),
+    mutationFn: (v: boolean) => setOrganizationSecurity(v),
     onSuccess: async ({ organization: o }) => {
       notify(
         o.requireSecondFactor

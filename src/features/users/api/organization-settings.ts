@@ -1,16 +1,14 @@
-import type {
-  OrganizationSettingsDto,
-  OrganizationSettingsInput,
-} from '../../../../shared/schemas/organizations';
+import type { OrganizationDto, UpdateOrganizationInput } from '../../../../shared/schemas/organizations';
 import { api } from '../../../lib/api-client';
 
 export const organizationQueries = {
   all: ['organizations'] as const,
   current: () => ({
     queryKey: ['organizations', 'current'] as const,
-    queryFn: () => api<{ organization: OrganizationSettingsDto }>('/organizations/current'),
+    queryFn: () => api<{ organization: OrganizationDto }>('/organizations/current'),
   }),
 };
 
-export const saveOrganizationSettings = (input: OrganizationSettingsInput) =>
-  api<{ organization: OrganizationSettingsDto }>('/organizations/current', { method: 'PATCH', json: input });
+/** Any of the organisation's settings: zone and locale of dates, the credit second-approval amount. */
+export const updateOrganization = (input: UpdateOrganizationInput) =>
+  api<{ organization: OrganizationDto }>('/organizations/current', { method: 'PATCH', json: input });

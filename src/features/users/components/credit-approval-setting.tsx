@@ -6,7 +6,7 @@ import { Card, CardHeader } from '../../../components/ui/card';
 import { InputField } from '../../../components/ui/field';
 import { useToast } from '../../../components/ui/toast';
 import { ApiError } from '../../../lib/api-client';
-import { organizationQueries, saveOrganizationSettings } from '../api/organization-settings';
+import { organizationQueries, updateOrganization } from '../api/organization-settings';
 
 /** A manufacturer administrator's setting: the amount above which a credit needs a second accountant. */
 export function CreditApprovalSetting() {
@@ -18,7 +18,7 @@ export function CreditApprovalSetting() {
   const saved = current.data?.organization.creditSecondApprovalAbove ?? '';
   const value = draft ?? saved;
   const save = useMutation({
-    mutationFn: saveOrganizationSettings,
+    mutationFn: updateOrganization,
     onSuccess: async ({ organization }) => {
       setDraft(null);
       notify(

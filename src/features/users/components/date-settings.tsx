@@ -7,7 +7,7 @@ import { SelectField } from '../../../components/ui/field';
 import { useToast } from '../../../components/ui/toast';
 import { useSession } from '../../../lib/ability';
 import { ApiError } from '../../../lib/api-client';
-import { updateOrganization } from '../api/update-organization';
+import { organizationQueries, updateOrganization } from '../api/organization-settings';
 
 // The languages and regions the documents and e-mails may be written for; the screens follow each reader's own.
 const LOCALES: [string, string][] = [
@@ -35,6 +35,7 @@ export function DateSettings() {
     onSuccess: async () => {
       notify('Time zone and language saved.');
       await qc.invalidateQueries({ queryKey: ['auth', 'me'] });
+      await qc.invalidateQueries({ queryKey: organizationQueries.all });
     },
   });
   const err = save.error instanceof ApiError ? save.error : null;

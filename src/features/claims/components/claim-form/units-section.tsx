@@ -2,7 +2,8 @@ import { useState } from 'react';
 import type { UseFormRegister, UseFormSetValue } from 'react-hook-form';
 import { SYMPTOM_LABELS, SYMPTOMS, type ClaimDetailDto } from '../../../../../shared/schemas/claims';
 import { InputField } from '../../../../components/ui/field';
-import { todayIso, type FieldError } from '../../hooks/use-claim-form';
+import { todayIn } from '../../../../../shared/dates';
+import type { FieldError } from '../../hooks/use-claim-form';
 import type { ClaimFormValues } from '../claim-form-values';
 import { Section } from './section';
 
@@ -72,7 +73,7 @@ export function UnitsSection({
         <InputField
           label="Failure date"
           type="date"
-          max={todayIso()}
+          max={todayIn()}
           error={err('failedOn')}
           {...register('failedOn')}
         />

@@ -10,6 +10,7 @@ import { Button } from '../../../../components/ui/button';
 import { InputField, SelectField } from '../../../../components/ui/field';
 import { blankToUndefined, numberOrUndefined } from './form-values';
 import { NoteField } from './note-field';
+import { useToday } from '../../../../lib/dates';
 
 // The bench and receipt forms: react-hook-form with the move's own schema (the one the server checks), so a
 // reviewer can record every result and condition the schema allows, and sees each field's problem beside it.
@@ -33,10 +34,11 @@ export function BenchTestForm({
   pending: boolean;
   onSubmit: (payload: BenchPayload) => void;
 }) {
+  const today = useToday();
   const form = useForm<BenchFormInput, unknown, BenchPayload>({
     resolver: zodResolver(recordBenchTestSchema),
     defaultValues: {
-      testedOn: new Date().toISOString().slice(0, 10),
+      testedOn: today,
       result: 'failure_confirmed',
       readings: {},
       next: 'decide',

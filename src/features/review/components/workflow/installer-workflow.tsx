@@ -13,9 +13,11 @@ import { Returns } from './returns';
 import { TextArea } from './text-area';
 import { Thread } from './thread';
 import { useMove } from './use-move';
+import { useToday } from '../../../../lib/dates';
 
 /** The installer's side: what is asked and by when, answering with files, recording the shipment. */
 export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
+  const today = useToday();
   const move = useMove(wf.claim.id, wf.claim.version);
   const [message, setMessage] = useState('');
   const [files, setFiles] = useState<File[]>([]);
@@ -23,7 +25,7 @@ export function InstallerWorkflow({ wf }: { wf: ClaimWorkflowDto }) {
   const [ship, setShip] = useState({
     carrier: '',
     trackingNumber: '',
-    shippedOn: new Date().toISOString().slice(0, 10),
+    shippedOn: today,
   });
   const [uploadError, setUploadError] = useState<ApiError | null>(null);
   async function answer(e: FormEvent) {

@@ -10,6 +10,7 @@ import { Button } from '../../../../components/ui/button';
 import { InputField } from '../../../../components/ui/field';
 import { blankToUndefined } from './form-values';
 import { NoteField } from './note-field';
+import { useToday } from '../../../../lib/dates';
 
 // The bench and receipt forms: react-hook-form with the move's own schema (the one the server checks), so a
 // reviewer can record every result and condition the schema allows, and sees each field's problem beside it.
@@ -24,9 +25,10 @@ export function ReceiveUnitForm({
   pending: boolean;
   onSubmit: (payload: ReceiptPayload) => void;
 }) {
+  const today = useToday();
   const form = useForm<ReceiptFormInput, unknown, ReceiptPayload>({
     resolver: zodResolver(receiveUnitSchema),
-    defaultValues: { receivedOn: new Date().toISOString().slice(0, 10), condition: 'as_described' },
+    defaultValues: { receivedOn: today, condition: 'as_described' },
   });
   const errors = form.formState.errors;
   return (
