@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { str } from './text';
 import { DIMMERS, ENCLOSURES, LOCATIONS, NOMINAL_SUPPLY_VOLTS } from '../engine/schema';
 import { listQuerySchema } from './users';
+import { idSchema, instantSchema, orgRefSchema } from './answer-parts';
 
 // Product models, warranty policies and installations: one strict schema per payload, shared by the forms,
 // the CSV import and the server. Units are in the field names' labels (W, V, A, lm, °C, h).
@@ -243,31 +244,32 @@ export type ProductListQuery = z.infer<typeof productListQuerySchema>;
 
 export type OrgRef = { id: string; name: string };
 
-export type ProductDto = {
-  id: string;
-  manufacturer: OrgRef;
-  modelNumber: string;
-  name: string;
-  family: ProductFamily;
-  ratedInputWatts: number;
-  inputVoltsMin: number;
-  inputVoltsMax: number;
-  ratedLumens: number;
-  ledStrings: number;
-  ledsPerString: number;
-  ledForwardVolts: number;
-  driverOutputAmps: number;
-  driverMaxOutputVolts: number | null;
-  location: RatedLocation;
-  enclosedRated: boolean;
-  dimming: Dimming;
-  ambientMaxC: number;
-  ratedLifeHours: number;
-  activeCooling: boolean;
-  createdAt: string;
-  updatedAt: string;
-  version: number;
-};
+export const productSchema = z.object({
+  id: idSchema,
+  manufacturer: orgRefSchema,
+  modelNumber: z.string(),
+  name: z.string(),
+  family: z.enum(PRODUCT_FAMILIES),
+  ratedInputWatts: z.number(),
+  inputVoltsMin: z.number(),
+  inputVoltsMax: z.number(),
+  ratedLumens: z.number(),
+  ledStrings: z.number().int(),
+  ledsPerString: z.number().int(),
+  ledForwardVolts: z.number(),
+  driverOutputAmps: z.number(),
+  driverMaxOutputVolts: z.number().nullable(),
+  location: z.enum(LOCATIONS),
+  enclosedRated: z.boolean(),
+  dimming: z.enum(DIMMINGS),
+  ambientMaxC: z.number(),
+  ratedLifeHours: z.number(),
+  activeCooling: z.boolean(),
+  createdAt: instantSchema,
+  updatedAt: instantSchema,
+  version: z.number().int().min(1),
+});
+export type ProductDto = z.infer<typeof productSchema>;
 
 // ---------------------------------------------------------------------------------------------------------
 // Warranty policies

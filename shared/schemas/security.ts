@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { str } from './text';
 import { listQuerySchema } from './users';
+import { idSchema, instantSchema, orgRefSchema } from './answer-parts';
 
 // A six-digit code from an authenticator app, or a recovery code (ten letters and digits, a dash allowed).
 export const secondFactorCodeSchema = z
@@ -74,30 +75,34 @@ export const securityEventsQuerySchema = listQuerySchema.pick({ page: true, page
 });
 export type SecurityEventsQuery = z.infer<typeof securityEventsQuerySchema>;
 
-export type SecurityEventDto = {
-  id: string;
-  occurredAt: string;
-  action: SecurityEventAction;
+export const securityEventSchema = z.object({
+  /** The audit row's number. */
+  id: z.string(),
+  occurredAt: instantSchema,
+  action: z.enum(SECURITY_EVENT_ACTIONS),
   /** The person the event is about (the account signed in, whose factor was reset). */
-  subject: { id: string; name: string; email: string } | null;
+  subject: z.object({ id: idSchema, name: z.string(), email: z.string() }).nullable(),
   /** Who did it, when not the subject themself (an administrator's reset). */
-  actor: { id: string; name: string } | null;
-  ip: string | null;
-};
+  actor: orgRefSchema.nullable(),
+  ip: z.string().nullable(),
+});
+export type SecurityEventDto = z.infer<typeof securityEventSchema>;
 
-export type SecondFactorStatusDto = {
-  enrolled: boolean;
-  required: boolean;
-  recoveryCodesLeft: number;
-};
+export const secondFactorStatusSchema = z.object({
+  enrolled: z.boolean(),
+  required: z.boolean(),
+  recoveryCodesLeft: z.number().int().min(0),
+});
+export type SecondFactorStatusDto = z.infer<typeof secondFactorStatusSchema>;
 
 export type EnrollmentDto = { secret: string; otpauthUrl: string; qrSvg: string };
 
-export type SessionDto = {
-  id: string;
-  device: string;
-  ip: string | null;
-  signedInAt: string | null;
-  lastSeenAt: string | null;
-  current: boolean;
-};
+export const sessionSchema = z.object({
+  id: z.string(),
+  device: z.string(),
+  ip: z.string().nullable(),
+  signedInAt: instantSchema.nullable(),
+  lastSeenAt: instantSchema.nullable(),
+  current: z.boolean(),
+});
+export type SessionDto = z.infer<typeof sessionSchema>;

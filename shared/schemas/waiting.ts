@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idSchema, instantSchema } from './answer-parts';
 
 // "What waits on me": the things that need the signed-in person now, derived from the claims themselves (so a
 // list can never disagree with the claim), each with the place to act. Read or not is kept per person.
@@ -9,21 +10,26 @@ export type WaitingKind = (typeof WAITING_KINDS)[number];
 /** A return shipped this many days ago and still not received is overdue for the reviewers. */
 export const RETURN_OVERDUE_DAYS = 10;
 
-export type WaitingItemDto = {
+export const waitingItemSchema = z.object({
   /** Stable while nothing changes; a new event on the same claim is a new key (and unread again). */
-  key: string;
-  kind: WaitingKind;
-  claimId: string;
-  claimNumber: string;
-  siteName: string;
+  key: z.string(),
+  kind: z.enum(WAITING_KINDS),
+  claimId: idSchema,
+  claimNumber: z.string(),
+  siteName: z.string(),
   /** Since when it has waited (ISO instant). */
-  since: string;
+  since: instantSchema,
   /** Where to act (a path in the app). */
-  link: string;
-  read: boolean;
-};
+  link: z.string(),
+  read: z.boolean(),
+});
+export type WaitingItemDto = z.infer<typeof waitingItemSchema>;
 
-export type WaitingListDto = { items: WaitingItemDto[]; unread: number };
+export const waitingListSchema = z.object({
+  items: z.array(waitingItemSchema),
+  unread: z.number().int().min(0),
+});
+export type WaitingListDto = z.infer<typeof waitingListSchema>;
 
 export const markWaitingReadSchema = z.strictObject({
   keys: z.array(z.string().min(1).max(120)).min(1, 'Name at least one item.').max(200),

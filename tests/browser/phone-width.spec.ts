@@ -33,7 +33,15 @@ const ROUTES: Record<keyof typeof ACCOUNTS, string[]> = {
     '/waiting',
     '/no-such-page',
   ],
-  contractorAdmin: ['/', '/admin/users', '/admin/mailbox', '/claims', '/credits', '/installations'],
+  contractorAdmin: [
+    '/',
+    '/admin/users',
+    '/admin/mailbox',
+    '/claims',
+    '/credits',
+    '/installations',
+    '/api-reference',
+  ],
   reviewer: [
     '/',
     '/review',

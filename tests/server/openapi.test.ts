@@ -238,7 +238,7 @@ describe('real answers fit the schemas the document declares', () => {
     expect(ok).toBe(true);
   };
 
-  it('GET /api/claims, GET /api/credits/:id, GET /api/credits, POST credits, errors, tokens and hooks', async () => {
+  it('claims, credit memos, people, products, sessions, what waits, tokens, hooks and refusals', async () => {
     const w = await creditWorld(t);
     const claim = await createApprovedClaim(t.ds, {
       manufacturer: w.mfr,
@@ -277,6 +277,21 @@ describe('real answers fit the schemas the document declares', () => {
     check('GET', '/api/credits/balances', 200, (await w.accountant.agent.get('/api/credits/balances')).body);
 
     check('GET', '/api/auth/me', 200, (await w.installer.agent.get('/api/auth/me')).body);
+    check('GET', '/api/auth/sessions', 200, (await w.installer.agent.get('/api/auth/sessions')).body);
+    check(
+      'GET',
+      '/api/auth/second-factor',
+      200,
+      (await w.installer.agent.get('/api/auth/second-factor')).body,
+    );
+    check('GET', '/api/waiting', 200, (await w.accountant.agent.get('/api/waiting')).body);
+    const products = await w.installer.agent.get('/api/products?pageSize=5');
+    expect(products.body.items.length).toBeGreaterThan(0);
+    check('GET', '/api/products', 200, products.body);
+    const events = await w.contractorAdmin.agent.get('/api/security-events');
+    expect(events.status).toBe(200);
+    expect(events.body.items.length).toBeGreaterThan(0);
+    check('GET', '/api/security-events', 200, events.body);
     check('GET', '/api/users', 200, (await w.contractorAdmin.agent.get('/api/users')).body);
 
     const token = await w.contractorAdmin.agent

@@ -10,6 +10,8 @@ import {
   confirmEnrollmentSchema,
   removeSecondFactorSchema,
   secondFactorLoginSchema,
+  secondFactorStatusSchema,
+  sessionSchema,
 } from '../../../shared/schemas/security';
 import { meSchema } from '../../../shared/schemas/users';
 import { instantSchema } from '../../../shared/schemas/answer-parts';
@@ -119,7 +121,7 @@ export function authPaths(reg: Registry) {
     tag,
     auth: 'session',
     summary: 'Your second factor’s state',
-    answer: { json: openObject('Whether a factor is confirmed, and how many recovery codes are left') },
+    answer: { json: secondFactorStatusSchema },
   });
   op(reg, {
     method: 'post',
@@ -157,7 +159,7 @@ export function authPaths(reg: Registry) {
     auth: 'session',
     summary: 'Your signed-in sessions (devices)',
     answer: {
-      json: itemsOf(openObject('A session: its device, address, last use and whether it is this one')),
+      json: itemsOf(sessionSchema),
     },
   });
   op(reg, {

@@ -11,6 +11,7 @@ import {
   policyTermsSchema,
   productInputSchema,
   productListQuerySchema,
+  productSchema as product,
   updateInstallationSchema,
   updatePolicySchema,
   updateProductSchema,
@@ -18,7 +19,6 @@ import {
 import { importResultSchema, itemsOf, openObject } from '../answers';
 import { op, type Registry } from '../registry';
 
-const product = openObject('A product model: ratings (watts, volts, lumens, LED strings), location and life');
 const policy = openObject('A warranty policy: its products and current terms');
 const policyDetail = openObject('A warranty policy with every version of its terms');
 const installation = openObject('An installation: site, product, units, serials, conditions, fit warnings');

@@ -3,7 +3,11 @@ import { apiTokenSchema, createApiTokenSchema } from '../../../shared/schemas/ap
 import { instantSchema, pageSchema } from '../../../shared/schemas/answer-parts';
 import { organizationSettingsSchema, updateOrganizationSchema } from '../../../shared/schemas/organizations';
 import { createSavedViewSchema, savedViewFiltersSchema } from '../../../shared/schemas/saved-views';
-import { organizationSecuritySchema, securityEventsQuerySchema } from '../../../shared/schemas/security';
+import {
+  organizationSecuritySchema,
+  securityEventSchema,
+  securityEventsQuerySchema,
+} from '../../../shared/schemas/security';
 import {
   inviteUserSchema,
   updateUserSchema,
@@ -13,6 +17,7 @@ import {
 import {
   markWaitingReadSchema,
   WAITING_MAIL_MODES,
+  waitingListSchema,
   waitingMailSchema,
 } from '../../../shared/schemas/waiting';
 import {
@@ -138,7 +143,7 @@ export function organisationPaths(reg: Registry) {
     summary: 'Sign-ins, factor changes, token and session events',
     query: securityEventsQuerySchema,
     answer: {
-      json: pageSchema(openObject('A security event: when, what, whom it concerns, who did it, from where')),
+      json: pageSchema(securityEventSchema),
     },
   });
 
@@ -254,12 +259,7 @@ export function organisationPaths(reg: Registry) {
     path: '/api/waiting',
     tag: mine,
     summary: 'What waits on you (derived from the claims)',
-    answer: {
-      json: z.object({
-        items: z.array(openObject('One thing that waits: its kind, claim, since when, a link, read or not')),
-        unread: z.number().int().min(0),
-      }),
-    },
+    answer: { json: waitingListSchema },
   });
   op(reg, {
     method: 'post',
