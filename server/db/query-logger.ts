@@ -2,7 +2,9 @@ import type { Logger as TypeOrmLogger, QueryRunner } from 'typeorm';
 import type { Logger } from '../lib/logger';
 
 /** mysql2's error carries the statement with its parameters written in (`sql`): everything but that. */
-function withoutStatement(error: string | Error) {
+function withoutStatement(
+  error: string | Error,
+): { message: string; code?: string } & Record<string, unknown> {
   if (typeof error === 'string') return { message: error };
   const e = error as Error & { code?: string; errno?: number; sqlState?: string };
   return {
@@ -21,7 +23,9 @@ function withoutStatement(error: string | Error) {
  * trace. The SQL is logged, never its parameters: they carry e-mail addresses, hashes and tokens.
  */
 export class PinoQueryLogger implements TypeOrmLogger {
-  constructor(private readonly pino: Pick<Logger, 'error' | 'warn' | 'info' | 'trace' | 'isLevelEnabled'>) {}
+  constructor(
+    private readonly pino: Pick<Logger, 'error' | 'warn' | 'info' | 'debug' | 'trace' | 'isLevelEnabled'>,
+  ) {}
 
   logQuery(query: string, parameters?: unknown[], _queryRunner?: QueryRunner) {
     if (this.pino.isLevelEnabled('trace'))
@@ -29,10 +33,13 @@ export class PinoQueryLogger implements TypeOrmLogger {
   }
 
   logQueryError(error: string | Error, query: string, parameters?: unknown[], _queryRunner?: QueryRunner) {
-    this.pino.error(
-      { err: withoutStatement(error), sql: query, params: parameters?.length ?? 0 },
-      'query failed',
-    );
+    const err = withoutStatement(error);
+    const entry = { err, sql: query, params: parameters?.length ?? 0 };
+    // A duplicate key is an answer the services give (409, or an idempotent replay), not a fault; a deadlock's
+    // victim is run again (server/lib/idempotency.ts). Everything else is an error.
+    if (err.code === 'ER_DUP_ENTRY') this.pino.debug(entry, 'query refused: duplicate key');
+    else if (err.code === 'ER_LOCK_DEADLOCK') this.pino.warn(entry, 'query failed: deadlock');
+    else this.pino.error(entry, 'query failed');
   }
 
   logQuerySlow(time: number, query: string, parameters?: unknown[], _queryRunner?: QueryRunner) {

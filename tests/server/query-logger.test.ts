@@ -42,6 +42,17 @@ describe('PinoQueryLogger', () => {
     expect(JSON.stringify(lines)).not.toContain('secret-token-value');
   });
 
+  it('logs a duplicate key, which the services answer themselves, only at debug', async () => {
+    const before = lines.length;
+    // One connection for the temporary table: a transaction's manager.
+    await ds.transaction(async (m) => {
+      await m.query('CREATE TEMPORARY TABLE ql_dup (k VARCHAR(40) PRIMARY KEY)');
+      await m.query('INSERT INTO ql_dup VALUES (?)', ['a@example.test']);
+      await expect(m.query('INSERT INTO ql_dup VALUES (?)', ['a@example.test'])).rejects.toThrow();
+    });
+    expect(lines.slice(before).filter((l) => (l.level as number) >= 30)).toEqual([]);
+  });
+
   it('logs a statement slower than slowQueryMs as a warning, and a quick one not at all', async () => {
     await ds.query('SELECT 1 AS quick');
     await ds.query('SELECT SLEEP(0.1) AS slow');
