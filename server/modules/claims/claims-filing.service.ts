@@ -8,6 +8,7 @@ import { canPerform, REFUSAL_STATUS, type Refusal } from '../../../shared/claims
 import type { SessionUser } from '../../auth/passport';
 import { toAbilityUser } from '../../middleware/auth';
 import type { AppDataSource } from '../../db/data-source';
+import { Attachment } from '../../db/entities/attachment.entity';
 import { Claim } from '../../db/entities/claim.entity';
 import { type Organization } from '../../db/entities/organization.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
@@ -30,7 +31,17 @@ function refuse(r: Refusal): never {
 
 /** The evidence the engine counts. Attachments plug in here (photos and proof of purchase on the claim). */
 export type EvidenceCounter = (m: EntityManager, claimId: string) => Promise<ClaimEvidence>;
-const noEvidence: EvidenceCounter = async () => ({ photos: 0, proofOfPurchase: false });
+/** Photos and proof of purchase on the claim, as the engine counts evidence (removed files do not count). */
+export const claimEvidence: EvidenceCounter = async (m, claimId) => {
+  const rows = await m.find(Attachment, {
+    where: { ownerType: 'claim', ownerId: claimId },
+    select: { id: true, kind: true, purpose: true },
+  });
+  return {
+    photos: rows.filter((a) => a.kind === 'photo').length,
+    proofOfPurchase: rows.some((a) => a.purpose === 'proof_of_purchase'),
+  };
+};
 
 function isDuplicate(err: unknown, index: string) {
   const e = err as { code?: string; driverError?: { code?: string }; message?: string };
@@ -62,7 +73,7 @@ export function createClaimFiling(
   opts: { publicUrl: (path: string) => string; evidence?: EvidenceCounter },
 ) {
   const { findById } = reads;
-  const countEvidence = opts.evidence ?? noEvidence;
+  const countEvidence = opts.evidence ?? claimEvidence;
 
   const loadWith = (m: EntityManager, id: string, lock = false) => {
     const qb = m.createQueryBuilder(Claim, 'c').where('c.id = :id', { id });

@@ -356,6 +356,11 @@ export function createClaimReads(ds: AppDataSource) {
       return { items: rows.map(listRowOf), total: Number(counted?.n ?? 0) };
     },
 
+    /** The installation a new claim is started from (the caller authorises reading it). */
+    findInstallation(id: string) {
+      return ds.getRepository(Installation).findOne({ where: { id } });
+    },
+
     async findMany(ids: string[]) {
       return ids.length ? ((await repo.find({ where: { id: In(ids) } })) as Claim[]) : [];
     },
@@ -363,3 +368,6 @@ export function createClaimReads(ds: AppDataSource) {
 }
 
 export type ClaimReads = ReturnType<typeof createClaimReads>;
+
+/** A claim with its history and files, as its page reads them in one statement. */
+export type ClaimPage = NonNullable<Awaited<ReturnType<ClaimReads['findForPage']>>>;

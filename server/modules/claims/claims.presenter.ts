@@ -1,7 +1,11 @@
 import type { AttachmentDto } from '../../../shared/schemas/attachments';
 import type { ClaimDetailDto, ClaimListItemDto, FilingIssue } from '../../../shared/schemas/claims';
 import type { HistoryEventDto } from '../../../shared/schemas/catalogue';
-import type { ClaimListRow, LoadedClaim } from './claims-reads.service';
+import { historyEventOf } from '../../lib/history';
+import { personRef } from '../../lib/present';
+import { presentAttachment } from '../attachments/attachments.presenter';
+import { currentFilingIssues } from './claims-filing.service';
+import type { ClaimListRow, ClaimPage, LoadedClaim } from './claims-reads.service';
 import { engineContextOf } from './engine-input';
 
 const iso = (v: Date | string) => (typeof v === 'string' ? v : v.toISOString());
@@ -87,4 +91,21 @@ export function presentClaimDetail(
     filingIssues: extra.filingIssues,
     createdBy: extra.createdBy,
   };
+}
+
+/** A claim's page (ClaimsReads.findForPage) as a viewer of the organisation sees it. */
+export function presentClaimPage(page: ClaimPage, viewerOrgId: string): ClaimDetailDto {
+  const c = page.claim;
+  return presentClaimDetail(c, {
+    history: page.history.map((h) => historyEventOf(h.event, h, viewerOrgId)),
+    attachments: page.attachments.map((a) =>
+      presentAttachment(a, `/api/claims/${c.id}/attachments`, viewerOrgId),
+    ),
+    filingIssues: c.stage === 'draft' ? currentFilingIssues(c) : [],
+    createdBy: personRef(
+      c.creator,
+      c.creator?.organizationId === c.manufacturerId ? c.manufacturer : c.contractor,
+      viewerOrgId,
+    ),
+  });
 }

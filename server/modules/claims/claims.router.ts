@@ -10,24 +10,16 @@ import {
 } from '../../../shared/schemas/claims';
 import { importQuerySchema } from '../../../shared/schemas/catalogue';
 import type { AppContext } from '../../context';
-import { Attachment } from '../../db/entities/attachment.entity';
-import { Installation } from '../../db/entities/installation.entity';
-import { readRows } from '../../db/read';
 import { actorFromRequest } from '../../lib/audit';
 import { templateCsv } from '../../lib/csv-import';
 import { AppError } from '../../lib/errors';
-import { historyEventOf, loadHistory } from '../../lib/history';
 import { REPLAY_HEADER } from '../../lib/idempotency';
 import { pageOf } from '../../lib/pagination';
-import { personRef } from '../../lib/present';
 import { authorize, authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
 import { idempotencyKeyOf, parseBody, parseQuery, parseWith } from '../../middleware/validate';
-import { presentAttachment } from '../attachments/attachments.presenter';
 import { attachmentsRouter } from '../attachments/attachments.router';
-import { listAttachments } from '../attachments/attachments.service';
 import { CLAIM_BATCH_COLUMNS, createClaimBatchesService } from './claim-batches.service';
-import { presentClaimDetail, presentClaimListItem } from './claims.presenter';
-import { currentFilingIssues, type EvidenceCounter } from './claims-filing.service';
+import { presentClaimListItem, presentClaimPage } from './claims.presenter';
 import { scopeOf, type LoadedClaim } from './claims-reads.service';
 import { createClaimsService, type ClaimsService } from './claims.service';
 
@@ -40,63 +32,16 @@ const asClaim = (c: LoadedClaim) =>
 
 const idParam = z.strictObject({ id: z.uuid({ error: 'Not a valid id.' }) });
 
-/** Photos and proof of purchase on the claim, as the engine counts evidence (removed files do not count). */
-export const claimEvidence: EvidenceCounter = async (m, claimId) => {
-  const rows = await m.find(Attachment, {
-    where: { ownerType: 'claim', ownerId: claimId },
-    select: { id: true, kind: true, purpose: true },
-  });
-  return {
-    photos: rows.filter((a) => a.kind === 'photo').length,
-    proofOfPurchase: rows.some((a) => a.purpose === 'proof_of_purchase'),
-  };
-};
-
-type PageHistory = NonNullable<Awaited<ReturnType<ClaimsService['findForPage']>>>['history'];
-
-export async function claimDetail(
-  ctx: AppContext,
-  req: Request,
-  c: LoadedClaim,
-  /** What the claim's page statement read with it (ClaimsService.findForPage); read here when not given. */
-  read?: { history: PageHistory; attachments: Attachment[] },
-) {
-  const viewer = req.user!.organizationId;
-  // Three independent reads, side by side, unless they came with the claim.
-  const [createdBy, history, attachments] = await Promise.all([
-    c.creator !== undefined
-      ? c.creator
-      : c.createdById
-        ? readRows<{ id: string; name: string; organizationId: string }>(
-            ctx.ds,
-            'SELECT id, name, organization_id AS organizationId FROM users WHERE id = ?',
-            [c.createdById],
-          ).then((r) => r[0] ?? null)
-        : null,
-    read
-      ? read.history.map((h) => historyEventOf(h.event, h, viewer))
-      : loadHistory(ctx.ds, 'Claim', c.id, viewer),
-    read ? read.attachments : listAttachments(ctx, { type: 'claim', id: c.id }),
-  ]);
-  return presentClaimDetail(c, {
-    history,
-    attachments: attachments.map((a) => presentAttachment(a, `/api/claims/${c.id}/attachments`, viewer)),
-    filingIssues: c.stage === 'draft' ? currentFilingIssues(c) : [],
-    createdBy: personRef(
-      createdBy,
-      createdBy?.organizationId === c.manufacturerId ? c.manufacturer : c.contractor,
-      viewer,
-    ),
-  });
-}
-
 export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } = {}) {
   const r = Router();
-  const service =
-    opts.service ?? createClaimsService(ctx.ds, { publicUrl: ctx.publicUrl, evidence: claimEvidence });
+  const service = opts.service ?? createClaimsService(ctx.ds, { publicUrl: ctx.publicUrl });
   r.use(requireUser);
 
   const batches = createClaimBatchesService(ctx.ds, service);
+
+  /** The claim's page as it is now, after a change the request was authorised for. */
+  const claimPageNow = async (req: Request, id: string) =>
+    presentClaimPage((await service.findForPage(id))!, req.user!.organizationId);
 
   const load = async (req: Request, action: 'read' | 'update' | 'file' | 'delete') => {
     const { id } = parseWith(idParam, req.params, 'address');
@@ -161,7 +106,7 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     const key = idempotencyKeyOf(req);
     const input = parseBody(createClaimSchema, req);
     const { installationId, ...fields } = input;
-    const inst = await ctx.ds.getRepository(Installation).findOne({ where: { id: installationId } });
+    const inst = await service.findInstallation(installationId);
     authorize(req, 'read', 'Installation', inst, 'installation');
     authorize(
       req,
@@ -174,16 +119,16 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     const made = key
       ? await service.createOnce(inst, fields, actor, { key, userId: req.user!.id, body: input })
       : { id: await service.create(inst, fields, actor), status: 201, replayed: false };
-    const claim = await service.findById(made.id);
+    const page = await service.findForPage(made.id);
     // The draft was deleted since: the key's answer no longer exists.
-    if (!claim)
+    if (!page)
       throw new AppError(
         404,
         'not_found',
         'The draft started with this Idempotency-Key has since been deleted.',
       );
     if (made.replayed) res.setHeader(REPLAY_HEADER, 'true');
-    res.status(made.status).json({ claim: await claimDetail(ctx, req, claim) });
+    res.status(made.status).json({ claim: presentClaimPage(page, req.user!.organizationId) });
   });
 
   // Photos and documents: readable by whoever may read the claim (anyone else gets 404); added while a draft or
@@ -207,14 +152,14 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     const { id } = parseWith(idParam, req.params, 'address');
     const page = await service.findForPage(id);
     authorize(req, 'read', 'Claim', page?.claim, 'claim');
-    res.json({ claim: await claimDetail(ctx, req, page!.claim, page!) });
+    res.json({ claim: presentClaimPage(page!, req.user!.organizationId) });
   });
 
   r.patch('/:id', async (req, res) => {
     const input = parseBody(updateClaimSchema, req);
     const claim = await load(req, 'update');
     await service.update(claim, input, actorFromRequest(req));
-    res.json({ claim: await claimDetail(ctx, req, (await service.findById(claim.id))!) });
+    res.json({ claim: await claimPageNow(req, claim.id) });
   });
 
   // Idempotency-Key (optional): kept with the answer; the same key replays it, another body under it is a 422.
@@ -231,7 +176,7 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     );
     if (result.replayed) res.setHeader(REPLAY_HEADER, 'true');
     res.status(200).json({
-      claim: await claimDetail(ctx, req, (await service.findById(claim.id))!),
+      claim: await claimPageNow(req, claim.id),
       replayed: result.replayed,
     });
   });
