@@ -19,7 +19,6 @@ import {
   updateClaimSchema,
   WAITING_ON,
 } from '../../../shared/schemas/claims';
-import { withdrawSchema } from '../../../shared/claims/actions.schema';
 import { importResultSchema, itemsOf, openObject } from '../answers';
 import { op, type Registry } from '../registry';
 
@@ -134,15 +133,6 @@ export function claimPaths(reg: Registry) {
     body: fileClaimSchema,
     idempotencyKey: 'optional',
     answer: { json: z.object({ claim: claimDetail, replayed: z.boolean() }) },
-    errors: [409],
-  });
-  op(reg, {
-    method: 'post',
-    path: '/api/claims/:id/withdraw',
-    tag,
-    summary: 'Withdraw a claim',
-    body: withdrawSchema,
-    answer: { json: z.object({ claim: claimDetail }) },
     errors: [409],
   });
   op(reg, {

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { apiTokenSchema, createApiTokenSchema } from '../../../shared/schemas/api-tokens';
 import { instantSchema, pageSchema } from '../../../shared/schemas/answer-parts';
-import { organizationSettingsSchema, updateOrganizationSchema } from '../../../shared/schemas/organizations';
+import { updateOrganizationSchema } from '../../../shared/schemas/organizations';
 import { createSavedViewSchema, savedViewFiltersSchema } from '../../../shared/schemas/saved-views';
 import {
   organizationSecuritySchema,
@@ -35,6 +35,8 @@ const organizationSchema = z.object({
   kind: z.enum(['manufacturer', 'contractor']),
   timeZone: z.string(),
   locale: z.string(),
+  /** Credits above this amount need a second accountant's approval; null: none do. */
+  creditSecondApprovalAbove: z.string().nullable(),
 });
 
 export function organisationPaths(reg: Registry) {
@@ -90,51 +92,33 @@ export function organisationPaths(reg: Registry) {
     method: 'get',
     path: '/api/organizations/current',
     tag: people,
-    summary: 'Your organisation’s credit settings',
-    answer: {
-      json: z.object({ organization: openObject('The organisation with its second-approval amount') }),
-    },
+    summary: 'Your organisation and its settings: time zone, locale, credit second approval',
+    answer: { json: z.object({ organization: organizationSchema }) },
   });
   op(reg, {
     method: 'patch',
     path: '/api/organizations/current',
     tag: people,
-    summary: 'Change the second-approval amount (a manufacturer’s administrators)',
-    body: organizationSettingsSchema,
-    answer: {
-      json: z.object({ organization: openObject('The organisation with its second-approval amount') }),
-    },
+    summary:
+      'Change the time zone, locale or (a manufacturer’s administrators) the credit second-approval amount',
+    body: updateOrganizationSchema,
+    answer: { json: z.object({ organization: organizationSchema }) },
   });
   op(reg, {
     method: 'get',
-    path: '/api/organizations/:id/security',
+    path: '/api/organizations/current/security',
     tag: people,
     summary: 'Whether the organisation requires a second factor',
     answer: { json: z.object({ organization: openObject('The organisation’s sign-in rules') }) },
   });
   op(reg, {
     method: 'patch',
-    path: '/api/organizations/:id/security',
+    path: '/api/organizations/current/security',
     tag: people,
     auth: 'session',
     summary: 'Require (or stop requiring) a second factor',
     body: organizationSecuritySchema,
     answer: { json: z.object({ organization: openObject('The organisation’s sign-in rules') }) },
-  });
-  op(reg, {
-    method: 'get',
-    path: '/api/organization',
-    tag: people,
-    summary: 'Your organisation: name, time zone, locale',
-    answer: { json: z.object({ organization: organizationSchema }) },
-  });
-  op(reg, {
-    method: 'patch',
-    path: '/api/organization',
-    tag: people,
-    summary: 'Change the organisation’s time zone or locale (administrators)',
-    body: updateOrganizationSchema,
-    answer: { json: z.object({ organization: organizationSchema }) },
   });
   op(reg, {
     method: 'get',
