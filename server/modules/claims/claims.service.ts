@@ -1,6 +1,6 @@
 import { formatCalendarDate } from '../../../shared/dates';
 import { In, type EntityManager } from 'typeorm';
-import { newClaimNumber, normalizeClaimNumber } from '../../../shared/claims/claim-number';
+import { newClaimNumber } from '../../../shared/claims/claim-number';
 import type { ClaimEvidence } from '../../../shared/claims/engine-input';
 import { safeEvaluateClaim, type Evaluation } from '../../../shared/engine';
 import {
@@ -33,6 +33,7 @@ import { User } from '../../db/entities/user.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { stageTotal } from '../../lib/claim-counts';
 import { clock } from '../../lib/clock';
+import { claimSearch } from '../../lib/claim-search';
 import { crashPoint } from '../../lib/crash-point';
 import { AppError, conflict } from '../../lib/errors';
 import { changedFields, HISTORY_LIMIT } from '../../lib/history';
@@ -545,13 +546,8 @@ export function createClaimsService(
         w.and('(p.model_number LIKE ? OR p.name LIKE ?)', likeContains(q.product), likeContains(q.product));
       if (q.filedFrom) w.and('c.filed_at >= ?', `${q.filedFrom} 00:00:00`);
       if (q.filedTo) w.and('c.filed_at < DATE_ADD(?, INTERVAL 1 DAY)', q.filedTo);
-      if (q.q) {
-        const exact = normalizeClaimNumber(q.q);
-        const like = likeContains(q.q.trim());
-        // Serials are a JSON array of strings; a contains match on its text finds one serial or part of one.
-        if (exact) w.and('(c.number = ? OR CAST(c.serials AS CHAR) LIKE ?)', exact, like);
-        else w.and('(c.number LIKE ? OR CAST(c.serials AS CHAR) LIKE ?)', like, like);
-      }
+      const search = claimSearch(q.q);
+      if (search) w.and(search.sql, ...search.params);
       // Two statements whatever the page size, run side by side: the page with its joins, and the total. Filtered by
       // stage alone (the usual list), the total is a sum over the claim counts the triggers keep
       // (server/lib/claim-counts.ts); with any other filter it is a count, which joins a table only for a filter on

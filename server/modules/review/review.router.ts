@@ -9,10 +9,10 @@ import {
   type QueueSummaryDto,
 } from '../../../shared/claims/workflow';
 import type { ClaimStage } from '../../../shared/schemas/claims';
-import { normalizeClaimNumber } from '../../../shared/claims/claim-number';
 import type { AppContext } from '../../context';
 import { Claim } from '../../db/entities/claim.entity';
 import { User } from '../../db/entities/user.entity';
+import { claimSearch } from '../../lib/claim-search';
 import { clock } from '../../lib/clock';
 import { likeContains, pageOf, parseSort } from '../../lib/pagination';
 import { authorizeNew, authorizeType, requireUser } from '../../middleware/auth';
@@ -77,20 +77,10 @@ function where(q: QueueQuery, manufacturerId: string, userId: string) {
   if (q.assignee === 'me') add('c.assigned_reviewer_id = ?', userId);
   else if (q.assignee === 'none') add('c.assigned_reviewer_id IS NULL');
   else if (q.assignee) add('c.assigned_reviewer_id = ?', q.assignee);
-  const exact = q.q ? normalizeClaimNumber(q.q) : null;
-  if (exact) {
-    // A whole claim number (any case or spacing) is that claim: one look-up on (manufacturer, number).
-    add('c.number = ?', exact);
-  } else if (q.q) {
-    // A claim number by prefix (as typed, upper-cased); otherwise the site, the contractor, the model or a serial.
-    const like = likeContains(q.q);
-    clauses.push(
-      "(c.number LIKE ? OR i.site_name LIKE ? OR o.name LIKE ? OR p.model_number LIKE ? OR JSON_SEARCH(c.serials, 'one', ?) IS NOT NULL)",
-    );
-    params.push(`${q.q.toUpperCase().replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`, like, like, like, q.q);
-  }
-  // The count needs the joined tables only for a free-text search.
-  return { sql: clauses.join(' AND '), params, countJoins: Boolean(q.q && !exact) };
+  const search = claimSearch(q.q);
+  if (search) add(search.sql, ...search.params);
+  // The search reads the claim's own search text: the count needs no join.
+  return { sql: clauses.join(' AND '), params, countJoins: false };
 }
 
 export function reviewRouter(ctx: AppContext) {
