@@ -7,8 +7,8 @@ import { normalizeClaimNumber } from '../../shared/claims/claim-number';
 // What a search finds: a whole claim number (any case, spaces or dashes) is that claim alone. Otherwise the text is
 // split at white space into terms, and a claim is found when its search text holds every term literally, case
 // aside: `%` and `_` are characters like any other, never wildcards. The FULLTEXT index narrows the claims first
-// (each word of a term of at least MIN_TOKEN characters must begin a word), and `LOCATE` then checks each term as
-// typed; a search whose every word is shorter (such as "LP" or "7K") is checked by `LOCATE` alone, over the
+// (each word of a term of at least MIN_TOKEN characters must begin a word; only those with a digit when there are
+// any), and `LOCATE` then checks each term as typed; a search whose every word is shorter (such as "LP" or "7K") is checked by `LOCATE` alone, over the
 // organisation's claims, slower but still found.
 
 /** InnoDB's default innodb_ft_min_token_size: shorter words are not in the index. */
@@ -44,7 +44,12 @@ export function claimSearch(text: string | undefined | null): SearchCondition | 
   const exact = normalizeClaimNumber(trimmed);
   if (exact) return { sql: 'c.number = ?', params: [exact] };
   const terms = [...new Set(trimmed.split(/\s+/u))];
-  const words = [...new Set(terms.flatMap(indexWords))];
+  const all = [...new Set(terms.flatMap(indexWords))];
+  // InnoDB's full-text search costs time for every claim a word is in (about a second per 100,000 claims here),
+  // however few the other words leave. A word with a digit (a serial, a number, a site's number) is in a few claims
+  // at most: when there is one, the index is asked for those alone and LOCATE checks the rest.
+  const withDigits = all.filter((w) => /\p{N}/u.test(w));
+  const words = withDigits.length ? withDigits : all;
   const parts: string[] = [];
   const params: unknown[] = [];
   if (words.length) {

@@ -151,6 +151,11 @@ describe('claim search', () => {
       sql: '(LOCATE(?, c.search_text) > 0 AND LOCATE(?, c.search_text) > 0)',
       params: ['LP', '7K'],
     });
+    // A word with a digit narrows on its own (a serial, a site's number); the other words are checked as typed.
+    expect(claimSearch('Pier 4321 store')).toEqual({
+      sql: '(MATCH(c.search_text) AGAINST (? IN BOOLEAN MODE) AND LOCATE(?, c.search_text) > 0 AND LOCATE(?, c.search_text) > 0 AND LOCATE(?, c.search_text) > 0)',
+      params: ['+4321*', 'Pier', '4321', 'store'],
+    });
     expect(claimSearch("O'Neil 50% lens_cover")).toEqual({
       sql: '(MATCH(c.search_text) AGAINST (? IN BOOLEAN MODE) AND LOCATE(?, c.search_text) > 0 AND LOCATE(?, c.search_text) > 0 AND LOCATE(?, c.search_text) > 0)',
       params: ['+lens_cover*', "O'Neil", '50%', 'lens_cover'],
