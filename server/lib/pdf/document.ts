@@ -1,20 +1,17 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import * as fontkit from 'fontkit';
 import PDFDocument from 'pdfkit';
 
 import { canonicalJson, sha256Hex } from './hash';
 import { dateAsTimestamp } from './format';
+import { projectPath } from '../paths';
 
 // A small builder over pdfkit for Lumenproof's documents: our fonts, our header band and footer, page numbers,
 // a few blocks (headings, paragraphs, label/value grids, tables, callouts), and deterministic output: the same
 // input gives the same bytes, because every date and identifier in the file comes from the input.
 
-const FONT_DIR = path.resolve(
-  path.dirname(fileURLToPath(import.meta.url)),
-  '../../../node_modules/dejavu-fonts-ttf/ttf',
-);
+const FONT_DIR = projectPath('node_modules', 'dejavu-fonts-ttf', 'ttf');
 
 // pdfkit draws WOFF2 fonts blank; TrueType only.
 export const FONTS = {
