@@ -13,6 +13,7 @@ import {
 } from '../../../shared/schemas/catalogue';
 import type { SessionUser } from '../../auth/passport';
 import type { AppDataSource } from '../../db/data-source';
+import { insertMany } from '../../db/insert-many';
 import { Conditions, readRows as readDbRows } from '../../db/read';
 import { InstallationUnit } from '../../db/entities/installation-unit.entity';
 import { Installation } from '../../db/entities/installation.entity';
@@ -314,15 +315,7 @@ function unitRows(
 }
 
 async function insertUnits(m: EntityManager, rows: ReturnType<typeof unitRows>) {
-  for (let i = 0; i < rows.length; i += 1000) {
-    await m
-      .createQueryBuilder()
-      .insert()
-      .into(InstallationUnit)
-      .values(rows.slice(i, i + 1000))
-      .updateEntity(false)
-      .execute();
-  }
+  await insertMany(m, InstallationUnit, rows, 2000);
 }
 
 export function createInstallationsService(ds: AppDataSource) {
@@ -600,8 +593,11 @@ export function createInstallationsService(ds: AppDataSource) {
 
       // Serials already in the register, one query per model and thousand serials.
       const serialsByModel = new Map<string, string[]>();
-      for (const g of good)
-        serialsByModel.set(g.product.id, [...(serialsByModel.get(g.product.id) ?? []), ...g.value.serials]);
+      for (const g of good) {
+        const list = serialsByModel.get(g.product.id);
+        if (list) list.push(...g.value.serials);
+        else serialsByModel.set(g.product.id, [...g.value.serials]);
+      }
       const taken = new Set<string>();
       for (const [modelId, serials] of serialsByModel) {
         if (!serials.length) continue;
@@ -640,15 +636,7 @@ export function createInstallationsService(ds: AppDataSource) {
                 version: 1,
               };
             });
-            for (let i = 0; i < records.length; i += 500) {
-              await m
-                .createQueryBuilder()
-                .insert()
-                .into(Installation)
-                .values(records.slice(i, i + 500))
-                .updateEntity(false)
-                .execute();
-            }
+            await insertMany(m, Installation, records, 1000);
             await insertUnits(
               m,
               valid.flatMap((g, i) => unitRows(records[i].id, g.product, g.value.serials)),
