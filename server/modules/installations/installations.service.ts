@@ -24,10 +24,11 @@ import { recordAudit, recordAuditMany, type Actor } from '../../lib/audit';
 import {
   coerceRow,
   issuesToRowErrors,
-  MAX_LISTED_ERRORS,
+  fileBlocked,
+  importResult,
   readRows,
   tooManyRows,
-  type ColumnSpec,
+  csvColumns,
 } from '../../lib/csv-import';
 import { clock } from '../../lib/clock';
 import { AppError, conflict } from '../../lib/errors';
@@ -172,52 +173,28 @@ function listRowOf(r: RawListRow): InstallationListRow {
   };
 }
 
-export const INSTALLATION_COLUMNS: ColumnSpec[] = [
-  {
-    column: 'manufacturer',
-    field: 'manufacturer',
-    kind: 'string',
-    required: false,
-    example: 'Aldercrest Lighting',
-  },
-  { column: 'model_number', field: 'modelNumber', kind: 'string', required: true, example: 'AC-HB150-D' },
-  {
-    column: 'site_name',
-    field: 'siteName',
-    kind: 'string',
-    required: true,
-    example: 'Dockside cold store, bay 4',
-  },
-  { column: 'site_address', field: 'siteAddress', kind: 'string', required: true, example: '18 Wharf Road' },
-  { column: 'site_city', field: 'siteCity', kind: 'string', required: true, example: 'Port Elliot' },
-  { column: 'site_region', field: 'siteRegion', kind: 'string', required: true, example: 'WA' },
-  { column: 'site_postal_code', field: 'sitePostalCode', kind: 'string', required: true, example: '98101' },
-  { column: 'quantity', field: 'quantity', kind: 'number', required: true, example: '2' },
-  { column: 'serials', field: 'serials', kind: 'list', required: false, example: 'AC2401-0001; AC2401-0002' },
-  { column: 'install_date', field: 'installDate', kind: 'string', required: true, example: '2024-03-18' },
-  { column: 'purchase_date', field: 'purchaseDate', kind: 'string', required: false, example: '2024-02-27' },
-  {
-    column: 'distributor',
-    field: 'distributor',
-    kind: 'string',
-    required: false,
-    example: 'Northgate Electrical Supply',
-  },
-  { column: 'invoice_number', field: 'invoiceNumber', kind: 'string', required: false, example: 'INV-20417' },
-  { column: 'lot', field: 'lot', kind: 'string', required: false, example: 'AC2401' },
-  { column: 'location', field: 'location', kind: 'string', required: true, example: 'damp' },
-  { column: 'enclosure', field: 'enclosure', kind: 'string', required: true, example: 'open' },
-  { column: 'dimmer', field: 'dimmer', kind: 'string', required: true, example: 'none' },
-  {
-    column: 'nominal_supply_volts',
-    field: 'nominalSupplyVolts',
-    kind: 'number',
-    required: true,
-    example: '277',
-  },
-  { column: 'hours_per_day', field: 'hoursPerDay', kind: 'number', required: true, example: '16' },
-  { column: 'ambient_c', field: 'ambientC', kind: 'number', required: true, example: '25' },
-];
+export const INSTALLATION_COLUMNS = csvColumns([
+  ['manufacturer', 'string', 'optional', 'Aldercrest Lighting'],
+  ['model_number', 'string', 'required', 'AC-HB150-D'],
+  ['site_name', 'string', 'required', 'Dockside cold store, bay 4'],
+  ['site_address', 'string', 'required', '18 Wharf Road'],
+  ['site_city', 'string', 'required', 'Port Elliot'],
+  ['site_region', 'string', 'required', 'WA'],
+  ['site_postal_code', 'string', 'required', '98101'],
+  ['quantity', 'number', 'required', '2'],
+  ['serials', 'list', 'optional', 'AC2401-0001; AC2401-0002'],
+  ['install_date', 'string', 'required', '2024-03-18'],
+  ['purchase_date', 'string', 'optional', '2024-02-27'],
+  ['distributor', 'string', 'optional', 'Northgate Electrical Supply'],
+  ['invoice_number', 'string', 'optional', 'INV-20417'],
+  ['lot', 'string', 'optional', 'AC2401'],
+  ['location', 'string', 'required', 'damp'],
+  ['enclosure', 'string', 'required', 'open'],
+  ['dimmer', 'string', 'required', 'none'],
+  ['nominal_supply_volts', 'number', 'required', '277'],
+  ['hours_per_day', 'number', 'required', '16'],
+  ['ambient_c', 'number', 'required', '25'],
+]);
 
 /** The payload schemas as of the server's clock: an install date after today (anywhere) is refused. */
 export const installationSchemasNow = () => installationSchemas(latestInstallDate(clock.now()));
@@ -614,10 +591,8 @@ export function createInstallationsService(ds: AppDataSource) {
         });
         return false;
       });
-      errors.sort((a, b) => a.row - b.row);
-      const blocked = fileErrors.some((e) => e.row === 1);
       let imported = 0;
-      if (!dryRun && !blocked && valid.length) {
+      if (!dryRun && !fileBlocked(fileErrors) && valid.length) {
         try {
           await ds.transaction(async (m) => {
             const versions = await versionsByModel(m, [...new Set(valid.map((g) => g.product.id))]);
@@ -662,15 +637,7 @@ export function createInstallationsService(ds: AppDataSource) {
         }
         imported = valid.length;
       }
-      return {
-        dryRun,
-        total: rows.length,
-        valid: blocked ? 0 : valid.length,
-        invalid: new Set(errors.filter((e) => e.row > 1).map((e) => e.row)).size,
-        imported,
-        errors: errors.slice(0, MAX_LISTED_ERRORS),
-        errorsTruncated: errors.length > MAX_LISTED_ERRORS,
-      };
+      return importResult({ dryRun, total: rows.length, valid: valid.length, imported, errors, fileErrors });
     },
   };
 }
