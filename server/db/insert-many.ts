@@ -11,6 +11,8 @@ export async function insertMany<T extends ObjectLiteral>(
   target: EntityTarget<T>,
   rows: readonly Partial<T>[],
   chunk = 500,
+  /** Called after each statement with the rows written so far. */
+  onChunk?: (written: number) => void,
 ): Promise<void> {
   if (!rows.length) return;
   const meta = m.connection.getMetadata(target);
@@ -38,5 +40,6 @@ export async function insertMany<T extends ObjectLiteral>(
       tuples.push(`(${cells.join(', ')})`);
     }
     await m.query(head + tuples.join(', '), params);
+    onChunk?.(i + part.length);
   }
 }

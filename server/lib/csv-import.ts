@@ -45,6 +45,9 @@ export function csvColumns(defs: readonly ColumnDef[]): ColumnSpec[] {
 
 export const MAX_LISTED_ERRORS = 500;
 
+/** How far an import has got: rows checked, then rows written (each of `total`). */
+export type ImportProgress = { phase: 'checking' | 'writing'; done: number; total: number };
+
 /** Turns the request (CSV text or JSON rows) into raw rows keyed by lower-case column name. */
 export function readRows(
   input: ImportRequest,

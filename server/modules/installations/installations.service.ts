@@ -29,6 +29,7 @@ import {
   readRows,
   tooManyRows,
   csvColumns,
+  type ImportProgress,
 } from '../../lib/csv-import';
 import { clock } from '../../lib/clock';
 import { AppError, conflict } from '../../lib/errors';
@@ -475,6 +476,7 @@ export function createInstallationsService(ds: AppDataSource) {
       input: ImportRequest,
       dryRun: boolean,
       actor: Actor,
+      onProgress?: (p: ImportProgress) => void,
     ): Promise<ImportResult> {
       const { rows, fileErrors } = readRows(input, INSTALLATION_COLUMNS);
       tooManyRows(rows.length, 20_000);
@@ -506,7 +508,8 @@ export function createInstallationsService(ds: AppDataSource) {
       type Good = { row: number; product: ProductModel; value: InstallationValues };
       const good: Good[] = [];
       const fileSerials = new Map<string, number>();
-      for (const c of coerced) {
+      for (const [n, c] of coerced.entries()) {
+        if (n % 1000 === 0) onProgress?.({ phase: 'checking', done: n, total: rows.length });
         const rowErrors = [...c.errors];
         let product: ProductModel | undefined;
         const num = typeof c.values.modelNumber === 'string' ? c.values.modelNumber : '';
@@ -611,11 +614,17 @@ export function createInstallationsService(ds: AppDataSource) {
                 version: 1,
               };
             });
-            await insertMany(m, Installation, records, 1000);
+            const total = valid.length;
+            onProgress?.({ phase: 'writing', done: 0, total });
+            // Installations count for the first half of the writing, their units and audit rows for the rest.
+            await insertMany(m, Installation, records, 1000, (n) =>
+              onProgress?.({ phase: 'writing', done: Math.floor(n / 2), total }),
+            );
             await insertUnits(
               m,
               valid.flatMap((g, i) => unitRows(records[i].id, g.product, g.value.serials)),
             );
+            onProgress?.({ phase: 'writing', done: Math.floor((total * 3) / 4), total });
             await recordAuditMany(
               m,
               actor,

@@ -8,7 +8,7 @@ import { Dialog } from '../../../components/ui/dialog';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { useToast } from '../../../components/ui/toast';
 import { ApiError } from '../../../lib/api-client';
-import { importRows, templateUrl, type ImportTarget } from '../api/import-rows';
+import { importRows, importRowsWithProgress, templateUrl, type ImportTarget } from '../api/import-rows';
 
 const CHUNK = 1000;
 type Stage =
@@ -100,9 +100,20 @@ export function ImportDialog({
   async function commit(rows: Record<string, string>[]) {
     const ctl = new AbortController();
     abort.current = ctl;
-    setStage({ kind: 'working', label: `Importing ${rows.length.toLocaleString()} rows`, done: 0, total: 0 });
+    const label = `Importing ${rows.length.toLocaleString()} rows`;
+    setStage({ kind: 'working', label, done: 0, total: 0 });
     try {
-      const result = await importRows(target, rows, { dryRun: false, signal: ctl.signal });
+      // The server checks the rows again, then writes them: each half of the bar (installations report both).
+      const result = await importRowsWithProgress(target, rows, {
+        signal: ctl.signal,
+        onProgress: (p) =>
+          setStage({
+            kind: 'working',
+            label: p.phase === 'checking' ? `${label}: checking` : `${label}: writing`,
+            done: (p.phase === 'checking' ? 0 : p.total) + p.done,
+            total: 2 * p.total,
+          }),
+      });
       setStage({ kind: 'done', result });
       notify(`${result.imported.toLocaleString()} ${WHAT[target]} imported.`);
       await qc.invalidateQueries({ queryKey: [target] });
