@@ -1,13 +1,12 @@
-// npm start: builds the client if needed, starts a private MariaDB, migrates, loads the demo data into an empty
+// npm start: builds the client and the server (dist-server/) if needed, starts a private MariaDB, migrates, loads the demo data into an empty
 // database (demo mode only), starts the fake SMTP server and serves the app. Ctrl-C stops all of it.
 import { loadConfig } from '../server/config/env';
 import { createDataSource } from '../server/db/data-source';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../server/db/seed/demo-accounts';
 import { seedDemo } from '../server/db/seed/demo';
 import { createStorage } from '../server/lib/storage';
-import { startServer } from '../server/index';
-import { startCluster } from '../server/cluster';
 import { buildClientIfNeeded } from './lib/build-client';
+import { buildServerIfNeeded, startCompiledServer } from './lib/build-server';
 import { startLocalDb, type LocalDb } from './lib/mariadb';
 import { startFakeSmtp } from './fake-smtp';
 
@@ -27,6 +26,7 @@ async function main() {
 
   try {
     buildClientIfNeeded();
+    await buildServerIfNeeded();
 
     let databaseUrl = config.databaseUrl;
     if (!databaseUrl) {
@@ -56,10 +56,11 @@ async function main() {
       console.log(`Fake SMTP server on 127.0.0.1:${smtp.port} (mail kept in ${config.mailboxDir})`);
     }
 
-    const server =
-      config.workers > 1
-        ? await startCluster({ count: config.workers, databaseUrl, env: { NODE_ENV: config.env } })
-        : await startServer(config, databaseUrl);
+    // The compiled server under plain node (scripts/lib/build-server.ts), one or WEB_CONCURRENCY processes.
+    const server = await startCompiledServer({
+      databaseUrl,
+      env: { NODE_ENV: config.env, APP_MODE: config.mode },
+    });
     stops.push(server.stop);
 
     console.log(`\nLumenproof is running at ${server.url}\n`);

@@ -1,4 +1,5 @@
 import cluster, { type Worker } from 'node:cluster';
+import fs from 'node:fs';
 import path from 'node:path';
 
 // Serving with several processes: node:cluster forks `count` workers (server/worker.ts) that share the port, so
@@ -14,7 +15,11 @@ export async function startCluster(opts: {
   log?: (line: string) => void;
 }): Promise<Cluster> {
   const log = opts.log ?? ((l: string) => console.log(l));
-  cluster.setupPrimary({ exec: path.join(import.meta.dirname, 'worker.ts'), execArgv: process.execArgv });
+  // worker.js beside a compiled server (dist-server/), worker.ts beside the sources.
+  const exec = ['worker.js', 'worker.ts']
+    .map((f) => path.join(import.meta.dirname, f))
+    .find((f) => fs.existsSync(f))!;
+  cluster.setupPrimary({ exec, execArgv: process.execArgv });
   let stopping = false;
   const live = new Set<Worker>();
 

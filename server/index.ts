@@ -1,4 +1,4 @@
-import path from 'node:path';
+import cluster from 'node:cluster';
 import type { Server } from 'node:http';
 import { createApp } from './app';
 import { startCluster } from './cluster';
@@ -7,6 +7,7 @@ import { createDataSource } from './db/data-source';
 import { withReadRouting } from './db/read';
 import { PinoQueryLogger } from './db/query-logger';
 import { createLogger } from './lib/logger';
+import { projectPath } from './lib/paths';
 import { startOutboxWorker } from './lib/outbox';
 import { startWebhookWorker } from './lib/webhooks';
 import { createStorage } from './lib/storage';
@@ -28,7 +29,7 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
   if (pending)
     throw new Error('The database has migrations still to run: run `npm run migrate` (npm start does it).');
   const storage = createStorage(config);
-  const app = createApp({ config, ds, logger, databaseUrl, clientDir: path.resolve('dist'), storage });
+  const app = createApp({ config, ds, logger, databaseUrl, clientDir: projectPath('dist'), storage });
   // Background work decides what to send or delete from what it reads, so it reads the primary, never a replica
   // that may be behind: the routing set here holds in every timer these start (AsyncLocalStorage).
   const onPrimary = <T>(fn: () => T) => withReadRouting(true, fn);
@@ -88,8 +89,9 @@ export async function startServer(config: AppConfig, databaseUrl: string) {
   };
 }
 
-// Run directly (production): DATABASE_URL must point at a migrated database.
-if (import.meta.url === `file://${process.argv[1]}`) {
+// Run directly (production, `node dist-server/index.js`): DATABASE_URL must point at a migrated database. Never in
+// a cluster's worker, whose compiled worker.js holds this module too.
+if (import.meta.url === `file://${process.argv[1]}` && !cluster.isWorker) {
   const config = loadConfig();
   if (!config.databaseUrl) {
     console.error(
@@ -112,6 +114,8 @@ if (import.meta.url === `file://${process.argv[1]}`) {
     .then((srv) => {
       stop = () => void srv.stop().then(() => process.exit(0));
       if (stopRequested) stop();
+      // To `npm start`, which runs this compiled (dist-server/index.js) as a child process.
+      process.send?.({ type: 'listening', url: srv.url });
     })
     .catch((err) => {
       console.error(err instanceof Error ? err.message : err);

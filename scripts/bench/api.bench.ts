@@ -29,6 +29,51 @@ type Target = {
   ids: string[];
 };
 
+/**
+ * The claims list from the compiled server (dist-server/, plain node) beside the same list from the TypeScript
+ * sources under tsx (as the server ran before the production build), both running, requests alternating.
+ */
+async function compareWithSources(databaseUrl: string, base: string, cookie: string, listPath: string) {
+  const sources = await startServerProcess(databaseUrl, { fromSources: true });
+  try {
+    const compiled = createBenchClient(base, cookie);
+    const tsx = createBenchClient(
+      sources.base,
+      await signInBench(sources.base, benchEmail('m', 0, 'reviewer')),
+    );
+    const compiledMs: number[] = [];
+    const tsxMs: number[] = [];
+    for (let i = 0; i < ROUNDS + 10; i++) {
+      for (const [client, into] of [
+        [compiled, compiledMs],
+        [tsx, tsxMs],
+      ] as const) {
+        const t0 = performance.now();
+        const r = await client.getJson(listPath);
+        if (r.status !== 200) throw new Error(`${listPath}: ${r.status}`);
+        if (i >= 10) into.push(performance.now() - t0);
+      }
+    }
+    compiled.close();
+    tsx.close();
+    const a = median(compiledMs);
+    const b = median(tsxMs);
+    console.log(
+      `claims list, compiled server (node dist-server) median ${a.toFixed(2)} ms, from sources (tsx) ${b.toFixed(2)} ms, ${(a / b).toFixed(2)}x`,
+    );
+    report({
+      part: 'api',
+      figure: 'claims list, compiled server (node dist-server/index.js), API median',
+      value: a,
+      unit: 'ms',
+      baseline: b,
+      aim: 'the same server from its sources under tsx',
+    });
+  } finally {
+    await sources.stop();
+  }
+}
+
 async function main() {
   const bench = await openBenchDb({ reset: false });
   const conn = await mysql.createConnection({ uri: bench.url, dateStrings: false });
@@ -99,6 +144,7 @@ async function main() {
       });
     }
     client.close();
+    if (targets[0]?.name === 'claims') await compareWithSources(bench.url, base, cookie, targets[0].listPath);
     await loadRuns(base, cookie, targets, 1);
     await server.stop();
     // The same load against a cluster with a process per core (WEB_CONCURRENCY), as production would run it.

@@ -40,7 +40,9 @@ const COLUMNS =
 function cases(): Case[] {
   const open = ['filed', 'in_review', 'unit_received', 'return_requested', 'needs_info'];
   const stageIn = `c.stage IN (${open.map(() => '?').join(', ')})`;
-  const term = 'site 12';
+  // Searches (server/lib/claim-search.ts): by hand, the same FULLTEXT and LOCATE conditions on the claims alone.
+  const term = 'site 4321';
+  const serial = 'SN-4242';
   return [
     {
       name: 'queue, open stages + verdict, waiting longest first',
@@ -54,11 +56,19 @@ function cases(): Case[] {
       name: 'queue, open stages + amount, largest first, with a search',
       path: `/api/review/queue?page=1&pageSize=50&stage=${open.join(',')}&minAmount=70.00&sort=-amount&q=${encodeURIComponent(term)}`,
       where:
-        `${stageIn} AND c.expected_credit >= ? AND (c.number LIKE ? OR i.site_name LIKE ? OR o.name LIKE ? OR ` +
-        "p.model_number LIKE ? OR JSON_SEARCH(c.serials, 'one', ?) IS NOT NULL)",
-      params: [...open, '70.00', `${term.toUpperCase()}%`, `%${term}%`, `%${term}%`, `%${term}%`, term],
+        `${stageIn} AND c.expected_credit >= ? AND (MATCH(c.search_text) AGAINST (? IN BOOLEAN MODE) AND ` +
+        'LOCATE(?, c.search_text) > 0 AND LOCATE(?, c.search_text) > 0)',
+      params: [...open, '70.00', '+4321*', 'site', '4321'],
       order: 'c.expected_credit DESC, c.id DESC',
-      countJoins: true,
+      countJoins: false,
+    },
+    {
+      name: 'queue, a serial searched, newest first',
+      path: `/api/review/queue?page=1&pageSize=50&sort=-filedAt&q=${encodeURIComponent(serial)}`,
+      where: '(MATCH(c.search_text) AGAINST (? IN BOOLEAN MODE) AND LOCATE(?, c.search_text) > 0)',
+      params: ['+4242*', serial],
+      order: 'c.filed_at DESC, c.id DESC',
+      countJoins: false,
     },
   ];
 }

@@ -15,7 +15,7 @@ function mappingOf(ds: DataSource, target: EntityTarget<ObjectLiteral>): Mapped 
   let m = byTarget.get(target);
   if (!m) {
     const metadata = ds.getMetadata(target);
-    m = { metadata, columns: metadata.columns.filter((c) => !c.isVirtual) };
+    m = { metadata, columns: metadata.columns.filter((c) => !c.isVirtual && c.isSelect) };
     byTarget.set(target, m);
   }
   return m;

@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import { AuditEvent } from '../db/entities/audit-event.entity';
+import { insertMany } from '../db/insert-many';
 import { clock } from './clock';
 import { AuditedRefusal } from './errors';
 
@@ -47,30 +48,25 @@ export async function recordAuditMany(
   manager: EntityManager,
   actor: Actor,
   events: { action: string; entityType: string; entityId: string; after?: Record<string, unknown> | null }[],
-  chunk = 1000,
+  chunk = 2000,
 ) {
   const at = clock.now();
-  for (let i = 0; i < events.length; i += chunk) {
-    await manager
-      .createQueryBuilder()
-      .insert()
-      .into(AuditEvent)
-      .values(
-        events.slice(i, i + chunk).map((e) => ({
-          occurredAt: at,
-          actorUserId: actor.userId,
-          organizationId: actor.organizationId,
-          action: e.action,
-          entityType: e.entityType,
-          entityId: e.entityId,
-          before: null as never,
-          after: (e.after ?? null) as never,
-          requestId: actor.requestId ?? null,
-        })),
-      )
-      .updateEntity(false)
-      .execute();
-  }
+  await insertMany(
+    manager,
+    AuditEvent,
+    events.map((e) => ({
+      occurredAt: at,
+      actorUserId: actor.userId,
+      organizationId: actor.organizationId,
+      action: e.action,
+      entityType: e.entityType,
+      entityId: e.entityId,
+      before: null,
+      after: e.after ?? null,
+      requestId: actor.requestId ?? null,
+    })),
+    chunk,
+  );
 }
 
 /** Records an AuditedRefusal in a transaction of its own (the refused change has rolled back), then rethrows it. */

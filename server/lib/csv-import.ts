@@ -1,6 +1,6 @@
 import Papa from 'papaparse';
 import type { z } from 'zod';
-import type { ImportRequest, ImportRowError } from '../../shared/schemas/catalogue';
+import type { ImportRequest, ImportResult, ImportRowError } from '../../shared/schemas/catalogue';
 import { AppError } from './errors';
 
 // The spreadsheet side of an import: CSV text or JSON rows in, typed values out, and every problem as
@@ -17,9 +17,38 @@ export type ColumnSpec = {
 
 export type RawRow = { row: number; values: Record<string, unknown> };
 
+/** One column as the services declare it: name, kind, required or optional, the template's example, and the field
+ * when it is not the column's name in camelCase. */
+export type ColumnDef = readonly [
+  column: string,
+  kind: ColumnKind,
+  presence: 'required' | 'optional',
+  example: string,
+  field?: string,
+];
+
+const camelCase = (column: string) => column.replace(/_([a-z0-9])/g, (_, c: string) => c.toUpperCase());
+
+/**
+ * The columns of an import, one line each, in the file's order (the template's too): the one way the products,
+ * installations and claim-batch imports declare their columns.
+ */
+export function csvColumns(defs: readonly ColumnDef[]): ColumnSpec[] {
+  return defs.map(([column, kind, presence, example, field]) => ({
+    column,
+    field: field ?? camelCase(column),
+    kind,
+    required: presence === 'required',
+    example,
+  }));
+}
+
 export const MAX_LISTED_ERRORS = 500;
 
-/** Parses the import's CSV text (or the same rows sent as JSON) into raw rows keyed by lower-case column name. */
+/** How far an import has got: rows checked, then rows written (each of `total`). */
+export type ImportProgress = { phase: 'checking' | 'writing'; done: number; total: number };
+
+/** Turns the request (CSV text or JSON rows) into raw rows keyed by lower-case column name. */
 export function parseCsvRows(
   input: ImportRequest,
   specs: ColumnSpec[],
@@ -136,4 +165,31 @@ export function tooManyRows(n: number, max: number) {
       'import.too_many_rows',
       `The file has ${n} rows; import at most ${max.toLocaleString('en-US')} at once.`,
     );
+}
+
+/** Whether the file itself is wrong (unknown or missing columns: row 1), so that no row may be imported. */
+export const fileBlocked = (fileErrors: readonly ImportRowError[]) => fileErrors.some((e) => e.row === 1);
+
+/**
+ * An import's answer: its counts, and its problems in row order, the first MAX_LISTED_ERRORS of them. `errors`
+ * holds every problem, the file's own included; `valid` counts the rows that passed every check.
+ */
+export function importResult(o: {
+  dryRun: boolean;
+  total: number;
+  valid: number;
+  imported: number;
+  errors: ImportRowError[];
+  fileErrors: readonly ImportRowError[];
+}): ImportResult {
+  const errors = [...o.errors].sort((a, b) => a.row - b.row);
+  return {
+    dryRun: o.dryRun,
+    total: o.total,
+    valid: fileBlocked(o.fileErrors) ? 0 : o.valid,
+    invalid: new Set(errors.filter((e) => e.row > 1).map((e) => e.row)).size,
+    imported: o.imported,
+    errors: errors.slice(0, MAX_LISTED_ERRORS),
+    errorsTruncated: errors.length > MAX_LISTED_ERRORS,
+  };
 }

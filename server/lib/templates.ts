@@ -1,9 +1,9 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import Mustache from 'mustache';
+import { projectPath } from './paths';
 
-const TEMPLATES_DIR = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../templates');
+const TEMPLATES_DIR = projectPath('templates');
 const cache = new Map<string, string>();
 
 function load(rel: string) {

@@ -1,14 +1,24 @@
 import { spawn } from 'node:child_process';
 import path from 'node:path';
 import { freePort, waitForHealth } from '../../lib/free-port';
+import { buildServerIfNeeded, SERVER_OUT_DIR } from '../../lib/build-server';
 
 /**
- * The API as production runs it (server/index.ts, NODE_ENV=production) in a process of its own, so that the load
- * generator and the server do not share an event loop; `workers` > 1 serves with a cluster (WEB_CONCURRENCY).
+ * The API as production runs it (the compiled server, `node dist-server/index.js`, built first when needed;
+ * NODE_ENV=production) in a process of its own, so that the load generator and the server do not share an event
+ * loop; `workers` > 1 serves with a cluster (WEB_CONCURRENCY). `fromSources` runs server/index.ts under tsx instead,
+ * as before the production build.
  */
-export async function startServerProcess(databaseUrl: string, opts: { workers?: number } = {}) {
+export async function startServerProcess(
+  databaseUrl: string,
+  opts: { workers?: number; fromSources?: boolean } = {},
+) {
   const port = await freePort();
-  const child = spawn(path.resolve('node_modules/.bin/tsx'), [path.resolve('server/index.ts')], {
+  if (!opts.fromSources) await buildServerIfNeeded();
+  const [command, args] = opts.fromSources
+    ? [path.resolve('node_modules/.bin/tsx'), [path.resolve('server/index.ts')]]
+    : [process.execPath, [path.resolve(SERVER_OUT_DIR, 'index.js')]];
+  const child = spawn(command, args, {
     env: {
       ...process.env,
       NODE_ENV: 'production',

@@ -44,6 +44,8 @@ import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 @Index('ix_claims_mfr_number', ['manufacturerId', 'number'])
 // The queue's count: open stages and a verdict, from the index alone.
 @Index('ix_claims_mfr_stage_verdict', ['manufacturerId', 'stage', 'verdict'])
+// The free-text search (server/lib/claim-search.ts) over the column below.
+@Index('ft_claims_search', ['searchText'], { fulltext: true })
 export class Claim {
   @PrimaryGeneratedColumn('uuid')
   id: string;
@@ -117,6 +119,13 @@ export class Claim {
 
   @Column({ type: 'text' })
   narrative: string;
+
+  /**
+   * Number, serials, site, contractor, product and narrative as one text, for the FULLTEXT index. Kept by triggers
+   * (migration ClaimSearch); the application never writes or reads it as a field.
+   */
+  @Column({ type: 'text', name: 'search_text', nullable: true, select: false, insert: false, update: false })
+  searchText?: string | null;
 
   @Column({ type: 'json', nullable: true })
   evaluation: Evaluation | null;

@@ -25,6 +25,7 @@ import { SavedViews1796288682971 } from './1796288682971-SavedViews';
 import { WaitingReads1796289213143 } from './1796289213143-WaitingReads';
 import { WaitingMailSettings1796289583379 } from './1796289583379-WaitingMailSettings';
 import { StageTargets1796289851958 } from './1796289851958-StageTargets';
+import { ClaimSearch1796290000000 } from './1796290000000-ClaimSearch';
 
 export const migrations = [
   Foundation1796165467051,
@@ -53,4 +54,5 @@ export const migrations = [
   WaitingReads1796289213143,
   WaitingMailSettings1796289583379,
   StageTargets1796289851958,
+  ClaimSearch1796290000000,
 ];

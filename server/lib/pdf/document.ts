@@ -1,18 +1,17 @@
+import fs from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import * as fontkit from 'fontkit';
 import PDFDocument from 'pdfkit';
 
 import { canonicalJson, sha256Hex } from './hash';
 import { dateAsTimestamp } from './format';
+import { projectPath } from '../paths';
 
 // A small builder over pdfkit for Lumenproof's documents: our fonts, our header band and footer, page numbers,
 // a few blocks (headings, paragraphs, label/value grids, tables, callouts), and deterministic output: the same
 // input gives the same bytes, because every date and identifier in the file comes from the input.
 
-const FONT_DIR = path.resolve(
-  path.dirname(fileURLToPath(import.meta.url)),
-  '../../../node_modules/dejavu-fonts-ttf/ttf',
-);
+const FONT_DIR = projectPath('node_modules', 'dejavu-fonts-ttf', 'ttf');
 
 // pdfkit draws WOFF2 fonts blank; TrueType only.
 export const FONTS = {
@@ -20,6 +19,21 @@ export const FONTS = {
   bold: path.join(FONT_DIR, 'DejaVuSans-Bold.ttf'),
   mono: path.join(FONT_DIR, 'DejaVuSansMono.ttf'),
 } as const;
+
+type FontName = keyof typeof FONTS;
+
+// Each font file is read and parsed once per process and the parsed font handed to every document: pdfkit would
+// otherwise read the file from disk and parse its tables again for each document (most of a letter's time). A
+// parsed font is only read from afterwards (each document makes its own subset), so sharing it is safe.
+let parsedFonts: Record<FontName, fontkit.Font> | null = null;
+function parsedFont(name: FontName): fontkit.Font {
+  parsedFonts ??= {
+    sans: fontkit.create(fs.readFileSync(FONTS.sans)),
+    bold: fontkit.create(fs.readFileSync(FONTS.bold)),
+    mono: fontkit.create(fs.readFileSync(FONTS.mono)),
+  };
+  return parsedFonts[name];
+}
 
 export const COLORS = {
   teal: '#0d5c57',
@@ -93,15 +107,17 @@ export class PdfBuilder {
       margins: { top: MARGIN_TOP, bottom: MARGIN_BOTTOM, left: MARGIN_X, right: MARGIN_X },
       bufferPages: true,
       autoFirstPage: false,
-      font: FONTS.sans,
+      // No default font: pdfkit would open one now and compare it field by field with 'Sans' when that is chosen.
+      font: null as unknown as string,
       info: info as PDFKit.DocumentInfo,
       pdfVersion: '1.7',
       lang: 'en',
       displayTitle: true,
     });
-    this.doc.registerFont('Sans', FONTS.sans);
-    this.doc.registerFont('Sans-Bold', FONTS.bold);
-    this.doc.registerFont('Mono', FONTS.mono);
+    this.doc.registerFont('Sans', parsedFont('sans') as unknown as string);
+    this.doc.registerFont('Sans-Bold', parsedFont('bold') as unknown as string);
+    this.doc.registerFont('Mono', parsedFont('mono') as unknown as string);
+    this.doc.font('Sans');
     this.done = new Promise((resolve, reject) => {
       this.doc.on('data', (c: Buffer) => this.chunks.push(c));
       this.doc.on('end', () => resolve(Buffer.concat(this.chunks)));

@@ -1,6 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { projectPath } from '../paths';
 import Mustache from 'mustache';
 import { z } from 'zod';
 
@@ -8,7 +8,7 @@ import { z } from 'zod';
 // names its sections in order (each renderer knows a fixed set of section ids), the fixed wording with
 // {{placeholders}}, the labels, and word lists such as severities or outcomes.
 
-const TEMPLATES_DIR = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../../templates/pdf');
+const TEMPLATES_DIR = projectPath('templates', 'pdf');
 
 const sectionSchema = z.strictObject({
   id: z.string().regex(/^[a-z_]+$/),

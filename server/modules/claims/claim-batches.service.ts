@@ -19,13 +19,7 @@ import { InstallationUnit } from '../../db/entities/installation-unit.entity';
 import { Installation } from '../../db/entities/installation.entity';
 import { recordAudit, type Actor } from '../../lib/audit';
 import { clock } from '../../lib/clock';
-import {
-  coerceRow,
-  MAX_LISTED_ERRORS,
-  parseCsvRows,
-  tooManyRows,
-  type ColumnSpec,
-} from '../../lib/csv-import';
+import { coerceRow, csvColumns, MAX_LISTED_ERRORS, parseCsvRows, tooManyRows } from '../../lib/csv-import';
 import { AppError, notFound } from '../../lib/errors';
 import type { ClaimsService } from './claims.service';
 import { engineContextOf } from './engine-input';
@@ -34,43 +28,25 @@ import { engineContextOf } from './engine-input';
 // of drafts; the preview (dryRun) marks each bad row by row, column and reason; the drafts are then filed
 // together. Each row names its installation by a serial on it, or by the installation's id.
 
-export const CLAIM_BATCH_COLUMNS: ColumnSpec[] = [
-  { column: 'serial', field: 'serial', kind: 'list', required: false, example: 'ACH2403-H00001' },
-  { column: 'model_number', field: 'modelNumber', kind: 'string', required: false, example: 'AC-HB150-D' },
-  { column: 'installation_id', field: 'installationId', kind: 'string', required: false, example: '' },
-  { column: 'units', field: 'units', kind: 'number', required: false, example: '1' },
-  { column: 'failed_on', field: 'failedOn', kind: 'string', required: true, example: '2025-06-10' },
-  { column: 'symptoms', field: 'symptoms', kind: 'list', required: true, example: 'partly_dark; flicker' },
-  { column: 'supply_volts', field: 'supplyVolts', kind: 'string', required: false, example: '276,4' },
-  { column: 'input_watts', field: 'inputWatts', kind: 'string', required: false, example: '148' },
-  { column: 'power_factor', field: 'powerFactor', kind: 'string', required: false, example: '0.95' },
-  {
-    column: 'driver_output_volts',
-    field: 'driverOutputVolts',
-    kind: 'string',
-    required: false,
-    example: '49.2',
-  },
-  {
-    column: 'driver_output_amps',
-    field: 'driverOutputAmps',
-    kind: 'string',
-    required: false,
-    example: '2650 mA',
-  },
-  { column: 'debris_ingress', field: 'debrisIngress', kind: 'boolean', required: false, example: 'no' },
-  { column: 'water_ingress', field: 'waterIngress', kind: 'boolean', required: false, example: 'no' },
-  { column: 'physical_damage', field: 'physicalDamage', kind: 'boolean', required: false, example: 'no' },
-  { column: 'fan_stopped', field: 'fanStopped', kind: 'boolean', required: false, example: 'no' },
-  { column: 'burn_marks', field: 'burnMarks', kind: 'boolean', required: false, example: 'no' },
-  {
-    column: 'narrative',
-    field: 'narrative',
-    kind: 'string',
-    required: true,
-    example: 'Two strings dark after a week of flicker.',
-  },
-];
+export const CLAIM_BATCH_COLUMNS = csvColumns([
+  ['serial', 'list', 'optional', 'ACH2403-H00001'],
+  ['model_number', 'string', 'optional', 'AC-HB150-D'],
+  ['installation_id', 'string', 'optional', ''],
+  ['units', 'number', 'optional', '1'],
+  ['failed_on', 'string', 'required', '2025-06-10'],
+  ['symptoms', 'list', 'required', 'partly_dark; flicker'],
+  ['supply_volts', 'string', 'optional', '276,4'],
+  ['input_watts', 'string', 'optional', '148'],
+  ['power_factor', 'string', 'optional', '0.95'],
+  ['driver_output_volts', 'string', 'optional', '49.2'],
+  ['driver_output_amps', 'string', 'optional', '2650 mA'],
+  ['debris_ingress', 'boolean', 'optional', 'no'],
+  ['water_ingress', 'boolean', 'optional', 'no'],
+  ['physical_damage', 'boolean', 'optional', 'no'],
+  ['fan_stopped', 'boolean', 'optional', 'no'],
+  ['burn_marks', 'boolean', 'optional', 'no'],
+  ['narrative', 'string', 'required', 'Two strings dark after a week of flicker.'],
+]);
 
 const PATH_COLUMNS: Record<string, string> = {
   serials: 'serial',

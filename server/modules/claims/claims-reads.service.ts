@@ -1,5 +1,4 @@
 import { In, type EntityManager } from 'typeorm';
-import { normalizeClaimNumber } from '../../../shared/claims/claim-number';
 import { CLAIM_STAGES, OPEN_STAGES, type ClaimListQuery } from '../../../shared/schemas/claims';
 import type { SessionUser } from '../../auth/passport';
 import type { AppDataSource } from '../../db/data-source';
@@ -15,6 +14,7 @@ import { ProductModel } from '../../db/entities/product-model.entity';
 import { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-version.entity';
 import { WarrantyPolicy } from '../../db/entities/warranty-policy.entity';
 import { stageTotal } from '../../lib/claim-counts';
+import { claimSearch } from '../../lib/claim-search';
 import { HISTORY_LIMIT } from '../../lib/history';
 import { likeContains, parseSort } from '../../lib/pagination';
 
@@ -309,13 +309,8 @@ export function createClaimReads(ds: AppDataSource) {
         w.and('(p.model_number LIKE ? OR p.name LIKE ?)', likeContains(q.product), likeContains(q.product));
       if (q.filedFrom) w.and('c.filed_at >= ?', `${q.filedFrom} 00:00:00`);
       if (q.filedTo) w.and('c.filed_at < DATE_ADD(?, INTERVAL 1 DAY)', q.filedTo);
-      if (q.q) {
-        const exact = normalizeClaimNumber(q.q);
-        const like = likeContains(q.q.trim());
-        // Serials are a JSON array of strings; a contains match on its text finds one serial or part of one.
-        if (exact) w.and('(c.number = ? OR CAST(c.serials AS CHAR) LIKE ?)', exact, like);
-        else w.and('(c.number LIKE ? OR CAST(c.serials AS CHAR) LIKE ?)', like, like);
-      }
+      const search = claimSearch(q.q);
+      if (search) w.and(search.sql, ...search.params);
       // Two statements whatever the page size, run side by side: the page with its joins, and the total. Filtered by
       // stage alone (the usual list), the total is a sum over the claim counts the triggers keep
       // (server/lib/claim-counts.ts); with any other filter it is a count, which joins a table only for a filter on

@@ -8,6 +8,7 @@ import {
 import type { AppContext } from '../../context';
 import { actorFromRequest } from '../../lib/audit';
 import { templateCsv } from '../../lib/csv-import';
+import { streamImport, wantsProgress } from '../../lib/import-stream';
 import { AppError } from '../../lib/errors';
 import { loadHistory } from '../../lib/history';
 import { pageOf } from '../../lib/pagination';
@@ -62,6 +63,10 @@ export function installationsRouter(ctx: AppContext) {
     const { dryRun } = parseQuery(importQuerySchema, req);
     const input = parseBody(importRequestSchema, req);
     authorizeNew(req, 'create', 'Installation', { contractorId: req.user!.organizationId });
+    if (wantsProgress(req))
+      return streamImport(req, res, (onProgress) =>
+        service.importRows(req.user!.organizationId, input, dryRun, actorFromRequest(req), onProgress),
+      );
     const result = await service.importRows(req.user!.organizationId, input, dryRun, actorFromRequest(req));
     res.status(dryRun || result.imported === 0 ? 200 : 201).json(result);
   });

@@ -13,6 +13,7 @@ import {
   type UpdateInstallationInput,
 } from '../../../shared/schemas/catalogue';
 import type { AppDataSource } from '../../db/data-source';
+import { insertMany } from '../../db/insert-many';
 import { Conditions, readRows as readDbRows } from '../../db/read';
 import { InstallationUnit } from '../../db/entities/installation-unit.entity';
 import { Installation } from '../../db/entities/installation.entity';
@@ -23,10 +24,12 @@ import { recordAudit, recordAuditMany, type Actor } from '../../lib/audit';
 import {
   coerceRow,
   issuesToRowErrors,
-  MAX_LISTED_ERRORS,
+  fileBlocked,
+  importResult,
   parseCsvRows,
   tooManyRows,
-  type ColumnSpec,
+  csvColumns,
+  type ImportProgress,
 } from '../../lib/csv-import';
 import { clock } from '../../lib/clock';
 import { AppError, conflict } from '../../lib/errors';
@@ -172,52 +175,28 @@ function listRowOf(r: RawListRow): InstallationListRow {
   };
 }
 
-export const INSTALLATION_COLUMNS: ColumnSpec[] = [
-  {
-    column: 'manufacturer',
-    field: 'manufacturer',
-    kind: 'string',
-    required: false,
-    example: 'Aldercrest Lighting',
-  },
-  { column: 'model_number', field: 'modelNumber', kind: 'string', required: true, example: 'AC-HB150-D' },
-  {
-    column: 'site_name',
-    field: 'siteName',
-    kind: 'string',
-    required: true,
-    example: 'Dockside cold store, bay 4',
-  },
-  { column: 'site_address', field: 'siteAddress', kind: 'string', required: true, example: '18 Wharf Road' },
-  { column: 'site_city', field: 'siteCity', kind: 'string', required: true, example: 'Port Elliot' },
-  { column: 'site_region', field: 'siteRegion', kind: 'string', required: true, example: 'WA' },
-  { column: 'site_postal_code', field: 'sitePostalCode', kind: 'string', required: true, example: '98101' },
-  { column: 'quantity', field: 'quantity', kind: 'number', required: true, example: '2' },
-  { column: 'serials', field: 'serials', kind: 'list', required: false, example: 'AC2401-0001; AC2401-0002' },
-  { column: 'install_date', field: 'installDate', kind: 'string', required: true, example: '2024-03-18' },
-  { column: 'purchase_date', field: 'purchaseDate', kind: 'string', required: false, example: '2024-02-27' },
-  {
-    column: 'distributor',
-    field: 'distributor',
-    kind: 'string',
-    required: false,
-    example: 'Northgate Electrical Supply',
-  },
-  { column: 'invoice_number', field: 'invoiceNumber', kind: 'string', required: false, example: 'INV-20417' },
-  { column: 'lot', field: 'lot', kind: 'string', required: false, example: 'AC2401' },
-  { column: 'location', field: 'location', kind: 'string', required: true, example: 'damp' },
-  { column: 'enclosure', field: 'enclosure', kind: 'string', required: true, example: 'open' },
-  { column: 'dimmer', field: 'dimmer', kind: 'string', required: true, example: 'none' },
-  {
-    column: 'nominal_supply_volts',
-    field: 'nominalSupplyVolts',
-    kind: 'number',
-    required: true,
-    example: '277',
-  },
-  { column: 'hours_per_day', field: 'hoursPerDay', kind: 'number', required: true, example: '16' },
-  { column: 'ambient_c', field: 'ambientC', kind: 'number', required: true, example: '25' },
-];
+export const INSTALLATION_COLUMNS = csvColumns([
+  ['manufacturer', 'string', 'optional', 'Aldercrest Lighting'],
+  ['model_number', 'string', 'required', 'AC-HB150-D'],
+  ['site_name', 'string', 'required', 'Dockside cold store, bay 4'],
+  ['site_address', 'string', 'required', '18 Wharf Road'],
+  ['site_city', 'string', 'required', 'Port Elliot'],
+  ['site_region', 'string', 'required', 'WA'],
+  ['site_postal_code', 'string', 'required', '98101'],
+  ['quantity', 'number', 'required', '2'],
+  ['serials', 'list', 'optional', 'AC2401-0001; AC2401-0002'],
+  ['install_date', 'string', 'required', '2024-03-18'],
+  ['purchase_date', 'string', 'optional', '2024-02-27'],
+  ['distributor', 'string', 'optional', 'Northgate Electrical Supply'],
+  ['invoice_number', 'string', 'optional', 'INV-20417'],
+  ['lot', 'string', 'optional', 'AC2401'],
+  ['location', 'string', 'required', 'damp'],
+  ['enclosure', 'string', 'required', 'open'],
+  ['dimmer', 'string', 'required', 'none'],
+  ['nominal_supply_volts', 'number', 'required', '277'],
+  ['hours_per_day', 'number', 'required', '16'],
+  ['ambient_c', 'number', 'required', '25'],
+]);
 
 /** The payload schemas as of the server's clock: an install date after today (anywhere) is refused. */
 export const installationSchemasNow = () => installationSchemas(latestInstallDate(clock.now()));
@@ -306,15 +285,7 @@ function unitRows(
 }
 
 async function insertUnits(m: EntityManager, rows: ReturnType<typeof unitRows>) {
-  for (let i = 0; i < rows.length; i += 1000) {
-    await m
-      .createQueryBuilder()
-      .insert()
-      .into(InstallationUnit)
-      .values(rows.slice(i, i + 1000))
-      .updateEntity(false)
-      .execute();
-  }
+  await insertMany(m, InstallationUnit, rows, 2000);
 }
 
 export function createInstallationsService(ds: AppDataSource) {
@@ -499,6 +470,7 @@ export function createInstallationsService(ds: AppDataSource) {
       input: ImportRequest,
       dryRun: boolean,
       actor: Actor,
+      onProgress?: (p: ImportProgress) => void,
     ): Promise<ImportResult> {
       const { rows, fileErrors } = parseCsvRows(input, INSTALLATION_COLUMNS);
       tooManyRows(rows.length, 20_000);
@@ -530,7 +502,8 @@ export function createInstallationsService(ds: AppDataSource) {
       type Good = { row: number; product: ProductModel; value: InstallationValues };
       const good: Good[] = [];
       const fileSerials = new Map<string, number>();
-      for (const c of coerced) {
+      for (const [n, c] of coerced.entries()) {
+        if (n % 1000 === 0) onProgress?.({ phase: 'checking', done: n, total: rows.length });
         const rowErrors = [...c.errors];
         let product: ProductModel | undefined;
         const num = typeof c.values.modelNumber === 'string' ? c.values.modelNumber : '';
@@ -594,8 +567,11 @@ export function createInstallationsService(ds: AppDataSource) {
 
       // Serials already in the register, one query per model and thousand serials.
       const serialsByModel = new Map<string, string[]>();
-      for (const g of good)
-        serialsByModel.set(g.product.id, [...(serialsByModel.get(g.product.id) ?? []), ...g.value.serials]);
+      for (const g of good) {
+        const list = serialsByModel.get(g.product.id);
+        if (list) list.push(...g.value.serials);
+        else serialsByModel.set(g.product.id, [...g.value.serials]);
+      }
       const taken = new Set<string>();
       for (const [modelId, serials] of serialsByModel) {
         if (!serials.length) continue;
@@ -612,10 +588,8 @@ export function createInstallationsService(ds: AppDataSource) {
         });
         return false;
       });
-      errors.sort((a, b) => a.row - b.row);
-      const blocked = fileErrors.some((e) => e.row === 1);
       let imported = 0;
-      if (!dryRun && !blocked && valid.length) {
+      if (!dryRun && !fileBlocked(fileErrors) && valid.length) {
         try {
           await ds.transaction(async (m) => {
             const versions = await versionsByModel(m, [...new Set(valid.map((g) => g.product.id))]);
@@ -634,19 +608,17 @@ export function createInstallationsService(ds: AppDataSource) {
                 version: 1,
               };
             });
-            for (let i = 0; i < records.length; i += 500) {
-              await m
-                .createQueryBuilder()
-                .insert()
-                .into(Installation)
-                .values(records.slice(i, i + 500))
-                .updateEntity(false)
-                .execute();
-            }
+            const total = valid.length;
+            onProgress?.({ phase: 'writing', done: 0, total });
+            // Installations count for the first half of the writing, their units and audit rows for the rest.
+            await insertMany(m, Installation, records, 1000, (n) =>
+              onProgress?.({ phase: 'writing', done: Math.floor(n / 2), total }),
+            );
             await insertUnits(
               m,
               valid.flatMap((g, i) => unitRows(records[i].id, g.product, g.value.serials)),
             );
+            onProgress?.({ phase: 'writing', done: Math.floor((total * 3) / 4), total });
             await recordAuditMany(
               m,
               actor,
@@ -668,15 +640,7 @@ export function createInstallationsService(ds: AppDataSource) {
         }
         imported = valid.length;
       }
-      return {
-        dryRun,
-        total: rows.length,
-        valid: blocked ? 0 : valid.length,
-        invalid: new Set(errors.filter((e) => e.row > 1).map((e) => e.row)).size,
-        imported,
-        errors: errors.slice(0, MAX_LISTED_ERRORS),
-        errorsTruncated: errors.length > MAX_LISTED_ERRORS,
-      };
+      return importResult({ dryRun, total: rows.length, valid: valid.length, imported, errors, fileErrors });
     },
   };
 }

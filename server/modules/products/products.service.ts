@@ -15,10 +15,11 @@ import { recordAudit, recordAuditMany, type Actor } from '../../lib/audit';
 import {
   coerceRow,
   issuesToRowErrors,
-  MAX_LISTED_ERRORS,
+  fileBlocked,
+  importResult,
   parseCsvRows,
   tooManyRows,
-  type ColumnSpec,
+  csvColumns,
 } from '../../lib/csv-import';
 import { AppError, conflict } from '../../lib/errors';
 import { changedFields } from '../../lib/history';
@@ -35,32 +36,26 @@ const SORTS = {
   createdAt: 'p.created_at',
 };
 
-export const PRODUCT_COLUMNS: ColumnSpec[] = [
-  { column: 'model_number', field: 'modelNumber', kind: 'string', required: true, example: 'HB-150-50K' },
-  { column: 'name', field: 'name', kind: 'string', required: true, example: 'Round high-bay 150 W' },
-  { column: 'family', field: 'family', kind: 'string', required: true, example: 'high_bay' },
-  { column: 'rated_input_watts', field: 'ratedInputWatts', kind: 'number', required: true, example: '150' },
-  { column: 'input_volts_min', field: 'inputVoltsMin', kind: 'number', required: true, example: '120' },
-  { column: 'input_volts_max', field: 'inputVoltsMax', kind: 'number', required: true, example: '277' },
-  { column: 'rated_lumens', field: 'ratedLumens', kind: 'number', required: true, example: '21000' },
-  { column: 'led_strings', field: 'ledStrings', kind: 'number', required: true, example: '24' },
-  { column: 'leds_per_string', field: 'ledsPerString', kind: 'number', required: true, example: '16' },
-  { column: 'led_forward_volts', field: 'ledForwardVolts', kind: 'number', required: true, example: '3' },
-  { column: 'driver_output_amps', field: 'driverOutputAmps', kind: 'number', required: true, example: '2.8' },
-  {
-    column: 'driver_max_output_volts',
-    field: 'driverMaxOutputVolts',
-    kind: 'number',
-    required: false,
-    example: '60',
-  },
-  { column: 'location', field: 'location', kind: 'string', required: true, example: 'damp' },
-  { column: 'enclosed_rated', field: 'enclosedRated', kind: 'boolean', required: true, example: 'no' },
-  { column: 'dimming', field: 'dimming', kind: 'string', required: true, example: '0-10v' },
-  { column: 'ambient_max_c', field: 'ambientMaxC', kind: 'number', required: true, example: '50' },
-  { column: 'rated_life_hours', field: 'ratedLifeHours', kind: 'number', required: true, example: '100000' },
-  { column: 'active_cooling', field: 'activeCooling', kind: 'boolean', required: true, example: 'no' },
-];
+export const PRODUCT_COLUMNS = csvColumns([
+  ['model_number', 'string', 'required', 'HB-150-50K'],
+  ['name', 'string', 'required', 'Round high-bay 150 W'],
+  ['family', 'string', 'required', 'high_bay'],
+  ['rated_input_watts', 'number', 'required', '150'],
+  ['input_volts_min', 'number', 'required', '120'],
+  ['input_volts_max', 'number', 'required', '277'],
+  ['rated_lumens', 'number', 'required', '21000'],
+  ['led_strings', 'number', 'required', '24'],
+  ['leds_per_string', 'number', 'required', '16'],
+  ['led_forward_volts', 'number', 'required', '3'],
+  ['driver_output_amps', 'number', 'required', '2.8'],
+  ['driver_max_output_volts', 'number', 'optional', '60'],
+  ['location', 'string', 'required', 'damp'],
+  ['enclosed_rated', 'boolean', 'required', 'no'],
+  ['dimming', 'string', 'required', '0-10v'],
+  ['ambient_max_c', 'number', 'required', '50'],
+  ['rated_life_hours', 'number', 'required', '100000'],
+  ['active_cooling', 'boolean', 'required', 'no'],
+]);
 
 function isDuplicate(err: unknown, index: string) {
   const e = err as { code?: string; driverError?: { code?: string }; message?: string };
@@ -223,11 +218,8 @@ export function createProductsService(ds: AppDataSource) {
         });
         return false;
       });
-      errors.sort((a, b) => a.row - b.row);
-      const invalidRows = new Set(errors.filter((e) => e.row > 1).map((e) => e.row)).size;
-      const blocked = fileErrors.some((e) => e.row === 1);
       let imported = 0;
-      if (!dryRun && !blocked && valid.length) {
+      if (!dryRun && !fileBlocked(fileErrors) && valid.length) {
         await ds.transaction(async (m) => {
           const records = valid.map((g) => ({
             id: crypto.randomUUID(),
@@ -257,15 +249,7 @@ export function createProductsService(ds: AppDataSource) {
         });
         imported = valid.length;
       }
-      return {
-        dryRun,
-        total: rows.length,
-        valid: blocked ? 0 : valid.length,
-        invalid: invalidRows,
-        imported,
-        errors: errors.slice(0, MAX_LISTED_ERRORS),
-        errorsTruncated: errors.length > MAX_LISTED_ERRORS,
-      };
+      return importResult({ dryRun, total: rows.length, valid: valid.length, imported, errors, fileErrors });
     },
   };
 }

@@ -1,9 +1,9 @@
 import { DESK_OPTIONS_LIMIT, type QueueItemDto, type QueueQuery } from '../../../shared/claims/workflow';
 import type { AppAbility } from '../../../shared/abilities';
 import type { ClaimStage } from '../../../shared/schemas/claims';
-import { normalizeClaimNumber } from '../../../shared/claims/claim-number';
 import type { AppDataSource } from '../../db/data-source';
 import { Conditions, readRows } from '../../db/read';
+import { claimSearch } from '../../lib/claim-search';
 import { clock } from '../../lib/clock';
 import { likeContains, parseSort } from '../../lib/pagination';
 import { scopeConditions } from '../../lib/tenant-scope';
@@ -76,24 +76,10 @@ function queueConditions(ability: AppAbility, q: QueueQuery, userId: string) {
   if (q.assignee === 'me') w.and('c.assigned_reviewer_id = ?', userId);
   else if (q.assignee === 'none') w.and('c.assigned_reviewer_id IS NULL');
   else if (q.assignee) w.and('c.assigned_reviewer_id = ?', q.assignee);
-  const exact = q.q ? normalizeClaimNumber(q.q) : null;
-  if (exact) {
-    // A whole claim number (any case or spacing) is that claim: one look-up on (manufacturer, number).
-    w.and('c.number = ?', exact);
-  } else if (q.q) {
-    // A claim number by prefix (as typed, upper-cased); otherwise the site, the contractor, the model or a serial.
-    const like = likeContains(q.q);
-    w.and(
-      "(c.number LIKE ? OR i.site_name LIKE ? OR o.name LIKE ? OR p.model_number LIKE ? OR JSON_SEARCH(c.serials, 'one', ?) IS NOT NULL)",
-      `${q.q.toUpperCase().replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`,
-      like,
-      like,
-      like,
-      q.q,
-    );
-  }
-  // The count needs the joined tables only for a free-text search.
-  return { w, countJoins: Boolean(q.q && !exact) };
+  const search = claimSearch(q.q);
+  if (search) w.and(search.sql, ...search.params);
+  // The search reads the claim's own search text: the count needs no join.
+  return { w, countJoins: false };
 }
 
 export function createReviewService(ds: AppDataSource) {

@@ -8,7 +8,7 @@ import { Dialog } from '../../../components/ui/dialog';
 import { Table, Td, Th } from '../../../components/ui/table';
 import { useToast } from '../../../components/ui/toast';
 import { ApiError } from '../../../lib/api-client';
-import { importRows, templateUrl, type ImportTarget } from '../api/import-rows';
+import { importRows, importRowsWithProgress, templateUrl, type ImportTarget } from '../api/import-rows';
 
 const CHUNK = 1000;
 type Stage =
@@ -98,8 +98,26 @@ export function ImportDialog({
   }
 
   const importing = useMutation({
-    mutationFn: ({ rows, signal }: { rows: Record<string, string>[]; signal: AbortSignal }) =>
-      importRows(target, rows, { dryRun: false, signal }),
+    mutationFn: ({
+      rows,
+      signal,
+      label,
+    }: {
+      rows: Record<string, string>[];
+      signal: AbortSignal;
+      label: string;
+    }) =>
+      // The server checks the rows again, then writes them: each half of the bar (installations report both).
+      importRowsWithProgress(target, rows, {
+        signal,
+        onProgress: (p) =>
+          setStage({
+            kind: 'working',
+            label: p.phase === 'checking' ? `${label}: checking` : `${label}: writing`,
+            done: (p.phase === 'checking' ? 0 : p.total) + p.done,
+            total: 2 * p.total,
+          }),
+      }),
     onSuccess: async (result) => {
       setStage({ kind: 'done', result });
       notify(`${result.imported.toLocaleString()} ${WHAT[target]} imported.`);
@@ -111,8 +129,9 @@ export function ImportDialog({
   function commit(rows: Record<string, string>[]) {
     const ctl = new AbortController();
     abort.current = ctl;
-    setStage({ kind: 'working', label: `Importing ${rows.length.toLocaleString()} rows`, done: 0, total: 0 });
-    importing.mutate({ rows, signal: ctl.signal });
+    const label = `Importing ${rows.length.toLocaleString()} rows`;
+    setStage({ kind: 'working', label, done: 0, total: 0 });
+    importing.mutate({ rows, signal: ctl.signal, label });
   }
 
   const busy = stage.kind === 'working';
