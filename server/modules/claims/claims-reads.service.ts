@@ -1,3 +1,4 @@
+import type { AppAbility } from '../../../shared/abilities';
 import { In, type EntityManager } from 'typeorm';
 import { CLAIM_STAGES, OPEN_STAGES, type ClaimListQuery } from '../../../shared/schemas/claims';
 import type { SessionUser } from '../../auth/passport';
@@ -15,6 +16,7 @@ import { WarrantyPolicyVersion } from '../../db/entities/warranty-policy-version
 import { WarrantyPolicy } from '../../db/entities/warranty-policy.entity';
 import { stageTotal } from '../../lib/claim-counts';
 import { claimSearch } from '../../lib/claim-search';
+import { scopeConditions } from '../../lib/tenant-scope';
 import { HISTORY_LIMIT } from '../../lib/history';
 import { likeContains, parseSort } from '../../lib/pagination';
 
@@ -290,11 +292,12 @@ export function createClaimReads(ds: AppDataSource) {
     findById,
     findForPage,
 
-    async list(scope: Scope, q: ClaimListQuery) {
+    /** The claims the ability may read (its rules give the organisation filter), filtered and sorted as asked. */
+    async list(scope: Scope, ability: AppAbility, q: ClaimListQuery) {
       const sort = parseSort(q.sort, SORTS)!;
       const w = new Conditions();
-      if (scope.kind === 'contractor') w.and('c.contractor_id = ?', scope.orgId);
-      else w.and("c.manufacturer_id = ? AND c.stage <> 'draft'", scope.orgId);
+      const tenant = scopeConditions(ability, 'Claim', 'c');
+      w.and(tenant.sql, ...tenant.params);
       if (q.stage) w.and('c.stage IN (?)', q.stage);
       if (q.open !== undefined) w.and(`c.stage ${q.open ? 'IN' : 'NOT IN'} (?)`, OPEN_STAGES);
       if (q.manufacturerId) w.and('c.manufacturer_id = ?', q.manufacturerId);

@@ -71,6 +71,7 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
     const ids = await batches.claimIdsOf(batch.id);
     const { items } = await service.list(
       scopeOf(req.user!),
+      req.ability!,
       claimListQuerySchema.parse({ pageSize: '200', sort: '-createdAt', batchId: batch.id }),
     );
     res.json({
@@ -96,7 +97,7 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
   r.get('/', async (req, res) => {
     authorizeType(req, 'read', 'Claim');
     const q = parseQuery(claimListQuerySchema, req);
-    const { items, total } = await service.list(scopeOf(req.user!), q);
+    const { items, total } = await service.list(scopeOf(req.user!), req.ability!, q);
     res.json(pageOf(items.map(presentClaimListItem), total, q));
   });
 
