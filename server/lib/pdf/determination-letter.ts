@@ -7,6 +7,19 @@ import { loadLayout } from './layout';
 
 export type Party = { name: string; address?: readonly string[] };
 
+/** What the reviewer decided, as the letter states it (the reviewer and the day are added beside it). */
+export type LetterDecision =
+  | {
+      outcome: 'approved' | 'partly_approved';
+      resolution: Resolution;
+      amount: string;
+      currency: string;
+      approvedUnits?: number;
+      note?: string;
+      overrideReason?: string;
+    }
+  | { outcome: 'denied'; reasonCodes: readonly DenialCode[]; note: string; overrideReason?: string };
+
 export type DeterminationLetterData = {
   claimNumber: string;
   /** The letter's own date (YYYY-MM-DD). */
@@ -24,26 +37,7 @@ export type DeterminationLetterData = {
     verdict: Verdict;
     findings: readonly Pick<Finding, 'code' | 'severity' | 'message' | 'reference'>[];
   };
-  decision:
-    | {
-        outcome: 'approved' | 'partly_approved';
-        resolution: Resolution;
-        amount: string;
-        currency: string;
-        approvedUnits?: number;
-        note?: string;
-        overrideReason?: string;
-        reviewer: string;
-        decidedOn: string;
-      }
-    | {
-        outcome: 'denied';
-        reasonCodes: readonly DenialCode[];
-        note: string;
-        overrideReason?: string;
-        reviewer: string;
-        decidedOn: string;
-      };
+  decision: LetterDecision & { reviewer: string; decidedOn: string };
   paper?: PaperSize;
   /** The recipient's locale (their organisation's): how dates read. Default en-US. */
   locale?: string;

@@ -1,6 +1,6 @@
 import crypto from 'node:crypto';
 import type { EntityManager } from 'typeorm';
-import type { Address, DenialCode, Resolution } from '../../../shared/claims/actions.schema';
+import type { Address } from '../../../shared/claims/actions.schema';
 import { calendarDayIn } from '../../../shared/dates';
 import type { Evaluation } from '../../../shared/engine/schema';
 import { ClaimDocument, type ClaimDocumentKind } from '../../db/entities/claim-document.entity';
@@ -9,7 +9,7 @@ import { Installation } from '../../db/entities/installation.entity';
 import { Organization } from '../../db/entities/organization.entity';
 import { ProductModel } from '../../db/entities/product-model.entity';
 import { crashPoint } from '../../lib/crash-point';
-import { renderDeterminationLetter } from '../../lib/pdf/determination-letter';
+import { renderDeterminationLetter, type LetterDecision } from '../../lib/pdf/determination-letter';
 import { paperFor } from '../../lib/pdf/document';
 import { sha256Hex } from '../../lib/pdf/hash';
 import { renderPackingSlip } from '../../lib/pdf/packing-slip';
@@ -69,17 +69,7 @@ async function store(
   return doc;
 }
 
-export type LetterDecision =
-  | {
-      outcome: 'approved' | 'partly_approved';
-      resolution: Resolution;
-      amount: string;
-      currency: string;
-      approvedUnits?: number;
-      note?: string;
-      overrideReason?: string;
-    }
-  | { outcome: 'denied'; reasonCodes: DenialCode[]; note: string; overrideReason?: string };
+export type { LetterDecision };
 
 export async function createDeterminationLetter(
   m: EntityManager,
