@@ -1,3 +1,4 @@
+import type { AppAbility } from '../../../shared/abilities';
 import { In } from 'typeorm';
 import { engineInputFor } from '../../../shared/claims/engine-input';
 import { parseMeterNumber } from '../../../shared/claims/meter-number';
@@ -5,6 +6,7 @@ import { safeEvaluateClaim } from '../../../shared/engine';
 import {
   CLAIM_BATCH_MAX_ROWS,
   claimFieldsSchema,
+  claimListQuerySchema,
   filingIssues,
   type ClaimBatchFileResult,
   type ClaimBatchResult,
@@ -22,6 +24,7 @@ import { clock } from '../../lib/clock';
 import { coerceRow, csvColumns, MAX_LISTED_ERRORS, parseCsvRows, tooManyRows } from '../../lib/csv-import';
 import { AppError, notFound } from '../../lib/errors';
 import type { ClaimsService } from './claims.service';
+import { scopeOf } from './claims-reads.service';
 import { engineContextOf } from './engine-input';
 
 // Bulk filing: a spreadsheet of failed units (one row per claim) for one or more installations becomes a batch
@@ -305,6 +308,18 @@ export function createClaimBatchesService(ds: AppDataSource, claims: ClaimsServi
           .getRepository(Claim)
           .find({ where: { batchId }, select: { id: true }, order: { createdAt: 'ASC', id: 'ASC' } })
       ).map((c) => c.id);
+    },
+
+    /** A batch with its claims, as its page lists them (the newest first, up to 200). */
+    async batchPage(user: SessionUser, ability: AppAbility, id: string) {
+      const batch = await this.findBatch(user, id);
+      const claimIds = await this.claimIdsOf(batch.id);
+      const { items } = await claims.list(
+        scopeOf(user),
+        ability,
+        claimListQuerySchema.parse({ pageSize: '200', sort: '-createdAt', batchId: batch.id }),
+      );
+      return { batch, claimIds, items };
     },
 
     /** Files every draft of the batch, each in its own transaction: one bad claim does not hold back the rest. */

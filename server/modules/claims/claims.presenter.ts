@@ -1,6 +1,7 @@
 import type { AttachmentDto } from '../../../shared/schemas/attachments';
 import type { ClaimDetailDto, ClaimListItemDto, FilingIssue } from '../../../shared/schemas/claims';
 import type { HistoryEventDto } from '../../../shared/schemas/catalogue';
+import type { ClaimBatch } from '../../db/entities/claim-batch.entity';
 import { historyEventOf } from '../../lib/history';
 import { personRef } from '../../lib/present';
 import { presentAttachment } from '../attachments/attachments.presenter';
@@ -108,4 +109,18 @@ export function presentClaimPage(page: ClaimPage, viewerOrgId: string): ClaimDet
       viewerOrgId,
     ),
   });
+}
+
+/** GET /api/claims/batches/:id: the batch and its claims as the list shows them. */
+export function presentBatchPage(p: { batch: ClaimBatch; claimIds: string[]; items: ClaimListRow[] }) {
+  return {
+    batch: {
+      id: p.batch.id,
+      filename: p.batch.filename,
+      rowCount: p.batch.rowCount,
+      createdAt: p.batch.createdAt.toISOString(),
+      claimIds: p.claimIds,
+    },
+    claims: p.items.map(presentClaimListItem),
+  };
 }

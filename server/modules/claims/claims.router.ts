@@ -19,7 +19,7 @@ import { authorize, authorizeNew, authorizeType, requireUser } from '../../middl
 import { idempotencyKeyOf, parseBody, parseQuery, parseWith } from '../../middleware/validate';
 import { attachmentsRouter } from '../attachments/attachments.router';
 import { CLAIM_BATCH_COLUMNS, createClaimBatchesService } from './claim-batches.service';
-import { presentClaimListItem, presentClaimPage } from './claims.presenter';
+import { presentBatchPage, presentClaimListItem, presentClaimPage } from './claims.presenter';
 import { scopeOf, type LoadedClaim } from './claims-reads.service';
 import { createClaimsService, type ClaimsService } from './claims.service';
 
@@ -67,23 +67,7 @@ export function claimsRouter(ctx: AppContext, opts: { service?: ClaimsService } 
 
   r.get('/batches/:id', async (req, res) => {
     const { id } = parseWith(idParam, req.params, 'address');
-    const batch = await batches.findBatch(req.user!, id);
-    const ids = await batches.claimIdsOf(batch.id);
-    const { items } = await service.list(
-      scopeOf(req.user!),
-      req.ability!,
-      claimListQuerySchema.parse({ pageSize: '200', sort: '-createdAt', batchId: batch.id }),
-    );
-    res.json({
-      batch: {
-        id: batch.id,
-        filename: batch.filename,
-        rowCount: batch.rowCount,
-        createdAt: batch.createdAt.toISOString(),
-        claimIds: ids,
-      },
-      claims: items.map(presentClaimListItem),
-    });
+    res.json(presentBatchPage(await batches.batchPage(req.user!, req.ability!, id)));
   });
 
   r.post('/batches/:id/file', async (req, res) => {
