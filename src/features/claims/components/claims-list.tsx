@@ -43,6 +43,9 @@ export function ClaimsList({ canCreate }: { canCreate: boolean }) {
     );
   // The search applies itself once typing pauses; Enter or the button applies it at once.
   const search = useDebouncedText(filters.q ?? '', (q) => set('q', q.trim()));
+  // Site and product apply themselves the same way; all the boxes follow the address (Back, a shared link).
+  const site = useDebouncedText(filters.site ?? '', (v) => set('site', v.trim()));
+  const product = useDebouncedText(filters.product ?? '', (v) => set('product', v.trim()));
 
   return (
     <>
@@ -69,6 +72,8 @@ export function ClaimsList({ canCreate }: { canCreate: boolean }) {
           onSubmit={(e) => {
             e.preventDefault();
             search.commit();
+            site.commit();
+            product.commit();
           }}
         >
           <div className="flex items-end gap-2 sm:col-span-2">
@@ -97,25 +102,27 @@ export function ClaimsList({ canCreate }: { canCreate: boolean }) {
           </SelectField>
           <InputField
             label="Site"
-            defaultValue={filters.site}
-            onBlur={(e) => set('site', e.target.value.trim())}
+            value={site.text}
+            onChange={(e) => site.setText(e.target.value)}
+            onBlur={site.commit}
           />
           <InputField
             label="Product"
-            defaultValue={filters.product}
-            onBlur={(e) => set('product', e.target.value.trim())}
+            value={product.text}
+            onChange={(e) => product.setText(e.target.value)}
+            onBlur={product.commit}
           />
           <div className="grid grid-cols-2 gap-2">
             <InputField
               label="Filed from"
               type="date"
-              defaultValue={filters.filedFrom}
+              value={filters.filedFrom ?? ''}
               onChange={(e) => set('filedFrom', e.target.value)}
             />
             <InputField
               label="to"
               type="date"
-              defaultValue={filters.filedTo}
+              value={filters.filedTo ?? ''}
               onChange={(e) => set('filedTo', e.target.value)}
             />
           </div>
