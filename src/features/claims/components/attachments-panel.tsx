@@ -52,27 +52,33 @@ export function AttachmentsPanel({
   const latest = useRef(attachments);
   latest.current = attachments;
 
+  // Each file is its own mutation call (TanStack runs them side by side); the options' callbacks run for every one.
+  const upload = useMutation({
+    mutationFn: (u: Upload) =>
+      uploadClaimFile(claimId, u.file, u.purpose, (p) =>
+        setUploads((list) => list.map((x) => (x.key === u.key ? { ...x, progress: p } : x))),
+      ),
+    onSuccess: (a, u) => {
+      setUploads((list) => list.filter((x) => x.key !== u.key));
+      latest.current = [...latest.current, a];
+      onChange(latest.current);
+    },
+    onError: (err, u) =>
+      setUploads((list) =>
+        list.map((x) => (x.key === u.key ? { ...x, state: 'failed', error: err.message } : x)),
+      ),
+  });
+  const { mutate: send } = upload;
+
   const start = useCallback(
     (u: Upload) => {
       setUploads((list) => [
         ...list.filter((x) => x.key !== u.key),
         { ...u, state: 'uploading', progress: 0, error: undefined },
       ]);
-      uploadClaimFile(claimId, u.file, u.purpose, (p) =>
-        setUploads((list) => list.map((x) => (x.key === u.key ? { ...x, progress: p } : x))),
-      )
-        .then((a) => {
-          setUploads((list) => list.filter((x) => x.key !== u.key));
-          latest.current = [...latest.current, a];
-          onChange(latest.current);
-        })
-        .catch((err: Error) =>
-          setUploads((list) =>
-            list.map((x) => (x.key === u.key ? { ...x, state: 'failed', error: err.message } : x)),
-          ),
-        );
+      send(u);
     },
-    [claimId, onChange],
+    [send],
   );
 
   const add = (files: FileList | File[] | null) => {
