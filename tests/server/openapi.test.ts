@@ -9,6 +9,7 @@ import { openApiPath } from '../../server/openapi/registry';
 import { WEBHOOK_EVENTS, WEBHOOK_SIGNATURE_HEADER } from '../../shared/schemas/webhooks';
 import { claimWorld, daysAgo } from '../support/claim-factories';
 import { createApprovedClaim } from '../support/credit-factories';
+import { createClaimAt, createReviewWorld } from '../support/review-factories';
 import { creditWorld } from '../support/credit-world';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
@@ -388,6 +389,20 @@ describe('real answers fit the schemas the document declares', () => {
     const files = await w.installer.agent.get(`/api/claims/${claimId}/attachments`);
     expect(files.status).toBe(200);
     check('GET', '/api/claims/:id/attachments', 200, files.body);
+
+    // Stages whose workflow carries a request, a return authorisation and a decision.
+    const rw = await createReviewWorld(t.ds, w.conX, w.mfrA);
+    for (const stage of ['needs_info', 'unit_received', 'approved', 'denied'] as const) {
+      const at = await createClaimAt(t.ds, rw, stage, { reviewerId: w.reviewer.user.id });
+      for (const who of [w.installer, w.reviewer]) {
+        const flow = await who.agent.get(`/api/claims/${at.id}/workflow`);
+        expect(flow.status, stage).toBe(200);
+        const { messages, returns, decision } = flow.body;
+        expect(messages.length + returns.length + (decision ? 1 : 0), stage).toBeGreaterThan(0);
+        check('GET', '/api/claims/:id/workflow', 200, flow.body);
+        check('GET', '/api/claims/:id', 200, (await who.agent.get(`/api/claims/${at.id}`)).body);
+      }
+    }
 
     const queue = await w.reviewer.agent.get('/api/review/queue');
     expect(queue.status).toBe(200);
