@@ -1,13 +1,9 @@
 import { z } from 'zod';
 import { str } from '../schemas/text';
 
-import type { Evaluation, Verdict } from '../engine/schema';
-import type { HistoryEventDto, OrgRef } from '../schemas/catalogue';
 import { CLAIM_STAGES, type ClaimStage, type WaitingOn } from '../schemas/claims';
 import { listQuerySchema } from '../schemas/users';
 import { CLAIM_NUMBER_ALPHABET } from './claim-number';
-import type { Address, DenialCode, Resolution } from './actions.schema';
-import type { ClaimActionName } from './stages';
 
 // The review workflow around the stage machine: who the claim waits on at each stage, the return
 // authorisation's number, the deadlines we set, the reviewer's queue query and the answers the screens read.
@@ -125,129 +121,18 @@ export const assignClaimSchema = z.strictObject({
 });
 export type AssignClaimInput = z.infer<typeof assignClaimSchema>;
 
-export type QueueItemDto = {
-  id: string;
-  number: string | null;
-  stage: ClaimStage;
-  waitingOn: WaitingOn | null;
-  contractor: OrgRef;
-  product: { id: string; modelNumber: string; name: string };
-  siteName: string;
-  units: number;
-  filedAt: string | null;
-  stageChangedAt: string;
-  /** Whole days since the claim reached its stage. */
-  daysInStage: number;
-  daysSinceFiling: number | null;
-  verdict: Verdict | null;
-  expectedCredit: string | null;
-  currency: string | null;
-  assignee: { id: string; name: string } | null;
-  version: number;
-};
-
-export type QueueSummaryDto = {
-  counts: Partial<Record<ClaimStage, number>>;
-  mine: number;
-  unassigned: number;
-  oldestWaitingDays: number | null;
-};
-
-// What the review screen and the installer's claim page read: GET /api/claims/:id/workflow.
-
-export type ClaimMessageDto = {
-  id: string;
-  kind: 'info_request' | 'info_answer' | 'note';
-  body: string;
-  author: { name: string; organization: string; side: 'manufacturer' | 'contractor' };
-  dueOn: string | null;
-  answeredAt: string | null;
-  createdAt: string;
-  attachments: {
-    id: string;
-    name: string;
-    contentType: string;
-    kind: string;
-    url: string;
-    thumbnailUrl: string | null;
-  }[];
-};
-
-export type ClaimDocumentDto = {
-  id: string;
-  kind: 'letter' | 'packing_slip';
-  filename: string;
-  sha256: string;
-  byteSize: number;
-  createdAt: string;
-  url: string;
-};
-
-export type ReturnAuthorizationDto = {
-  id: string;
-  number: string;
-  shipTo: Address;
-  instructions: string | null;
-  shipBy: string;
-  carrier: string | null;
-  trackingNumber: string | null;
-  shippedOn: string | null;
-  receivedOn: string | null;
-  receivedCondition: string | null;
-  receivedNote: string | null;
-  packingSlip: ClaimDocumentDto | null;
-  createdAt: string;
-};
-
-export type BenchTestDto = {
-  id: string;
-  testedOn: string;
-  result: string;
-  readings: Record<string, unknown>;
-  evaluation: Evaluation;
-  engineVersion: string;
-  note: string | null;
-  testedBy: string;
-  testedAt: string;
-};
-
-export type DecisionDto = {
-  id: string;
-  outcome: 'approved' | 'partly_approved' | 'denied';
-  resolution: Resolution | null;
-  amount: string | null;
-  currency: string | null;
-  engineAmount: string | null;
-  approvedUnits: number | null;
-  reasonCodes: DenialCode[];
-  note: string | null;
-  overrideReason: string | null;
-  againstEngine: boolean;
-  decidedBy: string;
-  decidedAt: string;
-  letter: ClaimDocumentDto | null;
-};
-
-export type ClaimWorkflowDto = {
-  claim: {
-    id: string;
-    number: string | null;
-    stage: ClaimStage;
-    waitingOn: WaitingOn | null;
-    version: number;
-    stageChangedAt: string;
-    assignee: { id: string; name: string } | null;
-  };
-  /** What this user can do now, in the stage machine's order. */
-  actions: ClaimActionName[];
-  openRequest: ClaimMessageDto | null;
-  messages: ClaimMessageDto[];
-  returns: ReturnAuthorizationDto[];
-  benchTests: BenchTestDto[];
-  decision: DecisionDto | null;
-  documents: ClaimDocumentDto[];
-  history: HistoryEventDto[];
-};
+// What the review screen and the installer's claim page read (GET /api/claims/:id/workflow) and the desk's queue:
+// zod in shared/schemas/claim-workflow.ts, the types z.infer of them.
+export type {
+  BenchTestDto,
+  ClaimDocumentDto,
+  ClaimMessageDto,
+  ClaimWorkflowDto,
+  DecisionDto,
+  QueueItemDto,
+  QueueSummaryDto,
+  ReturnAuthorizationDto,
+} from '../schemas/claim-workflow';
 
 // The conversation's files are attachments (uploaded as multipart through the attachments module). Owner types:
 // an upload waiting for the next answer is held against the claim; an answer takes it (owner: the message).

@@ -1,5 +1,6 @@
 import Papa from 'papaparse';
 import { normalizeAmount, sumAmounts } from './money';
+import type { JournalLine, JournalTotal } from '../schemas/credits';
 
 // Credit memos and their reversals as a double-entry journal for a manufacturer's books, in two forms: CSV lines
 // and an SIE 4 file (the Swedish SIE-Gruppen's open interchange format, "SIE filformat ver. 4B", which accounting
@@ -36,24 +37,8 @@ export type JournalMemo = {
   reverses: string | null;
 };
 
-export type JournalLine = {
-  journal: string;
-  entry: string;
-  date: string;
-  account: string;
-  accountName: string;
-  debit: string;
-  credit: string;
-  currency: string;
-  memoNumber: string;
-  kind: 'credit' | 'reversal';
-  claimNumber: string;
-  contractor: string;
-  contractorId: string;
-  description: string;
-};
-
-export type JournalTotal = { currency: string; entries: number; debit: string; credit: string };
+// The line and total shapes are zod in shared/schemas/credits.ts (the journal export's answer).
+export type { JournalLine, JournalTotal };
 
 export function describeMemo(m: JournalMemo) {
   return m.kind === 'reversal'

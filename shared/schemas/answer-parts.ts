@@ -24,3 +24,14 @@ export function pageSchema<T extends z.ZodType>(item: T) {
     pageSize: z.number().int().min(1),
   });
 }
+
+/** An audit record as a record's history shows it (server/lib/history.ts): people named to their own side. */
+export const historyEventSchema = z.object({
+  /** The audit record's id (a sequence number as text, not a UUID). */
+  id: z.string(),
+  occurredAt: instantSchema,
+  action: z.string(),
+  actor: z.object({ name: z.string(), organization: z.string() }).nullable(),
+  before: z.record(z.string(), z.unknown()).nullable(),
+  after: z.record(z.string(), z.unknown()).nullable(),
+});

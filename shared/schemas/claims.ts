@@ -1,17 +1,19 @@
 import { z } from 'zod';
 import { str } from './text';
 import { STAGE_LABELS, STAGES, type Stage } from '../claims/stages';
-import { SYMPTOMS, VERDICTS, type Evaluation, type Verdict } from '../engine';
+import { SYMPTOMS, VERDICTS } from '../engine';
+import { DIMMERS, ENCLOSURES, evaluationSchema, LOCATIONS, NOMINAL_SUPPLY_VOLTS } from '../engine/schema';
 import {
   calendarDateSchema,
   currencySchema,
   decimalSchema,
+  historyEventSchema,
   idSchema,
   instantSchema,
   orgRefSchema,
 } from './answer-parts';
-import type { AttachmentDto } from './attachments';
-import { isoDateSchema, uuidSchema, PRODUCT_FAMILIES, type HistoryEventDto } from './catalogue';
+import { attachmentSchema } from './attachments';
+import { isoDateSchema, uuidSchema, PRODUCT_FAMILIES } from './catalogue';
 import { listQuerySchema } from './users';
 
 // Claims: one strict schema per payload, shared by the claim form (its resolver and the live checks), the CSV
@@ -325,71 +327,96 @@ export const claimListItemSchema = z.object({
 export type ClaimListItemDto = z.infer<typeof claimListItemSchema>;
 
 /** What the engine needs besides the claim itself, in the engine's own shape (ENGINE.md input). */
-export type ClaimEngineContext = {
-  product: {
-    ratedInputWatts: number;
-    inputVoltage: { min: number; max: number };
-    ledStrings: number;
-    ledsPerString: number;
-    ledForwardVolts: number;
-    driverOutputAmps: number;
-    driverMaxOutputVolts?: number;
-    location: 'dry' | 'damp' | 'wet';
-    enclosedRated: boolean;
-    dimmable: boolean;
-    ambientMaxC: number;
-    ratedLifeHours: number;
-  };
-  policy: {
-    termMonths: number;
-    fullCoverageMonths: number;
-    filingWindowDays: number;
-    darkLedFailurePercent: number;
-    unitCredit: string;
-    currency: string;
-    requiredPhotos: number;
-    proofOfPurchaseRequired: boolean;
-  } | null;
-  installation: {
-    installedOn: string;
-    location: 'dry' | 'damp' | 'wet';
-    enclosure: 'open' | 'enclosed' | 'enclosed_ventilated';
-    dimmer: 'none' | 'phase' | '0-10v';
-    nominalSupplyVolts: 120 | 208 | 240 | 277 | 347 | 480;
-    hoursPerDay: number;
-    ambientC: number;
-  };
-};
+export const claimEngineContextSchema = z.object({
+  product: z.object({
+    ratedInputWatts: z.number(),
+    inputVoltage: z.object({ min: z.number(), max: z.number() }),
+    ledStrings: z.number().int(),
+    ledsPerString: z.number().int(),
+    ledForwardVolts: z.number(),
+    driverOutputAmps: z.number(),
+    driverMaxOutputVolts: z.number().optional(),
+    location: z.enum(LOCATIONS),
+    enclosedRated: z.boolean(),
+    dimmable: z.boolean(),
+    ambientMaxC: z.number(),
+    ratedLifeHours: z.number(),
+  }),
+  policy: z
+    .object({
+      termMonths: z.number().int(),
+      fullCoverageMonths: z.number().int(),
+      filingWindowDays: z.number().int(),
+      darkLedFailurePercent: z.number(),
+      unitCredit: decimalSchema,
+      currency: currencySchema,
+      requiredPhotos: z.number().int(),
+      proofOfPurchaseRequired: z.boolean(),
+    })
+    .nullable(),
+  installation: z.object({
+    installedOn: calendarDateSchema,
+    location: z.enum(LOCATIONS),
+    enclosure: z.enum(ENCLOSURES),
+    dimmer: z.enum(DIMMERS),
+    // The generator writes only the first value of a many-valued literal; the list is spelt out for it.
+    nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS).meta({ enum: [...NOMINAL_SUPPLY_VOLTS] }),
+    hoursPerDay: z.number(),
+    ambientC: z.number(),
+  }),
+});
+export type ClaimEngineContext = z.infer<typeof claimEngineContextSchema>;
 
-export type ClaimDetailDto = ClaimListItemDto & {
-  symptoms: Symptom[];
-  measurements: ClaimMeasurements;
-  observations: ClaimObservations;
-  narrative: string;
-  installationDetail: {
-    id: string;
-    siteName: string;
-    siteAddress: string;
-    siteCity: string;
-    siteRegion: string;
-    quantity: number;
-    installDate: string;
-    purchaseDate: string | null;
-    serials: string[];
-    policyVersion: { id: string; policyName: string; versionNumber: number; effectiveFrom: string } | null;
-  };
-  engineContext: ClaimEngineContext;
-  evaluation: (Evaluation & { evaluatedAt: string }) | null;
-  attachments: AttachmentDto[];
+export const filingIssueSchema = z.object({ path: z.string(), message: z.string() });
+
+/** GET /api/claims/:id (and the answers that change a claim): the list's fields and everything on its page. */
+export const claimDetailSchema = claimListItemSchema.extend({
+  symptoms: z.array(z.enum(SYMPTOMS)),
+  measurements: claimMeasurementsSchema,
+  observations: claimObservationsSchema,
+  narrative: z.string(),
+  installationDetail: z.object({
+    id: idSchema,
+    siteName: z.string(),
+    siteAddress: z.string(),
+    siteCity: z.string(),
+    siteRegion: z.string(),
+    quantity: z.number().int(),
+    installDate: calendarDateSchema,
+    purchaseDate: calendarDateSchema.nullable(),
+    serials: z.array(z.string()),
+    policyVersion: z
+      .object({
+        id: idSchema,
+        policyName: z.string(),
+        versionNumber: z.number().int(),
+        effectiveFrom: calendarDateSchema,
+      })
+      .nullable(),
+  }),
+  engineContext: claimEngineContextSchema,
+  evaluation: evaluationSchema.extend({ evaluatedAt: instantSchema }).nullable(),
+  attachments: z.array(attachmentSchema),
   /** What the manufacturer asked for (information or a return); the review issue fills this in. */
-  requests: { id: string; kind: string; message: string; createdAt: string; answeredAt: string | null }[];
-  decision: null | Record<string, unknown>;
-  credit: null | Record<string, unknown>;
-  history: HistoryEventDto[];
-  filingIssues: FilingIssue[];
+  requests: z.array(
+    z.object({
+      id: idSchema,
+      kind: z.string(),
+      message: z.string(),
+      createdAt: instantSchema,
+      answeredAt: instantSchema.nullable(),
+    }),
+  ),
+  /** Not filled in here (null): GET /api/claims/:id/workflow carries the decision. */
+  decision: z.record(z.string(), z.unknown()).nullable(),
+  /** Not filled in here (null): GET /api/credits lists the claim's memos. */
+  credit: z.record(z.string(), z.unknown()).nullable(),
+  history: z.array(historyEventSchema),
+  filingIssues: z.array(filingIssueSchema),
   /** Named to the creator's own organisation; to the other side, the organisation's name and no id. */
-  createdBy: { id: string | null; name: string } | null;
-};
+  createdBy: z.object({ id: idSchema.nullable(), name: z.string() }).nullable(),
+});
+export type ClaimDetailDto = z.infer<typeof claimDetailSchema>;
 
 // ---------------------------------------------------------------------------------------------------------
 // Batches (bulk filing from a spreadsheet)
@@ -408,37 +435,53 @@ export const batchRequestSchema = z
   })
   .refine((v) => (v.csv === undefined) !== (v.rows === undefined), 'Send either csv or rows.');
 
-export type ClaimBatchRowError = { row: number; column: string; message: string };
-export type ClaimBatchResult = {
-  dryRun: boolean;
-  batchId: string | null;
-  total: number;
-  valid: number;
-  invalid: number;
-  created: number;
-  errors: ClaimBatchRowError[];
-  errorsTruncated: boolean;
-  /** Each good row: what it became (or would become). */
-  rows: {
-    row: number;
-    claimId: string | null;
-    installationId: string;
-    siteName: string;
-    modelNumber: string;
-    serials: string[];
-    failedOn: string;
-    verdict: Verdict | null;
-  }[];
-};
+export const claimBatchRowErrorSchema = z.object({
+  row: z.number().int(),
+  column: z.string(),
+  message: z.string(),
+});
+export type ClaimBatchRowError = z.infer<typeof claimBatchRowErrorSchema>;
 
-export type ClaimBatchFileResult = {
-  batchId: string;
-  results: {
-    claimId: string;
-    number: string | null;
-    stage: ClaimStage;
-    ok: boolean;
-    replayed: boolean;
-    error?: { code: string; message: string; details?: FilingIssue[] };
-  }[];
-};
+/** POST /api/claims/batches: what the spreadsheet held and what each good row became (or would become). */
+export const claimBatchResultSchema = z.object({
+  dryRun: z.boolean(),
+  batchId: idSchema.nullable(),
+  total: z.number().int().min(0),
+  valid: z.number().int().min(0),
+  invalid: z.number().int().min(0),
+  created: z.number().int().min(0),
+  errors: z.array(claimBatchRowErrorSchema),
+  errorsTruncated: z.boolean(),
+  /** Each good row: what it became (or would become). */
+  rows: z.array(
+    z.object({
+      row: z.number().int(),
+      claimId: idSchema.nullable(),
+      installationId: idSchema,
+      siteName: z.string(),
+      modelNumber: z.string(),
+      serials: z.array(z.string()),
+      failedOn: calendarDateSchema,
+      verdict: z.enum(VERDICTS).nullable(),
+    }),
+  ),
+});
+export type ClaimBatchResult = z.infer<typeof claimBatchResultSchema>;
+
+/** POST /api/claims/batches/:id/file: each draft of the batch filed, or refused with the reason. */
+export const claimBatchFileResultSchema = z.object({
+  batchId: idSchema,
+  results: z.array(
+    z.object({
+      claimId: idSchema,
+      number: z.string().nullable(),
+      stage: z.enum(CLAIM_STAGES),
+      ok: z.boolean(),
+      replayed: z.boolean(),
+      error: z
+        .object({ code: z.string(), message: z.string(), details: z.array(filingIssueSchema).optional() })
+        .optional(),
+    }),
+  ),
+});
+export type ClaimBatchFileResult = z.infer<typeof claimBatchFileResultSchema>;

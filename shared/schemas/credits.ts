@@ -1,8 +1,14 @@
 import { z } from 'zod';
-import type { JournalLine, JournalTotal } from '../credits/journal';
 import { str } from './text';
 import { listQuerySchema } from './users';
-import { currencySchema, decimalSchema, idSchema, instantSchema, orgRefSchema } from './answer-parts';
+import {
+  calendarDateSchema,
+  currencySchema,
+  decimalSchema,
+  idSchema,
+  instantSchema,
+  orgRefSchema,
+} from './answer-parts';
 
 // Payloads of the credits API: issuing a memo, voiding one, the lists, the export and the cost view.
 
@@ -191,12 +197,44 @@ export type BalanceDto = z.infer<typeof creditBalanceSchema>;
 
 export type AccountingMapDto = AccountingMapInput & { updatedAt: string | null };
 
-export type JournalDto = {
-  from: string;
-  to: string;
-  lines: JournalLine[];
-  totals: JournalTotal[];
-};
+/** A journal column that is either an amount or empty (a line is a debit or a credit, never both). */
+const journalAmountSchema = z.union([decimalSchema, z.literal('')]);
+
+/** One line of GET /api/credits/journal (shared/credits/journal.ts builds them). */
+export const journalLineSchema = z.object({
+  journal: z.string(),
+  entry: z.string(),
+  date: calendarDateSchema,
+  account: z.string(),
+  accountName: z.string(),
+  debit: journalAmountSchema,
+  credit: journalAmountSchema,
+  currency: currencySchema,
+  memoNumber: z.string(),
+  kind: z.enum(MEMO_KINDS),
+  claimNumber: z.string(),
+  contractor: z.string(),
+  contractorId: idSchema,
+  description: z.string(),
+});
+export type JournalLine = z.infer<typeof journalLineSchema>;
+
+/** Per currency: entries and the sums of the debit and credit columns. */
+export const journalTotalSchema = z.object({
+  currency: currencySchema,
+  entries: z.number().int().min(0),
+  debit: decimalSchema,
+  credit: decimalSchema,
+});
+export type JournalTotal = z.infer<typeof journalTotalSchema>;
+
+export const journalSchema = z.object({
+  from: calendarDateSchema,
+  to: calendarDateSchema,
+  lines: z.array(journalLineSchema),
+  totals: z.array(journalTotalSchema),
+});
+export type JournalDto = z.infer<typeof journalSchema>;
 
 export type CostRow = { key: string; label: string; currency: string; credited: string; pending: string };
 export type WarrantyCostDto = {

@@ -31,6 +31,14 @@ export const organizationSecuritySchema = z.strictObject({
 });
 export type OrganizationSecurityInput = z.infer<typeof organizationSecuritySchema>;
 
+/** The answer of GET|PATCH /api/organizations/current/security: the organisation's sign-in rules. */
+export const organizationSecurityAnswerSchema = z.object({ id: idSchema, requireSecondFactor: z.boolean() });
+export type OrganizationSecurityDto = z.infer<typeof organizationSecurityAnswerSchema>;
+
+/** `secondFactor` of GET /api/auth/me: whether this person has one, and whether they must. */
+export const meSecondFactorSchema = z.object({ enrolled: z.boolean(), required: z.boolean() });
+export type MeSecondFactor = z.infer<typeof meSecondFactorSchema>;
+
 /** The audit actions the security events page lists (some are written by the sign-in and password code). */
 export const SECURITY_EVENT_ACTIONS = [
   'user.signed_in',

@@ -7,7 +7,9 @@ import { listRoutes } from '../../server/lib/routes';
 import { OPEN_MARK } from '../../server/openapi/answers';
 import { openApiPath } from '../../server/openapi/registry';
 import { WEBHOOK_EVENTS, WEBHOOK_SIGNATURE_HEADER } from '../../shared/schemas/webhooks';
+import { claimWorld, daysAgo } from '../support/claim-factories';
 import { createApprovedClaim } from '../support/credit-factories';
+import { createClaimAt, createReviewWorld } from '../support/review-factories';
 import { creditWorld } from '../support/credit-world';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
@@ -204,6 +206,35 @@ describe('the OpenAPI document', () => {
       return value;
     });
     expect(open).toBeLessThan(all / 2);
+    // Issue 17: the claims, review desk, credits, sign-in and organisation answers are spelt out; what is left
+    // open is the catalogue's and analytics' (lower this as they are spelt out too).
+    expect(open).toBeLessThanOrEqual(23);
+  });
+
+  it('spells out every answer of claims, the review desk, credits, sign-in and the organisation', () => {
+    const SPELT_OUT = [
+      '/api/claims',
+      '/api/review',
+      '/api/credits',
+      '/api/auth',
+      '/api/organizations',
+      '/api/users',
+      '/api/invitations',
+      '/api/security-events',
+      '/api/api-tokens',
+      '/api/webhooks',
+      '/api/saved-views',
+      '/api/waiting',
+      '/api/mailbox',
+    ];
+    const open: string[] = [];
+    for (const [path, item] of Object.entries(doc.paths)) {
+      if (!SPELT_OUT.some((p) => path === p || path.startsWith(`${p}/`))) continue;
+      for (const [method, o] of Object.entries(item)) {
+        if (JSON.stringify(o.responses).includes(OPEN_MARK)) open.push(`${method.toUpperCase()} ${path}`);
+      }
+    }
+    expect(open).toEqual([]);
   });
 
   it('is served without sign-in, cached, with a validator, under the app’s security headers', async () => {
@@ -321,5 +352,98 @@ describe('real answers fit the schemas the document declares', () => {
     const anonymous = await t.request().get('/api/claims');
     expect(anonymous.status).toBe(401);
     check('GET', '/api/claims', 401, anonymous.body);
+  });
+
+  it('a claim’s page and workflow, its files, batches, the review desk, the journal and sign-in rules', async () => {
+    const w = await claimWorld(t);
+    const [s1] = w.installation.serials;
+    const csv = [
+      'serial,units,failed_on,symptoms,supply_volts,input_watts,power_factor,driver_output_volts,driver_output_amps,water_ingress,narrative',
+      `${s1},1,${daysAgo(9)},partly_dark,277,23.4,0.95,48.1,0.44,no,Two strings dark on the east row.`,
+      `NOPE-1,1,${daysAgo(8)},dark,277,,,,,no,Completely dark since Monday.`,
+    ].join('\n');
+    const preview = await w.installer.agent
+      .post('/api/claims/batches?dryRun=true')
+      .send({ csv, filename: 'failures.csv' });
+    expect(preview.status).toBe(200);
+    expect(preview.body.errors.length).toBeGreaterThan(0);
+    check('POST', '/api/claims/batches', 200, preview.body);
+    const made = await w.installer.agent.post('/api/claims/batches').send({ csv, filename: 'failures.csv' });
+    expect(made.status).toBe(201);
+    check('POST', '/api/claims/batches', 201, made.body);
+    const filed = await w.installer.agent.post(`/api/claims/batches/${made.body.batchId}/file`).send({});
+    expect(filed.status).toBe(200);
+    expect(filed.body.results[0].ok).toBe(true);
+    check('POST', '/api/claims/batches/:id/file', 200, filed.body);
+
+    const claimId = filed.body.results[0].claimId as string;
+    for (const who of [w.installer, w.reviewer]) {
+      const page = await who.agent.get(`/api/claims/${claimId}`);
+      expect(page.status).toBe(200);
+      expect(page.body.claim.evaluation).not.toBeNull();
+      check('GET', '/api/claims/:id', 200, page.body);
+      const flow = await who.agent.get(`/api/claims/${claimId}/workflow`);
+      expect(flow.status).toBe(200);
+      check('GET', '/api/claims/:id/workflow', 200, flow.body);
+    }
+    const files = await w.installer.agent.get(`/api/claims/${claimId}/attachments`);
+    expect(files.status).toBe(200);
+    check('GET', '/api/claims/:id/attachments', 200, files.body);
+
+    // Stages whose workflow carries a request, a return authorisation and a decision.
+    const rw = await createReviewWorld(t.ds, w.conX, w.mfrA);
+    for (const stage of ['needs_info', 'unit_received', 'approved', 'denied'] as const) {
+      const at = await createClaimAt(t.ds, rw, stage, { reviewerId: w.reviewer.user.id });
+      for (const who of [w.installer, w.reviewer]) {
+        const flow = await who.agent.get(`/api/claims/${at.id}/workflow`);
+        expect(flow.status, stage).toBe(200);
+        const { messages, returns, decision } = flow.body;
+        expect(messages.length + returns.length + (decision ? 1 : 0), stage).toBeGreaterThan(0);
+        check('GET', '/api/claims/:id/workflow', 200, flow.body);
+        check('GET', '/api/claims/:id', 200, (await who.agent.get(`/api/claims/${at.id}`)).body);
+      }
+    }
+
+    const queue = await w.reviewer.agent.get('/api/review/queue');
+    expect(queue.status).toBe(200);
+    expect(queue.body.items.length).toBeGreaterThan(0);
+    check('GET', '/api/review/queue', 200, queue.body);
+    check('GET', '/api/review/summary', 200, (await w.reviewer.agent.get('/api/review/summary')).body);
+
+    // The journal needs a memo and the accounts mapped (invented demo codes).
+    const c = await creditWorld(t);
+    const approved = await createApprovedClaim(t.ds, {
+      manufacturer: c.mfr,
+      contractor: c.contractor,
+      amount: '48.00',
+    });
+    const issued = await c.accountant.agent
+      .post(`/api/claims/${approved.id}/credits`)
+      .set('Idempotency-Key', crypto.randomUUID())
+      .send({});
+    expect(issued.status).toBe(201);
+    const map = await c.accountant.agent.put('/api/credits/accounting-map').send({
+      debitAccount: { code: '5410', name: 'Warranty credits' },
+      creditAccount: { code: '2440', name: 'Contractor credits payable' },
+      journalCode: 'WC',
+    });
+    expect(map.status).toBe(200);
+    const today = new Date().toISOString().slice(0, 10);
+    const journal = await c.accountant.agent.get(`/api/credits/journal?from=${daysAgo(30)}&to=${today}`);
+    expect(journal.status).toBe(200);
+    expect(journal.body.lines.length).toBeGreaterThanOrEqual(2);
+    check('GET', '/api/credits/journal', 200, journal.body);
+
+    const rules = await c.contractorAdmin.agent.get('/api/organizations/current/security');
+    expect(rules.status).toBe(200);
+    check('GET', '/api/organizations/current/security', 200, rules.body);
+    const changed = await c.contractorAdmin.agent
+      .patch('/api/organizations/current/security')
+      .send({ requireSecondFactor: false });
+    expect(changed.status).toBe(200);
+    check('PATCH', '/api/organizations/current/security', 200, changed.body);
+    const mail = await c.contractorAdmin.agent.get('/api/mailbox');
+    expect(mail.status).toBe(200);
+    check('GET', '/api/mailbox', 200, mail.body);
   });
 });

@@ -3,6 +3,7 @@ import { loginSchema } from '../../../shared/schemas/auth';
 import { createLoginThrottle, type LimitScope } from '../../auth/login-throttle';
 import type { SessionUser, createPassport } from '../../auth/passport';
 import { secondFactorRequired } from '../../auth/second-factor-policy';
+import type { MeSecondFactor } from '../../../shared/schemas/security';
 import { recordSessionDevice, SESSION_COOKIE } from '../../auth/session';
 import type { AppContext } from '../../context';
 import { User } from '../../db/entities/user.entity';
@@ -92,7 +93,7 @@ export function authRouter(ctx: AppContext, pp: Authenticator) {
   });
 
   r.get('/me', requireUser, (req, res) => {
-    const secondFactor = {
+    const secondFactor: MeSecondFactor = {
       enrolled: Boolean(req.user!.totpConfirmedAt),
       required: secondFactorRequired(ctx.config, req.user!),
     };

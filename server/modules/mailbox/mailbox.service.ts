@@ -3,17 +3,9 @@ import path from 'node:path';
 import { simpleParser } from 'mailparser';
 import type { AppDataSource } from '../../db/data-source';
 import { readRows } from '../../db/read';
+import type { MailboxMessage } from '../../../shared/schemas/mailbox';
 
-export type MailboxMessage = {
-  id: string;
-  receivedAt: string;
-  from: string;
-  to: string[];
-  subject: string;
-  text: string;
-  html: string | null;
-  attachments: { filename: string; contentType: string; size: number }[];
-};
+export type { MailboxMessage };
 
 // Reads what the local fake SMTP server (scripts/fake-smtp.ts) stored: one .eml file per message.
 export async function readMailbox(dir: string, limit = 200): Promise<MailboxMessage[]> {

@@ -1,5 +1,6 @@
 import { normalizeAmount, toDecimal } from '../../../shared/credits/money';
 import type { OrganizationDto } from '../../../shared/schemas/organizations';
+import type { OrganizationSecurityDto } from '../../../shared/schemas/security';
 import type { Organization } from '../../db/entities/organization.entity';
 
 export function presentOrganization(o: Organization): OrganizationDto {
@@ -14,7 +15,7 @@ export function presentOrganization(o: Organization): OrganizationDto {
   };
 }
 
-export const presentSecurity = (o: Organization) => ({
+export const presentSecurity = (o: Organization): OrganizationSecurityDto => ({
   id: o.id,
   requireSecondFactor: o.requireSecondFactor,
 });

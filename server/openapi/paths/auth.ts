@@ -8,6 +8,7 @@ import {
 } from '../../../shared/schemas/auth';
 import {
   confirmEnrollmentSchema,
+  meSecondFactorSchema,
   removeSecondFactorSchema,
   secondFactorLoginSchema,
   secondFactorStatusSchema,
@@ -15,7 +16,7 @@ import {
 } from '../../../shared/schemas/security';
 import { meSchema } from '../../../shared/schemas/users';
 import { instantSchema } from '../../../shared/schemas/answer-parts';
-import { itemsOf, okSchema, openObject } from '../answers';
+import { itemsOf, okSchema } from '../answers';
 import { op, type Registry } from '../registry';
 
 const tag = 'Sign-in and account';
@@ -82,7 +83,7 @@ export function authPaths(reg: Registry) {
       json: z.object({
         user: meSchema,
         app: z.object({ mode: z.string() }),
-        secondFactor: openObject('Whether this person must still enrol a second factor'),
+        secondFactor: meSecondFactorSchema,
       }),
     },
   });

@@ -7,11 +7,19 @@ import {
   reviewReviewersQuerySchema,
 } from '../../../shared/claims/workflow';
 import { instantSchema, orgRefSchema, pageSchema } from '../../../shared/schemas/answer-parts';
-import { uploadAttachmentSchema } from '../../../shared/schemas/attachments';
+import { attachmentSchema, uploadAttachmentSchema } from '../../../shared/schemas/attachments';
+import {
+  claimWorkflowSchema,
+  queueItemSchema,
+  queueSummarySchema,
+} from '../../../shared/schemas/claim-workflow';
 import { importQuerySchema } from '../../../shared/schemas/catalogue';
 import {
   batchRequestSchema,
   CLAIM_STAGES,
+  claimBatchFileResultSchema,
+  claimBatchResultSchema,
+  claimDetailSchema,
   claimListItemSchema,
   claimListQuerySchema,
   createClaimSchema,
@@ -19,21 +27,13 @@ import {
   updateClaimSchema,
   WAITING_ON,
 } from '../../../shared/schemas/claims';
-import { importResultSchema, itemsOf, openObject } from '../answers';
+import { itemsOf } from '../answers';
 import { op, type Registry } from '../registry';
 
 const tag = 'Claims';
-const claimDetail = openObject(
-  'A claim as the claims list shows it, plus its symptoms, measurements, observations, narrative, installation, ' +
-    'attachments, evaluation, decision, credit and history',
-);
-const workflow = openObject(
-  'The claim’s conversation, return authorisations, bench tests, decision, documents, history and the actions ' +
-    'this user can take now',
-);
-const attachment = openObject(
-  'A stored file: kind, purpose, name, type, size, where to download it and its thumbnail',
-);
+const claimDetail = claimDetailSchema;
+const workflow = claimWorkflowSchema;
+const attachment = attachmentSchema;
 
 /** Every move the one action route takes (the others have their own routes). */
 const MOVES_HERE = ACTION_NAMES.filter((n) => !['file', 'credit', 'void_credit'].includes(n));
@@ -237,7 +237,7 @@ export function claimPaths(reg: Registry) {
     status: 201,
     alsoStatus: 200,
     answer: {
-      json: importResultSchema,
+      json: claimBatchResultSchema,
       description: '201 when drafts were made; 200 on a dry run or when none were.',
     },
   });
@@ -265,7 +265,7 @@ export function claimPaths(reg: Registry) {
     tag,
     summary: 'File every draft of a batch',
     body: z.strictObject({}),
-    answer: { json: openObject('How many were filed, and each one refused with the reason') },
+    answer: { json: claimBatchFileResultSchema },
   });
 
   const desk = 'Review desk';
@@ -275,16 +275,14 @@ export function claimPaths(reg: Registry) {
     tag: desk,
     summary: 'The manufacturer’s review queue',
     query: queueQuerySchema,
-    answer: {
-      json: pageSchema(openObject('A claim in the queue: number, stage, waiting on, assignee, amount, age')),
-    },
+    answer: { json: pageSchema(queueItemSchema) },
   });
   op(reg, {
     method: 'get',
     path: '/api/review/summary',
     tag: desk,
     summary: 'Counts for the desk’s header',
-    answer: { json: openObject('Claims per stage and waiting side') },
+    answer: { json: queueSummarySchema },
   });
   op(reg, {
     method: 'get',

@@ -15,11 +15,12 @@ import {
   creditQueueItemSchema,
   creditQueueQuerySchema,
   issueCreditSchema,
+  journalSchema,
   journalQuerySchema,
   voidCreditSchema,
   warrantyCostQuerySchema,
 } from '../../../shared/schemas/credits';
-import { itemsOf, openObject } from '../answers';
+import { itemsOf } from '../answers';
 import { op, type Registry } from '../registry';
 
 const account = z.object({ code: z.string(), name: z.string() });
@@ -178,14 +179,7 @@ export function creditPaths(reg: Registry) {
     summary: 'Memos and reversals of a period as journal entries (JSON, CSV or SIE 4)',
     query: journalQuerySchema,
     answer: {
-      json: z.object({
-        from: z.iso.date(),
-        to: z.iso.date(),
-        lines: z.array(
-          openObject('A journal line: journal, entry, date, account, debit, credit, memo, claim'),
-        ),
-        totals: z.array(openObject('Debit and credit totals per currency')),
-      }),
+      json: journalSchema,
       or: 'text/csv',
       description: 'JSON by default; `format=csv` a CSV file, `format=sie` an SIE 4 file (text/plain).',
     },

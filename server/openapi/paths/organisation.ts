@@ -4,6 +4,7 @@ import { instantSchema, pageSchema } from '../../../shared/schemas/answer-parts'
 import { updateOrganizationSchema } from '../../../shared/schemas/organizations';
 import { createSavedViewSchema, savedViewFiltersSchema } from '../../../shared/schemas/saved-views';
 import {
+  organizationSecurityAnswerSchema,
   organizationSecuritySchema,
   securityEventSchema,
   securityEventsQuerySchema,
@@ -26,7 +27,8 @@ import {
   webhookEndpointSchema,
 } from '../../../shared/schemas/webhooks';
 import { ROLES } from '../../../shared/roles';
-import { itemsOf, openObject } from '../answers';
+import { mailboxMessageSchema } from '../../../shared/schemas/mailbox';
+import { itemsOf } from '../answers';
 import { op, type Registry } from '../registry';
 
 const organizationSchema = z.object({
@@ -109,7 +111,7 @@ export function organisationPaths(reg: Registry) {
     path: '/api/organizations/current/security',
     tag: people,
     summary: 'Whether the organisation requires a second factor',
-    answer: { json: z.object({ organization: openObject('The organisation’s sign-in rules') }) },
+    answer: { json: z.object({ organization: organizationSecurityAnswerSchema }) },
   });
   op(reg, {
     method: 'patch',
@@ -118,7 +120,7 @@ export function organisationPaths(reg: Registry) {
     auth: 'session',
     summary: 'Require (or stop requiring) a second factor',
     body: organizationSecuritySchema,
-    answer: { json: z.object({ organization: openObject('The organisation’s sign-in rules') }) },
+    answer: { json: z.object({ organization: organizationSecurityAnswerSchema }) },
   });
   op(reg, {
     method: 'get',
@@ -284,7 +286,7 @@ export function organisationPaths(reg: Registry) {
     summary: 'Demo mode only: the e-mails the demo has sent',
     answer: {
       json: z.object({
-        items: z.array(openObject('An e-mail the demo sent')),
+        items: z.array(mailboxMessageSchema),
         total: z.number().int(),
         page: z.literal(1),
         pageSize: z.number().int(),
