@@ -32,20 +32,22 @@ export const ACCEPTED_ATTACHMENT_TYPES = [
   'application/pdf',
 ] as const;
 
-export type AttachmentDto = {
-  id: string;
-  kind: AttachmentKind;
-  purpose: AttachmentPurpose;
-  name: string;
-  contentType: string;
-  byteSize: number;
-  width: number | null;
-  height: number | null;
-  capturedAt: string | null;
+/** A file as the answers show it (attachments.presenter.ts). */
+export const attachmentSchema = z.object({
+  id: z.uuid(),
+  kind: z.enum(ATTACHMENT_KINDS),
+  purpose: z.enum(ATTACHMENT_PURPOSES),
+  name: z.string(),
+  contentType: z.string(),
+  byteSize: z.number().int().min(0),
+  width: z.number().int().nullable(),
+  height: z.number().int().nullable(),
+  capturedAt: z.iso.datetime({ offset: true }).nullable(),
   /** Where to download the file (as an attachment) and its thumbnail (photos only). */
-  contentUrl: string;
-  thumbnailUrl: string | null;
+  contentUrl: z.string(),
+  thumbnailUrl: z.string().nullable(),
   /** The uploader to their own organisation; null to the other side of a claim. */
-  uploadedBy: { id: string | null };
-  createdAt: string;
-};
+  uploadedBy: z.object({ id: z.uuid().nullable() }),
+  createdAt: z.iso.datetime({ offset: true }),
+});
+export type AttachmentDto = z.infer<typeof attachmentSchema>;
