@@ -7,8 +7,10 @@ import { listRoutes } from '../../server/lib/routes';
 import { OPEN_MARK } from '../../server/openapi/answers';
 import { openApiPath } from '../../server/openapi/registry';
 import { WEBHOOK_EVENTS, WEBHOOK_SIGNATURE_HEADER } from '../../shared/schemas/webhooks';
+import { installationPayload, productPayload, termsPayload } from '../support/catalogue-factories';
 import { createApprovedClaim } from '../support/credit-factories';
 import { creditWorld } from '../support/credit-world';
+import { createUser, signIn } from '../support/factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
 
 // The OpenAPI document (GET /api/openapi.json) against the router it describes: every route is in it with its
@@ -321,5 +323,78 @@ describe('real answers fit the schemas the document declares', () => {
     const anonymous = await t.request().get('/api/claims');
     expect(anonymous.status).toBe(401);
     check('GET', '/api/claims', 401, anonymous.body);
+  });
+
+  it('products, policies, installations, their histories and imports', async () => {
+    const w = await creditWorld(t);
+    const admin = await signIn(t.request(), (await createUser(t.ds, w.mfr, ['administrator'])).email);
+
+    const made = await admin.post('/api/products').send(productPayload());
+    expect(made.status).toBe(201);
+    check('POST', '/api/products', 201, made.body);
+    const productId = made.body.product.id as string;
+    const changed = await admin.patch(`/api/products/${productId}`).send({ name: 'Renamed high bay' });
+    expect(changed.status).toBe(200);
+    check('PATCH', '/api/products/:id', 200, changed.body);
+    check('GET', '/api/products/:id', 200, (await admin.get(`/api/products/${productId}`)).body);
+    const productHistory = await admin.get(`/api/products/${productId}/history`);
+    expect(productHistory.body.items.length).toBeGreaterThanOrEqual(2);
+    check('GET', '/api/products/:id/history', 200, productHistory.body);
+    // A dry run with a refused row: the outcome with its error, nothing written.
+    const dry = await admin.post('/api/products/import?dryRun=true').send({ rows: [{ model_number: '' }] });
+    expect(dry.status).toBe(200);
+    expect(dry.body.errors.length).toBeGreaterThan(0);
+    check('POST', '/api/products/import', 200, dry.body);
+
+    const policy = await admin
+      .post('/api/policies')
+      .send({ name: 'Standard terms', productModelIds: [productId], terms: termsPayload() });
+    expect(policy.status).toBe(201);
+    check('POST', '/api/policies', 201, policy.body);
+    const policyId = policy.body.policy.id as string;
+    const version = await admin
+      .post(`/api/policies/${policyId}/versions`)
+      .send(termsPayload({ effectiveFrom: '2025-01-01', changeNote: 'A longer term.' }));
+    expect(version.status).toBe(201);
+    check('POST', '/api/policies/:id/versions', 201, version.body);
+    const renamed = await admin.patch(`/api/policies/${policyId}`).send({ name: 'Standard terms 2025' });
+    expect(renamed.status).toBe(200);
+    check('PATCH', '/api/policies/:id', 200, renamed.body);
+    check('GET', '/api/policies/:id', 200, (await admin.get(`/api/policies/${policyId}`)).body);
+    const policies = await admin.get('/api/policies');
+    expect(policies.body.items.length).toBeGreaterThan(0);
+    check('GET', '/api/policies', 200, policies.body);
+    check(
+      'GET',
+      '/api/policies/:id/history',
+      200,
+      (await admin.get(`/api/policies/${policyId}/history`)).body,
+    );
+
+    const installed = await w.installer.agent.post('/api/installations').send(installationPayload(productId));
+    expect(installed.status).toBe(201);
+    check('POST', '/api/installations', 201, installed.body);
+    const installationId = installed.body.installation.id as string;
+    const moved = await w.installer.agent
+      .patch(`/api/installations/${installationId}`)
+      .send({ ambientC: 55 });
+    expect(moved.status).toBe(200);
+    check('PATCH', '/api/installations/:id', 200, moved.body);
+    for (const who of [w.installer.agent, admin]) {
+      const one = await who.get(`/api/installations/${installationId}`);
+      expect(one.status).toBe(200);
+      check('GET', '/api/installations/:id', 200, one.body);
+      const list = await who.get('/api/installations');
+      expect(list.body.items.length).toBeGreaterThan(0);
+      check('GET', '/api/installations', 200, list.body);
+      const history = await who.get(`/api/installations/${installationId}/history`);
+      expect(history.body.items.length).toBeGreaterThanOrEqual(2);
+      check('GET', '/api/installations/:id/history', 200, history.body);
+    }
+    const imported = await w.installer.agent
+      .post('/api/installations/import?dryRun=true')
+      .send({ rows: [{ site_name: 'Only a name' }] });
+    expect(imported.status).toBe(200);
+    check('POST', '/api/installations/import', 200, imported.body);
   });
 });
