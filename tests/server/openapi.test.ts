@@ -7,6 +7,7 @@ import { listRoutes } from '../../server/lib/routes';
 import { OPEN_MARK } from '../../server/openapi/answers';
 import { openApiPath } from '../../server/openapi/registry';
 import { WEBHOOK_EVENTS, WEBHOOK_SIGNATURE_HEADER } from '../../shared/schemas/webhooks';
+import { insertClaims, insertInstallations } from '../support/analytics-factories';
 import { installationPayload, productPayload, termsPayload } from '../support/catalogue-factories';
 import { createApprovedClaim } from '../support/credit-factories';
 import { creditWorld } from '../support/credit-world';
@@ -396,5 +397,77 @@ describe('real answers fit the schemas the document declares', () => {
       .send({ rows: [{ site_name: 'Only a name' }] });
     expect(imported.status).toBe(200);
     check('POST', '/api/installations/import', 200, imported.body);
+  });
+
+  it('life data, failure modes, claims ageing, the reserve and the ageing view', async () => {
+    const w = await creditWorld(t);
+    const admin = await signIn(
+      t.request(),
+      (await createUser(t.ds, w.mfr, ['administrator', 'accountant'])).email,
+    );
+    const product = (await admin.post('/api/products').send(productPayload())).body.product as { id: string };
+    const policy = await admin
+      .post('/api/policies')
+      .send({ name: 'Reserve terms', productModelIds: [product.id], terms: termsPayload() });
+    expect(policy.status).toBe(201);
+    const productModel = { id: product.id, manufacturerId: w.mfr.id } as Parameters<
+      typeof insertInstallations
+    >[2];
+    const installs = await insertInstallations(t.ds, w.contractor, productModel, [
+      {
+        installDate: '2024-01-15',
+        quantity: 40,
+        lot: 'L2401',
+        policyVersionId: policy.body.policy.latestVersion.id,
+      },
+      {
+        installDate: '2024-06-15',
+        quantity: 40,
+        lot: 'L2406',
+        policyVersionId: policy.body.policy.latestVersion.id,
+      },
+    ]);
+    await insertClaims(t.ds, installs, [
+      { installationId: installs[0]!.id, failedOn: '2024-05-02' },
+      { installationId: installs[0]!.id, failedOn: '2024-09-20', units: 2 },
+      { installationId: installs[1]!.id, failedOn: '2024-11-03' },
+      {
+        installationId: installs[1]!.id,
+        failedOn: '2025-02-14',
+        stage: 'in_review',
+        verdict: null,
+        waitingOn: 'manufacturer',
+      },
+    ]);
+
+    const life = await admin.get(`/api/analytics/life?productModelId=${product.id}&asOf=2025-06-01`);
+    expect(life.status).toBe(200);
+    expect(life.body.fit).not.toBeNull();
+    check('GET', '/api/analytics/life', 200, life.body);
+    // Too few failures to fit: the answer says why, and still fits the document.
+    const lot = await admin.get('/api/analytics/life?lot=L2406&asOf=2024-12-01');
+    expect(lot.status).toBe(200);
+    expect(lot.body.fit).toBeNull();
+    check('GET', '/api/analytics/life', 200, lot.body);
+    const modes = await admin.get(
+      `/api/analytics/failure-modes?productModelId=${product.id}&asOf=2025-06-01`,
+    );
+    expect(modes.status).toBe(200);
+    expect(modes.body.claims).toBeGreaterThan(0);
+    check('GET', '/api/analytics/failure-modes', 200, modes.body);
+    const ageing = await admin.get('/api/analytics/claims-ageing?asOf=2025-06-01');
+    expect(ageing.status).toBe(200);
+    check('GET', '/api/analytics/claims-ageing', 200, ageing.body);
+    const reserve = await admin.get('/api/reserve?asOf=2025-06-01');
+    expect(reserve.status).toBe(200);
+    check('GET', '/api/reserve', 200, reserve.body);
+
+    const view = await admin.get('/api/ageing');
+    expect(view.status).toBe(200);
+    expect(view.body.byStage.length).toBeGreaterThan(0);
+    check('GET', '/api/ageing', 200, view.body);
+    const targets = await admin.put('/api/ageing/targets').send({ targets: { in_review: 1, filed: 2 } });
+    expect(targets.status).toBe(200);
+    check('PUT', '/api/ageing/targets', 200, targets.body);
   });
 });
