@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { str } from './text';
-import { DIMMERS, ENCLOSURES, LOCATIONS, NOMINAL_SUPPLY_VOLTS } from '../engine/schema';
+import { DIMMERS, ENCLOSURES, LOCATIONS, NOMINAL_SUPPLY_VOLTS, NOMINAL_VOLTS_META } from '../engine/schema';
 import { listQuerySchema } from './users';
 import {
   calendarDateSchema,
@@ -428,9 +428,11 @@ const conditionFields = {
   location: z.enum(LOCATIONS, { error: 'Pick the location: dry, damp or wet.' }),
   enclosure: z.enum(ENCLOSURES, { error: 'Pick the enclosure: open, enclosed, or enclosed and ventilated.' }),
   dimmer: z.enum(DIMMERS, { error: 'Pick the dimmer: none, phase-cut or 0-10 V.' }),
-  nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS, {
-    error: 'Pick a nominal supply: 120, 208, 240, 277, 347 or 480 V.',
-  }),
+  nominalSupplyVolts: z
+    .literal(NOMINAL_SUPPLY_VOLTS, {
+      error: 'Pick a nominal supply: 120, 208, 240, 277, 347 or 480 V.',
+    })
+    .meta(NOMINAL_VOLTS_META),
   hoursPerDay: num('the hours of use a day', 'h', 0, 24),
   ambientC: num('the ambient temperature', '°C', -50, 80),
 };
@@ -551,18 +553,6 @@ export const fitWarningSchema = z.object({
 });
 export type FitWarning = z.infer<typeof fitWarningSchema>;
 
-type NominalVolts = (typeof NOMINAL_SUPPLY_VOLTS)[number];
-/**
- * One literal per voltage: the document generator writes `z.literal([...])` as its first value only, so an
- * answer spells the choice out as a union.
- */
-const nominalVoltsAnswer = z.union(
-  NOMINAL_SUPPLY_VOLTS.map((v) => z.literal(v)) as unknown as [
-    z.ZodLiteral<NominalVolts>,
-    ...z.ZodLiteral<NominalVolts>[],
-  ],
-);
-
 /** An installation in a list (installations.presenter.ts). */
 export const installationSchema = z.object({
   id: idSchema,
@@ -589,7 +579,7 @@ export const installationSchema = z.object({
   location: z.enum(LOCATIONS),
   enclosure: z.enum(ENCLOSURES),
   dimmer: z.enum(DIMMERS),
-  nominalSupplyVolts: nominalVoltsAnswer,
+  nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS).meta(NOMINAL_VOLTS_META),
   hoursPerDay: z.number(),
   ambientC: z.number(),
   policyVersion: z

@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { listRoutes } from '../../server/lib/routes';
 import { OPEN_MARK } from '../../server/openapi/answers';
 import { openApiPath } from '../../server/openapi/registry';
+import { NOMINAL_SUPPLY_VOLTS } from '../../shared/engine/schema';
 import { WEBHOOK_EVENTS, WEBHOOK_SIGNATURE_HEADER } from '../../shared/schemas/webhooks';
 import { insertClaims, insertInstallations } from '../support/analytics-factories';
 import { installationPayload, productPayload, termsPayload } from '../support/catalogue-factories';
@@ -207,6 +208,18 @@ describe('the OpenAPI document', () => {
       return value;
     });
     expect(open).toBeLessThan(all / 2);
+  });
+
+  it('names every nominal supply voltage, where a literal of several values is asked or answered', () => {
+    const found: unknown[] = [];
+    JSON.stringify(doc, (key, value: unknown) => {
+      if (key === 'nominalSupplyVolts' && value && typeof value === 'object' && 'enum' in value)
+        found.push((value as { enum: unknown }).enum);
+      return value;
+    });
+    // Installation bodies and answers, the evaluation's facts.
+    expect(found.length).toBeGreaterThanOrEqual(3);
+    for (const e of found) expect(e).toEqual([...NOMINAL_SUPPLY_VOLTS]);
   });
 
   it('is served without sign-in, cached, with a validator, under the app’s security headers', async () => {
