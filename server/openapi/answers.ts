@@ -11,7 +11,3 @@ export const openObject = (what: string) => z.looseObject({}).meta({ description
 export const itemsOf = <T extends z.ZodType>(item: T) => z.object({ items: z.array(item) });
 
 export const okSchema = z.object({ ok: z.literal(true) });
-
-export const importResultSchema = openObject(
-  'The import’s outcome: rows read, rows imported (none on a dry run) and each refused row with its column',
-);

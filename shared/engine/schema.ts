@@ -11,6 +11,11 @@ export const LOCATIONS = ['dry', 'damp', 'wet'] as const;
 export const ENCLOSURES = ['open', 'enclosed', 'enclosed_ventilated'] as const;
 export const DIMMERS = ['none', 'phase', '0-10v'] as const;
 export const NOMINAL_SUPPLY_VOLTS = [120, 208, 240, 277, 347, 480] as const;
+/**
+ * For `z.literal(NOMINAL_SUPPLY_VOLTS)`: the OpenAPI generator writes a literal of several values as its first
+ * value only, so the schema names them all (it changes nothing of what is accepted).
+ */
+export const NOMINAL_VOLTS_META = { enum: [...NOMINAL_SUPPLY_VOLTS] };
 export const SYMPTOMS = [
   'dark',
   'partly_dark',
@@ -156,7 +161,7 @@ export const installationSchema = z.strictObject({
   location: z.enum(LOCATIONS),
   enclosure: z.enum(ENCLOSURES),
   dimmer: z.enum(DIMMERS),
-  nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS),
+  nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS).meta(NOMINAL_VOLTS_META),
   hoursPerDay: nonNegative(24),
   ambientC: z.number().min(-60).max(100),
 });

@@ -35,19 +35,38 @@ export const stageTargetsSchema = z.strictObject(
 export type StageTargets = z.infer<typeof stageTargetsSchema>;
 export const updateStageTargetsSchema = z.strictObject({ targets: stageTargetsSchema });
 
-export type AgeingRowDto = { counts: Record<AgeingBucket, number>; total: number; overTarget: number };
-export type AgeingClaimDto = {
-  id: string;
-  number: string;
-  stage: AgeingStage;
-  days: number;
-  reviewer: string | null;
-  overTarget: boolean;
+const ageingCountsSchema = z.object(
+  Object.fromEntries(AGEING_BUCKETS.map((b) => [b, z.number().int().min(0)])) as Record<
+    AgeingBucket,
+    z.ZodNumber
+  >,
+);
+const ageingRowShape = {
+  counts: ageingCountsSchema,
+  total: z.number().int().min(0),
+  overTarget: z.number().int().min(0),
 };
-export type AgeingDto = {
-  targets: StageTargets;
-  byStage: ({ stage: AgeingStage; target: number | null } & AgeingRowDto)[];
-  byReviewer: ({ reviewerId: string | null; reviewer: string } & AgeingRowDto)[];
+export const ageingRowSchema = z.object(ageingRowShape);
+export type AgeingRowDto = z.infer<typeof ageingRowSchema>;
+
+export const ageingClaimSchema = z.object({
+  id: z.uuid(),
+  number: z.string(),
+  stage: z.enum(AGEING_STAGES),
+  days: z.number().int().min(0),
+  reviewer: z.string().nullable(),
+  overTarget: z.boolean(),
+});
+export type AgeingClaimDto = z.infer<typeof ageingClaimSchema>;
+
+/** The ageing view (ageing.service.ts): counts per stage and per reviewer by age bucket, and the overdue claims. */
+export const ageingSchema = z.object({
+  targets: stageTargetsSchema,
+  byStage: z.array(
+    z.object({ stage: z.enum(AGEING_STAGES), target: z.number().int().nullable(), ...ageingRowShape }),
+  ),
+  byReviewer: z.array(z.object({ reviewerId: z.uuid().nullable(), reviewer: z.string(), ...ageingRowShape })),
   /** The claims past their stage's target, longest first. */
-  overdue: AgeingClaimDto[];
-};
+  overdue: z.array(ageingClaimSchema),
+});
+export type AgeingDto = z.infer<typeof ageingSchema>;

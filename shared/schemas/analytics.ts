@@ -3,7 +3,7 @@ import type { AgeingTable, CrossTable, RankedCount } from '../analytics/failure-
 import type { KaplanMeierRow } from '../analytics/kaplan-meier';
 import type { CohortReserve, CurrencyReserve } from '../analytics/reserve';
 import type { ProbabilityPlot, WeibullFit } from '../analytics/weibull';
-import { isoDateSchema, lotSchema, PRODUCT_FAMILIES, uuidSchema, type ProductFamily } from './catalogue';
+import { isoDateSchema, lotSchema, PRODUCT_FAMILIES, uuidSchema } from './catalogue';
 
 // The reliability analytics and reserve routes: one strict schema per query, the answers' shapes beside them.
 
@@ -101,48 +101,115 @@ export type ReserveQuery = z.infer<typeof reserveQuerySchema>;
 
 // ---- answers ----
 
-export type PopulationDto = {
-  kind: 'model' | 'family' | 'lot';
-  label: string;
-  productModelId?: string;
-  family?: ProductFamily;
-  lot?: string;
-};
+/** Whether two types are the same both ways: the answer schemas below must not drift from the computations. */
+type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
 
-export type LifeSummaryDto = {
-  unit: 'months' | 'hours';
-  age: 'midpoint' | 'completed';
-  asOf: string;
-  units: number;
-  failed: number;
-  survivors: number;
-  excessFailures: number;
-  failureGroups: { time: number; count: number }[];
-  suspensionGroups: { time: number; count: number }[];
-};
+const count = z.number().int().min(0);
 
-export type LifeAnalysisDto = {
-  population: PopulationDto;
-  lifeData: LifeSummaryDto;
+export const populationSchema = z.object({
+  kind: z.enum(['model', 'family', 'lot']),
+  label: z.string(),
+  productModelId: z.uuid().optional(),
+  family: z.enum(PRODUCT_FAMILIES).optional(),
+  lot: z.string().optional(),
+});
+export type PopulationDto = z.infer<typeof populationSchema>;
+
+const timeCountSchema = z.object({ time: z.number(), count });
+
+export const lifeSummarySchema = z.object({
+  unit: z.enum(AGE_UNITS),
+  age: z.enum(['midpoint', 'completed']),
+  asOf: z.iso.date(),
+  units: count,
+  failed: count,
+  survivors: count,
+  excessFailures: count,
+  failureGroups: z.array(timeCountSchema),
+  suspensionGroups: z.array(timeCountSchema),
+});
+export type LifeSummaryDto = z.infer<typeof lifeSummarySchema>;
+
+/** A Weibull fit (shared/analytics/weibull.ts). */
+export const weibullFitSchema = z.object({
+  shape: z.number(),
+  scale: z.number(),
+  method: z.enum(FIT_METHODS),
+  failures: count,
+  units: count,
+  b10: z.number(),
+  b50: z.number(),
+  meanLife: z.number(),
+  logLikelihood: z.number(),
+});
+const plotPointSchema = z.object({ time: z.number(), F: z.number(), x: z.number(), y: z.number() });
+export const probabilityPlotSchema = z.object({
+  points: z.array(plotPointSchema.extend({ count })),
+  line: z.tuple([plotPointSchema, plotPointSchema]),
+});
+export const kaplanMeierRowSchema = z.object({
+  time: z.number(),
+  atRisk: count,
+  failed: count,
+  censored: count,
+  survival: z.number(),
+  standardError: z.number(),
+  lower: z.number(),
+  upper: z.number(),
+});
+
+export const lifeAnalysisSchema = z.object({
+  population: populationSchema,
+  lifeData: lifeSummarySchema,
   /** Null when the data cannot be fitted; fitError says why. */
-  fit: WeibullFit | null;
-  fitError: { code: string; message: string } | null;
-  probabilityPlot: ProbabilityPlot | null;
-  kaplanMeier: KaplanMeierRow[];
-};
+  fit: weibullFitSchema.nullable(),
+  fitError: z.object({ code: z.string(), message: z.string() }).nullable(),
+  probabilityPlot: probabilityPlotSchema.nullable(),
+  kaplanMeier: z.array(kaplanMeierRowSchema),
+});
+export type LifeAnalysisDto = z.infer<typeof lifeAnalysisSchema>;
 
-export type FailureModesDto = {
-  population: PopulationDto;
-  asOf: string;
-  claims: number;
-  modes: (RankedCount & { label: string })[];
-  environment: Record<(typeof ENVIRONMENT_FACTOR_KEYS)[number], RankedCount[]>;
+/** One key's claims, units and share of all the rows' claims (shared/analytics/failure-modes.ts). */
+export const rankedCountSchema = z.object({
+  key: z.string(),
+  claims: count,
+  units: count,
+  share: z.number(),
+});
+export const crossTableSchema = z.object({
+  rows: z.array(z.string()),
+  columns: z.array(z.string()),
+  counts: z.array(z.array(count)),
+  rowTotals: z.array(count),
+  columnTotals: z.array(count),
+  total: count,
+});
+export const ageingTableSchema = z.object({
+  installMonths: z.array(z.string()),
+  monthsInService: z.array(count),
+  counts: z.array(z.array(count)),
+  rowTotals: z.array(count),
+  columnTotals: z.array(count),
+});
+
+export const failureModesSchema = z.object({
+  population: populationSchema,
+  asOf: z.iso.date(),
+  claims: count,
+  modes: z.array(rankedCountSchema.extend({ label: z.string() })),
+  environment: z.object(
+    Object.fromEntries(ENVIRONMENT_FACTOR_KEYS.map((k) => [k, z.array(rankedCountSchema)])) as Record<
+      (typeof ENVIRONMENT_FACTOR_KEYS)[number],
+      z.ZodArray<typeof rankedCountSchema>
+    >,
+  ),
   /** Failure mode x the factor asked for. */
-  crossTable: CrossTable & { factor: (typeof ENVIRONMENT_FACTOR_KEYS)[number] };
-  lots: RankedCount[];
-  contractors: RankedCount[];
-  ageing: AgeingTable;
-};
+  crossTable: crossTableSchema.extend({ factor: z.enum(ENVIRONMENT_FACTOR_KEYS) }),
+  lots: z.array(rankedCountSchema),
+  contractors: z.array(rankedCountSchema),
+  ageing: ageingTableSchema,
+});
+export type FailureModesDto = z.infer<typeof failureModesSchema>;
 
 export const AGE_BANDS = [
   '0-7 days',
@@ -152,37 +219,69 @@ export const AGE_BANDS = [
   '61-90 days',
   'over 90 days',
 ] as const;
-export type ClaimsAgeingDto = {
-  asOf: string;
-  open: { band: (typeof AGE_BANDS)[number]; manufacturer: number; contractor: number; total: number }[];
-  throughput: { week: string; approved: number; denied: number; decided: number }[];
-};
+export const claimsAgeingSchema = z.object({
+  asOf: z.iso.date(),
+  open: z.array(z.object({ band: z.enum(AGE_BANDS), manufacturer: count, contractor: count, total: count })),
+  throughput: z.array(z.object({ week: z.iso.date(), approved: count, denied: count, decided: count })),
+});
+export type ClaimsAgeingDto = z.infer<typeof claimsAgeingSchema>;
 
-export type ReserveCohortDto = CohortReserve & {
-  productModelId: string;
-  modelNumber: string;
-  installMonth: string;
-  ageMonths: number;
-  survivors: number;
-  termMonths: number;
-  unitCredit: string;
-  fitFrom: 'model' | 'family';
+/** A forecast's money: decimal strings rounded once to the cent, and the exact cents (shared/analytics/reserve.ts). */
+const reserveAmountsShape = {
+  currency: z.string().regex(/^[A-Z]{3}$/),
+  expectedClaims: z.number(),
+  monthlyClaims: z.array(z.number()),
+  amount: z.string().regex(/^-?\d+(\.\d+)?$/),
+  monthlyAmounts: z.array(z.string().regex(/^-?\d+(\.\d+)?$/)),
+  exactCents: z.number(),
+  monthlyExactCents: z.array(z.number()),
 };
+export const currencyReserveSchema = z.object(reserveAmountsShape);
+export const cohortReserveSchema = z.object({ key: z.string(), ...reserveAmountsShape });
 
-export type ReserveDto = {
-  asOf: string;
-  months: number;
+export const reserveCohortSchema = cohortReserveSchema.extend({
+  productModelId: z.uuid(),
+  modelNumber: z.string(),
+  installMonth: z.string().regex(/^\d{4}-\d{2}$/),
+  ageMonths: count,
+  survivors: count,
+  termMonths: count,
+  unitCredit: z.string().regex(/^-?\d+(\.\d+)?$/),
+  fitFrom: z.enum(['model', 'family']),
+});
+export type ReserveCohortDto = z.infer<typeof reserveCohortSchema>;
+
+export const reserveSchema = z.object({
+  asOf: z.iso.date(),
+  months: z.number().int().min(1),
   /** YYYY-MM of each forecast month, month 1 first. */
-  monthLabels: string[];
-  totals: CurrencyReserve[];
-  cohorts: ReserveCohortDto[];
+  monthLabels: z.array(z.string().regex(/^\d{4}-\d{2}$/)),
+  totals: z.array(currencyReserveSchema),
+  cohorts: z.array(reserveCohortSchema),
   /** Models whose units could not be forecast (too few failures, even for their family). */
-  unforecast: { productModelId: string; modelNumber: string; survivors: number; reason: string }[];
-  fits: {
-    productModelId: string;
-    modelNumber: string;
-    shape: number;
-    scale: number;
-    from: 'model' | 'family';
-  }[];
-};
+  unforecast: z.array(
+    z.object({ productModelId: z.uuid(), modelNumber: z.string(), survivors: count, reason: z.string() }),
+  ),
+  fits: z.array(
+    z.object({
+      productModelId: z.uuid(),
+      modelNumber: z.string(),
+      shape: z.number(),
+      scale: z.number(),
+      from: z.enum(['model', 'family']),
+    }),
+  ),
+});
+export type ReserveDto = z.infer<typeof reserveSchema>;
+
+// The computations' own types and the schemas above are the same shape (tsc fails here if one changes alone).
+export const ANSWER_SCHEMAS_MATCH: [
+  Same<z.infer<typeof weibullFitSchema>, WeibullFit>,
+  Same<z.infer<typeof probabilityPlotSchema>, ProbabilityPlot>,
+  Same<z.infer<typeof kaplanMeierRowSchema>, KaplanMeierRow>,
+  Same<z.infer<typeof rankedCountSchema>, RankedCount>,
+  Same<z.infer<typeof crossTableSchema>, CrossTable>,
+  Same<z.infer<typeof ageingTableSchema>, AgeingTable>,
+  Same<z.infer<typeof cohortReserveSchema>, CohortReserve>,
+  Same<z.infer<typeof currencyReserveSchema>, CurrencyReserve>,
+] = [true, true, true, true, true, true, true, true];

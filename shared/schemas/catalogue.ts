@@ -1,8 +1,15 @@
 import { z } from 'zod';
 import { str } from './text';
-import { DIMMERS, ENCLOSURES, LOCATIONS, NOMINAL_SUPPLY_VOLTS } from '../engine/schema';
+import { DIMMERS, ENCLOSURES, LOCATIONS, NOMINAL_SUPPLY_VOLTS, NOMINAL_VOLTS_META } from '../engine/schema';
 import { listQuerySchema } from './users';
-import { idSchema, instantSchema, orgRefSchema } from './answer-parts';
+import {
+  calendarDateSchema,
+  decimalSchema,
+  currencySchema,
+  idSchema,
+  instantSchema,
+  orgRefSchema,
+} from './answer-parts';
 
 // Product models, warranty policies and installations: one strict schema per payload, shared by the forms,
 // the CSV import and the server. Units are in the field names' labels (W, V, A, lm, °C, h).
@@ -348,41 +355,48 @@ export const policyListQuerySchema = listQuerySchema.extend({
 });
 export type PolicyListQuery = z.infer<typeof policyListQuerySchema>;
 
-export type DenialReason = { code: string; label: string };
+export const denialReasonSchema = z.object({ code: z.string(), label: z.string() });
+export type DenialReason = z.infer<typeof denialReasonSchema>;
 
-export type PolicyVersionDto = {
-  id: string;
-  policyId: string;
-  versionNumber: number;
-  effectiveFrom: string;
-  termMonths: number;
-  fullCoverageMonths: number;
-  filingWindowDays: number;
-  darkLedFailurePercent: number;
-  unitCredit: string;
-  currency: string;
-  labourAllowance: string;
-  requiredPhotos: number;
-  proofOfPurchaseRequired: boolean;
-  exclusions: Exclusion[];
-  denialReasons: DenialReason[];
-  changeNote: string | null;
-  createdAt: string;
-};
+/** One version of a policy's terms as the answers show it (policies.presenter.ts). */
+export const policyVersionSchema = z.object({
+  id: idSchema,
+  policyId: idSchema,
+  versionNumber: z.number().int().min(1),
+  effectiveFrom: calendarDateSchema,
+  termMonths: z.number().int(),
+  fullCoverageMonths: z.number().int(),
+  filingWindowDays: z.number().int(),
+  darkLedFailurePercent: z.number(),
+  unitCredit: decimalSchema,
+  currency: currencySchema,
+  labourAllowance: decimalSchema,
+  requiredPhotos: z.number().int(),
+  proofOfPurchaseRequired: z.boolean(),
+  exclusions: z.array(z.enum(EXCLUSIONS)),
+  denialReasons: z.array(denialReasonSchema),
+  changeNote: z.string().nullable(),
+  createdAt: instantSchema,
+});
+export type PolicyVersionDto = z.infer<typeof policyVersionSchema>;
 
-export type PolicyDto = {
-  id: string;
-  manufacturer: OrgRef;
-  name: string;
-  latestVersionNumber: number;
-  latestVersion: PolicyVersionDto | null;
-  models: { id: string; modelNumber: string; name: string }[];
-  createdAt: string;
-  updatedAt: string;
-  version: number;
-};
+/** A policy in a list: its products and its current terms (null before the first version). */
+export const policySchema = z.object({
+  id: idSchema,
+  manufacturer: orgRefSchema,
+  name: z.string(),
+  latestVersionNumber: z.number().int().min(0),
+  latestVersion: policyVersionSchema.nullable(),
+  models: z.array(z.object({ id: idSchema, modelNumber: z.string(), name: z.string() })),
+  createdAt: instantSchema,
+  updatedAt: instantSchema,
+  version: z.number().int().min(1),
+});
+export type PolicyDto = z.infer<typeof policySchema>;
 
-export type PolicyDetailDto = PolicyDto & { versions: PolicyVersionDto[] };
+/** A policy with every version of its terms, the oldest first. */
+export const policyDetailSchema = policySchema.extend({ versions: z.array(policyVersionSchema) });
+export type PolicyDetailDto = z.infer<typeof policyDetailSchema>;
 
 // ---------------------------------------------------------------------------------------------------------
 // Installations
@@ -414,9 +428,11 @@ const conditionFields = {
   location: z.enum(LOCATIONS, { error: 'Pick the location: dry, damp or wet.' }),
   enclosure: z.enum(ENCLOSURES, { error: 'Pick the enclosure: open, enclosed, or enclosed and ventilated.' }),
   dimmer: z.enum(DIMMERS, { error: 'Pick the dimmer: none, phase-cut or 0-10 V.' }),
-  nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS, {
-    error: 'Pick a nominal supply: 120, 208, 240, 277, 347 or 480 V.',
-  }),
+  nominalSupplyVolts: z
+    .literal(NOMINAL_SUPPLY_VOLTS, {
+      error: 'Pick a nominal supply: 120, 208, 240, 277, 347 or 480 V.',
+    })
+    .meta(NOMINAL_VOLTS_META),
   hoursPerDay: num('the hours of use a day', 'h', 0, 24),
   ambientC: num('the ambient temperature', '°C', -50, 80),
 };
@@ -530,60 +546,78 @@ export const installationListQuerySchema = listQuerySchema.extend({
 });
 export type InstallationListQuery = z.infer<typeof installationListQuerySchema>;
 
-export type FitWarning = { code: string; message: string; reference?: string };
+export const fitWarningSchema = z.object({
+  code: z.string(),
+  message: z.string(),
+  reference: z.string().optional(),
+});
+export type FitWarning = z.infer<typeof fitWarningSchema>;
 
-export type InstallationDto = {
-  id: string;
-  contractor: OrgRef;
-  manufacturer: OrgRef;
-  product: { id: string; modelNumber: string; name: string; family: ProductFamily };
-  siteName: string;
-  siteAddress: string;
-  siteCity: string;
-  siteRegion: string;
-  sitePostalCode: string;
-  quantity: number;
-  serialCount: number;
-  installDate: string;
-  purchaseDate: string | null;
-  distributor: string | null;
-  invoiceNumber: string | null;
-  lot: string | null;
-  location: RatedLocation;
-  enclosure: Enclosure;
-  dimmer: Dimmer;
-  nominalSupplyVolts: (typeof NOMINAL_SUPPLY_VOLTS)[number];
-  hoursPerDay: number;
-  ambientC: number;
-  policyVersion: {
-    id: string;
-    policyId: string;
-    policyName: string;
-    versionNumber: number;
-    effectiveFrom: string;
-  } | null;
-  createdAt: string;
-  updatedAt: string;
-  version: number;
-};
+/** An installation in a list (installations.presenter.ts). */
+export const installationSchema = z.object({
+  id: idSchema,
+  contractor: orgRefSchema,
+  manufacturer: orgRefSchema,
+  product: z.object({
+    id: idSchema,
+    modelNumber: z.string(),
+    name: z.string(),
+    family: z.enum(PRODUCT_FAMILIES),
+  }),
+  siteName: z.string(),
+  siteAddress: z.string(),
+  siteCity: z.string(),
+  siteRegion: z.string(),
+  sitePostalCode: z.string(),
+  quantity: z.number().int().min(1),
+  serialCount: z.number().int().min(0),
+  installDate: calendarDateSchema,
+  purchaseDate: calendarDateSchema.nullable(),
+  distributor: z.string().nullable(),
+  invoiceNumber: z.string().nullable(),
+  lot: z.string().nullable(),
+  location: z.enum(LOCATIONS),
+  enclosure: z.enum(ENCLOSURES),
+  dimmer: z.enum(DIMMERS),
+  nominalSupplyVolts: z.literal(NOMINAL_SUPPLY_VOLTS).meta(NOMINAL_VOLTS_META),
+  hoursPerDay: z.number(),
+  ambientC: z.number(),
+  policyVersion: z
+    .object({
+      id: idSchema,
+      policyId: idSchema,
+      policyName: z.string(),
+      versionNumber: z.number().int().min(1),
+      effectiveFrom: calendarDateSchema,
+    })
+    .nullable(),
+  createdAt: instantSchema,
+  updatedAt: instantSchema,
+  version: z.number().int().min(1),
+});
+export type InstallationDto = z.infer<typeof installationSchema>;
 
-export type InstallationDetailDto = InstallationDto & {
-  serials: string[];
-  fit: FitWarning[];
-  productRatings: ProductDto;
-};
+/** One installation: its serials, the fit warnings of its conditions against the product, the product's ratings. */
+export const installationDetailSchema = installationSchema.extend({
+  serials: z.array(z.string()),
+  fit: z.array(fitWarningSchema),
+  productRatings: productSchema,
+});
+export type InstallationDetailDto = z.infer<typeof installationDetailSchema>;
 
 // ---------------------------------------------------------------------------------------------------------
 // History and import
 
-export type HistoryEventDto = {
-  id: string;
-  occurredAt: string;
-  action: string;
-  actor: { name: string; organization: string } | null;
-  before: Record<string, unknown> | null;
-  after: Record<string, unknown> | null;
-};
+/** A change on a record (server/lib/history.ts): people named to their own organisation, else the organisation. */
+export const historyEventSchema = z.object({
+  id: z.string(),
+  occurredAt: instantSchema,
+  action: z.string(),
+  actor: z.object({ name: z.string(), organization: z.string() }).nullable(),
+  before: z.record(z.string(), z.unknown()).nullable(),
+  after: z.record(z.string(), z.unknown()).nullable(),
+});
+export type HistoryEventDto = z.infer<typeof historyEventSchema>;
 
 export const importRequestSchema = z
   .strictObject({
@@ -605,14 +639,22 @@ export const importQuerySchema = z.strictObject({
     .transform((v) => v === 'true'),
 });
 
-export type ImportRowError = { row: number; column: string; message: string };
-export type ImportResult = {
-  dryRun: boolean;
-  total: number;
-  valid: number;
-  invalid: number;
-  imported: number;
-  errors: ImportRowError[];
+export const importRowErrorSchema = z.object({
+  row: z.number().int().min(1),
+  column: z.string(),
+  message: z.string(),
+});
+export type ImportRowError = z.infer<typeof importRowErrorSchema>;
+
+/** An import's outcome (server/lib/csv-import.ts importResult). */
+export const importResultSchema = z.object({
+  dryRun: z.boolean(),
+  total: z.number().int().min(0),
+  valid: z.number().int().min(0),
+  invalid: z.number().int().min(0),
+  imported: z.number().int().min(0),
+  errors: z.array(importRowErrorSchema),
   /** Errors beyond this many are counted, not listed. */
-  errorsTruncated: boolean;
-};
+  errorsTruncated: z.boolean(),
+});
+export type ImportResult = z.infer<typeof importResultSchema>;

@@ -1,11 +1,14 @@
 import {
   claimsAgeingQuerySchema,
+  claimsAgeingSchema,
   failureModesQuerySchema,
+  failureModesSchema,
+  lifeAnalysisSchema,
   lifeQuerySchema,
   reserveQuerySchema,
+  reserveSchema,
 } from '../../../shared/schemas/analytics';
-import { updateStageTargetsSchema } from '../../../shared/schemas/ageing';
-import { openObject } from '../answers';
+import { ageingSchema, updateStageTargetsSchema } from '../../../shared/schemas/ageing';
 import { op, type Registry } from '../registry';
 
 export function analyticsPaths(reg: Registry) {
@@ -18,9 +21,7 @@ export function analyticsPaths(reg: Registry) {
     summary: 'Life data and a Weibull fit for a model, family or lot',
     query: lifeQuerySchema,
     answer: {
-      json: openObject(
-        'The population, its life data, the Weibull fit, probability plot and Kaplan-Meier rows',
-      ),
+      json: lifeAnalysisSchema,
       ...csv,
     },
   });
@@ -31,7 +32,7 @@ export function analyticsPaths(reg: Registry) {
     summary: 'Failure modes ranked, by environment, lot and contractor',
     query: failureModesQuerySchema,
     answer: {
-      json: openObject('Failure modes ranked, cross tables by environment, lots, contractors and ageing'),
+      json: failureModesSchema,
       ...csv,
     },
   });
@@ -41,7 +42,7 @@ export function analyticsPaths(reg: Registry) {
     tag,
     summary: 'Open claims by age band, and weekly throughput',
     query: claimsAgeingQuerySchema,
-    answer: { json: openObject('Open claims per age band and side, decisions per week'), ...csv },
+    answer: { json: claimsAgeingSchema, ...csv },
   });
   op(reg, {
     method: 'get',
@@ -50,7 +51,7 @@ export function analyticsPaths(reg: Registry) {
     summary: 'The warranty reserve forecast per month and cohort',
     query: reserveQuerySchema,
     answer: {
-      json: openObject('Forecast credits per month and currency, per cohort, and the fits used'),
+      json: reserveSchema,
       ...csv,
     },
   });
@@ -60,7 +61,7 @@ export function analyticsPaths(reg: Registry) {
     tag,
     summary: 'How long claims have sat in each stage, against the targets',
     answer: {
-      json: openObject('Targets, counts per stage and reviewer by age bucket, and the overdue claims'),
+      json: ageingSchema,
     },
   });
   op(reg, {
@@ -77,7 +78,7 @@ export function analyticsPaths(reg: Registry) {
     summary: 'Set the days a claim may sit in each stage (administrators)',
     body: updateStageTargetsSchema,
     answer: {
-      json: openObject('Targets, counts per stage and reviewer by age bucket, and the overdue claims'),
+      json: ageingSchema,
     },
   });
 }

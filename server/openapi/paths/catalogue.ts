@@ -3,12 +3,19 @@ import { evaluationInputSchema, evaluationSchema } from '../../../shared/engine'
 import { pageSchema } from '../../../shared/schemas/answer-parts';
 import {
   createPolicySchema,
+  historyEventSchema,
   importQuerySchema,
   importRequestSchema,
+  importResultSchema,
+  installationDetailSchema as installationDetail,
   installationInputSchema,
   installationListQuerySchema,
+  installationSchema,
+  policyDetailSchema as policyDetail,
   policyListQuerySchema,
+  policySchema as policy,
   policyTermsSchema,
+  policyVersionSchema,
   productInputSchema,
   productListQuerySchema,
   productSchema as product,
@@ -16,13 +23,10 @@ import {
   updatePolicySchema,
   updateProductSchema,
 } from '../../../shared/schemas/catalogue';
-import { importResultSchema, itemsOf, openObject } from '../answers';
+import { itemsOf } from '../answers';
 import { op, type Registry } from '../registry';
 
-const policy = openObject('A warranty policy: its products and current terms');
-const policyDetail = openObject('A warranty policy with every version of its terms');
-const installation = openObject('An installation: site, product, units, serials, conditions, fit warnings');
-const history = itemsOf(openObject('A change on the record: when, who, what'));
+const history = itemsOf(historyEventSchema);
 
 export function cataloguePaths(reg: Registry) {
   const tag = 'Products, policies, installations';
@@ -130,7 +134,7 @@ export function cataloguePaths(reg: Registry) {
     summary: 'Add a version of the terms (claims keep the version they were filed under)',
     body: policyTermsSchema,
     status: 201,
-    answer: { json: z.object({ policy: policyDetail, version: openObject('The new version of the terms') }) },
+    answer: { json: z.object({ policy: policyDetail, version: policyVersionSchema }) },
   });
   op(reg, {
     method: 'patch',
@@ -155,7 +159,7 @@ export function cataloguePaths(reg: Registry) {
     tag,
     summary: 'Installations (sites where products were fitted)',
     query: installationListQuerySchema,
-    answer: { json: pageSchema(installation) },
+    answer: { json: pageSchema(installationSchema) },
   });
   op(reg, {
     method: 'post',
@@ -164,7 +168,7 @@ export function cataloguePaths(reg: Registry) {
     summary: 'Record an installation',
     body: installationInputSchema,
     status: 201,
-    answer: { json: z.object({ installation }) },
+    answer: { json: z.object({ installation: installationDetail }) },
   });
   op(reg, {
     method: 'get',
@@ -192,7 +196,7 @@ export function cataloguePaths(reg: Registry) {
     path: '/api/installations/:id',
     tag,
     summary: 'One installation',
-    answer: { json: z.object({ installation }) },
+    answer: { json: z.object({ installation: installationDetail }) },
   });
   op(reg, {
     method: 'patch',
@@ -200,7 +204,7 @@ export function cataloguePaths(reg: Registry) {
     tag,
     summary: 'Change an installation',
     body: updateInstallationSchema,
-    answer: { json: z.object({ installation }) },
+    answer: { json: z.object({ installation: installationDetail }) },
     errors: [409],
   });
   op(reg, {
