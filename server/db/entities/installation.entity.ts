@@ -26,6 +26,9 @@ import { WarrantyPolicyVersion } from './warranty-policy-version.entity';
 @Index('ix_installations_mfr_site', ['manufacturerId', 'siteName'])
 @Index('ix_installations_mfr_created', ['manufacturerId', 'createdAt'])
 @Index('ix_installations_model_date', ['productModelId', 'installDate'])
+// The location filter (damp, wet, dry) with the usual sort: the page and its count read an index range.
+@Index('ix_installations_mfr_location_date', ['manufacturerId', 'location', 'installDate'])
+@Index('ix_installations_contractor_location_date', ['contractorId', 'location', 'installDate'])
 @Index('ix_installations_location', ['location'])
 @Index('ix_installations_enclosure', ['enclosure'])
 @Index('ix_installations_supply', ['nominalSupplyVolts'])

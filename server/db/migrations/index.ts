@@ -26,6 +26,7 @@ import { WaitingReads1796289213143 } from './1796289213143-WaitingReads';
 import { WaitingMailSettings1796289583379 } from './1796289583379-WaitingMailSettings';
 import { StageTargets1796289851958 } from './1796289851958-StageTargets';
 import { ClaimSearch1796290000000 } from './1796290000000-ClaimSearch';
+import { InstallationLocationIndexes1796300000000 } from './1796300000000-InstallationLocationIndexes';
 
 export const migrations = [
   Foundation1796165467051,
@@ -55,4 +56,5 @@ export const migrations = [
   WaitingMailSettings1796289583379,
   StageTargets1796289851958,
   ClaimSearch1796290000000,
+  InstallationLocationIndexes1796300000000,
 ];
