@@ -113,6 +113,35 @@ export async function readRows<T>(
   return runOn<T>(ds, 'master', sql, params, opts);
 }
 
+/** A list's total: a statement answering one row with the count in `n`. */
+export type TotalQuery = { sql: string; params: unknown[] };
+
+/**
+ * A list's page and its total in one statement: the total rides on every row as a scalar subquery of the select
+ * list, which MariaDB runs once (it refers to nothing outside itself). One statement instead of two side by side
+ * saves a round trip and a pooled connection per list request. A page past the end has no row to carry the total,
+ * so only then is the total asked on its own.
+ *
+ * `select` is the page's column list and `rest` everything after it (FROM … LIMIT ? OFFSET ?), `params` the
+ * values of `rest`'s placeholders; `modifiers` go right after SELECT (STRAIGHT_JOIN).
+ */
+export async function readPageWithTotal<T>(
+  ds: DataSource,
+  page: { modifiers?: string; select: string; rest: string; params: unknown[] },
+  total: TotalQuery,
+  opts: ReadOptions = {},
+): Promise<{ rows: T[]; total: number }> {
+  const rows = await readRows<T & { list_total_: string | number }>(
+    ds,
+    `SELECT ${page.modifiers ?? ''} (${total.sql}) AS list_total_, ${page.select} ${page.rest}`,
+    [...total.params, ...page.params],
+    opts,
+  );
+  if (rows.length) return { rows, total: Number(rows[0].list_total_) };
+  const [counted] = await readRows<{ n: string | number }>(ds, total.sql, total.params, opts);
+  return { rows, total: Number(counted?.n ?? 0) };
+}
+
 /**
  * The primary's mysql2 pool (callback API), in both modes: TypeORM's own pool without replicas, the pool
  * cluster's MASTER node with them. For libraries that take a pool (rate-limiter-flexible's storeType 'pool').

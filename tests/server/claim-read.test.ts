@@ -2,12 +2,14 @@ import crypto from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Attachment } from '../../server/db/entities/attachment.entity';
 import { Claim } from '../../server/db/entities/claim.entity';
+import { Installation } from '../../server/db/entities/installation.entity';
 import { InstallationUnit } from '../../server/db/entities/installation-unit.entity';
 import { User } from '../../server/db/entities/user.entity';
 import { recordAudit } from '../../server/lib/audit';
 import { historyEventOf, loadHistory } from '../../server/lib/history';
 import { listAttachments } from '../../server/modules/attachments/attachments.service';
 import { createClaimsService } from '../../server/modules/claims/claims.service';
+import { createInstallationsService } from '../../server/modules/installations/installations.service';
 import { createOrganization, createUser } from '../support/factories';
 import { createClaimAt, createReviewWorld } from '../support/review-factories';
 import { closeTestApp, createTestApp, type TestContext } from '../support/test-app';
@@ -185,5 +187,54 @@ describe('reading a claim for its page', () => {
     expect(page!.attachments).toEqual(listed);
     expect(page!.attachments[0].capturedAt).toEqual(new Date('2026-11-30T08:15:42.123Z'));
     expect(await service.findForPage(crypto.randomUUID())).toBeNull();
+  });
+});
+
+describe('reading an installation for its page', () => {
+  const byQueryBuilder = (id: string) =>
+    t.ds
+      .createQueryBuilder(Installation, 'i')
+      .leftJoinAndSelect('i.productModel', 'p')
+      .leftJoinAndSelect('p.manufacturer', 'pm')
+      .leftJoinAndSelect('i.contractor', 'c')
+      .leftJoinAndSelect('i.manufacturer', 'm')
+      .leftJoinAndSelect('i.policyVersion', 'v')
+      .leftJoinAndSelect('v.policy', 'pol')
+      .leftJoinAndSelect('i.units', 'u')
+      .where('i.id = :id', { id })
+      .orderBy('u.id')
+      .getOne();
+
+  it('gives what the query builder gives, with and without units and a policy', async () => {
+    const w = await createReviewWorld(
+      t.ds,
+      await createOrganization(t.ds, 'contractor'),
+      await createOrganization(t.ds, 'manufacturer'),
+    );
+    const service = createInstallationsService(t.ds);
+    const id = w.installation.id;
+    const bare = await service.findById(id);
+    expect(bare).toBeInstanceOf(Installation);
+    expect(bare!.units).toEqual([]);
+    expect(bare).toEqual(await byQueryBuilder(id));
+    const units = t.ds.getRepository(InstallationUnit);
+    for (const serial of ['SN-B2', 'SN-B1', 'SN-B3'])
+      await units.save(
+        units.create({
+          installationId: id,
+          productModelId: w.product.id,
+          manufacturerId: w.manufacturer.id,
+          serial: `${serial}-${id.slice(0, 6)}`,
+        }),
+      );
+    const full = await service.findById(id);
+    expect(full!.units).toHaveLength(3);
+    expect(full!.policyVersion?.policy.name).toBeTruthy();
+    expect(full).toEqual(await byQueryBuilder(id));
+    await t.ds.getRepository(Installation).update({ id }, { policyVersionId: null });
+    const unpolicied = await service.findById(id);
+    expect(unpolicied!.policyVersion).toBeNull();
+    expect(unpolicied).toEqual(await byQueryBuilder(id));
+    expect(await service.findById('00000000-0000-4000-8000-000000000000')).toBeNull();
   });
 });

@@ -4,7 +4,7 @@ import { CLAIM_STAGES, OPEN_STAGES, type ClaimListQuery } from '../../../shared/
 import type { SessionUser } from '../../auth/passport';
 import type { AppDataSource } from '../../db/data-source';
 import { hydrate, hydrateJson, jsonArrayOf, jsonObjectOf, selectColumns } from '../../db/hydrate';
-import { Conditions, isoOfDateTime, readRows } from '../../db/read';
+import { Conditions, isoOfDateTime, readPageWithTotal, readRows } from '../../db/read';
 import { Attachment } from '../../db/entities/attachment.entity';
 import { AuditEvent } from '../../db/entities/audit-event.entity';
 import { Claim } from '../../db/entities/claim.entity';
@@ -314,22 +314,13 @@ export function createClaimReads(ds: AppDataSource) {
       if (q.filedTo) w.and('c.filed_at < DATE_ADD(?, INTERVAL 1 DAY)', q.filedTo);
       const search = claimSearch(q.q);
       if (search) w.and(search.sql, ...search.params);
-      // Two statements whatever the page size, run side by side: the page with its joins, and the total. Filtered by
-      // stage alone (the usual list), the total is a sum over the claim counts the triggers keep
+      // One statement whatever the page size: the page with its joins, carrying its total (readPageWithTotal).
+      // Filtered by stage alone (the usual list), the total is a sum over the claim counts the triggers keep
       // (server/lib/claim-counts.ts); with any other filter it is a count, which joins a table only for a filter on
       // it. Left joins on required keys keep the claims table first in the plan, so the page is read straight off
       // the (organisation, stage, sort column) index; the tie-break runs the same way as the sort so the index can
       // serve both. The SQL is written out (server/db/read.ts).
-      const page = `SELECT ${LIST_COLUMNS}
-          FROM claims c
-          LEFT JOIN organizations co ON co.id = c.contractor_id
-          LEFT JOIN organizations mo ON mo.id = c.manufacturer_id
-          LEFT JOIN product_models p ON p.id = c.product_model_id
-          LEFT JOIN installations i ON i.id = c.installation_id
-          ${w.sql}
-         ORDER BY ${sort.column} ${sort.direction}, c.id ${sort.direction}
-         LIMIT ? OFFSET ?`;
-      const count = byStageOnly(q)
+      const total = byStageOnly(q)
         ? stageTotal({
             organizationId: scope.orgId,
             stagesIn: q.stage,
@@ -345,13 +336,24 @@ export function createClaimReads(ds: AppDataSource) {
                     ${w.sql}`,
             params: w.params,
           };
-      const [rows, [counted]] = await Promise.all([
-        readRows<RawListRow>(ds, page, [...w.params, q.pageSize, (q.page - 1) * q.pageSize], {
-          dateStrings: true,
-        }),
-        readRows<{ n: string | number }>(ds, count.sql, count.params),
-      ]);
-      return { items: rows.map(listRowOf), total: Number(counted?.n ?? 0) };
+      const { rows, total: counted } = await readPageWithTotal<RawListRow>(
+        ds,
+        {
+          select: LIST_COLUMNS,
+          rest: `FROM claims c
+          LEFT JOIN organizations co ON co.id = c.contractor_id
+          LEFT JOIN organizations mo ON mo.id = c.manufacturer_id
+          LEFT JOIN product_models p ON p.id = c.product_model_id
+          LEFT JOIN installations i ON i.id = c.installation_id
+          ${w.sql}
+         ORDER BY ${sort.column} ${sort.direction}, c.id ${sort.direction}
+         LIMIT ? OFFSET ?`,
+          params: [...w.params, q.pageSize, (q.page - 1) * q.pageSize],
+        },
+        total,
+        { dateStrings: true },
+      );
+      return { items: rows.map(listRowOf), total: counted };
     },
 
     /** The installation a new claim is started from (the caller authorises reading it). */

@@ -2,7 +2,7 @@ import { DESK_OPTIONS_LIMIT, type QueueItemDto, type QueueQuery } from '../../..
 import type { AppAbility } from '../../../shared/abilities';
 import type { ClaimStage } from '../../../shared/schemas/claims';
 import type { AppDataSource } from '../../db/data-source';
-import { Conditions, readRows } from '../../db/read';
+import { Conditions, readPageWithTotal, readRows } from '../../db/read';
 import { claimSearch } from '../../lib/claim-search';
 import { clock } from '../../lib/clock';
 import { likeContains, parseSort } from '../../lib/pagination';
@@ -92,22 +92,23 @@ export function createReviewService(ds: AppDataSource) {
       // page's last row; left to itself the optimiser starts from the 24 organisations and sorts every match in a
       // temporary table (25x slower on 100,000 claims: scripts/bench/queue.bench.ts). The serials are counted, not
       // selected: a JSON column in a sort would put that table on disk.
-      const [rows, count] = await Promise.all([
-        readRows<QueueRow>(
-          ds,
-          `SELECT STRAIGHT_JOIN c.id, c.number, c.stage, c.waiting_on, c.contractor_id, o.name AS contractor_name, p.id AS product_id, p.model_number, ` +
+      // The page carries its total (readPageWithTotal): one statement.
+      return readPageWithTotal<QueueRow>(
+        ds,
+        {
+          modifiers: 'STRAIGHT_JOIN',
+          select:
+            `c.id, c.number, c.stage, c.waiting_on, c.contractor_id, o.name AS contractor_name, p.id AS product_id, p.model_number, ` +
             `p.name AS product_name, i.site_name, c.units, JSON_LENGTH(c.serials) AS serial_count, c.filed_at, c.stage_changed_at, c.verdict, ` +
-            `c.expected_credit, c.currency, c.assigned_reviewer_id AS assignee_id, u.name AS assignee_name, c.version ${FROM} ${w.sql} ` +
-            `ORDER BY ${sort.column} ${sort.direction}, c.id ${sort.direction} LIMIT ? OFFSET ?`,
-          [...w.params, q.pageSize, (q.page - 1) * q.pageSize],
-        ),
-        readRows<{ n: number | string }>(
-          ds,
-          `SELECT STRAIGHT_JOIN COUNT(*) AS n ${countJoins ? FROM : 'FROM claims c'} ${w.sql}`,
-          w.params,
-        ),
-      ]);
-      return { rows, total: Number(count[0]?.n ?? 0) };
+            `c.expected_credit, c.currency, c.assigned_reviewer_id AS assignee_id, u.name AS assignee_name, c.version`,
+          rest: `${FROM} ${w.sql} ORDER BY ${sort.column} ${sort.direction}, c.id ${sort.direction} LIMIT ? OFFSET ?`,
+          params: [...w.params, q.pageSize, (q.page - 1) * q.pageSize],
+        },
+        {
+          sql: `SELECT STRAIGHT_JOIN COUNT(*) AS n ${countJoins ? FROM : 'FROM claims c'} ${w.sql}`,
+          params: w.params,
+        },
+      );
     },
 
     /** The home panel's counts: claims by stage, those assigned to this reviewer, the unassigned, the oldest. */
