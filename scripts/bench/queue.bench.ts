@@ -133,14 +133,12 @@ async function main() {
       const params = [mfr.id, ...tc.params];
       const pageSql = `SELECT STRAIGHT_JOIN ${COLUMNS} ${FROM} WHERE ${where} ORDER BY ${tc.order} LIMIT 50 OFFSET 0`;
       const countSql = `SELECT STRAIGHT_JOIN COUNT(*) AS n ${tc.countJoins ? FROM : 'FROM claims c'} WHERE ${where}`;
+      // As the route sends it: one statement, the page carrying its total (readPageWithTotal, server/db/read.ts).
+      const oneSql = `SELECT STRAIGHT_JOIN (${countSql}) AS list_total_, ${COLUMNS} ${FROM} WHERE ${where} ORDER BY ${tc.order} LIMIT 50 OFFSET 0`;
       const raw = async () => {
-        // The route sends its two queries at once on two connections; by hand, one after the other on one.
-        const [rows] = await conn.query(pageSql, params);
-        const [count] = await conn.query(countSql, params);
-        return {
-          ids: (rows as { id: string }[]).map((r) => r.id),
-          total: Number((count as { n: string }[])[0].n),
-        };
+        const [rows] = await conn.query(oneSql, [...params, ...params]);
+        const list = rows as { id: string; list_total_: string }[];
+        return { ids: list.map((r) => r.id), total: Number(list[0]?.list_total_ ?? 0) };
       };
       const apiMs: number[] = [];
       const rawMs: number[] = [];

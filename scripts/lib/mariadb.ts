@@ -39,6 +39,8 @@ export const replicaSets = (dbPort: number) =>
 export type LocalDb = {
   url: string;
   port: number;
+  /** The server's process id (CPU accounting in the benchmarks). */
+  pid: number;
   socket: string;
   startedHere: boolean;
   stop: () => Promise<void>;
@@ -237,6 +239,7 @@ export async function startLocalDb(opts: {
   return {
     url,
     port: opts.port,
+    pid,
     socket,
     startedHere,
     stop: async () => {

@@ -45,7 +45,7 @@ type Loaded = { id: string; user: User | null };
  * request needs all three, and reading them one after the other cost a query and TypeORM's hydration each time.
  * The user comes fresh from the database on every request, so a disabled user or a changed role counts at once.
  */
-const SESSION_SQL = `SELECT s.data, s.expires, u.id AS u_id, u.organization_id, u.email, u.name, u.roles, u.status,
+export const SESSION_SQL = `SELECT s.data, s.expires, u.id AS u_id, u.organization_id, u.email, u.name, u.roles, u.status,
        u.last_sign_in_at, u.created_at, u.updated_at, u.version, u.totp_confirmed_at, o.name AS o_name,
        o.kind AS o_kind, o.require_second_factor AS o_require_second_factor, o.time_zone AS o_time_zone,
        o.locale AS o_locale, o.created_at AS o_created_at

@@ -3,6 +3,9 @@ import path from 'node:path';
 import { freePort, waitForHealth } from '../../lib/free-port';
 import { buildServerIfNeeded, SERVER_OUT_DIR } from '../../lib/build-server';
 
+/** BENCH_NODE_ARGS, e.g. `--cpu-prof --cpu-prof-dir=.data/profiles`, for the compiled server's node. */
+const nodeArgs = () => (process.env.BENCH_NODE_ARGS ?? '').split(/\s+/).filter(Boolean);
+
 /**
  * The API as production runs it (the compiled server, `node dist-server/index.js`, built first when needed;
  * NODE_ENV=production) in a process of its own, so that the load generator and the server do not share an event
@@ -17,7 +20,7 @@ export async function startServerProcess(
   if (!opts.fromSources) await buildServerIfNeeded();
   const [command, args] = opts.fromSources
     ? [path.resolve('node_modules/.bin/tsx'), [path.resolve('server/index.ts')]]
-    : [process.execPath, [path.resolve(SERVER_OUT_DIR, 'index.js')]];
+    : [process.execPath, [...nodeArgs(), path.resolve(SERVER_OUT_DIR, 'index.js')]];
   const child = spawn(command, args, {
     env: {
       ...process.env,
@@ -42,6 +45,8 @@ export async function startServerProcess(
   exited.catch(() => {});
   return {
     base,
+    /** The server's process (with WEB_CONCURRENCY > 1 the cluster's primary, its workers its children). */
+    pid: child.pid!,
     stop: () =>
       new Promise<void>((resolve) => {
         if (child.exitCode !== null) return resolve();
