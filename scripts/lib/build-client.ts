@@ -2,7 +2,8 @@ import { execFileSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 
-function newestMtime(p: string): number {
+/** The newest modification time under a path (0 when it is missing): what a build is compared against. */
+export function newestMtime(p: string): number {
   if (!fs.existsSync(p)) return 0;
   const st = fs.statSync(p);
   if (!st.isDirectory()) return st.mtimeMs;

@@ -2,6 +2,7 @@ import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { build } from 'esbuild';
+import { newestMtime } from './build-client';
 
 // The server compiled ahead of time: esbuild bundles server/index.ts (the production entry) and server/worker.ts
 // (a cluster's serving process) with the project's own code and `shared/` into dist-server/, each file whole,
@@ -12,15 +13,6 @@ import { build } from 'esbuild';
 
 export const SERVER_OUT_DIR = 'dist-server';
 const SOURCES = ['server', 'shared', 'package.json', 'tsconfig.json'];
-
-function newestMtime(p: string): number {
-  if (!fs.existsSync(p)) return 0;
-  const st = fs.statSync(p);
-  if (!st.isDirectory()) return st.mtimeMs;
-  let newest = st.mtimeMs;
-  for (const entry of fs.readdirSync(p)) newest = Math.max(newest, newestMtime(path.join(p, entry)));
-  return newest;
-}
 
 /** Bundles the server into dist-server/ (index.js and worker.js, with source maps). */
 export async function buildServer() {

@@ -6,6 +6,7 @@ import {
   calendarDateSchema,
   decimalSchema,
   currencySchema,
+  historyEventSchema,
   idSchema,
   instantSchema,
   orgRefSchema,
@@ -608,15 +609,8 @@ export type InstallationDetailDto = z.infer<typeof installationDetailSchema>;
 // ---------------------------------------------------------------------------------------------------------
 // History and import
 
-/** A change on a record (server/lib/history.ts): people named to their own organisation, else the organisation. */
-export const historyEventSchema = z.object({
-  id: z.string(),
-  occurredAt: instantSchema,
-  action: z.string(),
-  actor: z.object({ name: z.string(), organization: z.string() }).nullable(),
-  before: z.record(z.string(), z.unknown()).nullable(),
-  after: z.record(z.string(), z.unknown()).nullable(),
-});
+// A record's history (server/lib/history.ts) is one shape everywhere: answer-parts' historyEventSchema.
+export { historyEventSchema };
 export type HistoryEventDto = z.infer<typeof historyEventSchema>;
 
 export const importRequestSchema = z

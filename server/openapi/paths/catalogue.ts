@@ -30,7 +30,6 @@ const history = itemsOf(historyEventSchema);
 
 export function cataloguePaths(reg: Registry) {
   const tag = 'Products, policies, installations';
-  const csvTemplate = { file: 'text/csv', description: 'The CSV header row the import takes.' };
 
   op(reg, {
     method: 'get',
@@ -50,27 +49,7 @@ export function cataloguePaths(reg: Registry) {
     answer: { json: z.object({ product }) },
     errors: [409],
   });
-  op(reg, {
-    method: 'get',
-    path: '/api/products/import-template',
-    tag,
-    summary: 'The product import’s CSV template',
-    answer: csvTemplate,
-  });
-  op(reg, {
-    method: 'post',
-    path: '/api/products/import',
-    tag,
-    summary: 'Import product models from CSV text (`dryRun=true` checks only)',
-    query: importQuerySchema,
-    body: importRequestSchema,
-    status: 201,
-    alsoStatus: 200,
-    answer: {
-      json: importResultSchema,
-      description: '201 when rows were imported; 200 on a dry run or when none were.',
-    },
-  });
+  importOps(reg, tag, 'products', 'product', 'product models');
   op(reg, {
     method: 'get',
     path: '/api/products/:id',
@@ -170,27 +149,7 @@ export function cataloguePaths(reg: Registry) {
     status: 201,
     answer: { json: z.object({ installation: installationDetail }) },
   });
-  op(reg, {
-    method: 'get',
-    path: '/api/installations/import-template',
-    tag,
-    summary: 'The installation import’s CSV template',
-    answer: csvTemplate,
-  });
-  op(reg, {
-    method: 'post',
-    path: '/api/installations/import',
-    tag,
-    summary: 'Import installations from CSV text (`dryRun=true` checks only)',
-    query: importQuerySchema,
-    body: importRequestSchema,
-    status: 201,
-    alsoStatus: 200,
-    answer: {
-      json: importResultSchema,
-      description: '201 when rows were imported; 200 on a dry run or when none were.',
-    },
-  });
+  importOps(reg, tag, 'installations', 'installation', 'installations');
   op(reg, {
     method: 'get',
     path: '/api/installations/:id',
@@ -222,5 +181,30 @@ export function cataloguePaths(reg: Registry) {
     summary: 'Run the evaluation engine on a claim’s facts (nothing is stored)',
     body: evaluationInputSchema,
     answer: { json: evaluationSchema },
+  });
+}
+
+/** A CSV import's two routes: its template and the import itself (server/lib/csv-import.ts), alike for each. */
+function importOps(reg: Registry, tag: string, resource: string, noun: string, records: string) {
+  op(reg, {
+    method: 'get',
+    path: `/api/${resource}/import-template`,
+    tag,
+    summary: `The ${noun} import’s CSV template`,
+    answer: { file: 'text/csv', description: 'The CSV header row the import takes.' },
+  });
+  op(reg, {
+    method: 'post',
+    path: `/api/${resource}/import`,
+    tag,
+    summary: `Import ${records} from CSV text (\`dryRun=true\` checks only)`,
+    query: importQuerySchema,
+    body: importRequestSchema,
+    status: 201,
+    alsoStatus: 200,
+    answer: {
+      json: importResultSchema,
+      description: '201 when rows were imported; 200 on a dry run or when none were.',
+    },
   });
 }
