@@ -64,7 +64,15 @@ export function createDataSource(url: string, opts: DataSourceOptions = {}) {
     logging: true,
     logger: opts.logger ?? new PinoQueryLogger(createLogger('warn')),
     maxQueryExecutionTime: opts.slowQueryMs || undefined,
-    extra: { connectionLimit: opts.poolSize ?? 20 },
+    extra: {
+      connectionLimit: opts.poolSize ?? 20,
+      // mysql2 compiles a row parser for each new shape of result (`new Function`). On Node 20's V8, optimising
+      // the one for a claim's record (about 140 columns) sent TurboFan's escape analysis into a loop that held a
+      // background thread at a full core for minutes: under load it cost as much CPU as the requests themselves,
+      // and a second process doubled it. The interpreted parser reads a single row as fast; readRows asks for
+      // the compiled one for lists, where it is about twice as fast per row (server/db/read.ts).
+      disableEval: true,
+    },
   });
 }
 

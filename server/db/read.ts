@@ -17,6 +17,12 @@ export type ReadOptions = {
    * committed write at once (a record just named in a link, a check before a write).
    */
   from?: ReadFrom;
+  /**
+   * mysql2's row parser: `compiled` (the default), generated for the statement's columns, about twice as fast per
+   * row, for lists; `interpreted` for a single wide record (a claim or an installation with all it joins), whose
+   * compiled parser is as slow to read one row and costly for V8 to optimise (server/db/data-source.ts).
+   */
+  parser?: 'compiled' | 'interpreted';
 };
 
 // The request's routing: set by the read-your-writes middleware, read by every readRows under it.
@@ -32,7 +38,7 @@ export const heldToPrimary = () => routing.getStore()?.primary ?? false;
 
 type CallbackConnection = {
   query(
-    o: { sql: string; values: unknown[]; dateStrings?: boolean },
+    o: { sql: string; values: unknown[]; dateStrings?: boolean; disableEval: boolean },
     cb: (err: (Error & { fatal?: boolean; errno?: number }) | null, rows: unknown) => void,
   ): void;
 };
@@ -70,13 +76,14 @@ async function runOn<T>(
   opts: ReadOptions,
 ): Promise<T[]> {
   // TypeORM's public query runner picks the pool (the primary's, or a replica's from its pool cluster); its
-  // connection takes mysql2's per-query options, so `dateStrings` stays a per-read choice.
+  // connection takes mysql2's per-query options, so `dateStrings` and the row parser stay per-read choices.
   const qr = ds.createQueryRunner(mode);
   try {
     const conn = (await qr.connect()) as CallbackConnection;
     return await new Promise<T[]>((resolve, reject) =>
-      conn.query({ sql, values: params, dateStrings: opts.dateStrings }, (err, rows) =>
-        err ? reject(new QueryFailedError(sql, params, err)) : resolve(rows as T[]),
+      conn.query(
+        { sql, values: params, dateStrings: opts.dateStrings, disableEval: opts.parser === 'interpreted' },
+        (err, rows) => (err ? reject(new QueryFailedError(sql, params, err)) : resolve(rows as T[])),
       ),
     );
   } finally {

@@ -5,6 +5,7 @@ import { Claim } from '../../server/db/entities/claim.entity';
 import { Installation } from '../../server/db/entities/installation.entity';
 import { InstallationUnit } from '../../server/db/entities/installation-unit.entity';
 import { User } from '../../server/db/entities/user.entity';
+import { readRows } from '../../server/db/read';
 import { recordAudit } from '../../server/lib/audit';
 import { historyEventOf, loadHistory } from '../../server/lib/history';
 import { listAttachments } from '../../server/modules/attachments/attachments.service';
@@ -236,5 +237,62 @@ describe('reading an installation for its page', () => {
     expect(unpolicied!.policyVersion).toBeNull();
     expect(unpolicied).toEqual(await byQueryBuilder(id));
     expect(await service.findById('00000000-0000-4000-8000-000000000000')).toBeNull();
+  });
+});
+
+describe("mysql2's two row parsers", () => {
+  // Lists read with the parser mysql2 compiles for their columns, a record's page with the interpreted one, and
+  // everything TypeORM reads with the interpreted one too (server/db/data-source.ts): each column type must come
+  // out the same from both (dates, decimals, big numbers as strings, JSON, booleans, NULLs).
+  it('read every kind of column alike', async () => {
+    const w = await createReviewWorld(
+      t.ds,
+      await createOrganization(t.ds, 'contractor'),
+      await createOrganization(t.ds, 'manufacturer'),
+    );
+    const claim = await createClaimAt(t.ds, w, 'approved');
+    await recordAudit(
+      t.ds.manager,
+      { userId: null, organizationId: w.manufacturer.id },
+      {
+        action: 'claim.approved',
+        entityType: 'Claim',
+        entityId: claim.id,
+        after: { amount: '12.50', nested: { list: [1, 2.5, null, 'x'] } },
+      },
+    );
+    const statements: [string, unknown[]][] = [
+      ...[
+        'claims',
+        'installations',
+        'installation_units',
+        'product_models',
+        'organizations',
+        'users',
+        'warranty_policies',
+        'warranty_policy_versions',
+        'audit_events',
+      ].map((table): [string, unknown[]] => [`SELECT * FROM ${table} ORDER BY 1 DESC LIMIT 20`, []]),
+      [
+        `SELECT c.id, c.expected_credit, COUNT(*) AS n, MAX(e.occurred_at) AS last_at, NULL AS nothing,
+                JSON_ARRAYAGG(JSON_OBJECT('at', e.occurred_at, 'after', e.after_state)) AS events
+           FROM claims c JOIN audit_events e ON e.entity_type = 'Claim' AND e.entity_id = c.id
+          WHERE c.id = ?
+          GROUP BY c.id, c.expected_credit`,
+        [claim.id],
+      ],
+    ];
+    for (const [sql, params] of statements) {
+      const compiled = await readRows<Record<string, unknown>>(t.ds, sql, params, { parser: 'compiled' });
+      const interpreted = await readRows<Record<string, unknown>>(t.ds, sql, params, {
+        parser: 'interpreted',
+      });
+      expect(compiled.length, sql).toBeGreaterThan(0);
+      expect(interpreted, sql).toEqual(compiled);
+      for (const opts of [{ dateStrings: true }] as const)
+        expect(await readRows(t.ds, sql, params, { ...opts, parser: 'interpreted' }), sql).toEqual(
+          await readRows(t.ds, sql, params, { ...opts, parser: 'compiled' }),
+        );
+    }
   });
 });

@@ -261,7 +261,9 @@ export function createClaimReads(ds: AppDataSource) {
     // is loaded to be moved, and its version must be the latest.
     const sql = detailSqlOf(false);
     const [row] = (
-      m === ds.manager ? await readRows(ds, sql, [id], { from: 'primary' }) : await m.query(sql, [id])
+      m === ds.manager
+        ? await readRows(ds, sql, [id], { from: 'primary', parser: 'interpreted' })
+        : await m.query(sql, [id])
     ) as Record<string, unknown>[];
     return row ? loadedClaimOf(row) : null;
   }
@@ -274,6 +276,7 @@ export function createClaimReads(ds: AppDataSource) {
     // From the primary: a claim is on its page the moment it is filed, for whoever follows a link to it.
     const [row] = await readRows<Record<string, unknown>>(ds, detailSqlOf(true), [id, id, id], {
       from: 'primary',
+      parser: 'interpreted',
     });
     if (!row) return null;
     return {

@@ -375,7 +375,10 @@ export function createInstallationsService(ds: AppDataSource) {
      * MariaDB's own time building the statement and grouping the joined rows (npm run bench, installation page).
      */
     async findById(id: string): Promise<Installation | null> {
-      const [row] = await readRows<Record<string, unknown>>(ds, detailSql(), [id], { from: 'primary' });
+      const [row] = await readRows<Record<string, unknown>>(ds, detailSql(), [id], {
+        from: 'primary',
+        parser: 'interpreted',
+      });
       if (!row) return null;
       const inst = hydrate(ds, Installation, row, 'i')!;
       const product = hydrate(ds, ProductModel, row, 'p')!;
