@@ -156,27 +156,28 @@ export class SessionStore extends MySQLStore {
 
   override get(sid: string, cb: (err: unknown, data?: session.SessionData | null) => void) {
     // From the primary: a session signed out or a role changed a moment ago must not be read from a lagging replica.
-    readRows<SessionRow>(this.ds, SESSION_SQL, [sid], { from: 'primary', parser: 'interpreted' }).then(
-      (rows) => {
-        const row = rows[0];
-        if (!row || row.expires < Math.round(Date.now() / 1000)) return cb(null, null);
-        let data: session.SessionData & { passport?: { user?: string } };
-        try {
-          data = JSON.parse(row.data);
-        } catch (e) {
-          return cb(e);
-        }
-        const id = data.passport?.user;
-        // A symbol key: express-session copies and hashes only the session's own string keys, so it never saves this.
-        if (id)
-          (data as unknown as { [LOADED_USER]: Loaded })[LOADED_USER] = {
-            id,
-            user: row.u_id ? userOf(row) : null,
-          };
-        cb(null, data);
-      },
-      cb,
-    );
+    readRows<SessionRow>(this.ds, SESSION_SQL, [sid], {
+      from: 'primary',
+      parser: 'interpreted',
+      prepared: true,
+    }).then((rows) => {
+      const row = rows[0];
+      if (!row || row.expires < Math.round(Date.now() / 1000)) return cb(null, null);
+      let data: session.SessionData & { passport?: { user?: string } };
+      try {
+        data = JSON.parse(row.data);
+      } catch (e) {
+        return cb(e);
+      }
+      const id = data.passport?.user;
+      // A symbol key: express-session copies and hashes only the session's own string keys, so it never saves this.
+      if (id)
+        (data as unknown as { [LOADED_USER]: Loaded })[LOADED_USER] = {
+          id,
+          user: row.u_id ? userOf(row) : null,
+        };
+      cb(null, data);
+    }, cb);
   }
 
   override createSession(req: Request, data: session.SessionData) {

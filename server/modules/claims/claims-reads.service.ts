@@ -262,7 +262,7 @@ export function createClaimReads(ds: AppDataSource) {
     const sql = detailSqlOf(false);
     const [row] = (
       m === ds.manager
-        ? await readRows(ds, sql, [id], { from: 'primary', parser: 'interpreted' })
+        ? await readRows(ds, sql, [id], { from: 'primary', parser: 'interpreted', prepared: true })
         : await m.query(sql, [id])
     ) as Record<string, unknown>[];
     return row ? loadedClaimOf(row) : null;
@@ -277,6 +277,7 @@ export function createClaimReads(ds: AppDataSource) {
     const [row] = await readRows<Record<string, unknown>>(ds, detailSqlOf(true), [id, id, id], {
       from: 'primary',
       parser: 'interpreted',
+      prepared: true,
     });
     if (!row) return null;
     return {

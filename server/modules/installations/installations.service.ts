@@ -378,6 +378,7 @@ export function createInstallationsService(ds: AppDataSource) {
       const [row] = await readRows<Record<string, unknown>>(ds, detailSql(), [id], {
         from: 'primary',
         parser: 'interpreted',
+        prepared: true,
       });
       if (!row) return null;
       const inst = hydrate(ds, Installation, row, 'i')!;
