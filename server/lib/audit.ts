@@ -48,7 +48,7 @@ export async function recordAuditMany(
   manager: EntityManager,
   actor: Actor,
   events: { action: string; entityType: string; entityId: string; after?: Record<string, unknown> | null }[],
-  chunk = 2000,
+  chunk = 1000,
 ) {
   const at = clock.now();
   await insertMany(
