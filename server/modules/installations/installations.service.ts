@@ -539,10 +539,9 @@ export function createInstallationsService(ds: AppDataSource) {
       }
 
       type Good = { row: number; product: ProductModel; value: InstallationValues };
-      const good: Good[] = [];
       const fileSerials = new Map<string, number>();
-      for (const [n, c] of coerced.entries()) {
-        if (n % 1000 === 0) onProgress?.({ phase: 'checking', done: n, total: rows.length });
+      /** One row's checks, in file order (a serial on an earlier row makes this one the duplicate). */
+      const check = (c: (typeof coerced)[number]): Good | ImportRowError[] => {
         const rowErrors = [...c.errors];
         let product: ProductModel | undefined;
         const num = typeof c.values.modelNumber === 'string' ? c.values.modelNumber : '';
@@ -600,86 +599,127 @@ export function createInstallationsService(ds: AppDataSource) {
             for (const s of parsed.data.serials)
               fileSerials.set(`${product.id}|${s.toUpperCase()}`, c.raw.row);
         }
-        if (rowErrors.length || !parsed.success || !product) errors.push(...rowErrors);
-        else good.push({ row: c.raw.row, product, value: parsed.data });
-      }
-
-      // Serials already in the register, one query per model and thousand serials.
-      const serialsByModel = new Map<string, string[]>();
-      for (const g of good) {
-        const list = serialsByModel.get(g.product.id);
-        if (list) list.push(...g.value.serials);
-        else serialsByModel.set(g.product.id, [...g.value.serials]);
-      }
-      const taken = new Set<string>();
-      for (const [modelId, serials] of serialsByModel) {
-        if (!serials.length) continue;
-        for (const s of await takenSerials(ds.manager, modelId, serials, null))
-          taken.add(`${modelId}|${s.toUpperCase()}`);
-      }
-      const valid = good.filter((g) => {
-        const clash = g.value.serials.filter((s) => taken.has(`${g.product.id}|${s.toUpperCase()}`));
-        if (!clash.length) return true;
-        errors.push({
-          row: g.row,
-          column: 'serials',
-          message: `Already registered for this model: ${clash.join(', ')}.`,
+        return rowErrors.length || !parsed.success || !product
+          ? rowErrors
+          : { row: c.raw.row, product, value: parsed.data };
+      };
+      /** Of checked rows, those whose serials are not registered yet: one query per model of the chunk. */
+      const unregistered = async (m: EntityManager, good: Good[]) => {
+        const serialsByModel = new Map<string, string[]>();
+        for (const g of good) {
+          const list = serialsByModel.get(g.product.id);
+          if (list) list.push(...g.value.serials);
+          else serialsByModel.set(g.product.id, [...g.value.serials]);
+        }
+        const taken = new Set<string>();
+        for (const [modelId, serials] of serialsByModel)
+          for (const s of await takenSerials(m, modelId, serials, null))
+            taken.add(`${modelId}|${s.toUpperCase()}`);
+        return good.filter((g) => {
+          const clash = g.value.serials.filter((s) => taken.has(`${g.product.id}|${s.toUpperCase()}`));
+          if (!clash.length) return true;
+          errors.push({
+            row: g.row,
+            column: 'serials',
+            message: `Already registered for this model: ${clash.join(', ')}.`,
+          });
+          return false;
         });
-        return false;
-      });
-      let imported = 0;
-      if (!dryRun && !fileBlocked(fileErrors) && valid.length) {
-        try {
-          await ds.transaction(async (m) => {
-            const versions = await versionsByModel(m, [...new Set(valid.map((g) => g.product.id))]);
-            const records = valid.map((g) => {
-              const { serials: _s, ...fields } = g.value;
-              void _s;
-              const policyVersionId =
-                versionInForce(versions.get(g.product.id) ?? [], coverageDate(g.value))?.id ?? null;
-              return {
-                id: crypto.randomUUID(),
-                ...fields,
-                contractorId,
-                manufacturerId: g.product.manufacturerId,
-                policyVersionId,
-                createdById: actor.userId,
-                version: 1,
-              };
-            });
-            const total = valid.length;
-            onProgress?.({ phase: 'writing', done: 0, total });
-            // Installations count for the first half of the writing, their units and audit rows for the rest.
-            await insertMany(m, Installation, records, 1000, (n) =>
-              onProgress?.({ phase: 'writing', done: Math.floor(n / 2), total }),
-            );
-            await insertUnits(
+      };
+
+      // The rows go a thousand at a time: checked, their serials looked up, and (importing) written. A chunk's
+      // INSERTs are sent, not waited for, so that Node checks the next chunk while MariaDB writes this one; the
+      // next chunk's serial lookup runs after them on the same connection. All in one transaction: a failure
+      // anywhere writes nothing.
+      const CHUNK = 1_000;
+      const writing = !dryRun && !fileBlocked(fileErrors);
+      let valid = 0;
+      const walk = async (m: EntityManager) => {
+        const versions = writing ? await versionsByModel(m, [...new Set(products.map((p) => p.id))]) : null;
+        const writes: Promise<unknown>[] = [];
+        let failed: unknown = null;
+        const send = (w: Promise<unknown>) => {
+          const sent = w.catch((err: unknown) => {
+            failed ??= err;
+            throw err;
+          });
+          sent.catch(() => {}); // thrown below, in order
+          writes.push(sent);
+        };
+        if (writing) onProgress?.({ phase: 'writing', done: 0, total: rows.length });
+        for (let start = 0; start < coerced.length && !failed; start += CHUNK) {
+          if (!writing) onProgress?.({ phase: 'checking', done: start, total: rows.length });
+          const good: Good[] = [];
+          for (const c of coerced.slice(start, start + CHUNK)) {
+            const checked = check(c);
+            if (Array.isArray(checked)) errors.push(...checked);
+            else good.push(checked);
+          }
+          const ok = good.length ? await unregistered(m, good) : [];
+          valid += ok.length;
+          const handled = Math.min(start + CHUNK, coerced.length);
+          if (!writing || !ok.length) {
+            if (writing) onProgress?.({ phase: 'writing', done: handled, total: rows.length });
+            continue;
+          }
+          const records = ok.map((g) => {
+            const { serials: _s, ...fields } = g.value;
+            void _s;
+            const policyVersionId =
+              versionInForce(versions!.get(g.product.id) ?? [], coverageDate(g.value))?.id ?? null;
+            return {
+              id: crypto.randomUUID(),
+              ...fields,
+              contractorId,
+              manufacturerId: g.product.manufacturerId,
+              policyVersionId,
+              createdById: actor.userId,
+              version: 1,
+            };
+          });
+          send(insertMany(m, Installation, records, CHUNK));
+          send(
+            insertUnits(
               m,
-              valid.flatMap((g, i) => unitRows(records[i].id, g.product, g.value.serials)),
-            );
-            onProgress?.({ phase: 'writing', done: Math.floor((total * 3) / 4), total });
-            await recordAuditMany(
+              ok.flatMap((g, i) => unitRows(records[i].id, g.product, g.value.serials)),
+            ),
+          );
+          send(
+            recordAuditMany(
               m,
               actor,
               records.map((r, i) => ({
                 action: 'installation.imported',
                 entityType: 'Installation',
                 entityId: r.id,
-                after: installationAuditView({ ...r, serials: valid[i].value.serials }),
+                after: installationAuditView({ ...r, serials: ok[i].value.serials }),
               })),
-            );
-          });
-        } catch (err) {
-          if (isSerialDuplicate(err))
-            throw conflict(
-              'installation.duplicate_serial',
-              'Someone registered one of these serials while the file was importing. Check the file again.',
-            );
-          throw err;
+              CHUNK,
+            ).then(() => {
+              if (!failed) onProgress?.({ phase: 'writing', done: handled, total: rows.length });
+            }),
+          );
+          // Let the statements go out (TypeORM sends a few promise turns later) before checking the next chunk.
+          await new Promise<void>((resolve) => setImmediate(resolve));
         }
-        imported = valid.length;
+        for (const w of writes) await w;
+        if (failed) throw failed;
+      };
+
+      let imported = 0;
+      try {
+        if (writing) await ds.transaction(walk);
+        else await walk(ds.manager);
+      } catch (err) {
+        if (isSerialDuplicate(err))
+          throw conflict(
+            'installation.duplicate_serial',
+            'Someone registered one of these serials while the file was importing. Check the file again.',
+          );
+        throw err;
       }
-      return importResult({ dryRun, total: rows.length, valid: valid.length, imported, errors, fileErrors });
+      if (writing) imported = valid;
+      return importResult({ dryRun, total: rows.length, valid, imported, errors, fileErrors });
     },
   };
 }
