@@ -3,6 +3,7 @@ import Papa from 'papaparse';
 import { useRef, useState } from 'react';
 import { Download, FileUp } from 'lucide-react';
 import type { ImportResult, ImportRowError } from '../../../../shared/schemas/catalogue';
+import { plural } from '../../../../shared/engine/finding';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { Dialog } from '../../../components/ui/dialog';
 import { Table, Td, Th } from '../../../components/ui/table';
@@ -211,19 +212,22 @@ export function ImportDialog({
             )}
           </div>
         ) : null}
-        {stage.kind === 'preview' || stage.kind === 'done' ? <Summary result={stage.result} /> : null}
+        {stage.kind === 'preview' || stage.kind === 'done' ? <ImportSummary result={stage.result} /> : null}
       </div>
     </Dialog>
   );
 }
 
-function Summary({ result }: { result: ImportResult }) {
+const rows = (n: number) => `${n.toLocaleString()} ${plural(n, 'row', 'rows')}`;
+
+/** What a check or an import came to, in words, with the rows it left out. */
+export function ImportSummary({ result }: { result: ImportResult }) {
   return (
     <>
       <p className="text-sm text-ink-800" role="status">
         {result.dryRun
-          ? `${result.total.toLocaleString()} rows read: ${result.valid.toLocaleString()} can be imported, ${result.invalid.toLocaleString()} have problems and will be left out.`
-          : `${result.imported.toLocaleString()} rows imported${result.invalid ? `; ${result.invalid.toLocaleString()} left out` : ''}.`}
+          ? `${rows(result.total)} read: ${result.valid.toLocaleString()} can be imported, ${result.invalid.toLocaleString()} ${plural(result.invalid, 'has', 'have')} problems and will be left out.`
+          : `${rows(result.imported)} imported${result.invalid ? `; ${result.invalid.toLocaleString()} left out` : ''}.`}
       </p>
       {result.errors.length ? (
         <div className="max-h-72 overflow-y-auto rounded-lg border border-ink-200">
