@@ -18,7 +18,7 @@ const featureZones = fs
   }));
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'node_modules/**', '.data/**', 'coverage/**'] },
+  { ignores: ['dist/**', 'dist-server/**', 'node_modules/**', '.data/**', 'coverage/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
