@@ -1,8 +1,8 @@
 // npm run bench:import
 // Imports 10,000 installation rows (two serials each) from CSV through the real import service, on the private
 // MariaDB of its own (profile "bench-import", port DB_PORT + 5, emptied first), and
-// beside it, as the baseline, raw multi-row INSERTs of the same installation and serial rows. Prints rows per
-// second for both and the ratio; asserts nothing.
+// beside it, as the baseline, raw multi-row INSERTs of the same installation and serial rows, in turn for
+// BENCH_IMPORT_ROUNDS rounds (3). Prints each round, then the medians' rows per second and ratio; asserts nothing.
 import crypto from 'node:crypto';
 import Papa from 'papaparse';
 import { loadConfig } from '../../server/config/env';
@@ -16,6 +16,9 @@ import {
 import { resetDatabase, startLocalDb } from '../lib/mariadb';
 
 const ROWS = Number(process.env.BENCH_ROWS ?? 10_000);
+// Rounds of preview, import and raw INSERTs in turn (new serials each round); the medians are printed. One round
+// each gave ratios from 0.45 to 0.66x in one evening, as the machine's speed moved between the two timings.
+const ROUNDS = Number(process.env.BENCH_IMPORT_ROUNDS ?? 3);
 
 async function main() {
   const config = loadConfig();
@@ -78,82 +81,97 @@ async function main() {
       hours_per_day: '16',
       ambient_c: '25',
     });
-    const csv = Papa.unparse({
-      fields: INSTALLATION_COLUMNS.map((c) => c.column),
-      data: Array.from({ length: ROWS }, (_, i) =>
-        INSTALLATION_COLUMNS.map((c) => row(i, 'IMP')[c.column as keyof ReturnType<typeof row>]),
-      ),
-    });
-    console.log(`CSV: ${ROWS.toLocaleString()} rows, ${(csv.length / 1e6).toFixed(1)} MB`);
-
     const service = createInstallationsService(ds);
     const actor = { userId: null, organizationId: contractor.id };
-    let t0 = performance.now();
-    const preview = await service.importRows(contractor.id, { csv }, true, actor);
-    const previewMs = performance.now() - t0;
-    t0 = performance.now();
-    const done = await service.importRows(contractor.id, { csv }, false, actor);
-    const importMs = performance.now() - t0;
-    if (done.imported !== ROWS || preview.valid !== ROWS)
-      throw new Error(`expected ${ROWS} rows, got preview ${preview.valid}, imported ${done.imported}`);
+    const round = async (r: number) => {
+      const csv = Papa.unparse({
+        fields: INSTALLATION_COLUMNS.map((c) => c.column),
+        data: Array.from({ length: ROWS }, (_, i) =>
+          INSTALLATION_COLUMNS.map((c) => row(i, `IMP${r}`)[c.column as keyof ReturnType<typeof row>]),
+        ),
+      });
+      if (r === 0) console.log(`CSV: ${ROWS.toLocaleString()} rows, ${(csv.length / 1e6).toFixed(1)} MB`);
 
-    // Baseline: the same rows as raw multi-row INSERTs (500 installations or 1000 serials a statement), in
-    // one transaction, with no parsing, validation, duplicate checks, version lookup or audit rows.
-    t0 = performance.now();
-    await ds.transaction(async (m) => {
-      const ids = Array.from({ length: ROWS }, () => crypto.randomUUID());
-      const cols =
-        'id, contractor_id, manufacturer_id, product_model_id, policy_version_id, site_name, site_address, site_city, site_region, site_postal_code, quantity, install_date, purchase_date, distributor, invoice_number, location, enclosure, dimmer, nominal_supply_volts, hours_per_day, ambient_c, created_by_id, version';
-      for (let i = 0; i < ROWS; i += 500) {
-        const n = Math.min(500, ROWS - i);
-        const params: unknown[] = [];
-        for (let k = 0; k < n; k++) {
-          const j = i + k;
-          params.push(
-            ids[j],
-            contractor.id,
-            mfr.id,
-            product.id,
-            null,
-            `Site ${j}`,
-            `${j} Bench Road`,
-            'Benchton',
-            'WA',
-            '98000',
-            2,
-            '2024-03-18',
-            '2024-02-27',
-            'Bench Supply',
-            `INV-${j}`,
-            'damp',
-            'open',
-            'none',
-            277,
-            16,
-            25,
-            null,
-            1,
+      let t0 = performance.now();
+      const preview = await service.importRows(contractor.id, { csv }, true, actor);
+      const previewMs = performance.now() - t0;
+      t0 = performance.now();
+      const done = await service.importRows(contractor.id, { csv }, false, actor);
+      const importMs = performance.now() - t0;
+      if (done.imported !== ROWS || preview.valid !== ROWS)
+        throw new Error(`expected ${ROWS} rows, got preview ${preview.valid}, imported ${done.imported}`);
+
+      // Baseline: the same rows as raw multi-row INSERTs (500 installations or 1000 serials a statement), in
+      // one transaction, with no parsing, validation, duplicate checks, version lookup or audit rows.
+      t0 = performance.now();
+      await ds.transaction(async (m) => {
+        const ids = Array.from({ length: ROWS }, () => crypto.randomUUID());
+        const cols =
+          'id, contractor_id, manufacturer_id, product_model_id, policy_version_id, site_name, site_address, site_city, site_region, site_postal_code, quantity, install_date, purchase_date, distributor, invoice_number, location, enclosure, dimmer, nominal_supply_volts, hours_per_day, ambient_c, created_by_id, version';
+        for (let i = 0; i < ROWS; i += 500) {
+          const n = Math.min(500, ROWS - i);
+          const params: unknown[] = [];
+          for (let k = 0; k < n; k++) {
+            const j = i + k;
+            params.push(
+              ids[j],
+              contractor.id,
+              mfr.id,
+              product.id,
+              null,
+              `Site ${j}`,
+              `${j} Bench Road`,
+              'Benchton',
+              'WA',
+              '98000',
+              2,
+              '2024-03-18',
+              '2024-02-27',
+              'Bench Supply',
+              `INV-${j}`,
+              'damp',
+              'open',
+              'none',
+              277,
+              16,
+              25,
+              null,
+              1,
+            );
+          }
+          await m.query(
+            `INSERT INTO installations (${cols}) VALUES ${Array(n)
+              .fill(`(${Array(23).fill('?').join(',')})`)
+              .join(',')}`,
+            params,
           );
         }
-        await m.query(
-          `INSERT INTO installations (${cols}) VALUES ${Array(n)
-            .fill(`(${Array(23).fill('?').join(',')})`)
-            .join(',')}`,
-          params,
+        const units = ids.flatMap((id, j) =>
+          [`RAW${r}-${j}-A`, `RAW${r}-${j}-B`].map((s) => [crypto.randomUUID(), mfr.id, product.id, id, s]),
         );
-      }
-      const units = ids.flatMap((id, j) =>
-        [`RAW-${j}-A`, `RAW-${j}-B`].map((s) => [crypto.randomUUID(), mfr.id, product.id, id, s]),
+        for (let i = 0; i < units.length; i += 1000) {
+          const part = units.slice(i, i + 1000);
+          await m.query(
+            `INSERT INTO installation_units (id, manufacturer_id, product_model_id, installation_id, serial) VALUES ${part.map(() => '(?,?,?,?,?)').join(',')}`,
+            part.flat(),
+          );
+        }
+      });
+      const rawMs = performance.now() - t0;
+      return { previewMs, importMs, rawMs };
+    };
+    const rounds = [];
+    for (let r = 0; r < ROUNDS; r++) {
+      const got = await round(r);
+      rounds.push(got);
+      console.log(
+        `  round ${r + 1}: preview ${(got.previewMs / 1000).toFixed(2)} s, import ${(got.importMs / 1000).toFixed(2)} s, raw ${(got.rawMs / 1000).toFixed(2)} s (${(got.rawMs / got.importMs).toFixed(2)}x)`,
       );
-      for (let i = 0; i < units.length; i += 1000) {
-        const part = units.slice(i, i + 1000);
-        await m.query(
-          `INSERT INTO installation_units (id, manufacturer_id, product_model_id, installation_id, serial) VALUES ${part.map(() => '(?,?,?,?,?)').join(',')}`,
-          part.flat(),
-        );
-      }
-    });
-    const rawMs = performance.now() - t0;
+    }
+    const mid = (xs: number[]) => [...xs].sort((x, y) => x - y)[Math.floor(xs.length / 2)];
+    const previewMs = mid(rounds.map((x) => x.previewMs));
+    const importMs = mid(rounds.map((x) => x.importMs));
+    const rawMs = mid(rounds.map((x) => x.rawMs));
 
     const rate = (ms: number) => Math.round(ROWS / (ms / 1000)).toLocaleString();
     console.log(
@@ -163,7 +181,9 @@ async function main() {
       `import (validate + write + audit):   ${(importMs / 1000).toFixed(2)} s, ${rate(importMs)} rows/s`,
     );
     console.log(`baseline raw multi-row INSERT:       ${(rawMs / 1000).toFixed(2)} s, ${rate(rawMs)} rows/s`);
-    console.log(`import takes ${(importMs / rawMs).toFixed(2)}x the raw INSERT time for the same rows`);
+    console.log(
+      `import takes ${(importMs / rawMs).toFixed(2)}x the raw INSERT time for the same rows (medians of ${ROUNDS} rounds)`,
+    );
   } finally {
     await ds.destroy();
     await db.stop();
