@@ -28,9 +28,8 @@ export async function insertMany<T extends ObjectLiteral>(
   // Each statement is sent before the next is built, so that Node builds and escapes one chunk while MariaDB
   // inserts the one before: for 10,000 audit rows the building took Node about as long as MariaDB took to insert
   // them, and done in turn the two times added up. At most two statements wait on the connection at a time.
-  const pending: Promise<void>[] = [];
-  let failed = false;
-  for (let i = 0; i < rows.length && !failed; i += chunk) {
+  const sends = sentInOrder();
+  for (let i = 0; i < rows.length && !sends.failed; i += chunk) {
     const part = rows.slice(i, i + chunk);
     const params: unknown[] = [];
     const tuples: string[] = [];
@@ -47,22 +46,50 @@ export async function insertMany<T extends ObjectLiteral>(
       tuples.push(`(${cells.join(', ')})`);
     }
     const written = i + part.length;
-    const sent = m.query(head + tuples.join(', '), params).then(
-      () => {
-        // Statements answer in order: once one has failed, those after it count for nothing.
-        if (!failed) onChunk?.(written);
-      },
-      (err: unknown) => {
-        failed = true;
-        throw err;
-      },
-    );
-    // Its failure is thrown below, in order; until then it must not count as unhandled.
-    sent.catch(() => {});
-    pending.push(sent);
-    if (pending.length > 2) await pending.shift();
-    // TypeORM sends a statement a few promise turns after it is asked: let it go out before building the next.
-    await new Promise<void>((resolve) => setImmediate(resolve));
+    sends.send(m.query(head + tuples.join(', '), params), () => onChunk?.(written));
+    await sends.atMost(2);
+    await sends.letOut();
   }
-  for (const sent of pending) await sent;
+  await sends.settle();
+}
+
+/**
+ * Statements sent on a transaction's one connection without waiting for each, so that Node prepares the next while
+ * MariaDB runs the last. They answer in order: the first failure is the call's, and nothing after it is reported.
+ */
+export function sentInOrder() {
+  const pending: Promise<void>[] = [];
+  let failure: { err: unknown } | null = null;
+  return {
+    /** Whether a statement sent so far has failed (send nothing more). */
+    get failed() {
+      return failure !== null;
+    },
+    /** Sends one; `done` runs when it answers, unless one before it failed. */
+    send(statement: Promise<unknown>, done?: () => void) {
+      const sent = statement.then(
+        () => {
+          if (!failure) done?.();
+        },
+        (err: unknown) => {
+          failure ??= { err };
+          throw err;
+        },
+      );
+      // Its failure is thrown by atMost or settle, in order; until then it must not count as unhandled.
+      sent.catch(() => {});
+      pending.push(sent);
+    },
+    /** Waits, oldest first, until at most `n` are unanswered. */
+    async atMost(n: number) {
+      while (pending.length > n) await pending.shift();
+    },
+    /** TypeORM sends a statement a few promise turns after it is asked: lets those asked for go out. */
+    letOut: () => new Promise<void>((resolve) => setImmediate(resolve)),
+    /** Waits for all; throws the first failure. */
+    async settle() {
+      for (const sent of pending) await sent;
+      if (failure) throw failure.err;
+    },
+  };
 }

@@ -24,6 +24,14 @@ beforeAll(async () => {
 });
 afterAll(() => closeTestApp(t));
 
+/** A contractor and a manufacturer of their own, with a product, an installation and a policy. */
+const newWorld = async () =>
+  createReviewWorld(
+    t.ds,
+    await createOrganization(t.ds, 'contractor'),
+    await createOrganization(t.ds, 'manufacturer'),
+  );
+
 const byQueryBuilder = async (id: string) => {
   const c = await t.ds
     .createQueryBuilder(Claim, 'c')
@@ -49,11 +57,7 @@ const withoutCreator = (c: Awaited<ReturnType<ReturnType<typeof createClaimsServ
 
 describe('reading a claim for its page', () => {
   it('gives what the query builder gives, at every kind of stage, with and without units and a policy', async () => {
-    const w = await createReviewWorld(
-      t.ds,
-      await createOrganization(t.ds, 'contractor'),
-      await createOrganization(t.ds, 'manufacturer'),
-    );
+    const w = await newWorld();
     const service = createClaimsService(t.ds, { publicUrl: (p) => p });
     const claims = [];
     const installer = await createUser(t.ds, w.contractor, ['installer']);
@@ -99,11 +103,7 @@ describe('reading a claim for its page', () => {
   });
 
   it('gives its page the same history and files as reading them one by one', async () => {
-    const w = await createReviewWorld(
-      t.ds,
-      await createOrganization(t.ds, 'contractor'),
-      await createOrganization(t.ds, 'manufacturer'),
-    );
+    const w = await newWorld();
     const installer = await createUser(t.ds, w.contractor, ['installer']);
     const reviewer = await createUser(t.ds, w.manufacturer, ['reviewer']);
     const service = createClaimsService(t.ds, { publicUrl: (p) => p });
@@ -207,11 +207,7 @@ describe('reading an installation for its page', () => {
       .getOne();
 
   it('gives what the query builder gives, with and without units and a policy', async () => {
-    const w = await createReviewWorld(
-      t.ds,
-      await createOrganization(t.ds, 'contractor'),
-      await createOrganization(t.ds, 'manufacturer'),
-    );
+    const w = await newWorld();
     const service = createInstallationsService(t.ds);
     const id = w.installation.id;
     const bare = await service.findById(id);
@@ -245,11 +241,7 @@ describe("mysql2's row parsers and protocols", () => {
   // prepared statement, and everything TypeORM reads with the interpreted one (server/db/data-source.ts): each
   // column type must come out the same every way (dates, decimals, big numbers as strings, JSON, booleans, NULLs).
   it('read every kind of column alike', async () => {
-    const w = await createReviewWorld(
-      t.ds,
-      await createOrganization(t.ds, 'contractor'),
-      await createOrganization(t.ds, 'manufacturer'),
-    );
+    const w = await newWorld();
     const claim = await createClaimAt(t.ds, w, 'approved');
     await recordAudit(
       t.ds.manager,

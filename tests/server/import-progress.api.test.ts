@@ -15,6 +15,14 @@ beforeAll(async () => {
 });
 afterAll(() => closeTestApp(t));
 
+/** A manufacturer's product, and a contractor's installer signed in. */
+async function installerWithProduct() {
+  const product = await createProduct(t.ds, await createOrganization(t.ds, 'manufacturer'));
+  const contractor = await createOrganization(t.ds, 'contractor');
+  const user = await createUser(t.ds, contractor, ['installer']);
+  return { product, contractor, agent: await signIn(t.request(), user.email) };
+}
+
 const HEADER =
   'model_number,site_name,site_address,site_city,site_region,site_postal_code,quantity,serials,install_date,location,enclosure,dimmer,nominal_supply_volts,hours_per_day,ambient_c';
 
@@ -31,11 +39,7 @@ const linesOf = (text: string) =>
 
 describe('installations import with progress', () => {
   it('answers progress lines, then the result; writes and audits every row', async () => {
-    const mfr = await createOrganization(t.ds, 'manufacturer');
-    const product = await createProduct(t.ds, mfr);
-    const contractor = await createOrganization(t.ds, 'contractor');
-    const user = await createUser(t.ds, contractor, ['installer']);
-    const agent = await signIn(t.request(), user.email);
+    const { product, contractor, agent } = await installerWithProduct();
     const n = 2_500;
     const csv = [
       HEADER,
@@ -81,11 +85,7 @@ describe('installations import with progress', () => {
   });
 
   it('judges each row as a whole-file check would, across the chunks it is written in', async () => {
-    const mfr = await createOrganization(t.ds, 'manufacturer');
-    const product = await createProduct(t.ds, mfr);
-    const contractor = await createOrganization(t.ds, 'contractor');
-    const user = await createUser(t.ds, contractor, ['installer']);
-    const agent = await signIn(t.request(), user.email);
+    const { product, contractor, agent } = await installerWithProduct();
     const line = (i: number, serial = `CHK-${i}`, date = '2024-04-01') =>
       `${product.modelNumber},Bay ${i},${i} Road,Town,WA,98000,1,${serial},${date},dry,open,none,277,12,20`;
     // Registered before the file: a serial the third chunk repeats.

@@ -13,7 +13,7 @@ import {
   type UpdateInstallationInput,
 } from '../../../shared/schemas/catalogue';
 import type { AppDataSource } from '../../db/data-source';
-import { insertMany } from '../../db/insert-many';
+import { insertMany, sentInOrder } from '../../db/insert-many';
 import { hydrate, hydrateJson, jsonArrayOf, jsonObjectOf, selectColumns } from '../../db/hydrate';
 import { Conditions, readPageWithTotal, readRows } from '../../db/read';
 import { Organization } from '../../db/entities/organization.entity';
@@ -636,18 +636,9 @@ export function createInstallationsService(ds: AppDataSource) {
       let valid = 0;
       const walk = async (m: EntityManager) => {
         const versions = writing ? await versionsByModel(m, [...new Set(products.map((p) => p.id))]) : null;
-        const writes: Promise<unknown>[] = [];
-        let failed: unknown = null;
-        const send = (w: Promise<unknown>) => {
-          const sent = w.catch((err: unknown) => {
-            failed ??= err;
-            throw err;
-          });
-          sent.catch(() => {}); // thrown below, in order
-          writes.push(sent);
-        };
+        const sends = sentInOrder();
         if (writing) onProgress?.({ phase: 'writing', done: 0, total: rows.length });
-        for (let start = 0; start < coerced.length && !failed; start += CHUNK) {
+        for (let start = 0; start < coerced.length && !sends.failed; start += CHUNK) {
           if (!writing) onProgress?.({ phase: 'checking', done: start, total: rows.length });
           const good: Good[] = [];
           for (const c of coerced.slice(start, start + CHUNK)) {
@@ -677,14 +668,14 @@ export function createInstallationsService(ds: AppDataSource) {
               version: 1,
             };
           });
-          send(insertMany(m, Installation, records, CHUNK));
-          send(
+          sends.send(insertMany(m, Installation, records, CHUNK));
+          sends.send(
             insertUnits(
               m,
               ok.flatMap((g, i) => unitRows(records[i].id, g.product, g.value.serials)),
             ),
           );
-          send(
+          sends.send(
             recordAuditMany(
               m,
               actor,
@@ -695,15 +686,13 @@ export function createInstallationsService(ds: AppDataSource) {
                 after: installationAuditView({ ...r, serials: ok[i].value.serials }),
               })),
               CHUNK,
-            ).then(() => {
-              if (!failed) onProgress?.({ phase: 'writing', done: handled, total: rows.length });
-            }),
+            ),
+            () => onProgress?.({ phase: 'writing', done: handled, total: rows.length }),
           );
-          // Let the statements go out (TypeORM sends a few promise turns later) before checking the next chunk.
-          await new Promise<void>((resolve) => setImmediate(resolve));
+          // Let the statements go out before checking the next chunk.
+          await sends.letOut();
         }
-        for (const w of writes) await w;
-        if (failed) throw failed;
+        await sends.settle();
       };
 
       let imported = 0;
